@@ -1,0 +1,237 @@
+package calc
+
+import (
+	"math"
+	"math/cmplx"
+	"strconv"
+	"strings"
+)
+
+// Format holds the display settings shared by every view of a quantity.
+type Format struct {
+	Digits  int  // significant figures, 1 to 15; 0 means the default of 4
+	ASCII   bool // ASCII glyphs only: "ohm", "u", "@", "deg"
+	Radians bool // show angles in radians instead of degrees
+}
+
+// DefaultDigits is the number of significant figures shown when none is set.
+const DefaultDigits = 4
+
+// MaxDigits bounds the significant figures: beyond 15 a float64 no longer
+// carries them.
+const MaxDigits = 15
+
+func (f Format) digits() int {
+	if f.Digits <= 0 {
+		return DefaultDigits
+	}
+	if f.Digits > MaxDigits {
+		return MaxDigits
+	}
+	return f.Digits
+}
+
+// tiny is the relative size below which a rectangular part is shown as 0:
+// rounding noise in 3∠90° must not print as 1.837e-16 + j3.
+const tiny = 1e-12
+
+// NormDeg reduces an angle in degrees to (−180, 180], turning −0 and −180
+// into 0 and 180.
+func NormDeg(d float64) float64 {
+	d = math.Mod(d, 360)
+	if d <= -180 {
+		d += 360
+	} else if d > 180 {
+		d -= 360
+	}
+	if d == 0 {
+		return 0 // also clears −0
+	}
+	return d
+}
+
+// Deg returns the angle of v in degrees, in (−180, 180]. A part below
+// 1e-12 of the magnitude is treated as zero, so the angle of what is shown
+// as a real number is exactly 0 or 180.
+func Deg(v complex128) float64 {
+	re, im := cleanParts(v)
+	if re == 0 && im == 0 {
+		return 0
+	}
+	return NormDeg(math.Atan2(im, re) * 180 / math.Pi)
+}
+
+// cleanParts returns the parts of v with any part below tiny·|v| set to 0.
+func cleanParts(v complex128) (float64, float64) {
+	re, im := real(v), imag(v)
+	m := cmplx.Abs(v)
+	if math.Abs(re) < tiny*m {
+		re = 0
+	}
+	if math.Abs(im) < tiny*m {
+		im = 0
+	}
+	return re + 0, im + 0 // + 0 turns −0 into 0
+}
+
+// engScale returns the exponent (a multiple of 3) and the number of decimals
+// that show x (≥ 0) to the given significant figures in engineering form.
+func engScale(x float64, digits int) (exp3, decimals int) {
+	if x == 0 {
+		return 0, digits - 1
+	}
+	e := int(math.Floor(math.Log10(x)))
+	// rounding to the shown digits can carry into the next decade (999.96)
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'e', digits-1, 64), 64)
+	if r >= math.Pow(10, float64(e+1)) {
+		e++
+	}
+	exp3 = int(math.Floor(float64(e) / 3))
+	exp3 *= 3
+	decimals = digits - 1 - (e - exp3)
+	if decimals < 0 {
+		decimals = 0
+	}
+	return exp3, decimals
+}
+
+var prefixFor = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}
+
+// fixed formats x/10^exp3 with the given decimals, never as "-0.000".
+func fixed(x float64, exp3, decimals int) string {
+	s := strconv.FormatFloat(x/math.Pow(10, float64(exp3)), 'f', decimals, 64)
+	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
+		s = s[1:]
+	}
+	return s
+}
+
+// scaled chooses how to write numbers of size m with unit sym: an SI prefix
+// for a prefixable unit within f…T, else an "e" exponent (which parses back).
+func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo string) {
+	exp3, decimals = engScale(m, f.digits())
+	sym := UnitSymbol(d, k, f.ASCII)
+	p, ok := prefixFor[exp3]
+	if ok && sym != "" && prefixable(d) {
+		if p == "µ" && f.ASCII {
+			p = "u"
+		}
+		return exp3, decimals, " " + p + sym, ""
+	}
+	if exp3 != 0 {
+		expo = "e" + strconv.Itoa(exp3)
+	}
+	if sym != "" {
+		unit = " " + sym
+	}
+	return exp3, decimals, unit, expo
+}
+
+// Rect formats q in rectangular form, both parts to one prefix chosen from
+// the magnitude: "3.000 + j4.000 Ω".
+func (f Format) Rect(q Quantity) string {
+	if q.Kind == KindAngle && q.IsReal() {
+		return f.AngleValue(real(q.V))
+	}
+	re, im := cleanParts(q.V)
+	m := cmplx.Abs(q.V)
+	exp3, dec, unit, expo := f.scaled(m, q.Dim, q.Kind)
+	var b strings.Builder
+	switch {
+	case im == 0:
+		b.WriteString(fixed(re, exp3, dec) + expo)
+	case re == 0:
+		s := fixed(im, exp3, dec)
+		if strings.HasPrefix(s, "-") {
+			b.WriteString("-j" + s[1:] + expo)
+		} else {
+			b.WriteString("j" + s + expo)
+		}
+	default:
+		b.WriteString(fixed(re, exp3, dec) + expo)
+		s := fixed(im, exp3, dec)
+		if strings.HasPrefix(s, "-") {
+			b.WriteString(" - j" + s[1:] + expo)
+		} else {
+			b.WriteString(" + j" + s + expo)
+		}
+	}
+	b.WriteString(unit)
+	return b.String()
+}
+
+// Polar formats q as magnitude and angle: "5.000 Ω ∠53.13°".
+func (f Format) Polar(q Quantity) string {
+	if q.Kind == KindAngle && q.IsReal() {
+		return f.AngleValue(real(q.V))
+	}
+	m := cmplx.Abs(q.V)
+	exp3, dec, unit, expo := f.scaled(m, q.Dim, q.Kind)
+	s := fixed(m, exp3, dec) + expo + unit
+	if f.ASCII {
+		return s + " @" + f.angle(Deg(q.V))
+	}
+	return s + " ∠" + f.angle(Deg(q.V))
+}
+
+// Mag formats a real magnitude with unit: "5.000 Ω".
+func (f Format) Mag(x float64, d Dim, k Kind) string {
+	exp3, dec, unit, expo := f.scaled(math.Abs(x), d, k)
+	return fixed(x, exp3, dec) + expo + unit
+}
+
+// angle formats an angle given in degrees in the display unit.
+func (f Format) angle(deg float64) string {
+	if f.Radians {
+		return sigFixed(deg*math.Pi/180, f.digits()) + " rad"
+	}
+	if f.ASCII {
+		return sigFixed(deg, f.digits()) + " deg"
+	}
+	return sigFixed(deg, f.digits()) + "°"
+}
+
+// AngleValue formats an angle held in radians.
+func (f Format) AngleValue(rad float64) string {
+	return f.angle(rad * 180 / math.Pi)
+}
+
+// Angle formats the angle of v in the display unit, for example "53.13°".
+func (f Format) Angle(v complex128) string { return f.angle(Deg(v)) }
+
+// sigFixed writes x to the given significant figures without an exponent
+// where that stays readable, and with one (which parses back) where x is
+// very small.
+func sigFixed(x float64, digits int) string {
+	if x == 0 {
+		return "0"
+	}
+	a := math.Abs(x)
+	if a < 1e-3 {
+		return strconv.FormatFloat(x, 'e', digits-1, 64)
+	}
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', digits-1, 64), 64)
+	e := int(math.Floor(math.Log10(r)))
+	dec := digits - 1 - e
+	if dec < 0 {
+		dec = 0
+	}
+	s := strconv.FormatFloat(x, 'f', dec, 64)
+	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
+		s = s[1:]
+	}
+	return s
+}
+
+// Both formats q in rectangular and polar form separated by " = ", polar
+// first when polarFirst is set; a real quantity prints once.
+func (f Format) Both(q Quantity, polarFirst bool) string {
+	r, p := f.Rect(q), f.Polar(q)
+	if q.Kind == KindAngle && q.IsReal() {
+		return r
+	}
+	if polarFirst {
+		return p + " = " + r
+	}
+	return r + " = " + p
+}

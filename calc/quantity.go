@@ -1,0 +1,276 @@
+package calc
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// Kind refines how a quantity is displayed when one dimension has several
+// names. Power has a single dimension (V·A) but an engineer reads real power
+// in W, reactive power in var and apparent or complex power in VA. An angle
+// is dimensionless but shown in the angle unit of the worksheet.
+type Kind uint8
+
+const (
+	KindPlain    Kind = iota
+	KindActive        // real power, W
+	KindReactive      // reactive power, var
+	KindApparent      // apparent or complex power, VA
+	KindAngle         // a plane angle held in radians
+)
+
+// Quantity is a complex value with a physical dimension. Phasors,
+// impedances, admittances, powers and plain numbers are all quantities.
+type Quantity struct {
+	V    complex128
+	Dim  Dim
+	Kind Kind
+}
+
+// Q returns a quantity of dimension d.
+func Q(v complex128, d Dim) Quantity { return Quantity{V: v, Dim: d} }
+
+// Real returns a real quantity of dimension d.
+func Real(x float64, d Dim) Quantity { return Quantity{V: complex(x, 0), Dim: d} }
+
+// Number returns a dimensionless quantity.
+func Number(v complex128) Quantity { return Quantity{V: v} }
+
+// Angle returns a dimensionless quantity marked as an angle in radians.
+func Angle(rad float64) Quantity { return Quantity{V: complex(rad, 0), Kind: KindAngle} }
+
+// IsReal reports whether the imaginary part is exactly zero.
+func (q Quantity) IsReal() bool { return imag(q.V) == 0 }
+
+// Mag returns |q| as a real quantity of the same dimension.
+func (q Quantity) Mag() float64 { return cmplx.Abs(q.V) }
+
+// finite reports whether both parts are finite numbers.
+func finite(v complex128) bool {
+	return !math.IsNaN(real(v)) && !math.IsNaN(imag(v)) &&
+		!math.IsInf(real(v), 0) && !math.IsInf(imag(v), 0)
+}
+
+// Check returns an error when q holds NaN or an infinity, so that no such
+// value is ever shown. op names the operation for the message.
+func (q Quantity) Check(op string) (Quantity, error) {
+	if finite(q.V) {
+		if !q.Dim.fits() {
+			return Quantity{}, errorf("%s: dimension exponent out of range", op)
+		}
+		return q, nil
+	}
+	if math.IsNaN(real(q.V)) || math.IsNaN(imag(q.V)) {
+		return Quantity{}, errorf("%s: result is undefined", op)
+	}
+	return Quantity{}, errorf("%s: overflow (result too large to represent)", op)
+}
+
+// sumKind is the display kind of a sum or difference.
+func sumKind(a, b Kind) Kind {
+	if a == b {
+		return a
+	}
+	if (a == KindAngle || a == KindPlain) && (b == KindAngle || b == KindPlain) {
+		return KindPlain
+	}
+	return KindApparent
+}
+
+// scaleKind is the display kind of a quantity multiplied or divided by a
+// dimensionless factor: an angle stays an angle and a power keeps its kind,
+// unless the factor is complex, which mixes real and reactive parts.
+func scaleKind(k Kind, factor complex128) Kind {
+	if imag(factor) != 0 {
+		if k == KindActive || k == KindReactive {
+			return KindApparent
+		}
+		if k == KindAngle {
+			return KindPlain
+		}
+	}
+	return k
+}
+
+// Add returns a+b; both must have the same dimension.
+func Add(a, b Quantity) (Quantity, error) {
+	if a.Dim != b.Dim {
+		return Quantity{}, &DimError{Op: "+", A: a.Dim, B: b.Dim}
+	}
+	return Quantity{V: a.V + b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("addition")
+}
+
+// Sub returns a−b; both must have the same dimension.
+func Sub(a, b Quantity) (Quantity, error) {
+	if a.Dim != b.Dim {
+		return Quantity{}, &DimError{Op: "−", A: a.Dim, B: b.Dim}
+	}
+	return Quantity{V: a.V - b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("subtraction")
+}
+
+// Mul returns a·b.
+func Mul(a, b Quantity) (Quantity, error) {
+	if err := cycleMix(a.Dim, b.Dim, "×"); err != nil {
+		return Quantity{}, err
+	}
+	r := Quantity{V: a.V * b.V, Dim: a.Dim.Mul(b.Dim)}
+	r.Kind = productKind(a, b, r.Dim)
+	return r.Check("multiplication")
+}
+
+// Div returns a/b. Division by an exact zero is an error.
+func Div(a, b Quantity) (Quantity, error) {
+	if b.V == 0 {
+		return Quantity{}, errorf("division by zero")
+	}
+	if err := cycleMix(a.Dim, b.Dim.Pow(-1), "÷"); err != nil {
+		return Quantity{}, err
+	}
+	r := Quantity{V: a.V / b.V, Dim: a.Dim.Div(b.Dim)}
+	switch {
+	case b.Dim.IsDimensionless() && b.Kind != KindAngle:
+		r.Kind = scaleKind(a.Kind, b.V)
+	case r.Dim == DimPower:
+		r.Kind = KindApparent
+	}
+	return r.Check("division")
+}
+
+func productKind(a, b Quantity, d Dim) Kind {
+	switch {
+	case a.Dim.IsDimensionless() && a.Kind != KindAngle:
+		return scaleKind(b.Kind, a.V)
+	case b.Dim.IsDimensionless() && b.Kind != KindAngle:
+		return scaleKind(a.Kind, b.V)
+	case d == DimPower:
+		return KindApparent
+	}
+	return KindPlain
+}
+
+// cycleMix rejects products that multiply a frequency in Hz by an inductance
+// or capacitance (or their reciprocals): f·L looks like a reactance but is
+// off by 2π, the most common slip in reactance work.
+func cycleMix(a, b Dim, op string) error {
+	r := a.Mul(b)
+	if r[BaseCycle] == 0 || (a[BaseCycle] == 0) == (b[BaseCycle] == 0) {
+		return nil
+	}
+	// a product with the cycle that lands on an electrical dimension
+	var c Dim = r
+	c[BaseCycle] = 0
+	switch c {
+	case DimImpedance, DimAdmittance:
+		return &CycleError{Op: op, A: a, B: b}
+	}
+	return nil
+}
+
+// Neg returns −a.
+func Neg(a Quantity) Quantity { return Quantity{V: -a.V, Dim: a.Dim, Kind: a.Kind} }
+
+// Conj returns the complex conjugate.
+func Conj(a Quantity) Quantity {
+	k := a.Kind
+	return Quantity{V: cmplx.Conj(a.V), Dim: a.Dim, Kind: k}
+}
+
+// Recip returns 1/a.
+func Recip(a Quantity) (Quantity, error) {
+	if a.V == 0 {
+		return Quantity{}, errorf("division by zero (reciprocal of 0)")
+	}
+	return Quantity{V: 1 / a.V, Dim: a.Dim.Pow(-1)}.Check("reciprocal")
+}
+
+// Pow returns a^b for a dimensionless exponent b, using the principal
+// branch. A dimensioned base needs a real exponent whose result keeps whole
+// exponents: an integer, or 1/n where every exponent divides by n.
+func Pow(a, b Quantity) (Quantity, error) {
+	if !b.Dim.IsDimensionless() {
+		return Quantity{}, errorf("an exponent must be dimensionless, not %s", DimName(b.Dim, false))
+	}
+	d := Dimensionless
+	if !a.Dim.IsDimensionless() {
+		if imag(b.V) != 0 {
+			return Quantity{}, errorf("a quantity with a unit (%s) cannot be raised to a complex power", DimName(a.Dim, false))
+		}
+		e := real(b.V)
+		switch {
+		case e == math.Trunc(e) && math.Abs(e) <= 60:
+			d = a.Dim.Pow(int(e))
+		case math.Abs(e) > 0 && math.Abs(1/e-math.Round(1/e)) < 1e-12 && math.Abs(1/e) <= 60:
+			n := int(math.Round(1 / e))
+			var ok bool
+			if n > 0 {
+				d, ok = a.Dim.Root(n)
+			} else {
+				d, ok = a.Dim.Pow(-1).Root(-n)
+			}
+			if !ok {
+				return Quantity{}, errorf("the power %g of %s has no whole unit", e, DimName(a.Dim, false))
+			}
+		default:
+			return Quantity{}, errorf("the power %g of %s has no whole unit", e, DimName(a.Dim, false))
+		}
+	}
+	if a.V == 0 {
+		if real(b.V) > 0 {
+			return Quantity{V: 0, Dim: d}, nil
+		}
+		if b.V == 0 {
+			return Quantity{V: 1, Dim: d}, nil
+		}
+		return Quantity{}, errorf("division by zero (0 raised to a negative power)")
+	}
+	var v complex128
+	if imag(b.V) == 0 && real(b.V) == math.Trunc(real(b.V)) && math.Abs(real(b.V)) <= 64 {
+		v = ipow(a.V, int(real(b.V)))
+	} else {
+		v = cmplx.Pow(a.V, b.V)
+	}
+	return Quantity{V: v, Dim: d}.Check("power")
+}
+
+// ipow computes integer powers by repeated squaring so that (3+j4)^2 is
+// exact rather than going through logarithms.
+func ipow(z complex128, n int) complex128 {
+	if n < 0 {
+		return 1 / ipow(z, -n)
+	}
+	r := complex(1, 0)
+	for n > 0 {
+		if n&1 == 1 {
+			r *= z
+		}
+		z *= z
+		n >>= 1
+	}
+	return r
+}
+
+// Sqrt returns the principal square root.
+func Sqrt(a Quantity) (Quantity, error) {
+	d, ok := a.Dim.Root(2)
+	if !ok {
+		return Quantity{}, errorf("the square root of %s has no whole unit", DimName(a.Dim, false))
+	}
+	return Quantity{V: cmplx.Sqrt(a.V), Dim: d}.Check("square root")
+}
+
+// Parallel returns a‖b = a·b/(a+b) for two impedances (or any like
+// quantities). A zero branch is a short and gives 0; branches whose
+// admittances cancel give an open circuit, reported as ErrOpenCircuit.
+func Parallel(a, b Quantity) (Quantity, error) {
+	if a.Dim != b.Dim {
+		return Quantity{}, &DimError{Op: "||", A: a.Dim, B: b.Dim}
+	}
+	if a.V == 0 || b.V == 0 {
+		return Quantity{V: 0, Dim: a.Dim}, nil
+	}
+	s := a.V + b.V
+	if s == 0 || cmplx.Abs(s) <= 1e-15*math.Max(cmplx.Abs(a.V), cmplx.Abs(b.V)) {
+		return Quantity{}, ErrOpenCircuit
+	}
+	return Quantity{V: a.V * b.V / s, Dim: a.Dim}.Check("parallel")
+}

@@ -1,0 +1,290 @@
+package calc
+
+import (
+	"math/cmplx"
+	"strconv"
+	"strings"
+)
+
+// Basis says whether phasor magnitudes are RMS or peak values.
+type Basis uint8
+
+const (
+	RMS Basis = iota
+	Peak
+)
+
+func (b Basis) String() string {
+	if b == Peak {
+		return "peak"
+	}
+	return "rms"
+}
+
+// Operand is a named value taking part in a step. Name is "" for a literal.
+type Operand struct {
+	Name  string
+	Value Quantity
+}
+
+// Row is one line of a table carried by a step, such as an element of a
+// solved network with its voltage, current and power.
+type Row struct {
+	Name   string
+	Values []Operand // each Operand.Name is the column key, such as "v"
+}
+
+// CheckOutcome is the verdict of a check statement.
+type CheckOutcome struct {
+	Pass      bool
+	Got       Quantity
+	Want      Quantity
+	Diff      Quantity // Got − Want
+	RelMag    float64  // |Got|/|Want| − 1, or 0 when Want is 0
+	DegDiff   float64  // angle of Got minus angle of Want, in (−180, 180]
+	Tolerance string   // the tolerance as written, for the report
+}
+
+// Step is one recorded piece of work: the statement as typed, the rule
+// applied in words and in symbols, the operands and the results. The same
+// record feeds the command line, JSON output and the app's trail, and a
+// step never changes once made: the trail is history.
+type Step struct {
+	Kind    string // "eval", "define", "setting", "recompute", "check", "series", ...
+	Line    int    // worksheet line, 0 when not from a file
+	Source  string // the statement as typed
+	Rule    string // the operation in words
+	Formula string // the formula in symbols
+	Inputs  []Operand
+	Results []Operand // the first is the main result
+	Rows    []Row
+	Basis   Basis
+	Notes   []string // warnings and cautions
+	Check   *CheckOutcome
+}
+
+// Result returns the main result and whether there is one.
+func (s *Step) Result() (Operand, bool) {
+	if len(s.Results) == 0 {
+		return Operand{}, false
+	}
+	return s.Results[0], true
+}
+
+// asciiReplacer turns the symbols in rule and formula text into ASCII.
+var asciiReplacer = strings.NewReplacer(
+	"Ω", "ohm", "µ", "u", "μ", "u", "∠", "@", "°", " deg", "·", "*", "×", "*", "÷", "/",
+	"−", "-", "√", "sqrt", "π", "pi", "ω", "w", "φ", "phi", "θ", "theta", "‖", "||",
+	"≈", "~", "≤", "<=", "≥", ">=", "²", "^2", "³", "^3", "₁", "1", "₂", "2", "₃", "3",
+	"→", "->", "←", "<-", "Σ", "sum", "Δ", "D", "∞", "inf", "—", "-", "–", "-", "⁻¹", "^-1",
+	"½", "1/2", "…", "...", "│", "|", "─", "-", "ₐ", "a", "ᵦ", "b", "✓", "ok", "✗", "x",
+)
+
+// ASCIIText returns s with the symbols argand uses replaced by ASCII.
+func ASCIIText(s string) string { return asciiReplacer.Replace(s) }
+
+// Text writes the step for a person, in the given format, as indented
+// lines: the statement, the rule and formula, each operand and each result
+// in both forms.
+func (s *Step) Text(f Format, polarFirst bool) string {
+	var b strings.Builder
+	tr := func(x string) string {
+		if f.ASCII {
+			return ASCIIText(x)
+		}
+		return x
+	}
+	head := s.Source
+	if s.Line > 0 {
+		head = strconv.Itoa(s.Line) + ": " + head
+	}
+	b.WriteString(tr(head) + "\n")
+	if s.Rule != "" {
+		b.WriteString("    " + tr(s.Rule))
+		if s.Formula != "" {
+			b.WriteString(":  " + tr(s.Formula))
+		}
+		b.WriteString("\n")
+	} else if s.Formula != "" {
+		b.WriteString("    " + tr(s.Formula) + "\n")
+	}
+	for _, o := range s.Inputs {
+		b.WriteString("      " + tr(o.Name) + " = " + f.Both(o.Value, polarFirst) + "\n")
+	}
+	for _, o := range s.Results {
+		b.WriteString("    → " + tr(o.Name) + " = " + f.Both(o.Value, polarFirst) + "\n")
+	}
+	for _, r := range s.Rows {
+		b.WriteString("    " + tr(r.Name) + ":")
+		for _, v := range r.Values {
+			b.WriteString("  " + v.Name + " = " + f.Polar(v.Value))
+		}
+		b.WriteString("\n")
+	}
+	if c := s.Check; c != nil {
+		verdict := "PASS"
+		if !c.Pass {
+			verdict = "FAIL"
+		}
+		b.WriteString("    " + verdict + ": got " + f.Both(c.Got, polarFirst) + ", expected " + f.Both(c.Want, polarFirst) + "\n")
+		b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + sigFixed(c.RelMag*100, 3) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
+	}
+	for _, n := range s.Notes {
+		b.WriteString("    note: " + tr(n) + "\n")
+	}
+	out := b.String()
+	if f.ASCII {
+		out = strings.ReplaceAll(out, "→", "->")
+	}
+	return out
+}
+
+// jsonNum writes x in the shortest form that reads back to the same float64.
+func jsonNum(x float64) string {
+	if x == 0 {
+		return "0"
+	}
+	return strconv.FormatFloat(x, 'g', -1, 64)
+}
+
+// jsonString writes a JSON string. strconv.Quote is close but escapes
+// differently from JSON for some control characters, so write it here.
+func jsonString(s string) string {
+	var b strings.Builder
+	b.WriteByte('"')
+	for _, r := range s {
+		switch {
+		case r == '"':
+			b.WriteString(`\"`)
+		case r == '\\':
+			b.WriteString(`\\`)
+		case r == '\n':
+			b.WriteString(`\n`)
+		case r == '\t':
+			b.WriteString(`\t`)
+		case r < 0x20 || r == 0x7f:
+			b.WriteString(`\u00`)
+			b.WriteByte("0123456789abcdef"[r>>4])
+			b.WriteByte("0123456789abcdef"[r&15])
+		default:
+			b.WriteRune(r)
+		}
+	}
+	b.WriteByte('"')
+	return b.String()
+}
+
+// JSONValue writes the fields of one quantity, as shared DESIGN.md fixes
+// them: name, re, im, mag, deg, unit, basis. Parts below 1e-12 of the
+// magnitude are written as 0, as they are shown.
+func JSONValue(name string, q Quantity, basis Basis) string {
+	re, im := cleanParts(q.V)
+	var b strings.Builder
+	b.WriteString(`{"name":` + jsonString(name))
+	writeValueFields(&b, q, re, im, basis)
+	b.WriteByte('}')
+	return b.String()
+}
+
+func writeValueFields(b *strings.Builder, q Quantity, re, im float64, basis Basis) {
+	b.WriteString(`,"re":` + jsonNum(re))
+	b.WriteString(`,"im":` + jsonNum(im))
+	b.WriteString(`,"mag":` + jsonNum(cmplx.Abs(q.V)))
+	b.WriteString(`,"deg":` + jsonNum(Deg(q.V)))
+	b.WriteString(`,"unit":` + jsonString(UnitSymbol(q.Dim, q.Kind, false)))
+	b.WriteString(`,"basis":` + jsonString(basis.String()))
+}
+
+func jsonValueNoName(q Quantity, basis Basis) string {
+	re, im := cleanParts(q.V)
+	var b strings.Builder
+	b.WriteString(`{"re":` + jsonNum(re))
+	b.WriteString(`,"im":` + jsonNum(im))
+	b.WriteString(`,"mag":` + jsonNum(cmplx.Abs(q.V)))
+	b.WriteString(`,"deg":` + jsonNum(Deg(q.V)))
+	b.WriteString(`,"unit":` + jsonString(UnitSymbol(q.Dim, q.Kind, false)))
+	b.WriteString(`,"basis":` + jsonString(basis.String()))
+	b.WriteByte('}')
+	return b.String()
+}
+
+// JSON writes the step as one JSON object on one line. A step with a main
+// result carries that result's fields at the top level, so a consumer that
+// only wants values reads name, re, im, mag, deg, unit and basis directly.
+func (s *Step) JSON() string {
+	var b strings.Builder
+	b.WriteString(`{"kind":` + jsonString(s.Kind))
+	if r, ok := s.Result(); ok {
+		b.WriteString(`,"name":` + jsonString(r.Name))
+		re, im := cleanParts(r.Value.V)
+		writeValueFields(&b, r.Value, re, im, s.Basis)
+	} else {
+		b.WriteString(`,"basis":` + jsonString(s.Basis.String()))
+	}
+	if s.Line > 0 {
+		b.WriteString(`,"line":` + strconv.Itoa(s.Line))
+	}
+	b.WriteString(`,"source":` + jsonString(s.Source))
+	if s.Rule != "" {
+		b.WriteString(`,"rule":` + jsonString(s.Rule))
+	}
+	if s.Formula != "" {
+		b.WriteString(`,"formula":` + jsonString(s.Formula))
+	}
+	writeList := func(key string, ops []Operand) {
+		b.WriteString(`,"` + key + `":[`)
+		for i, o := range ops {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			b.WriteString(JSONValue(o.Name, o.Value, s.Basis))
+		}
+		b.WriteByte(']')
+	}
+	if len(s.Inputs) > 0 {
+		writeList("inputs", s.Inputs)
+	}
+	if len(s.Results) > 1 {
+		writeList("results", s.Results)
+	}
+	if len(s.Rows) > 0 {
+		b.WriteString(`,"rows":[`)
+		for i, r := range s.Rows {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			b.WriteString(`{"name":` + jsonString(r.Name))
+			for _, v := range r.Values {
+				b.WriteString(`,` + jsonString(v.Name) + `:` + jsonValueNoName(v.Value, s.Basis))
+			}
+			b.WriteByte('}')
+		}
+		b.WriteByte(']')
+	}
+	if c := s.Check; c != nil {
+		b.WriteString(`,"pass":` + strconv.FormatBool(c.Pass))
+		b.WriteString(`,"expected":` + jsonValueNoName(c.Want, s.Basis))
+		b.WriteString(`,"diff":` + jsonValueNoName(c.Diff, s.Basis))
+		b.WriteString(`,"rel_mag":` + jsonNum(c.RelMag))
+		b.WriteString(`,"deg_diff":` + jsonNum(c.DegDiff))
+		b.WriteString(`,"tolerance":` + jsonString(c.Tolerance))
+	}
+	if len(s.Notes) > 0 {
+		b.WriteString(`,"notes":[`)
+		for i, n := range s.Notes {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			b.WriteString(jsonString(n))
+		}
+		b.WriteByte(']')
+	}
+	b.WriteByte('}')
+	return b.String()
+}
+
+// ErrorJSON writes an error object: {"error":…, "line":…, "col":…}.
+func ErrorJSON(msg string, line, col int) string {
+	return `{"error":` + jsonString(msg) + `,"line":` + strconv.Itoa(line) + `,"col":` + strconv.Itoa(col) + `}`
+}
+

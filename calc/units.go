@@ -1,0 +1,163 @@
+package calc
+
+import (
+	"math"
+	"strings"
+)
+
+// unitDef is one unit symbol or spelled name.
+type unitDef struct {
+	scale      float64
+	dim        Dim
+	kind       Kind
+	prefixable bool
+}
+
+// units lists every unit word argand reads. Spelled names are accepted on
+// input; output always uses the symbol (SI Brochure, 9th ed., §5.2).
+// Lookups never write to it.
+var units = map[string]unitDef{
+	"Ω":       {1, DimImpedance, KindPlain, true},
+	"ohm":     {1, DimImpedance, KindPlain, true},
+	"ohms":    {1, DimImpedance, KindPlain, true},
+	"S":       {1, DimAdmittance, KindPlain, true},
+	"siemens": {1, DimAdmittance, KindPlain, false},
+	"H":       {1, DimInductance, KindPlain, true},
+	"henry":   {1, DimInductance, KindPlain, false},
+	"F":       {1, DimCapacitance, KindPlain, true},
+	"farad":   {1, DimCapacitance, KindPlain, false},
+	"V":       {1, DimVoltage, KindPlain, true},
+	"volt":    {1, DimVoltage, KindPlain, false},
+	"volts":   {1, DimVoltage, KindPlain, false},
+	"A":       {1, DimCurrent, KindPlain, true},
+	"amp":     {1, DimCurrent, KindPlain, false},
+	"amps":    {1, DimCurrent, KindPlain, false},
+	"ampere":  {1, DimCurrent, KindPlain, false},
+	"W":       {1, DimPower, KindActive, true},
+	"watt":    {1, DimPower, KindActive, false},
+	"watts":   {1, DimPower, KindActive, false},
+	"var":     {1, DimPower, KindReactive, true},
+	"VA":      {1, DimPower, KindApparent, true},
+	"J":       {1, DimEnergy, KindPlain, true},
+	"C":       {1, DimCharge, KindPlain, true},
+	"Wb":      {1, Dim{BaseVolt: 1, BaseSecond: 1}, KindPlain, true},
+	"Hz":      {1, DimFrequency, KindPlain, true},
+	"s":       {1, DimTime, KindPlain, true},
+	"m":       {1, DimLength, KindPlain, true},
+	"rad":     {1, Dimensionless, KindAngle, false},
+	"deg":     {math.Pi / 180, Dimensionless, KindAngle, false},
+	"°":       {math.Pi / 180, Dimensionless, KindAngle, false},
+	"%":       {0.01, Dimensionless, KindPlain, false},
+	// mechanical horsepower, 550 ft·lbf/s = 745.699 871 582 270 22 W
+	// (NIST SP 811, appendix B.8, from memory)
+	"hp": {745.69987158227022, DimPower, KindActive, false},
+}
+
+// prefixes are the SI prefixes argand reads (SI Brochure, 9th ed., table 7).
+// "u" stands in for µ where the keyboard has none, as NIST SP 811 allows
+// only in such cases; both the micro sign U+00B5 and Greek mu U+03BC count.
+var prefixes = map[string]float64{
+	"f": 1e-15, "p": 1e-12, "n": 1e-9, "u": 1e-6, "µ": 1e-6, "μ": 1e-6,
+	"m": 1e-3, "k": 1e3, "M": 1e6, "G": 1e9, "T": 1e12,
+}
+
+// lookupUnit resolves one unit word, with an optional prefix. An exact unit
+// name wins over a prefix reading, so "m" is the metre and "mS" is the
+// millisiemens while "ms" is the millisecond.
+func lookupUnit(word string) (unitDef, bool) {
+	if u, ok := units[word]; ok {
+		return u, true
+	}
+	for p, f := range prefixes {
+		if !strings.HasPrefix(word, p) {
+			continue
+		}
+		u, ok := units[word[len(p):]]
+		if !ok || !u.prefixable {
+			continue
+		}
+		u.scale *= f
+		return u, true
+	}
+	return unitDef{}, false
+}
+
+// IsUnit reports whether word reads as a unit, with or without a prefix.
+func IsUnit(word string) bool {
+	_, ok := lookupUnit(word)
+	return ok
+}
+
+// unitName is the display symbol for a dimension and kind.
+type unitName struct {
+	sym   string // UTF-8 symbol
+	ascii string // ASCII stand-in
+}
+
+var dimNames = map[Dim]unitName{
+	DimImpedance:                 {"Ω", "ohm"},
+	DimAdmittance:                {"S", "S"},
+	DimInductance:                {"H", "H"},
+	DimCapacitance:               {"F", "F"},
+	DimVoltage:                   {"V", "V"},
+	DimCurrent:                   {"A", "A"},
+	DimEnergy:                    {"J", "J"},
+	DimCharge:                    {"C", "C"},
+	DimFrequency:                 {"Hz", "Hz"},
+	DimAngularFrequency:          {"rad/s", "rad/s"},
+	DimTime:                      {"s", "s"},
+	DimLength:                    {"m", "m"},
+	{BaseVolt: 1, BaseSecond: 1}: {"Wb", "Wb"},
+	{BaseVolt: 1, BaseAmpere: -1, BaseMetre: -1}:                {"Ω/m", "ohm/m"},
+	{BaseVolt: 1, BaseAmpere: -1, BaseSecond: 1, BaseMetre: -1}: {"H/m", "H/m"},
+	{BaseVolt: -1, BaseAmpere: 1, BaseSecond: 1, BaseMetre: -1}: {"F/m", "F/m"},
+	{BaseVolt: 1, BaseMetre: -1}:                                {"V/m", "V/m"},
+	{BaseAmpere: -1}:                                            {"1/A", "1/A"},
+	{BaseVolt: -1}:                                              {"1/V", "1/V"},
+}
+
+// UnitSymbol returns the symbol shown for a quantity: "" for a plain number,
+// "VA", "W" or "var" for power by kind, otherwise the unit of its dimension
+// or a product of base units.
+func UnitSymbol(d Dim, k Kind, ascii bool) string {
+	if d == DimPower {
+		switch k {
+		case KindActive:
+			return "W"
+		case KindReactive:
+			return "var"
+		}
+		return "VA"
+	}
+	if d.IsDimensionless() {
+		return ""
+	}
+	if n, ok := dimNames[d]; ok {
+		if ascii {
+			return n.ascii
+		}
+		return n.sym
+	}
+	return d.baseString(ascii)
+}
+
+// prefixable reports whether a display unit may carry an SI prefix: the
+// named units may, base-unit products built by baseString may not, since
+// "kV·s²" would be ambiguous to read.
+func prefixable(d Dim) bool {
+	if d == DimPower {
+		return true
+	}
+	_, ok := dimNames[d]
+	return ok
+}
+
+// DimName names a dimension for messages: its unit symbol, or
+// "dimensionless".
+func DimName(d Dim, ascii bool) string {
+	if d.IsDimensionless() {
+		return "a plain number"
+	}
+	s := UnitSymbol(d, KindPlain, ascii)
+	return s
+}
