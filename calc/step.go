@@ -287,4 +287,3 @@ func (s *Step) JSON() string {
 func ErrorJSON(msg string, line, col int) string {
 	return `{"error":` + jsonString(msg) + `,"line":` + strconv.Itoa(line) + `,"col":` + strconv.Itoa(col) + `}`
 }
-
