@@ -1,0 +1,48 @@
+package calc
+
+// Context carries the worksheet settings a function may need. Functions
+// read it; only the worksheet interpreter changes it.
+type Context struct {
+	Freq     float64 // working frequency in Hz, > 0
+	Basis    Basis   // RMS or peak phasors
+	Format   Format  // display settings, for notes that quote values
+	Sequence int     // phase sequence: 1 for ABC (positive), −1 for ACB
+}
+
+// Omega returns the working angular frequency ω = 2π·f in rad/s.
+func (c *Context) Omega() float64 { return 2 * 3.141592653589793 * c.Freq }
+
+// Arg is one argument of a function call: a quantity, or a word from the
+// function's Words list (such as "lagging" or "delta") written bare.
+type Arg struct {
+	Q    Quantity
+	Word string // non-empty when the argument was one of Func.Words
+	Text string // the argument as written, for messages
+}
+
+// Result is what a function returns: its main value, further named values
+// (reachable as NAME.key when the call is assigned to NAME) and the steps
+// that show the work. Steps may be empty; the interpreter always records
+// the call itself.
+type Result struct {
+	Value Quantity
+	Extra []Operand
+	Steps []Step
+	Notes []string // cautions and remarks added to the call's own step
+}
+
+// Func is a function callable from an expression.
+type Func struct {
+	Name  string
+	Args  string   // argument list for help, such as "(P, pf1, pf2)"
+	Doc   string   // one line: what it computes
+	Min   int      // fewest arguments
+	Max   int      // most arguments; −1 for any number
+	Words []string // bare words accepted as arguments
+	// Formula is shown in the call's step, such as "|z| = √(re² + im²)".
+	Formula string
+	Call    func(c *Context, args []Arg) (Result, error)
+}
+
+// Value wraps a single quantity as a Result.
+func Value(q Quantity) Result { return Result{Value: q} }
