@@ -13,18 +13,18 @@ import (
 // is positive for an inductance (X = ωL) and negative for a capacitance
 // (X = −1/(ωC)).
 type Components struct {
-	V, I  calc.Quantity // magnitudes, V and A (RMS)
-	Phi   calc.Quantity // angle of V relative to I, positive when I lags
-	P, Q  calc.Quantity // real power (W) and reactive power (var)
-	S     calc.Quantity // apparent power |S| (VA)
-	PF    calc.Quantity // power factor cos φ, a plain number
-	Z     calc.Quantity // series equivalent impedance Rs + jXs
-	Rs    calc.Quantity
-	Xs    calc.Quantity
-	Rp    calc.Quantity // zero when RpOpen
-	Xp    calc.Quantity // zero when XpOpen
-	RpOpen bool         // P = 0: the parallel resistance is an open circuit
-	XpOpen bool         // Q = 0: the parallel reactance is an open circuit
+	V, I   calc.Quantity // magnitudes, V and A (RMS)
+	Phi    calc.Quantity // angle of V relative to I, positive when I lags
+	P, Q   calc.Quantity // real power (W) and reactive power (var)
+	S      calc.Quantity // apparent power |S| (VA)
+	PF     calc.Quantity // power factor cos φ, a plain number
+	Z      calc.Quantity // series equivalent impedance Rs + jXs
+	Rs     calc.Quantity
+	Xs     calc.Quantity
+	Rp     calc.Quantity // zero when RpOpen
+	Xp     calc.Quantity // zero when XpOpen
+	RpOpen bool          // P = 0: the parallel resistance is an open circuit
+	XpOpen bool          // Q = 0: the parallel reactance is an open circuit
 	// Series and parallel L or C implied at the working frequency; each is
 	// zero when the reactance is zero (or open) or of the other sign.
 	Ls, Cs, Lp, Cp calc.Quantity
