@@ -111,6 +111,22 @@ func fixed(x float64, exp3, decimals int) string {
 func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo string) {
 	exp3, decimals = engScale(m, f.digits())
 	sym := UnitSymbol(d, k, f.ASCII)
+	if sym == "" && exp3 >= -3 && exp3 < 6 {
+		// plain numbers of everyday size read better without an exponent
+		e := int(math.Floor(math.Log10(m)))
+		if m == 0 {
+			e = 0
+		}
+		r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', f.digits()-1, 64), 64)
+		if m != 0 && r >= math.Pow(10, float64(e+1)) {
+			e++
+		}
+		decimals = f.digits() - 1 - e
+		if decimals < 0 {
+			decimals = 0
+		}
+		return 0, decimals, "", ""
+	}
 	p, ok := prefixFor[exp3]
 	if ok && sym != "" && prefixable(d) {
 		if p == "µ" && f.ASCII {
@@ -227,11 +243,21 @@ func sigFixed(x float64, digits int) string {
 // first when polarFirst is set; a real quantity prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Kind == KindAngle && q.IsReal() {
+	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() && real(q.V) >= 0 {
 		return r
 	}
 	if polarFirst {
 		return p + " = " + r
 	}
 	return r + " = " + p
+}
+
+// phasorDim reports dimensions whose angle means something to a reader even
+// when it is 0: voltages, currents, impedances, admittances, powers.
+func phasorDim(d Dim) bool {
+	switch d {
+	case DimVoltage, DimCurrent, DimImpedance, DimAdmittance, DimPower, Dimensionless:
+		return true
+	}
+	return false
 }

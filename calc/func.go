@@ -9,6 +9,15 @@ type Context struct {
 	Sequence int     // phase sequence: 1 for ABC (positive), −1 for ACB
 }
 
+// BareAngle converts a plain number written as an angle into radians: it
+// is in the worksheet's display unit, degrees unless set to radians.
+func (c *Context) BareAngle(x float64) float64 {
+	if c.Format.Radians {
+		return x
+	}
+	return x * 3.141592653589793 / 180
+}
+
 // Omega returns the working angular frequency ω = 2π·f in rad/s.
 func (c *Context) Omega() float64 { return 2 * 3.141592653589793 * c.Freq }
 

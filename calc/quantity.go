@@ -262,6 +262,13 @@ func Sqrt(a Quantity) (Quantity, error) {
 // quantities). A zero branch is a short and gives 0; branches whose
 // admittances cancel give an open circuit, reported as ErrOpenCircuit.
 func Parallel(a, b Quantity) (Quantity, error) {
+	// a bare 0 is a short whatever the other branch's unit
+	if a.V == 0 && a.Dim.IsDimensionless() {
+		return Quantity{V: 0, Dim: b.Dim}, nil
+	}
+	if b.V == 0 && b.Dim.IsDimensionless() {
+		return Quantity{V: 0, Dim: a.Dim}, nil
+	}
 	if a.Dim != b.Dim {
 		return Quantity{}, &DimError{Op: "||", A: a.Dim, B: b.Dim}
 	}

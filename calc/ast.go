@@ -1,0 +1,87 @@
+package calc
+
+// Expr is a node of a parsed expression. Pos and End are byte offsets of
+// the node's text in the statement; Col is its 1-based column.
+type Expr interface {
+	Span() (pos, end, col int)
+}
+
+type span struct{ pos, end, col int }
+
+func (s span) Span() (int, int, int) { return s.pos, s.end, s.col }
+
+// Lit is a number with an optional unit: 4.7 kΩ, j12 V, 30°.
+type Lit struct {
+	span
+	Val     complex128 // the number as written, before the unit's scale
+	Unit    string     // the unit as written, "" when none
+	scale   float64
+	dim     Dim
+	kind    Kind
+	hasUnit bool
+	distrib bool // unit given by the imaginary part of a rectangular literal
+}
+
+// Name is a reference to a named quantity or constant.
+type Name struct {
+	span
+	Name string
+}
+
+// Unary is −x or +x.
+type Unary struct {
+	span
+	Op string
+	X  Expr
+}
+
+// Binary is x op y for + − * / ^ ||.
+type Binary struct {
+	span
+	Op    string
+	X, Y  Expr
+	OpCol int // column of the operator, where errors point
+}
+
+// Polar is mag∠angle. A bare number as angle is in the worksheet's angle
+// unit; a value marked as an angle (30°, 0.5 rad, arg(z)) is used as is.
+type Polar struct {
+	span
+	Mag, Ang Expr
+	OpCol    int
+	Unit     string // a unit written after the angle, applying to the whole
+	scale    float64
+	dim      Dim
+	kind     Kind
+}
+
+// Call is f(args).
+type Call struct {
+	span
+	Fun  string
+	Args []Expr
+}
+
+// Walk calls fn for e and each node below it, depth first.
+func Walk(e Expr, fn func(Expr)) {
+	if e == nil {
+		return
+	}
+	fn(e)
+	switch n := e.(type) {
+	case *Unary:
+		Walk(n.X, fn)
+	case *Binary:
+		Walk(n.X, fn)
+		Walk(n.Y, fn)
+	case *Polar:
+		Walk(n.Mag, fn)
+		Walk(n.Ang, fn)
+	case *Paren:
+		Walk(n.X, fn)
+	case *Call:
+		for _, a := range n.Args {
+			Walk(a, fn)
+		}
+	}
+}

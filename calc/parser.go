@@ -1,0 +1,498 @@
+package calc
+
+import (
+	"fmt"
+	"strconv"
+	"unicode/utf8"
+)
+
+// Parser reads expressions by recursive descent, one token of look-ahead,
+// keeping the first error with its place. The worksheet's statement parser
+// drives the same Parser, so statements and expressions share one scanner.
+//
+// Precedence, loosest first:
+//
+//   - −          sums
+//     ||           parallel (binds tighter than +: a + b || c is a + (b || c))
+//   - / · × ÷    products
+//     − +          unary sign
+//     ∠ @          polar: mag∠angle
+//     ^            powers, right to left
+type Parser struct {
+	src   string
+	line  int
+	s     *Scanner
+	tok   Item
+	depth int
+	err   *Error
+}
+
+// NewParser returns a parser over one statement.
+func NewParser(src string, line int) *Parser {
+	p := &Parser{src: src, line: line}
+	if len(src) > MaxLine {
+		p.err = &Error{Line: line, Col: 1, Len: 1, Msg: fmt.Sprintf("line too long: %d bytes (the limit is %d)", len(src), MaxLine)}
+		p.s = NewScanner("", line)
+		p.tok = Item{Tok: TokEOF, Col: 1}
+		return p
+	}
+	p.s = NewScanner(src, line)
+	p.next()
+	return p
+}
+
+// Err returns the first error, from the scanner or the parser.
+func (p *Parser) Err() *Error {
+	if p.err != nil {
+		return p.err
+	}
+	return p.s.Err()
+}
+
+// Peek returns the current token without consuming it.
+func (p *Parser) Peek() Item { return p.tok }
+
+// Next consumes and returns the current token.
+func (p *Parser) Next() Item {
+	t := p.tok
+	p.next()
+	return t
+}
+
+func (p *Parser) next() { p.tok = p.s.Scan() }
+
+// Text returns the source text of an expression.
+func (p *Parser) Text(e Expr) string {
+	pos, end, _ := e.Span()
+	return p.src[pos:end]
+}
+
+// Source returns the statement being parsed.
+func (p *Parser) Source() string { return p.src }
+
+// Failf records an error at token t, unless one is already recorded.
+func (p *Parser) Failf(t Item, format string, args ...any) {
+	if p.Err() != nil {
+		return
+	}
+	n := utf8.RuneCountInString(p.src[t.Off:t.End])
+	if n == 0 {
+		n = 1
+	}
+	p.err = &Error{Line: p.line, Col: t.Col, Len: n, Msg: fmt.Sprintf(format, args...)}
+}
+
+// FailAt records an error at a column.
+func (p *Parser) FailAt(col, n int, format string, args ...any) {
+	if p.Err() != nil {
+		return
+	}
+	p.err = &Error{Line: p.line, Col: col, Len: n, Msg: fmt.Sprintf(format, args...)}
+}
+
+// IsOp reports whether the current token is the operator op.
+func (p *Parser) IsOp(op string) bool { return p.tok.Tok == TokOp && p.tok.Text == op }
+
+// IsWord reports whether the current token is the identifier w.
+func (p *Parser) IsWord(w string) bool { return p.tok.Tok == TokIdent && p.tok.Text == w }
+
+// EndCol returns the column just past the last token, for errors at the end.
+func (p *Parser) EndCol() int {
+	return utf8.RuneCountInString(p.src) + 1
+}
+
+// ParseExpr parses src as a single expression.
+func ParseExpr(src string, line int) (Expr, *Error) {
+	p := NewParser(src, line)
+	e := p.Expr()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return nil, err
+	}
+	return e, nil
+}
+
+// ExpectEnd records an error if tokens remain.
+func (p *Parser) ExpectEnd() {
+	if p.Err() != nil || p.tok.Tok == TokEOF {
+		return
+	}
+	t := p.tok
+	switch {
+	case t.Tok == TokOp && t.Text == ")":
+		p.Failf(t, "unbalanced parentheses: ')' without a matching '('")
+	case t.Tok == TokIdent && IsUnit(t.Text):
+		p.Failf(t, "unit %q must follow a number directly (as in 10 %s)", t.Text, t.Text)
+	case t.Tok == TokIdent || t.Tok == TokNumber || t.Tok == TokImag:
+		p.Failf(t, "unexpected %q: missing operator? (write * to multiply)", t.Text)
+	default:
+		p.Failf(t, "unexpected %q", t.Text)
+	}
+}
+
+func (p *Parser) enter() bool {
+	p.depth++
+	if p.depth > MaxDepth {
+		p.Failf(p.tok, "expression nested too deeply (more than %d levels)", MaxDepth)
+		return false
+	}
+	return true
+}
+
+func (p *Parser) leave() { p.depth-- }
+
+// bad is a placeholder node after an error, so callers never see nil.
+func (p *Parser) bad(t Item) Expr {
+	return &Lit{span: span{t.Off, t.End, t.Col}, Val: 0}
+}
+
+// Expr parses an expression.
+func (p *Parser) Expr() Expr {
+	if !p.enter() {
+		return p.bad(p.tok)
+	}
+	defer p.leave()
+	return p.sum()
+}
+
+func spanOf(a, b Expr) span {
+	pa, _, ca := a.Span()
+	_, eb, _ := b.Span()
+	return span{pa, eb, ca}
+}
+
+func (p *Parser) sum() Expr {
+	x := p.parallel()
+	for p.Err() == nil && (p.IsOp("+") || p.IsOp("-")) {
+		op := p.Next()
+		y := p.parallel()
+		distribute(x, y)
+		x = &Binary{span: spanOf(x, y), Op: op.Text, X: x, Y: y, OpCol: op.Col}
+	}
+	return x
+}
+
+// distribute gives the unit of the imaginary part of a rectangular literal
+// to its bare real part, so "3+j4 Ω" is one impedance and "3+j4 kΩ" scales
+// both parts. It applies only when the left operand is a bare real number
+// literal: anything else keeps its own unit and a mismatch is an error, so
+// the rule can never change a value silently.
+func distribute(x, y Expr) {
+	yl, ok := y.(*Lit)
+	if !ok || !yl.hasUnit || real(yl.Val) != 0 {
+		return
+	}
+	var xl *Lit
+	switch n := x.(type) {
+	case *Lit:
+		xl = n
+	case *Unary:
+		xl, _ = n.X.(*Lit)
+	}
+	if xl == nil || xl.hasUnit || imag(xl.Val) != 0 {
+		return
+	}
+	xl.hasUnit, xl.distrib = true, true
+	xl.Unit, xl.scale, xl.dim, xl.kind = yl.Unit, yl.scale, yl.dim, yl.kind
+}
+
+func (p *Parser) parallel() Expr {
+	x := p.product()
+	for p.Err() == nil && p.IsOp("||") {
+		op := p.Next()
+		y := p.product()
+		x = &Binary{span: spanOf(x, y), Op: "||", X: x, Y: y, OpCol: op.Col}
+	}
+	return x
+}
+
+func (p *Parser) product() Expr {
+	x := p.unary()
+	for p.Err() == nil && (p.IsOp("*") || p.IsOp("/")) {
+		op := p.Next()
+		y := p.unary()
+		x = &Binary{span: spanOf(x, y), Op: op.Text, X: x, Y: y, OpCol: op.Col}
+	}
+	return x
+}
+
+func (p *Parser) unary() Expr {
+	if p.IsOp("-") || p.IsOp("+") {
+		if !p.enter() {
+			return p.bad(p.tok)
+		}
+		defer p.leave()
+		op := p.Next()
+		x := p.unary()
+		_, end, _ := x.Span()
+		return &Unary{span: span{op.Off, end, op.Col}, Op: op.Text, X: x}
+	}
+	return p.polar()
+}
+
+func (p *Parser) polar() Expr {
+	x := p.power()
+	if p.Err() != nil || !p.IsOp("∠") {
+		return x
+	}
+	op := p.Next()
+	if p.tok.Tok == TokEOF {
+		p.Failf(op, "angle missing after %s", "∠")
+		return x
+	}
+	ang := p.unary()
+	n := &Polar{span: spanOf(x, ang), Mag: x, Ang: ang, OpCol: op.Col}
+	// a physical unit written on the angle literal ("230∠-30 V") belongs
+	// to the whole phasor
+	if l := litOf(ang); l != nil && l.hasUnit && l.kind != KindAngle {
+		n.Unit, n.scale, n.dim, n.kind = l.Unit, l.scale, l.dim, l.kind
+		l.hasUnit, l.Unit, l.scale, l.dim, l.kind = false, "", 1, Dimensionless, KindPlain
+	}
+	// and so does one written after the angle's degree sign ("230∠-30° V")
+	if p.tok.Tok == TokIdent {
+		if u, ok := lookupUnit(p.tok.Text); ok && u.kind != KindAngle {
+			t := p.Next()
+			if n.Unit != "" {
+				p.Failf(t, "two units on one phasor: %s and %s", n.Unit, t.Text)
+				return n
+			}
+			n.Unit, n.scale, n.dim, n.kind = t.Text, u.scale, u.dim, u.kind
+			n.end = t.End
+		}
+	}
+	if n.Unit != "" {
+		if l := litOf(x); l != nil && l.hasUnit {
+			p.FailAt(n.col, utf8.RuneCountInString(p.src[n.pos:n.end]), "two units on one phasor: %s and %s", l.Unit, n.Unit)
+		}
+	}
+	if p.IsOp("∠") {
+		p.Failf(p.tok, "a phasor takes one angle: second ∠")
+	}
+	return n
+}
+
+// litOf returns the literal at the root of e, looking through a sign.
+func litOf(e Expr) *Lit {
+	switch n := e.(type) {
+	case *Lit:
+		return n
+	case *Unary:
+		return litOf(n.X)
+	}
+	return nil
+}
+
+func (p *Parser) power() Expr {
+	x := p.primary()
+	if p.Err() == nil && p.IsOp("^") {
+		if !p.enter() {
+			return x
+		}
+		defer p.leave()
+		op := p.Next()
+		y := p.unary() // right-assoc, and 2^-1 reads as expected
+		return &Binary{span: spanOf(x, y), Op: "^", X: x, Y: y, OpCol: op.Col}
+	}
+	return x
+}
+
+func (p *Parser) primary() Expr {
+	t := p.tok
+	switch t.Tok {
+	case TokNumber, TokImag:
+		p.next()
+		return p.literal(t)
+	case TokIdent:
+		p.next()
+		if IsUnit(t.Text) && !p.IsOp("(") && !isConstant(t.Text) {
+			p.Failf(t, "unit %q without a number before it (write 1 %s)", t.Text, t.Text)
+			return p.bad(t)
+		}
+		if p.IsOp("(") {
+			return p.call(t)
+		}
+		return &Name{span: span{t.Off, t.End, t.Col}, Name: t.Text}
+	case TokOp:
+		if t.Text == "(" {
+			if !p.enter() {
+				return p.bad(t)
+			}
+			defer p.leave()
+			p.next()
+			if p.IsOp(")") {
+				p.Failf(p.tok, "empty parentheses")
+				return p.bad(t)
+			}
+			x := p.sum()
+			if !p.IsOp(")") {
+				if p.tok.Tok == TokEOF {
+					p.Failf(t, "unbalanced parentheses: '(' is never closed")
+				} else {
+					p.Failf(p.tok, "expected ')' to close the '(' at column %d, found %q", t.Col, p.tok.Text)
+				}
+				return x
+			}
+			c := p.Next()
+			return wrapParen(x, span{t.Off, c.End, t.Col})
+		}
+		if t.Tok == TokOp && t.Text == ")" {
+			p.Failf(t, "unbalanced parentheses: ')' without a matching '('")
+			return p.bad(t)
+		}
+	case TokEOF:
+		if p.src == "" || len(p.src) == 0 {
+			p.Failf(t, "empty input: nothing to evaluate")
+		} else {
+			p.FailAt(t.Col, 1, "expression ends too early: an operand is missing")
+		}
+		return p.bad(t)
+	case TokIllegal:
+		p.next()
+		return p.bad(t)
+	}
+	p.Failf(t, "unexpected %q: an operand is missing", t.Text)
+	p.next()
+	return p.bad(t)
+}
+
+// Paren keeps the parentheses of a sub-expression, so that its text (as
+// shown in steps) includes them and a rectangular literal inside stays one.
+type Paren struct {
+	span
+	X Expr
+}
+
+func wrapParen(x Expr, s span) Expr { return &Paren{span: s, X: x} }
+
+func isConstant(name string) bool {
+	switch name {
+	case "pi", "π", "e":
+		return true
+	}
+	return false
+}
+
+func (p *Parser) call(name Item) Expr {
+	if !p.enter() {
+		return p.bad(name)
+	}
+	defer p.leave()
+	open := p.Next() // (
+	c := &Call{Fun: name.Text}
+	if !p.IsOp(")") {
+		for {
+			c.Args = append(c.Args, p.sum())
+			if p.Err() != nil {
+				return c.finish(name, open)
+			}
+			if p.IsOp(",") {
+				p.next()
+				continue
+			}
+			break
+		}
+	}
+	if !p.IsOp(")") {
+		if p.tok.Tok == TokEOF {
+			p.Failf(open, "unbalanced parentheses: '(' of %s( is never closed", name.Text)
+		} else {
+			p.Failf(p.tok, "expected ',' or ')' in the arguments of %s, found %q", name.Text, p.tok.Text)
+		}
+		return c.finish(name, open)
+	}
+	closeTok := p.Next()
+	c.span = span{name.Off, closeTok.End, name.Col}
+	return c
+}
+
+func (c *Call) finish(name, open Item) Expr {
+	c.span = span{name.Off, open.End, name.Col}
+	return c
+}
+
+// literal finishes a number: its value and the unit written after it. A
+// word directly after a number is its unit; so is a word after a space when
+// it reads as a unit. "10 m" is ten metres; a prefix alone is no unit.
+func (p *Parser) literal(t Item) Expr {
+	l := &Lit{span: span{t.Off, t.End, t.Col}, scale: 1}
+	text := t.Text
+	if t.Tok == TokImag {
+		text = text[1:]
+		if len(text) > 0 && text[len(text)-1] == 'j' {
+			text = text[:len(text)-1]
+		}
+		if text == "" {
+			text = "1"
+		}
+	}
+	x, err := strconv.ParseFloat(text, 64)
+	if err != nil {
+		if ne, ok := err.(*strconv.NumError); ok && ne.Err == strconv.ErrRange {
+			if x == 0 {
+				x = 0 // underflow reads as zero
+			} else {
+				p.Failf(t, "number too large: %s", t.Text)
+				return l
+			}
+		} else {
+			p.Failf(t, "malformed number %q", t.Text)
+			return l
+		}
+	}
+	if t.Tok == TokImag {
+		l.Val = complex(0, x)
+	} else {
+		l.Val = complex(x, 0)
+	}
+	if p.tok.Tok != TokIdent {
+		return l
+	}
+	word := p.tok
+	u, ok := lookupUnit(word.Text)
+	if !ok {
+		if !word.Space {
+			if _, isPrefix := prefixes[word.Text]; isPrefix {
+				p.Failf(word, "prefix %q needs a unit after it (as in %s%s%s)", word.Text, t.Text, word.Text, "Ω")
+			} else {
+				p.Failf(word, "unknown unit %q", word.Text)
+			}
+		}
+		return l
+	}
+	p.next()
+	l.hasUnit, l.Unit, l.scale, l.dim, l.kind = true, word.Text, u.scale, u.dim, u.kind
+	l.end = word.End
+	// compound units: Ω/km, rad/s, V·A
+	for (p.IsOp("/") || p.IsOp("*")) && p.Err() == nil {
+		save := p.tok
+		// look past the operator without consuming it
+		sc := *p.s
+		nt := sc.Scan()
+		if nt.Tok != TokIdent || nt.Space {
+			break
+		}
+		u2, ok := lookupUnit(nt.Text)
+		if !ok {
+			break
+		}
+		p.next()
+		p.next()
+		if save.Text == "/" {
+			l.scale /= u2.scale
+			l.dim = l.dim.Div(u2.dim)
+		} else {
+			l.scale *= u2.scale
+			l.dim = l.dim.Mul(u2.dim)
+		}
+		if l.kind != u2.kind || save.Text == "/" {
+			if l.kind == KindAngle && u2.kind == KindPlain {
+				l.kind = KindPlain // rad/s is a rate, not an angle
+			} else {
+				l.kind = KindPlain
+			}
+		}
+		l.Unit += save.Text + nt.Text
+		l.end = nt.End
+	}
+	return l
+}

@@ -1,0 +1,251 @@
+package calc
+
+import (
+	"unicode"
+	"unicode/utf8"
+)
+
+// Token kinds.
+type Token uint8
+
+const (
+	TokEOF     Token = iota
+	TokIllegal       // a character that starts no token
+	TokNumber        // 12, 4.7e3, .5
+	TokImag          // j4, 4j, i2.5, j (alone: the imaginary unit)
+	TokIdent         // a name, a unit word, a keyword; also ° and %
+	TokOp            // + - * / ^ ( ) , = ∠ || and their Unicode forms
+)
+
+// MaxLine is the longest statement argand reads, in bytes. Longer input is
+// an error rather than a silent cut.
+const MaxLine = 1 << 16
+
+// MaxDepth bounds the nesting of parentheses, calls and unary operators,
+// so that hostile input cannot exhaust the stack.
+const MaxDepth = 200
+
+// Item is one scanned token with its place. Off and End are byte offsets in
+// the source; Col is the 1-based column counted in characters.
+type Item struct {
+	Tok  Token
+	Text string // operators are normalised: "−" and "-" both read "-"
+	Off  int
+	End  int
+	Col  int
+	// Space reports white space before the token, which decides whether a
+	// letter after a number is a unit ("4.7k") or a separate word.
+	Space bool
+}
+
+// Scanner splits one statement into tokens. Like go/scanner it is
+// hand-written, tracks positions and keeps the first error.
+type Scanner struct {
+	src  string
+	off  int
+	col  int
+	line int
+	err  *Error
+}
+
+// NewScanner returns a scanner over src, reporting errors on the given line.
+func NewScanner(src string, line int) *Scanner {
+	return &Scanner{src: src, col: 1, line: line}
+}
+
+// Err returns the first error met, or nil.
+func (s *Scanner) Err() *Error { return s.err }
+
+func (s *Scanner) fail(col, n int, msg string) {
+	if s.err == nil {
+		s.err = &Error{Line: s.line, Col: col, Len: n, Msg: msg}
+	}
+}
+
+func (s *Scanner) peekRune(at int) (rune, int) {
+	if at >= len(s.src) {
+		return -1, 0
+	}
+	return utf8.DecodeRuneInString(s.src[at:])
+}
+
+// isIdentStart reports letters, including Ω, µ and π, and '_'.
+func isIdentStart(r rune) bool {
+	return r == '_' || unicode.IsLetter(r)
+}
+
+func isIdentPart(r rune) bool {
+	return isIdentStart(r) || unicode.IsDigit(r) || r == '.'
+}
+
+func isDigit(r rune) bool { return r >= '0' && r <= '9' }
+
+// Scan returns the next token. At the end it returns TokEOF repeatedly.
+func (s *Scanner) Scan() Item {
+	space := false
+	for s.off < len(s.src) {
+		r, w := s.peekRune(s.off)
+		if r == ' ' || r == '\t' || r == '\r' || r == '\n' || r == '\u00a0' {
+			s.off += w
+			s.col++
+			space = true
+			continue
+		}
+		break
+	}
+	start, col := s.off, s.col
+	item := func(t Token, text string) Item {
+		return Item{Tok: t, Text: text, Off: start, End: s.off, Col: col, Space: space}
+	}
+	if s.off >= len(s.src) {
+		return item(TokEOF, "")
+	}
+	r, w := s.peekRune(s.off)
+	if r == utf8.RuneError && w == 1 {
+		s.fail(col, 1, "invalid UTF-8 byte in the input")
+		s.off++
+		s.col++
+		return item(TokIllegal, "\ufffd")
+	}
+	adv := func(n int) {
+		for i := 0; i < n; i++ {
+			_, w := s.peekRune(s.off)
+			s.off += w
+			s.col++
+		}
+	}
+	switch {
+	case isDigit(r) || (r == '.' && s.digitAt(s.off+1)):
+		s.number()
+		text := s.src[start:s.off]
+		// 4j or 4.5i: an imaginary literal, unless a longer word follows
+		if c, w := s.peekRune(s.off); (c == 'j' || c == 'i') && !s.identPartAt(s.off+w) {
+			s.off += w
+			s.col++
+			return item(TokImag, text+"j")
+		}
+		return item(TokNumber, text)
+	case (r == 'j' || r == 'i') && (s.digitAt(s.off+1) || (s.byteAt(s.off+1) == '.' && s.digitAt(s.off+2))):
+		s.off++
+		s.col++
+		s.number()
+		return item(TokImag, "j"+s.src[start+1:s.off])
+	case isIdentStart(r):
+		for s.off < len(s.src) {
+			c, w := s.peekRune(s.off)
+			if !isIdentPart(c) {
+				break
+			}
+			s.off += w
+			s.col++
+		}
+		text := s.src[start:s.off]
+		if text == "j" || text == "i" {
+			return item(TokImag, "j1")
+		}
+		if text == "Ω" { // U+2126 OHM SIGN reads as the letter omega
+			text = "Ω"
+		}
+		return item(TokIdent, text)
+	}
+	switch r {
+	case '°', '%':
+		adv(1)
+		return item(TokIdent, string(r))
+	case '+', '*', '/', '^', '(', ')', ',', '=':
+		adv(1)
+		return item(TokOp, string(r))
+	case '-', '−':
+		adv(1)
+		return item(TokOp, "-")
+	case '·', '×':
+		adv(1)
+		return item(TokOp, "*")
+	case '÷':
+		adv(1)
+		return item(TokOp, "/")
+	case '∠', '@':
+		adv(1)
+		return item(TokOp, "∠")
+	case '‖':
+		adv(1)
+		return item(TokOp, "||")
+	case '|':
+		if s.byteAt(s.off+1) == '|' {
+			adv(2)
+			return item(TokOp, "||")
+		}
+		adv(1)
+		s.fail(col, 1, "a single '|': write || for parallel")
+		return item(TokIllegal, "|")
+	case '<', '>', '!':
+		adv(1)
+		if s.byteAt(s.off) == '=' {
+			adv(1)
+		}
+		return item(TokOp, s.src[start:s.off])
+	}
+	adv(1)
+	s.fail(col, 1, "unexpected character "+quoteRune(r))
+	return item(TokIllegal, string(r))
+}
+
+func quoteRune(r rune) string {
+	if r < 0x20 || r == 0x7f {
+		return "U+" + hex4(int(r))
+	}
+	return "'" + string(r) + "'"
+}
+
+func hex4(n int) string {
+	const h = "0123456789ABCDEF"
+	return string([]byte{h[n>>12&15], h[n>>8&15], h[n>>4&15], h[n&15]})
+}
+
+func (s *Scanner) byteAt(i int) byte {
+	if i < len(s.src) {
+		return s.src[i]
+	}
+	return 0
+}
+
+func (s *Scanner) digitAt(i int) bool { return isDigit(rune(s.byteAt(i))) }
+
+func (s *Scanner) identPartAt(i int) bool {
+	r, _ := s.peekRune(i)
+	return r >= 0 && isIdentPart(r)
+}
+
+// number scans digits, a fraction and an exponent. An "e" not followed by
+// digits is left for the next token (it may start a unit word).
+func (s *Scanner) number() {
+	for s.digitAt(s.off) {
+		s.off++
+		s.col++
+	}
+	if s.byteAt(s.off) == '.' && s.digitAt(s.off+1) {
+		s.off++
+		s.col++
+		for s.digitAt(s.off) {
+			s.off++
+			s.col++
+		}
+	} else if s.byteAt(s.off) == '.' && !s.identPartAt(s.off+1) {
+		s.off++ // "5." is five
+		s.col++
+	}
+	if c := s.byteAt(s.off); c == 'e' || c == 'E' {
+		n := 1
+		if d := s.byteAt(s.off + 1); d == '+' || d == '-' {
+			n = 2
+		}
+		if s.digitAt(s.off + n) {
+			s.off += n
+			s.col += n
+			for s.digitAt(s.off) {
+				s.off++
+				s.col++
+			}
+		}
+	}
+}
