@@ -52,9 +52,9 @@ type RangeResult struct {
 	Wraps                   bool
 	// Values of the parameters at each extreme, in the order of params.
 	AtMagMin, AtMagMax, AtAngMin, AtAngMax []calc.Quantity
-	Evaluations int // calls of the function
-	Failed      int // calls that returned an error; those points are skipped
-	Steps       []calc.Step
+	Evaluations                            int // calls of the function
+	Failed                                 int // calls that returned an error; those points are skipped
+	Steps                                  []calc.Step
 }
 
 // Operands lists the main results by name.
