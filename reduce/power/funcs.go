@@ -153,9 +153,9 @@ func fraction(fn string, args []calc.Arg, i int, name string, zeroOK bool) (floa
 	bad := a.Word != "" || !a.Q.Dim.IsDimensionless() || a.Q.Kind == calc.KindAngle || imag(a.Q.V) != 0 ||
 		!(x <= 1) || x < 0 || (x == 0 && !zeroOK)
 	if bad {
-		want := "a plain number above 0 up to 1"
+		want := "a plain number between 0 and 1"
 		if zeroOK {
-			want = "a plain number between 0 and 1"
+			want = "a plain number from 0 to 1"
 		}
 		return 0, argErr(fn, i, name, want, a)
 	}
