@@ -242,9 +242,9 @@ func (t *topology) floating() error {
 		}
 		nodes, elems, line := t.component(u, int32(i), func(int) bool { return true })
 		return &NetError{
-			Msg: fmt.Sprintf("%s %s (%s %s) %s no path to the reference node %s: %s voltages are undetermined",
+			Msg: fmt.Sprintf("%s %s (%s %s) %s no path to the reference node %s: %s undetermined",
 				plural(len(nodes), "node", "nodes"), list(nodes), plural(len(elems), "element", "elements"), list(elems),
-				plural(len(nodes), "has", "have"), t.net.Reference, plural(len(nodes), "its", "their")),
+				plural(len(nodes), "has", "have"), t.net.Reference, plural(len(nodes), "its voltage is", "their voltages are")),
 			Nodes: nodes, Elements: elems, Line: line,
 		}
 	}
@@ -291,6 +291,7 @@ func (t *topology) sourceLoops() error {
 			v = p.to
 			nodeSet = append(nodeSet, v)
 		}
+		slices.Sort(loop) // name the elements in the network's order
 		var sources, shorts, names []string
 		line := 0
 		for _, j := range loop {
@@ -319,8 +320,9 @@ func (t *topology) sourceLoops() error {
 			msg = fmt.Sprintf("ideal shorts (0 Ω) %s form a loop (through nodes %s): the current that circulates in it is undetermined",
 				list(shorts), list(nodes))
 		default:
-			msg = fmt.Sprintf("an ideal short (0 Ω) %s lies across voltage %s %s (through nodes %s): the source would drive an unlimited current",
-				list(shorts), plural(len(sources), "source", "sources"), list(sources), list(nodes))
+			msg = fmt.Sprintf("%s %s %s across voltage %s %s (through nodes %s): the source would drive an unlimited current",
+				plural(len(shorts), "an ideal short (0 Ω)", "ideal shorts (0 Ω)"), list(shorts), plural(len(shorts), "lies", "lie"),
+				plural(len(sources), "source", "sources"), list(sources), list(nodes))
 		}
 		return &NetError{Msg: msg, Nodes: nodes, Elements: names, Line: line}
 	}

@@ -158,10 +158,14 @@ func abs1(v complex128) float64 { return math.Abs(real(v)) + math.Abs(imag(v)) }
 // factor overwrites the band with L and U. It returns the first column k
 // whose pivot is zero or smaller than rtol times the largest entry of that
 // column in the original matrix (colmax), or −1 when the matrix is
-// numerically regular.
+// numerically regular. A pivot found too small is replaced by that bound
+// and the elimination goes on, so that a solve with the factors can still
+// expose the null direction of a singular matrix (one step of inverse
+// iteration).
 func (b *bandLU) factor(colmax []float64, rtol float64) int {
 	n, kl, w := b.n, b.kl, b.w
 	off := kl // a[i][j] = a[i*w + off + j - i]
+	first := -1
 	for k := 0; k < n; k++ {
 		last := min(n-1, k+kl)
 		jmax := min(n-1, k+kl+b.ku)
@@ -172,15 +176,22 @@ func (b *bandLU) factor(colmax []float64, rtol float64) int {
 			}
 		}
 		b.piv[k] = int32(p)
-		if best == 0 || best <= rtol*colmax[k] || math.IsNaN(best) || math.IsInf(best, 0) {
-			return k
-		}
 		rk := b.a[k*w+off-k : k*w+off-k+jmax+1] // row k indexed by column
 		if p != k {
 			rp := b.a[p*w+off-p : p*w+off-p+jmax+1]
 			for j := k; j <= jmax; j++ {
 				rk[j], rp[j] = rp[j], rk[j]
 			}
+		}
+		if !(best > rtol*colmax[k]) || math.IsInf(best, 0) {
+			if first < 0 {
+				first = k
+			}
+			t := rtol * colmax[k]
+			if !(t > 0) || math.IsInf(t, 0) {
+				t = 1
+			}
+			rk[k] = complex(t, 0)
 		}
 		d := rk[k]
 		for i := k + 1; i <= last; i++ {
@@ -195,7 +206,7 @@ func (b *bandLU) factor(colmax []float64, rtol float64) int {
 			}
 		}
 	}
-	return -1
+	return first
 }
 
 // solve overwrites x (the right-hand side) with the solution.

@@ -88,14 +88,6 @@ func Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 	return t.solve(basis)
 }
 
-// unknownName describes unknown i for a message.
-func (t *topology) unknownName(i int, unk []int32, cur []int) string {
-	if i < len(unk) {
-		return "the voltage of node " + t.nodes[unk[i]]
-	}
-	return "the current in " + t.net.Elements[cur[i-len(unk)]].Name
-}
-
 func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 	els := t.net.Elements
 	// Unknowns: non-reference node voltages, then branch currents.
@@ -207,10 +199,32 @@ func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 		j := pos[x.j]
 		colmax[j] = max(colmax[j], abs1(lu.a[int(pos[x.i])*lu.w+int(j)-int(pos[x.i])+lu.kl]))
 	}
-	if k := lu.factor(colmax, pivotTol); k >= 0 {
-		return nil, t.singular(int(order[k]), unk, cur)
-	}
 	x := make([]complex128, N)
+	if k := lu.factor(colmax, pivotTol); k >= 0 {
+		// Inverse iteration from a fixed start: the solution is dominated
+		// by the null direction, whose large entries show where the
+		// trouble lies.
+		for i := range x {
+			x[i] = complex(1, 0.5*float64(i%3))
+		}
+		lu.solve(x)
+		big := 0.0
+		for _, v := range x {
+			if finite(v) {
+				big = math.Max(big, cmplx.Abs(v))
+			}
+		}
+		var culprits []int
+		for newI, v := range x {
+			if !finite(v) || cmplx.Abs(v) >= 0.01*big {
+				culprits = append(culprits, int(order[newI]))
+			}
+		}
+		if len(culprits) == 0 {
+			culprits = []int{int(order[k])}
+		}
+		return nil, t.singular(culprits, unk, cur)
+	}
 	for i := range rhs {
 		x[pos[i]] = rhs[i]
 	}
@@ -282,29 +296,43 @@ func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 	return s, nil
 }
 
-// singular reports a numerically singular system at unknown u (original
-// numbering), naming the node or element and its neighbours.
-func (t *topology) singular(u int, unk []int32, cur []int) error {
-	var node int32 = -1
-	if u < len(unk) {
-		node = unk[u]
-	} else {
-		node = t.from[cur[u-len(unk)]]
+// singular reports numerically singular equations; culprits are the
+// unknowns (original numbering) that carry the null direction. It names
+// their nodes and the elements at those nodes or carrying those currents.
+func (t *topology) singular(culprits []int, unk []int32, cur []int) error {
+	nodeHit := make([]bool, len(t.nodes))
+	elemHit := make([]bool, len(t.net.Elements))
+	for _, u := range culprits {
+		if u < len(unk) {
+			nodeHit[unk[u]] = true
+		} else {
+			elemHit[cur[u-len(unk)]] = true
+		}
 	}
-	var elems []string
+	var nodes, elems []string
+	for i, name := range t.nodes {
+		if nodeHit[i] {
+			nodes = append(nodes, name)
+		}
+	}
 	line := 0
 	for k, e := range t.net.Elements {
-		if t.from[k] == node || t.to[k] == node {
+		if elemHit[k] || nodeHit[t.from[k]] || nodeHit[t.to[k]] {
 			elems = append(elems, e.Name)
 			if line == 0 {
 				line = e.Line
 			}
 		}
 	}
+	sortNatural(nodes)
+	where := "in elements " + list(elems)
+	if len(nodes) > 0 {
+		where = fmt.Sprintf("around %s %s (elements %s)", plural(len(nodes), "node", "nodes"), list(nodes), list(elems))
+	}
 	return &NetError{
-		Msg: fmt.Sprintf("the network equations are singular at %s (elements %s): no unique solution; look for inductance and capacitance whose impedances cancel (resonance) or impedances that cancel otherwise",
-			t.unknownName(u, unk, cur), list(elems)),
-		Nodes: []string{t.nodes[node]}, Elements: elems, Line: line,
+		Msg: "the network equations are singular " + where +
+			": no unique solution; look for inductance and capacitance whose impedances cancel (resonance) or other impedances that cancel",
+		Nodes: nodes, Elements: elems, Line: line,
 	}
 }
 
