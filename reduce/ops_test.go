@@ -23,8 +23,12 @@ func z(name string, v complex128) calc.Operand {
 func y(name string, v complex128) calc.Operand {
 	return calc.Operand{Name: name, Value: calc.Q(v, calc.DimAdmittance)}
 }
-func volt(v complex128) calc.Operand { return calc.Operand{Name: "V", Value: calc.Q(v, calc.DimVoltage)} }
-func amp(v complex128) calc.Operand  { return calc.Operand{Name: "I", Value: calc.Q(v, calc.DimCurrent)} }
+func volt(v complex128) calc.Operand {
+	return calc.Operand{Name: "V", Value: calc.Q(v, calc.DimVoltage)}
+}
+func amp(v complex128) calc.Operand {
+	return calc.Operand{Name: "I", Value: calc.Q(v, calc.DimCurrent)}
+}
 
 func randZ(r *rand.Rand) complex128 {
 	return complex(r.Float64()*100, (r.Float64()-0.5)*200)
