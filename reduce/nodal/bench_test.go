@@ -1,0 +1,80 @@
+package nodal_test
+
+import (
+	"fmt"
+	"math"
+	"testing"
+
+	"argand/calc"
+	"argand/reduce"
+	"argand/reduce/nodal"
+)
+
+// BenchmarkLadder solves ladders of series R and shunt R with 10, 100 and
+// 500 nodes (the reference included), from the network description to
+// every branch current and the checks.
+func BenchmarkLadder(b *testing.B) {
+	for _, nodes := range []int{10, 100, 500} {
+		n := ladder(nodes-2, 10)
+		b.Run(fmt.Sprintf("nodes=%d", nodes), func(b *testing.B) {
+			for b.Loop() {
+				if _, err := nodal.Solve(n, calc.RMS); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// sweepNetwork is a 20-node RLC network (example data): a chain of series
+// R–L sections with shunt capacitors, and bridging resistors every few
+// nodes, fed by a voltage source.
+func sweepNetwork() *reduce.Network {
+	n := &reduce.Network{Name: "example data", Reference: "0",
+		Elements: []reduce.Element{{Name: "V1", Kind: reduce.VoltageSource, From: "0", To: "n1", Value: 230}}}
+	add := func(name string, k reduce.ElementKind, a, b string, raw float64) {
+		n.Elements = append(n.Elements, reduce.Element{Name: name, Kind: k, From: a, To: b, Raw: complex(raw, 0)})
+	}
+	for i := 1; i < 19; i++ {
+		a, b := fmt.Sprintf("n%d", i), fmt.Sprintf("n%d", i+1)
+		add(fmt.Sprintf("R%d", i), reduce.Resistor, a, b, 0.5)
+		add(fmt.Sprintf("L%d", i), reduce.Inductor, a, b, 1e-3)
+		add(fmt.Sprintf("C%d", i), reduce.Capacitor, b, "0", 2e-6)
+		if i%3 == 0 {
+			add(fmt.Sprintf("RB%d", i), reduce.Resistor, fmt.Sprintf("n%d", i-2), b, 47)
+		}
+	}
+	add("RL", reduce.Resistor, "n19", "0", 100)
+	return n
+}
+
+// BenchmarkSweep re-solves a 20-node network at 1000 frequencies from
+// 10 Hz to 100 kHz, evaluating every impedance at each frequency.
+func BenchmarkSweep(b *testing.B) {
+	n := sweepNetwork()
+	for b.Loop() {
+		for k := range 1000 {
+			f := 10 * math.Pow(10, 4*float64(k)/999)
+			nf, err := n.At(f)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := nodal.Solve(nf, calc.RMS); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
+
+// TestSweepNetwork makes sure the benchmark network solves, with its
+// checks, across the band.
+func TestSweepNetwork(t *testing.T) {
+	n := sweepNetwork()
+	for _, f := range []float64{10, 1e3, 1e5} {
+		nf, err := n.At(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkBalance(t, solve(t, nf))
+	}
+}
