@@ -81,18 +81,21 @@ func Plot(t *Table, width, height int, dB bool, ascii bool) string {
 	}
 	magLabel := func(y float64) string {
 		if dB {
-			return strconv.FormatFloat(y, 'f', 1, 64) + " dB"
+			return noNegZero(strconv.FormatFloat(y, 'f', 1, 64)) + " dB"
 		}
 		return trimZeros(calc.Format{Digits: 3, ASCII: ascii}.Mag(y, t.Dim, t.Kind))
 	}
 	angLabel := func(y float64) string {
-		return strconv.FormatFloat(y, 'f', 0, 64) + g.deg
+		return noNegZero(strconv.FormatFloat(y, 'f', 0, 64)) + g.deg
 	}
 	magLo, magHi, magAny := span(mags, okMag)
 	if !dB && magAny {
 		magLo = 0 // a linear magnitude axis starts at zero
 	}
 	angLo, angHi, angAny := span(angs, okAng)
+	magLo, magHi = nice(magLo, magHi, 0)
+	angLo, angHi = nice(angLo, angHi, 15)
+	angLo, angHi = math.Max(angLo, -180), math.Min(angHi, 180)
 
 	// the margin fits the widest label of either panel
 	margin := 0
@@ -141,6 +144,28 @@ func Plot(t *Table, width, height int, dB bool, ascii bool) string {
 		b.WriteString(s + "\n")
 	}
 	return b.String()
+}
+
+// nice widens [lo, hi] outward to multiples of a round step (a half or
+// whole power of ten of the span, or the given step when the span exceeds
+// twice it) so the axis labels read as round numbers.
+func nice(lo, hi, step float64) (float64, float64) {
+	d := hi - lo
+	if !(d > 0) || math.IsInf(d, 0) {
+		return lo, hi
+	}
+	if step <= 0 || d <= 2*step {
+		step = math.Pow(10, math.Floor(math.Log10(d))) / 2
+	}
+	return math.Floor(lo/step) * step, math.Ceil(hi/step) * step
+}
+
+// noNegZero turns "-0" or "-0.0" into "0" or "0.0".
+func noNegZero(s string) string {
+	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
+		return s[1:]
+	}
+	return s
 }
 
 func dot(ascii bool) string {
