@@ -2,14 +2,44 @@ package power
 
 import (
 	"fmt"
+	"math"
+	"strconv"
 	"strings"
 
 	"argand/calc"
 )
 
 // Funcs returns the worksheet functions of this package. Each checks the
-// dimension of every argument and names the argument in its errors.
+// number and dimension of its arguments and names the argument in its
+// errors.
 func Funcs() []calc.Func {
+	fs := funcs()
+	for i := range fs {
+		fs[i].Call = checkArity(fs[i])
+	}
+	return fs
+}
+
+// checkArity wraps a function's Call so that a caller that skips the
+// Min/Max check still gets an error rather than an index panic.
+func checkArity(f calc.Func) func(*calc.Context, []calc.Arg) (calc.Result, error) {
+	call := f.Call
+	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+		if len(args) < f.Min || (f.Max >= 0 && len(args) > f.Max) {
+			want := fmt.Sprintf("%d", f.Min)
+			switch {
+			case f.Max < 0:
+				want = fmt.Sprintf("at least %d", f.Min)
+			case f.Max != f.Min:
+				want = fmt.Sprintf("%d to %d", f.Min, f.Max)
+			}
+			return calc.Result{}, fmt.Errorf("%s%s takes %s arguments, got %d", f.Name, f.Args, want, len(args))
+		}
+		return call(c, args)
+	}
+}
+
+func funcs() []calc.Func {
 	return []calc.Func{
 		{
 			Name: "power", Args: "(V, I)", Min: 2, Max: 2,
@@ -125,6 +155,14 @@ func got(a calc.Arg) string {
 	}
 	if a.Word != "" {
 		return a.Word
+	}
+	if m := a.Q.Mag(); math.IsInf(m, 0) || math.IsNaN(m) {
+		// the formatter scales by the magnitude, which has overflowed
+		s := strconv.FormatFloat(real(a.Q.V), 'g', 4, 64) + " + j" + strconv.FormatFloat(imag(a.Q.V), 'g', 4, 64)
+		if u := calc.UnitSymbol(a.Q.Dim, a.Q.Kind, false); u != "" {
+			s = "(" + s + ") " + u
+		}
+		return s
 	}
 	return calc.Format{}.Rect(a.Q)
 }

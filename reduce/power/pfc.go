@@ -126,6 +126,9 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 	c.Notes = append([]string{verdict}, cautions()...)
 
 	tan1 := q1 / p
+	if math.IsInf(tan1, 0) {
+		return Correction{}, nil, errors.New("pfc: the load's reactive power is too large against its active power to represent tan φ₁")
+	}
 	st := calc.Step{
 		Kind:    "pfc",
 		Rule:    "reactive power for power-factor correction with capacitors (common practice)",
@@ -318,7 +321,8 @@ func dischargeArgs(fn string, c, v0, vs calc.Quantity) (float64, error) {
 		return 0, fmt.Errorf("%s: Vsafe (%s V) must be below the starting voltage V0 (%s V)", fn,
 			strconv.FormatFloat(b, 'g', 6, 64), strconv.FormatFloat(a, 'g', 6, 64))
 	}
-	return math.Log(a / b), nil
+	// log(a) − log(b) rather than log(a/b): the quotient can overflow
+	return math.Log(a) - math.Log(b), nil
 }
 
 func dischargeNotes() []string {

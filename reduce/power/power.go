@@ -152,6 +152,10 @@ func Of(s complex128) (Power, error) {
 	if err != nil {
 		return Power{}, err
 	}
+	// |S| can overflow where both parts are finite
+	if _, err := calc.Real(cmplx.Abs(s), calc.DimPower).Check("apparent power"); err != nil {
+		return Power{}, err
+	}
 	return Power{
 		S:        q,
 		P:        calc.Quantity{V: complex(real(s), 0), Dim: calc.DimPower, Kind: calc.KindActive},
@@ -511,6 +515,9 @@ func wantDim(fn, name string, q calc.Quantity, d calc.Dim, what string) error {
 	}
 	if _, err := q.Check(fn); err != nil {
 		return fmt.Errorf("%s: %s: %w", fn, name, err)
+	}
+	if math.IsInf(q.Mag(), 0) {
+		return fmt.Errorf("%s: %s is too large: its magnitude overflows", fn, name)
 	}
 	return nil
 }
