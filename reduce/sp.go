@@ -751,6 +751,12 @@ func reduceTree(tree *SPNode, z map[string]complex128, basis calc.Basis, src Ele
 		r.used[name] = true
 	}
 	r.used[src.Name] = true
+	// a step per group, per part, per element, plus a few: growing the
+	// slice of large step records as they come costs more than the work
+	leaves := len(tree.Elements())
+	r.out.Steps = make([]calc.Step, 0, 4*leaves+len(idle)*2+4)
+	r.out.Elements = make([]ElementResult, 0, leaves+len(idle))
+	r.leafNames = make([]string, 0, leaves)
 	root, err := r.down(tree, 0)
 	if err != nil {
 		return nil, err
