@@ -32,7 +32,7 @@ func Funcs() []calc.Func {
 		{
 			Name: "bandwidth", Args: "(f0, Q)", Min: 2, Max: 2,
 			Doc:     "−3 dB bandwidth of a resonance (f0 in Hz or rad/s); .f1, .f2 the half-power frequencies",
-			Formula: "B = f0/Q;  f1,2 = f0·(√(1 + 1/(4Q²)) ∓ 1/(2Q))",
+			Formula: "B = f0/Q;  f1 = f0·(√(1 + 1/(4Q²)) − 1/(2Q));  f2 = f0·(√(1 + 1/(4Q²)) + 1/(2Q))",
 			Call:    callBandwidth,
 		},
 		{

@@ -31,10 +31,21 @@ var (
 // when the table's points are log spaced. Curves are drawn with '*', so
 // the plot reads without colour; points with a mark and zero magnitudes
 // on a dB scale are listed beneath and shown on the axis line. ascii
-// restricts the output to ASCII.
+// restricts the output to ASCII. A table holding a frequency or value
+// that is not a finite number is refused with a one-line message.
 func Plot(t *Table, width, height int, dB bool, ascii bool) string {
 	if t == nil || len(t.Points) == 0 {
 		return "(empty sweep)\n"
+	}
+	for _, p := range t.Points {
+		if !finite(p.Freq) || p.Freq < 0 {
+			return "(the sweep holds a frequency that is not a number of 0 Hz or more)\n"
+		}
+		if p.Mark == "" {
+			if _, err := p.Value.Check("plot"); err != nil {
+				return "(the sweep holds a value that is not a finite number)\n"
+			}
+		}
 	}
 	width = clamp(width, minWidth, maxWidth)
 	height = clamp(height, minHeight, maxHeight)

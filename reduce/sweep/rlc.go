@@ -156,7 +156,7 @@ func Bandwidth(f0, q calc.Quantity) (Band, []calc.Step, error) {
 	st := calc.Step{
 		Kind:    "bandwidth",
 		Rule:    "−3 dB (half-power) bandwidth of a resonance",
-		Formula: "B = f0/Q;  f1,2 = f0·(√(1 + 1/(4Q²)) ∓ 1/(2Q))",
+		Formula: "B = f0/Q;  f1 = f0·(√(1 + 1/(4Q²)) − 1/(2Q));  f2 = f0·(√(1 + 1/(4Q²)) + 1/(2Q))",
 		Inputs:  []calc.Operand{op("f0", f0), op("Q", q)},
 		Results: []calc.Operand{op("B", bd.B), op("f1", bd.F1), op("f2", bd.F2)},
 	}

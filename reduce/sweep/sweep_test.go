@@ -616,3 +616,61 @@ func BenchmarkPlot1000(b *testing.B) {
 		_ = Plot(tab, 100, 20, true, true)
 	}
 }
+
+// Step and function texts turn into pure ASCII for --ascii output.
+func TestASCIIText(t *testing.T) {
+	var steps []calc.Step
+	_, _, s, _ := Resonance(henry(1e-3), farad(1e-6))
+	steps = append(steps, s...)
+	_, s, _ = SeriesQ(ohm(1), henry(1e-3), farad(1e-6))
+	steps = append(steps, s...)
+	_, s, _ = ParallelQ(ohm(1), henry(1e-3), farad(1e-6))
+	steps = append(steps, s...)
+	_, s, _ = Bandwidth(calc.Real(1e3, calc.DimFrequency), num(5))
+	steps = append(steps, s...)
+	for _, r := range []float64{0, 1, 100} {
+		_, s, _ = SolveTank(henry(1e-3), ohm(complex(r, 0)), farad(1e-6))
+		steps = append(steps, s...)
+	}
+	_, s, _ = Ratio(volt(0), volt(1))
+	steps = append(steps, s...)
+	_, s, _ = Gain(num(2))
+	steps = append(steps, s...)
+	steps = append(steps, sweepSeries(t, 5, true).Step("sweep"))
+	for _, st := range steps {
+		txt := st.Text(calc.Format{ASCII: true}, true)
+		for i := 0; i < len(txt); i++ {
+			if txt[i] >= 0x80 {
+				t.Fatalf("non-ASCII byte %#x in\n%s", txt[i], txt)
+			}
+		}
+	}
+	for _, f := range Funcs() {
+		a := calc.ASCIIText(f.Doc + f.Args + f.Formula)
+		for i := 0; i < len(a); i++ {
+			if a[i] >= 0x80 {
+				t.Errorf("%s: non-ASCII after ASCIIText: %q", f.Name, a)
+				break
+			}
+		}
+	}
+}
+
+// Plot never panics or prints a non-number on extreme tables.
+func TestPlotExtremes(t *testing.T) {
+	tables := []*Table{
+		{Points: []Point{{Freq: 1, Value: calc.Number(1e-300)}, {Freq: 2, Value: calc.Number(1e300)}}},
+		{Points: []Point{{Freq: 0, Value: calc.Number(0)}, {Freq: 5, Value: calc.Number(0)}}, Log: true},
+		{Points: []Point{{Freq: 3, Mark: Open}, {Freq: 4, Mark: Short}}},
+		{Points: []Point{{Freq: math.NaN(), Value: calc.Number(1)}}},
+		{Points: []Point{{Freq: 1, Value: calc.Number(-1)}, {Freq: 1e9, Value: calc.Number(complex(-1, -1e-20))}}, Log: true},
+	}
+	for i, tab := range tables {
+		for _, dB := range []bool{false, true} {
+			out := Plot(tab, 40, 5, dB, true)
+			if strings.Contains(out, "NaN") || strings.Contains(out, "Inf") {
+				t.Errorf("table %d: %s", i, out)
+			}
+		}
+	}
+}

@@ -17,7 +17,7 @@ func Funcs() []calc.Func {
 			Min:     2,
 			Max:     2,
 			Words:   []string{"wye", "delta"},
-			Formula: "Y: V_an = V_ab/(√3∠±30°);  Δ: I_ab = I_a/(√3∠∓30°)  (upper sign ABC)",
+			Formula: "ABC: V_an = V_ab/(√3∠30°) in Y, I_ab = I_a/(√3∠−30°) in Δ; ACB: the angles change sign",
 			Call:    callConvert(false),
 		},
 		{
@@ -27,7 +27,7 @@ func Funcs() []calc.Func {
 			Min:     2,
 			Max:     2,
 			Words:   []string{"wye", "delta"},
-			Formula: "Y: V_ab = √3·V_an∠±30°;  Δ: I_a = √3·I_ab∠∓30°  (upper sign ABC)",
+			Formula: "ABC: V_ab = √3·V_an∠30° in Y, I_a = √3·I_ab∠−30° in Δ; ACB: the angles change sign",
 			Call:    callConvert(true),
 		},
 		{
@@ -84,7 +84,7 @@ func Funcs() []calc.Func {
 			Min:     4,
 			Max:     4,
 			Words:   []string{"lagging", "leading"},
-			Formula: "W1 = V_L·I_L·cos(φ − 30°), W2 = V_L·I_L·cos(φ + 30°)  (ABC; ±30° swap for ACB)",
+			Formula: "W1 = V_L·I_L·cos(φ − 30°), W2 = V_L·I_L·cos(φ + 30°)  (ABC; the 30° shifts swap for ACB)",
 			Call:    callWattmeters,
 		},
 		{

@@ -586,3 +586,58 @@ func TestFuncs(t *testing.T) {
 		t.Errorf("phase2line ACB = %v, %v", r.Value.V, err)
 	}
 }
+
+// Every step and function text turns into pure ASCII for --ascii output.
+func TestASCIIText(t *testing.T) {
+	var steps []calc.Step
+	add := func(s []calc.Step, err error) {
+		if err != nil {
+			t.Fatal(err)
+		}
+		steps = append(steps, s...)
+	}
+	for _, seq := range []Sequence{ABC, ACB} {
+		for _, conn := range []Connection{Wye, Delta} {
+			_, s, err := PhaseToLine(V(100), conn, seq)
+			add(s, err)
+			_, s, err = LineToPhase(I(10), conn, seq)
+			add(s, err)
+			_, s, err = SolveBalanced(V(400), Z(complex(3, 4)), conn, seq, calc.Peak)
+			add(s, err)
+		}
+		zs := [3]calc.Quantity{Z(1), Z(2), Z(complex(0, 3))}
+		_, s, err := SolveWye(V(230), zs, true, seq, calc.RMS)
+		add(s, err)
+		_, s, err = SolveWye(V(230), zs, false, seq, calc.RMS)
+		add(s, err)
+		_, s, err = SolveDelta(V(400), zs, seq, calc.RMS)
+		add(s, err)
+		_, s, err = TwoWattmeterReadings(V(400), I(10), 0.3, false, seq, calc.Peak)
+		add(s, err)
+		_, s, err = FromWattmeters(W(100), W(-30), seq)
+		add(s, err)
+	}
+	_, s, err := ToSequence(V(1), V(2), V(3))
+	add(s, err)
+	_, s, err = FromSequence(V(1), V(2), V(3))
+	add(s, err)
+	for _, st := range steps {
+		txt := st.Text(calc.Format{ASCII: true}, true)
+		for i := 0; i < len(txt); i++ {
+			if txt[i] >= 0x80 {
+				t.Fatalf("non-ASCII byte %#x in\n%s", txt[i], txt)
+			}
+		}
+	}
+	for _, f := range Funcs() {
+		for _, s := range []string{f.Doc, f.Args, f.Formula} {
+			a := calc.ASCIIText(s)
+			for i := 0; i < len(a); i++ {
+				if a[i] >= 0x80 {
+					t.Errorf("%s: non-ASCII after ASCIIText: %q", f.Name, a)
+					break
+				}
+			}
+		}
+	}
+}
