@@ -389,7 +389,8 @@ func join(k SPKind, a, b *SPNode) *SPNode {
 
 // SeriesParallel turns a network with exactly one independent source into
 // a series-parallel tree of its passive part, seen from the source's
-// terminals.
+// terminals. Passive elements must carry their impedance Z at the working
+// frequency (see Network.At).
 //
 // The algorithm merges repeatedly, visiting nodes from a work queue in the
 // order they first appear in the element list: two parts between the same
