@@ -331,7 +331,7 @@ func (t *topology) singular(culprits []int, unk []int32, cur []int) error {
 	}
 	return &NetError{
 		Msg: "the network equations are singular " + where +
-			": no unique solution; look for inductance and capacitance whose impedances cancel (resonance) or other impedances that cancel",
+			": no unique solution, or none that float64 arithmetic can resolve; look for inductance and capacitance whose impedances cancel (resonance), other impedances that cancel, or impedances some 13 orders of magnitude apart",
 		Nodes: nodes, Elements: elems, Line: line,
 	}
 }

@@ -273,3 +273,27 @@ func TestAtThenSolve(t *testing.T) {
 		t.Errorf("current at resonance %v, want %g A", i, 230/R)
 	}
 }
+
+// TestWideRange: impedances nine orders of magnitude apart still solve.
+// The limit is float64 itself, not the solver: the assembled node
+// admittance 10³ S + 10⁻⁶ S keeps the smaller term only to about 1e-7, and
+// R1's current comes from a voltage difference 10⁻⁹ of the node voltages.
+// So the bounds here are looser than elsewhere, and stated: V(a) to 1e-8 of
+// the closed form V(a) = I·(R2‖(R1+R3)) (common practice), I(R1) to 1e-6,
+// KCL to 1e-6 of the largest branch current.
+func TestWideRange(t *testing.T) {
+	r1, r2, r3 := 1e-3, 1e6, 1e6
+	n := network("0", isrc("I1", "0", "a", 1), res("R1", "a", "b", r1), res("R2", "a", "0", r2), res("R3", "b", "0", r3))
+	s := solve(t, n)
+	want := r2 * (r1 + r3) / (r1 + r2 + r3)
+	if got := s.Voltage["a"]; cmplx.Abs(got-complex(want, 0)) > 1e-8*want {
+		t.Errorf("V(a) = %v, want %.15g", got, want)
+	}
+	wantI := r2 / (r1 + r2 + r3)
+	if got := branch(t, s, "R1").I; cmplx.Abs(got-complex(wantI, 0)) > 1e-6*wantI {
+		t.Errorf("I(R1) = %v, want %.15g", got, wantI)
+	}
+	if s.MaxKCL > 1e-6*s.MaxI {
+		t.Errorf("KCL residual %g", s.MaxKCL)
+	}
+}
