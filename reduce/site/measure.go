@@ -252,7 +252,7 @@ func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Compo
 	}
 	steps = append(steps, lc)
 	c.Steps = steps
-	c.Notes = notes
+	c.Notes = append(notes, Caution)
 	if err := checkSteps(steps); err != nil {
 		return Components{}, err
 	}

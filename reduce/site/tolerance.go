@@ -374,6 +374,9 @@ func (s *search) value(k int, u []float64) float64 {
 // improves, or the evaluation limit is reached.
 func (s *search) descend(k int, u0 []float64, h float64, limit int) {
 	m := len(s.free)
+	if s.evals >= limit {
+		return
+	}
 	u := append([]float64(nil), u0...)
 	fu := s.value(k, u)
 	const g = 0.6180339887498949 // (√5 − 1)/2
