@@ -126,5 +126,5 @@ func checkSteps(steps []calc.Step) error {
 	return nil
 }
 
-// sigma formats x with a few significant figures for notes.
+// sig formats x with a few significant figures for notes.
 func sig(x float64) string { return fmt.Sprintf("%.4g", x) }
