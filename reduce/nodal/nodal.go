@@ -24,6 +24,17 @@ import (
 // times the float64 unit round-off.
 const pivotTol = 1e-13
 
+// caution is the safety text shown beside results that involve dangerous
+// voltages.
+const caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
+	"Work on energised or mains equipment only if qualified, under local electrical codes and licensed practice. " +
+	"Capacitors can hold a lethal charge after disconnection."
+
+// elvLimit is the upper bound of extra-low voltage for a.c., 50 V RMS
+// (IEC 60449 voltage band I, from memory). Above it the steps carry the
+// caution.
+const elvLimit = 50.0
+
 // Branch is the solved state of one element. V is V(From) − V(To) and I
 // flows from From to To through the element (passive sign convention,
 // IEC 60375); S is the complex power the element absorbs, V·I* for RMS
@@ -349,7 +360,7 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		Rule: "modified nodal analysis (Ho, Ruehli & Brennan, IEEE Trans. Circuits and Systems, 1975): " +
 			"Kirchhoff's current law at every node but the reference, plus one equation per voltage source and ideal short; " +
 			"solved by band LU with partial pivoting after reverse Cuthill–McKee ordering",
-		Formula: "[Y B; Bᵀ 0]·[v; i] = [j; e]",
+		Formula: "[Y B; B^T 0]·[v; i] = [j; e]",
 		Basis:   s.Basis,
 		Notes: append([]string{
 			fmt.Sprintf("reference node %s at 0 V; %d unknowns, half-bandwidth %d after reordering", s.Reference, s.Unknowns, s.Band),
@@ -360,6 +371,20 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 			continue
 		}
 		head.Results = append(head.Results, calc.Operand{Name: "V(" + name + ")", Value: calc.Q(s.Voltage[name], calc.DimVoltage)})
+	}
+	// The largest voltage anywhere is the largest between two nodes.
+	lo, hi := math.Inf(1), math.Inf(-1)
+	loI, hiI := math.Inf(1), math.Inf(-1)
+	for _, v := range s.Voltage {
+		lo, hi = math.Min(lo, real(v)), math.Max(hi, real(v))
+		loI, hiI = math.Min(loI, imag(v)), math.Max(hiI, imag(v))
+	}
+	span := math.Hypot(hi-lo, hiI-loI)
+	if s.Basis == calc.Peak {
+		span /= math.Sqrt2
+	}
+	if span > elvLimit {
+		head.Notes = append(head.Notes, caution)
 	}
 	steps := []calc.Step{head}
 	for _, b := range s.Branches {

@@ -297,3 +297,30 @@ func TestWideRange(t *testing.T) {
 		t.Errorf("KCL residual %g", s.MaxKCL)
 	}
 }
+
+// TestCaution: above extra-low voltage (50 V a.c. RMS, IEC 60449 band I,
+// from memory) the method step carries the safety caution; below it, not.
+func TestCaution(t *testing.T) {
+	tests := []struct {
+		v     complex128
+		basis calc.Basis
+		want  bool
+	}{
+		{230, calc.RMS, true},
+		{24, calc.RMS, false},
+		{60, calc.Peak, false}, // 42 V RMS
+		{325, calc.Peak, true},
+	}
+	for _, tt := range tests {
+		n := network("0", vsrc("V1", "0", "a", tt.v), res("R1", "a", "0", 100))
+		s, err := nodal.Solve(n, tt.basis)
+		if err != nil {
+			t.Fatal(err)
+		}
+		head := s.Steps(calc.Format{})[0]
+		got := strings.Contains(strings.Join(head.Notes, " "), "qualified person")
+		if got != tt.want {
+			t.Errorf("%v V %v: caution %v, want %v", tt.v, tt.basis, got, tt.want)
+		}
+	}
+}

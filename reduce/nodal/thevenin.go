@@ -2,6 +2,8 @@ package nodal
 
 import (
 	"fmt"
+	"math"
+	"math/cmplx"
 
 	"argand/calc"
 	"argand/reduce"
@@ -179,6 +181,9 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 		Formula: "V_th = V(" + a + ") − V(" + b + ")",
 		Basis:   basis,
 		Results: []calc.Operand{{Name: "V_th", Value: calc.Q(eq.vth, calc.DimVoltage)}},
+	}
+	if mag := cmplx.Abs(eq.vth); mag > elvLimit || (basis == calc.Peak && mag/math.Sqrt2 > elvLimit) {
+		vst.Notes = append(vst.Notes, caution)
 	}
 	eq.steps = []calc.Step{vst, zst}
 	if !eq.zZero {
