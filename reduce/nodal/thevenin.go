@@ -182,7 +182,11 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 		Basis:   basis,
 		Results: []calc.Operand{{Name: "V_th", Value: calc.Q(eq.vth, calc.DimVoltage)}},
 	}
-	if mag := cmplx.Abs(eq.vth); mag > elvLimit || (basis == calc.Peak && mag/math.Sqrt2 > elvLimit) {
+	rms := cmplx.Abs(eq.vth)
+	if basis == calc.Peak {
+		rms /= math.Sqrt2
+	}
+	if rms > elvLimit {
 		vst.Notes = append(vst.Notes, caution)
 	}
 	eq.steps = []calc.Step{vst, zst}
