@@ -54,3 +54,36 @@ func (e *Error) Error() string {
 	}
 	return fmt.Sprintf("col %d: %s", e.Col, e.Msg)
 }
+
+// Caret returns the source line and a caret line under the error's place,
+// for a person to read: the line as given, then spaces and ^ marks.
+func Caret(src string, e *Error) string {
+	runes := []rune(src)
+	col := e.Col
+	if col < 1 {
+		col = 1
+	}
+	if col > len(runes)+1 {
+		col = len(runes) + 1
+	}
+	n := e.Len
+	if n < 1 {
+		n = 1
+	}
+	if col-1+n > len(runes)+1 {
+		n = len(runes) + 1 - (col - 1)
+	}
+	pad := make([]rune, 0, col-1)
+	for i := 0; i < col-1 && i < len(runes); i++ {
+		if runes[i] == '\t' {
+			pad = append(pad, '\t')
+		} else {
+			pad = append(pad, ' ')
+		}
+	}
+	marks := ""
+	for i := 0; i < n; i++ {
+		marks += "^"
+	}
+	return src + "\n" + string(pad) + marks
+}

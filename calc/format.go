@@ -243,7 +243,8 @@ func sigFixed(x float64, digits int) string {
 // first when polarFirst is set; a real quantity prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() && real(q.V) >= 0 {
+	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() && real(q.V) >= 0 ||
+		(q.Kind == KindActive || q.Kind == KindReactive) && q.IsReal() {
 		return r
 	}
 	if polarFirst {
@@ -256,7 +257,7 @@ func (f Format) Both(q Quantity, polarFirst bool) string {
 // when it is 0: voltages, currents, impedances, admittances, powers.
 func phasorDim(d Dim) bool {
 	switch d {
-	case DimVoltage, DimCurrent, DimImpedance, DimAdmittance, DimPower, Dimensionless:
+	case DimVoltage, DimCurrent, DimImpedance, DimAdmittance, DimPower:
 		return true
 	}
 	return false

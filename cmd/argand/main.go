@@ -1,0 +1,173 @@
+// Command argand is a terminal tool for AC circuit work with phasors.
+//
+// Usage:
+//
+//	argand                 open the app (last session, or the example)
+//	argand FILE            open a worksheet in the app
+//	argand eval EXPR...    evaluate each argument and print the steps
+//	argand run FILE|-      run a worksheet and print every step
+//	argand help [TOPIC]    print help
+//	argand --version
+//
+// Flags: --json, --digits N, --ascii, --plain. Exit codes: 0 ok, 1 a check
+// failed, 2 bad input or usage.
+package main
+
+import (
+	// termbg must initialise before the UI library asks the terminal for
+	// its background colour; see its package comment.
+	_ "argand/tui/termbg"
+
+	"fmt"
+	"io"
+	"os"
+	"strconv"
+	"strings"
+
+	"argand/tui/cli"
+
+	"github.com/charmbracelet/x/term"
+)
+
+// version is set at release time.
+const version = "0.1.0"
+
+// flags holds the command line after parsing.
+type flags struct {
+	opt     cli.Options
+	plain   bool
+	version bool
+	help    bool
+	args    []string
+}
+
+// parse reads flags anywhere before "--"; everything else is an argument.
+func parse(argv []string) (flags, error) {
+	var f flags
+	for i := 0; i < len(argv); i++ {
+		a := argv[i]
+		if a == "--" {
+			f.args = append(f.args, argv[i+1:]...)
+			break
+		}
+		if !strings.HasPrefix(a, "--") || a == "-" {
+			if a == "-h" {
+				f.help = true
+				continue
+			}
+			f.args = append(f.args, a)
+			continue
+		}
+		name, val, hasVal := strings.Cut(a[2:], "=")
+		switch name {
+		case "json":
+			f.opt.JSON = true
+		case "ascii":
+			f.opt.ASCII = true
+		case "plain":
+			f.plain = true
+		case "polar":
+			f.opt.PolarFirst = true
+		case "version":
+			f.version = true
+		case "help":
+			f.help = true
+		case "digits":
+			if !hasVal {
+				if i+1 >= len(argv) {
+					return f, fmt.Errorf("--digits needs a number from 1 to 15")
+				}
+				i++
+				val = argv[i]
+			}
+			n, err := strconv.Atoi(val)
+			if err != nil || n < 1 || n > 15 {
+				return f, fmt.Errorf("--digits takes a whole number from 1 to 15, not %q", val)
+			}
+			f.opt.Digits = n
+		default:
+			return f, fmt.Errorf("unknown flag --%s (see argand help)", name)
+		}
+		if hasVal && name != "digits" {
+			return f, fmt.Errorf("--%s takes no value", name)
+		}
+	}
+	return f, nil
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
+
+func run(argv []string, in io.Reader, out, errw io.Writer) int {
+	f, err := parse(argv)
+	if err != nil {
+		fmt.Fprintln(errw, "argand:", err)
+		return cli.ExitBadInput
+	}
+	if !f.opt.ASCII && !cli.UTF8Locale(os.Getenv) {
+		f.opt.ASCII = true
+	}
+	switch {
+	case f.version:
+		fmt.Fprintln(out, "argand", version)
+		return cli.ExitOK
+	case f.help:
+		return cli.Help(nil, out, errw, f.opt)
+	}
+	if len(f.args) == 0 {
+		return open("", in, out, errw, f)
+	}
+	switch f.args[0] {
+	case "eval":
+		if len(f.args) < 2 {
+			fmt.Fprintln(errw, "argand: eval needs at least one expression, as in argand eval '3+j4 Ω'")
+			return cli.ExitBadInput
+		}
+		return cli.Eval(f.args[1:], out, errw, f.opt)
+	case "run":
+		if len(f.args) != 2 {
+			fmt.Fprintln(errw, "argand: run takes one worksheet file, or - for standard input")
+			return cli.ExitBadInput
+		}
+		if f.args[1] == "-" {
+			return cli.Run(in, "stdin", out, errw, f.opt)
+		}
+		file, err := os.Open(f.args[1])
+		if err != nil {
+			fmt.Fprintln(errw, "argand:", cleanErr(err))
+			return cli.ExitBadInput
+		}
+		defer file.Close()
+		return cli.Run(file, f.args[1], out, errw, f.opt)
+	case "help":
+		return cli.Help(f.args[1:], out, errw, f.opt)
+	}
+	if len(f.args) > 1 {
+		fmt.Fprintf(errw, "argand: unexpected %q (see argand help)\n", f.args[1])
+		return cli.ExitBadInput
+	}
+	return open(f.args[0], in, out, errw, f)
+}
+
+// open starts the app on a terminal, the line mode on a terminal that
+// cannot address the screen (or with --plain), and otherwise runs the
+// worksheet (or the example) non-interactively.
+func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
+	tty := term.IsTerminal(os.Stdin.Fd()) && term.IsTerminal(os.Stdout.Fd())
+	switch {
+	case !tty:
+		return cli.Batch(file, in, out, errw, f.opt)
+	case f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "":
+		return cli.Plain(file, in, out, errw, f.opt)
+	}
+	return cli.Plain(file, in, out, errw, f.opt)
+}
+
+// cleanErr shortens an *os.PathError to what a person needs.
+func cleanErr(err error) string {
+	if pe, ok := err.(*os.PathError); ok {
+		return pe.Path + ": " + pe.Err.Error()
+	}
+	return err.Error()
+}

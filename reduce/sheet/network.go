@@ -1,0 +1,383 @@
+package sheet
+
+import (
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce"
+	"argand/reduce/nodal"
+)
+
+// network is a network defined in the worksheet: a node block, or a
+// compact series-parallel form over element names.
+type network struct {
+	name    string
+	ref     string
+	line    int
+	elems   []string // element names, in order
+	compact calc.Expr
+	src     string // statement of a compact network
+	feed    calc.Expr
+	deps    map[string]bool
+	sol     *nodal.Solution
+	results []string // names this network defined
+}
+
+// NetworkInfo describes a defined network for the app.
+type NetworkInfo struct {
+	Name      string
+	Reference string
+	Line      int
+	Elements  []reduce.Element
+	Compact   string // the compact form as written, "" for a node block
+}
+
+// Networks returns the defined networks in definition order.
+func (s *Sheet) Networks() []NetworkInfo {
+	var out []NetworkInfo
+	for _, n := range s.order {
+		nw := s.nets[n]
+		info := NetworkInfo{Name: nw.name, Reference: nw.ref, Line: nw.line}
+		if nw.compact != nil {
+			info.Compact = nw.src
+		}
+		if net, err := s.build(nw); err == nil {
+			info.Elements = net.Elements
+		}
+		out = append(out, info)
+	}
+	return out
+}
+
+// Network returns the network of that name with impedances at the
+// working frequency, for stepping through it in the app.
+func (s *Sheet) Network(name string) (*reduce.Network, error) {
+	nw, ok := s.nets[name]
+	if !ok {
+		return nil, fmt.Errorf("no network named %s", name)
+	}
+	return s.build(nw)
+}
+
+func (s *Sheet) stmtNetwork(p *calc.Parser) error {
+	p.Next()
+	nameTok := p.Next()
+	if !s.validName(p, nameTok) {
+		return p.Err()
+	}
+	name := nameTok.Text
+	if _, ok := s.nets[name]; ok {
+		p.Failf(nameTok, "network %s is already defined", name)
+		return p.Err()
+	}
+	if _, ok := s.byName[name]; ok {
+		p.Failf(nameTok, "%s is already a named value", name)
+		return p.Err()
+	}
+	if p.IsOp("=") {
+		return s.compactNetwork(p, name)
+	}
+	nw := &network{name: name, line: s.line}
+	if p.IsWord("reference") {
+		p.Next()
+		nw.ref = nodeName(p)
+	}
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	s.open = nw
+	s.record(calc.Step{Kind: "network", Source: p.Source(), Rule: "network " + name + " begins: elements follow, one a line, until end"})
+	return nil
+}
+
+// blockLine runs a line inside an open network block.
+func (s *Sheet) blockLine(p *calc.Parser, first calc.Item) error {
+	if first.Tok == calc.TokIdent {
+		switch first.Text {
+		case "end":
+			p.Next()
+			p.ExpectEnd()
+			if err := p.Err(); err != nil {
+				return err
+			}
+			return s.closeNetwork(p)
+		case "resistor", "inductor", "capacitor", "impedance":
+			return s.stmtElement(p, s.open)
+		case "voltage", "current":
+			if s.isSourceStmt(p.Source()) {
+				return s.stmtElement(p, s.open)
+			}
+		}
+	}
+	p.Failf(first, "inside network %s a line is an element (resistor, inductor, capacitor, impedance, voltage source, current source NAME = value from NODE to NODE) or end", s.open.name)
+	return p.Err()
+}
+
+func (s *Sheet) closeNetwork(p *calc.Parser) error {
+	nw := s.open
+	if len(nw.elems) == 0 {
+		p.FailAt(1, 3, "network %s has no elements", nw.name)
+		return p.Err()
+	}
+	if nw.ref == "" {
+		nodes := map[string]bool{}
+		for _, e := range nw.elems {
+			el := s.byName[e].elem
+			nodes[el.from], nodes[el.to] = true, true
+		}
+		for _, c := range []string{"gnd", "0", "ground", "N", "n"} {
+			if nodes[c] {
+				nw.ref = c
+				break
+			}
+		}
+		if nw.ref == "" {
+			return lineErr(nw.line, 1, 7, "network %s has no reference node: write network %s reference NODE, or use a node called gnd", nw.name, nw.name)
+		}
+	}
+	nw.deps = map[string]bool{"f": true}
+	for _, e := range nw.elems {
+		nw.deps[e] = true
+	}
+	s.open = nil
+	s.nets[nw.name] = nw
+	s.order = append(s.order, nw.name)
+	if err := s.solve(nw, "network "+nw.name+" solved"); err != nil {
+		// the block is not kept: its elements go with it
+		delete(s.nets, nw.name)
+		s.order = s.order[:len(s.order)-1]
+		s.dropElements(nw.elems)
+		var ne *nodal.NetError
+		if errors.As(err, &ne) && ne.Line > 0 {
+			return lineErr(ne.Line, 1, 1, "network %s: %s", nw.name, ne.Msg)
+		}
+		return lineErr(s.line, 1, 3, "network %s: %v", nw.name, err)
+	}
+	return nil
+}
+
+func (s *Sheet) dropElements(names []string) {
+	drop := map[string]bool{}
+	for _, n := range names {
+		drop[n] = true
+		delete(s.byName, n)
+	}
+	keep := s.defs[:0]
+	for _, d := range s.defs {
+		if !drop[d.name] {
+			keep = append(keep, d)
+		}
+	}
+	s.defs = keep
+}
+
+// build makes the reduce.Network of a worksheet network at the working
+// frequency.
+func (s *Sheet) build(nw *network) (*reduce.Network, error) {
+	out := &reduce.Network{Name: nw.name, Reference: nw.ref}
+	for _, name := range nw.elems {
+		d, ok := s.byName[name]
+		if !ok || d.elem == nil {
+			return nil, fmt.Errorf("element %s is not defined", name)
+		}
+		el := d.elem
+		e := reduce.Element{Name: name, Kind: el.kind, From: el.from, To: el.to, Raw: el.raw.V, Line: d.line}
+		if el.kind.IsSource() {
+			e.Value = el.raw.V
+		} else {
+			e.Z = d.value.V
+		}
+		out.Elements = append(out.Elements, e)
+	}
+	return out, nil
+}
+
+// solve solves a node network and defines its results as names:
+// NET.ELEM.v, NET.ELEM.i, NET.ELEM.s and NET.NODE.v.
+func (s *Sheet) solve(nw *network, reason string) error {
+	if nw.compact != nil {
+		return s.solveCompact(nw, reason)
+	}
+	net, err := s.build(nw)
+	if err != nil {
+		return err
+	}
+	sol, err := nodal.Solve(net, s.ctx.Basis)
+	if err != nil {
+		return err
+	}
+	nw.sol = sol
+	sp, stepped := s.spSteps(net)
+	steps := sp
+	for _, st := range sol.Steps(s.ctx.Format) {
+		// a network reduced step by step has its element table already
+		if stepped && st.Kind == "element" {
+			continue
+		}
+		steps = append(steps, st)
+	}
+	for i := range steps {
+		if steps[i].Source == "" {
+			steps[i].Source = "network " + nw.name
+		}
+	}
+	if len(steps) > 0 {
+		steps[0].Notes = append(steps[0].Notes, reason)
+	}
+	s.record(steps...)
+	s.defineSolution(nw, sol)
+	return nil
+}
+
+func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
+	var names []string
+	set := func(name string, q calc.Quantity) {
+		names = append(names, name)
+		if d, ok := s.byName[name]; ok {
+			d.value = q
+			return
+		}
+		d := &def{name: name, src: "network " + nw.name, line: nw.line, value: q, owner: nw.name, deps: map[string]bool{}}
+		s.defs = append(s.defs, d)
+		s.byName[name] = d
+	}
+	for _, b := range sol.Branches {
+		set(nw.name+"."+b.Name+".v", calc.Q(b.V, calc.DimVoltage))
+		set(nw.name+"."+b.Name+".i", calc.Q(b.I, calc.DimCurrent))
+		set(nw.name+"."+b.Name+".s", calc.Quantity{V: b.S, Dim: calc.DimPower, Kind: calc.KindApparent})
+	}
+	for _, n := range sol.Nodes {
+		set(nw.name+"."+n+".v", calc.Q(sol.Voltage[n], calc.DimVoltage))
+	}
+	nw.results = names
+}
+
+// resolveNets re-solves the networks that use a changed name; it marks
+// their changed results and reports whether any changed.
+func (s *Sheet) resolveNets(changed map[string]bool) (bool, error) {
+	any := false
+	for _, n := range s.order {
+		nw := s.nets[n]
+		hit := false
+		for k := range nw.deps {
+			if changed[k] {
+				hit = true
+				break
+			}
+		}
+		if !hit || changed["net:"+n] {
+			continue
+		}
+		changed["net:"+n] = true
+		old := map[string]calc.Quantity{}
+		for _, r := range nw.results {
+			old[r] = s.byName[r].value
+		}
+		var why []string
+		for k := range nw.deps {
+			if changed[k] && k != "w" && k != "ω" {
+				why = append(why, k)
+			}
+		}
+		sort.Strings(why)
+		if err := s.solve(nw, "re-solved because "+strings.Join(why, ", ")+" changed"); err != nil {
+			return false, fmt.Errorf("network %s: %v", n, err)
+		}
+		for _, r := range nw.results {
+			if d := s.byName[r]; d != nil && d.value.V != old[r].V {
+				changed[r] = true
+				any = true
+			}
+		}
+	}
+	return any, nil
+}
+
+func (s *Sheet) stmtThevenin(p *calc.Parser) error {
+	p.Next()
+	nameTok := p.Next()
+	if !s.validName(p, nameTok) {
+		return p.Err()
+	}
+	if !p.IsOp("=") {
+		return perr(p, "expected '=': thevenin NAME = NETWORK between NODE and NODE")
+	}
+	p.Next()
+	netTok := p.Next()
+	nw, ok := s.nets[netTok.Text]
+	if !ok {
+		p.Failf(netTok, "no network named %q", netTok.Text)
+		return p.Err()
+	}
+	if !expectWord(p, "between", "thevenin") {
+		return p.Err()
+	}
+	aTok := p.Peek()
+	a := nodeName(p)
+	if !expectWord(p, "and", "thevenin") {
+		return p.Err()
+	}
+	bTok := p.Peek()
+	b := nodeName(p)
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	net, err := s.build(nw)
+	if err != nil {
+		return lineErr(s.line, netTok.Col, len(netTok.Text), "%v", err)
+	}
+	known := map[string]bool{}
+	for _, e := range net.Elements {
+		known[e.From], known[e.To] = true, true
+	}
+	for _, t := range []calc.Item{aTok, bTok} {
+		if !known[t.Text] {
+			p.Failf(t, "network %s has no node %q", nw.name, t.Text)
+			return p.Err()
+		}
+	}
+	if a == b {
+		p.Failf(bTok, "the two nodes must differ")
+		return p.Err()
+	}
+	vth, zth, steps, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
+	name := nameTok.Text
+	if err != nil {
+		// an ideal current source has only the Norton form
+		in, yn, nsteps, nerr := nodal.Norton(net, a, b, s.ctx.Basis)
+		if nerr != nil {
+			return lineErr(s.line, 1, 8, "%v", err)
+		}
+		s.record(nsteps...)
+		d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: map[string]bool{}}
+		if e := s.setValue(d); e != nil {
+			return lineErr(s.line, nameTok.Col, 1, "%v", e)
+		}
+		ex := s.setExtras(name, p.Source(), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}})
+		s.record(calc.Step{Kind: "norton", Source: p.Source(), Rule: "Norton equivalent only: " + err.Error(), Results: ex})
+		return nil
+	}
+	s.record(steps...)
+	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(vth, calc.DimVoltage), deps: map[string]bool{}}
+	if e := s.setValue(d); e != nil {
+		return lineErr(s.line, nameTok.Col, 1, "%v", e)
+	}
+	extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
+	st := calc.Step{Kind: "thevenin", Source: p.Source(), Rule: "Thevenin equivalent of " + nw.name + " between " + a + " and " + b,
+		Formula: "V_th = V(" + a + ") − V(" + b + ") open-circuit; Z_th with sources set to zero"}
+	if zth != 0 {
+		in := vth / zth
+		extra = append(extra, calc.Operand{Name: "in", Value: calc.Q(in, calc.DimCurrent)})
+		st.Formula += "; I_N = V_th/Z_th"
+	} else {
+		st.Notes = append(st.Notes, "Z_th = 0: an ideal voltage source between these nodes has no Norton form")
+	}
+	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), extra)...)
+	s.record(st)
+	return nil
+}

@@ -1,0 +1,96 @@
+package sheet
+
+import (
+	"bufio"
+	"errors"
+	"fmt"
+	"io"
+
+	"argand/calc"
+)
+
+// Summary is the outcome of running a worksheet.
+type Summary struct {
+	Lines  int
+	Pass   int
+	Fail   int
+	Err    *calc.Error // the first bad line, nil when all ran
+	ErrSrc string      // that line's text, for the caret
+}
+
+// ReadLine reads one line of at most calc.MaxLine bytes. A longer line is
+// read to its end and discarded, and reported by its length, so no line is
+// ever cut short silently (as a fixed-buffer line scanner would).
+func ReadLine(r *bufio.Reader) (line string, n int, err error) {
+	var buf []byte
+	for {
+		chunk, isPrefix, e := r.ReadLine()
+		if e != nil {
+			if len(buf) > 0 || n > 0 {
+				break
+			}
+			return "", 0, e
+		}
+		n += len(chunk)
+		if len(buf) <= calc.MaxLine {
+			buf = append(buf, chunk...)
+		}
+		if !isPrefix {
+			break
+		}
+	}
+	if n > calc.MaxLine {
+		return "", n, nil
+	}
+	return string(buf), n, nil
+}
+
+// Run executes a worksheet from r line by line, calling emit with the steps
+// of each line as it completes, and stops at the first bad line, whose
+// error is in the summary. Steps of the lines before it have been emitted.
+func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
+	br := bufio.NewReaderSize(r, 64*1024)
+	var sum Summary
+	for {
+		line, n, err := ReadLine(br)
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			return sum, err
+		}
+		sum.Lines++
+		if n > calc.MaxLine {
+			s.line++
+			sum.Err = lineErr(s.line, 1, 1, "line too long: %d bytes (the limit is %d)", n, calc.MaxLine)
+			break
+		}
+		steps, e := s.Exec(line)
+		if e != nil {
+			var le *calc.Error
+			if !errors.As(e, &le) {
+				le = lineErr(s.line, 1, 1, "%v", e)
+			}
+			sum.Err, sum.ErrSrc = le, line
+			break
+		}
+		if emit != nil && len(steps) > 0 {
+			emit(steps)
+		}
+	}
+	if sum.Err == nil && s.open != nil {
+		sum.Err = lineErr(s.line+1, 1, 1, "network %s is not closed: add a line with end", s.open.name)
+	}
+	sum.Pass, sum.Fail = s.pass, s.fail
+	return sum, nil
+}
+
+// OpenNetwork returns the name of a network block still being written, or "".
+func (s *Sheet) OpenNetwork() string {
+	if s.open == nil {
+		return ""
+	}
+	return s.open.name
+}
+
+var _ = fmt.Sprint

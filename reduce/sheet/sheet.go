@@ -1,0 +1,415 @@
+// Package sheet is argand's worksheet interpreter: it runs statements of the
+// worksheet language one line at a time, keeps the named quantities and
+// networks, re-evaluates what depends on a changed value or frequency, and
+// records every piece of work as a calc.Step. Expression statements and
+// network statements plug into the same interpreter; the command line and
+// the app both drive it.
+package sheet
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce"
+)
+
+// DefaultFreq is the working frequency of a new worksheet, in Hz.
+const DefaultFreq = 50
+
+// MaxNames bounds the named quantities of one worksheet, so that a
+// generated or hostile file cannot exhaust memory unnoticed.
+const MaxNames = 200000
+
+// def is one named quantity and how it was made.
+type def struct {
+	name  string
+	src   string // the statement as typed
+	line  int
+	expr  calc.Expr // nil for values set from outside (network results)
+	value calc.Quantity
+	deps  map[string]bool // names the expression reads, including "f"
+	elem  *element        // non-nil for an element definition
+	owner string          // for NAME.key extras: the defining name
+	key   string
+}
+
+// element remembers the component value of an element definition, so its
+// impedance follows the working frequency.
+type element struct {
+	kind reduce.ElementKind
+	raw  calc.Quantity // R, L, C, Z, or the source phasor
+	from string        // nodes, inside a network block
+	to   string
+	net  string
+}
+
+// Settings are the worksheet settings, each set by a statement so that a
+// worksheet replays to the same values.
+type Settings struct {
+	Freq     float64 // Hz
+	Basis    calc.Basis
+	Radians  bool
+	Digits   int
+	Sequence int // 1 ABC, −1 ACB
+}
+
+// Sheet is a worksheet being run.
+type Sheet struct {
+	ctx    calc.Context
+	defs   []*def
+	byName map[string]*def
+	funcs  map[string]*calc.Func
+	nets   map[string]*network
+	order  []string // network names in definition order
+	open   *network // network block being written
+	steps  []calc.Step
+	stmts  []string // accepted statements, a replayable worksheet
+	line   int
+	pass   int
+	fail   int
+	sweeps []*SweepResult
+	tols   map[string]float64 // relative tolerance of a named value
+}
+
+// New returns an empty worksheet at the default settings with every
+// function of argand's packages available.
+func New() *Sheet {
+	s := &Sheet{
+		ctx:    calc.Context{Freq: DefaultFreq, Sequence: 1, Format: calc.Format{Digits: calc.DefaultDigits}},
+		byName: map[string]*def{},
+		funcs:  map[string]*calc.Func{},
+		nets:   map[string]*network{},
+		tols:   map[string]float64{},
+	}
+	for _, f := range allFuncs() {
+		f := f
+		s.funcs[f.Name] = &f
+	}
+	return s
+}
+
+// Settings returns the current settings.
+func (s *Sheet) Settings() Settings {
+	return Settings{Freq: s.ctx.Freq, Basis: s.ctx.Basis, Radians: s.ctx.Format.Radians, Digits: s.ctx.Format.Digits, Sequence: s.ctx.Sequence}
+}
+
+// Context returns the evaluation context (settings) in force.
+func (s *Sheet) Context() *calc.Context { return &s.ctx }
+
+// Lookup finds a named quantity: a definition, a network result, or the
+// working frequency f (Hz) and ω (w, rad/s).
+func (s *Sheet) Lookup(name string) (calc.Quantity, bool) {
+	switch name {
+	case "f":
+		return calc.Real(s.ctx.Freq, calc.DimFrequency), true
+	case "w", "ω":
+		return calc.Real(s.ctx.Omega(), calc.DimAngularFrequency), true
+	}
+	if d, ok := s.byName[name]; ok {
+		return d.value, true
+	}
+	return calc.Quantity{}, false
+}
+
+// Func finds a function beyond the built-in ones.
+func (s *Sheet) Func(name string) (*calc.Func, bool) {
+	f, ok := s.funcs[name]
+	return f, ok
+}
+
+// Steps returns the trail of the whole session, oldest first.
+func (s *Sheet) Steps() []calc.Step { return s.steps }
+
+// Statements returns the accepted statements in order: a worksheet that
+// replays to the same values.
+func (s *Sheet) Statements() []string { return append([]string(nil), s.stmts...) }
+
+// Checks returns how many check statements passed and failed.
+func (s *Sheet) Checks() (pass, fail int) { return s.pass, s.fail }
+
+// Entry is a named quantity as the app lists it.
+type Entry struct {
+	Name   string
+	Value  calc.Quantity
+	Source string
+	Line   int
+	Kind   string // "value", or the element kind word
+	Raw    *calc.Quantity
+}
+
+// Entries returns the named quantities in definition order, without the
+// dotted extras of function results and networks.
+func (s *Sheet) Entries() []Entry {
+	var out []Entry
+	for _, d := range s.defs {
+		if d.owner != "" {
+			continue
+		}
+		e := Entry{Name: d.name, Value: d.value, Source: d.src, Line: d.line, Kind: "value"}
+		if d.elem != nil {
+			e.Kind = d.elem.kind.String()
+			r := d.elem.raw
+			e.Raw = &r
+		}
+		out = append(out, e)
+	}
+	return out
+}
+
+// Names returns every name defined, dotted extras included, sorted.
+func (s *Sheet) Names() []string {
+	out := make([]string, 0, len(s.byName))
+	for n := range s.byName {
+		out = append(out, n)
+	}
+	sort.Strings(out)
+	return out
+}
+
+func (s *Sheet) evaluator(src string, line int) *calc.Evaluator {
+	return &calc.Evaluator{Env: s, Src: src, Line: line}
+}
+
+// reservedWords are statement keywords and read-only names.
+var reservedWords = map[string]string{
+	"frequency": "a statement keyword", "basis": "a statement keyword", "angles": "a statement keyword",
+	"digits": "a statement keyword", "sequence": "a statement keyword", "check": "a statement keyword",
+	"network": "a statement keyword", "end": "a statement keyword", "resistor": "a statement keyword",
+	"inductor": "a statement keyword", "capacitor": "a statement keyword", "impedance": "a statement keyword",
+	"thevenin": "a statement keyword", "sweep": "a statement keyword", "tolerance": "a statement keyword",
+	"spread": "a statement keyword", "show": "a statement keyword",
+	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
+	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
+	"j": "the imaginary unit", "i": "the imaginary unit",
+}
+
+// Reserved reports why name cannot name a quantity, or "" when it can.
+// Units (with any prefix), constants, functions and keywords are reserved,
+// so that "10 mS" and a quantity called mS can never be confused.
+func (s *Sheet) Reserved(name string) string {
+	if why, ok := reservedWords[name]; ok {
+		return why
+	}
+	if calc.IsUnit(name) {
+		return "a unit symbol"
+	}
+	if _, ok := s.funcs[name]; ok {
+		return "a function name"
+	}
+	for _, f := range calc.Builtins() {
+		if f.Name == name {
+			return "a function name"
+		}
+	}
+	if name == "abs" || name == "angle" {
+		return "a function name"
+	}
+	return ""
+}
+
+// validName checks a name being defined.
+func (s *Sheet) validName(p *calc.Parser, t calc.Item) bool {
+	if t.Tok != calc.TokIdent {
+		if t.Tok == calc.TokImag {
+			p.Failf(t, "%q reads as an imaginary number, not a name", t.Text)
+		} else {
+			p.Failf(t, "expected a name, found %q", t.Text)
+		}
+		return false
+	}
+	if why := s.Reserved(t.Text); why != "" {
+		p.Failf(t, "%q is reserved (%s) and cannot be used as a name", t.Text, why)
+		return false
+	}
+	if strings.Contains(t.Text, ".") {
+		p.Failf(t, "a name cannot contain '.': dotted names are results (such as T1.z)")
+		return false
+	}
+	return true
+}
+
+// fail builds a located error.
+func lineErr(line, col, n int, format string, a ...any) *calc.Error {
+	if n < 1 {
+		n = 1
+	}
+	return &calc.Error{Line: line, Col: col, Len: n, Msg: fmt.Sprintf(format, a...)}
+}
+
+// record appends steps to the trail, stamping line and basis. A note
+// already given by an earlier step of the same line (a caution repeated by
+// each part of one calculation) is not repeated.
+func (s *Sheet) record(steps ...calc.Step) {
+	seen := map[string]bool{}
+	for i := len(s.steps) - 1; i >= 0 && s.steps[i].Line == s.line; i-- {
+		for _, n := range s.steps[i].Notes {
+			seen[n] = true
+		}
+	}
+	for i := range steps {
+		var notes []string
+		for _, n := range steps[i].Notes {
+			if !seen[n] {
+				seen[n] = true
+				notes = append(notes, n)
+			}
+		}
+		steps[i].Notes = notes
+		steps[i].Source = strings.TrimRight(steps[i].Source, " \t")
+		if steps[i].Line == 0 {
+			steps[i].Line = s.line
+		}
+		steps[i].Basis = s.ctx.Basis
+	}
+	s.steps = append(s.steps, steps...)
+}
+
+// setValue stores a definition (new or replacing), and re-evaluates the
+// definitions that depend on it. It returns the recompute step, if any.
+func (s *Sheet) setValue(d *def) error {
+	old, exists := s.byName[d.name]
+	if !exists && len(s.byName) >= MaxNames {
+		return fmt.Errorf("too many names (the limit is %d)", MaxNames)
+	}
+	if exists {
+		// a redefinition keeps its place, so dependents stay after it
+		if cyc := s.cycle(d.name, d.deps); cyc != "" {
+			return fmt.Errorf("circular definition: %s", cyc)
+		}
+		*old = *d
+	} else {
+		s.defs = append(s.defs, d)
+		s.byName[d.name] = d
+	}
+	return nil
+}
+
+// cycle reports a dependency path back to name, or "".
+func (s *Sheet) cycle(name string, deps map[string]bool) string {
+	seen := map[string]bool{}
+	var walk func(n string, path []string) string
+	walk = func(n string, path []string) string {
+		if n == name {
+			return strings.Join(append(path, n), " → ")
+		}
+		if seen[n] || len(path) > 10000 {
+			return ""
+		}
+		seen[n] = true
+		d, ok := s.byName[n]
+		if !ok {
+			return ""
+		}
+		for k := range d.deps {
+			if c := walk(k, append(path, n)); c != "" {
+				return c
+			}
+		}
+		return ""
+	}
+	for k := range deps {
+		if c := walk(k, []string{name}); c != "" {
+			return c
+		}
+	}
+	return ""
+}
+
+// propagate re-evaluates every definition that depends on a changed name
+// (or on the frequency, when freq is set), in definition order, repeating
+// until nothing more changes, and re-solves networks that use them. It
+// returns one step listing what changed.
+func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
+	step := &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"}
+	for pass := 0; pass <= len(s.defs)+1; pass++ {
+		more := false
+		for _, d := range s.defs {
+			if d.expr == nil && d.elem == nil {
+				continue
+			}
+			hit := false
+			for k := range d.deps {
+				if changed[k] {
+					hit = true
+					break
+				}
+			}
+			if d.elem != nil && changed["f"] && d.elem.kind != reduce.Resistor {
+				hit = true
+			}
+			if !hit || changed[d.name] && d.owner == "" && pass == 0 && d.expr == nil {
+				continue
+			}
+			old := d.value
+			nv, err := s.reeval(d)
+			if err != nil {
+				return nil, fmt.Errorf("while re-evaluating %s (line %d): %v", d.name, d.line, err)
+			}
+			if nv.V != old.V || nv.Dim != old.Dim {
+				d.value = nv
+				if !changed[d.name] {
+					changed[d.name] = true
+					more = true
+					step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
+				}
+			}
+		}
+		nets, err := s.resolveNets(changed)
+		if err != nil {
+			return nil, err
+		}
+		if nets {
+			more = true
+		}
+		if !more {
+			break
+		}
+	}
+	if len(step.Results) == 0 {
+		return nil, nil
+	}
+	return step, nil
+}
+
+// reeval computes a definition's value again from its expression or
+// element value.
+func (s *Sheet) reeval(d *def) (calc.Quantity, error) {
+	if d.elem != nil {
+		return s.elementValue(d.elem)
+	}
+	if d.owner != "" {
+		return d.value, nil
+	}
+	ev := s.evaluator(d.src, d.line)
+	r, err := ev.Eval(d.expr)
+	if err != nil {
+		return calc.Quantity{}, err
+	}
+	// extras of a function result follow their owner
+	for _, x := range r.Extra {
+		if e, ok := s.byName[d.name+"."+x.Name]; ok {
+			e.value = x.Value
+		}
+	}
+	return r.Value, nil
+}
+
+// elementValue is the quantity an element name stands for: its impedance
+// at the working frequency, or its source phasor.
+func (s *Sheet) elementValue(e *element) (calc.Quantity, error) {
+	switch e.kind {
+	case reduce.Resistor, reduce.Impedance, reduce.VoltageSource, reduce.CurrentSource:
+		return e.raw, nil
+	case reduce.Inductor:
+		return calc.InductorZ(e.raw.V, s.ctx.Freq)
+	case reduce.Capacitor:
+		return calc.CapacitorZ(e.raw.V, s.ctx.Freq)
+	}
+	return calc.Quantity{}, fmt.Errorf("unknown element kind")
+}
+
+// finite reports a usable float.
+func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }

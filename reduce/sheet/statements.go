@@ -1,0 +1,751 @@
+package sheet
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"argand/calc"
+	"argand/reduce"
+)
+
+// Exec runs one statement as the next line of the worksheet and returns
+// the steps it produced (they are also added to the trail). On error
+// nothing of the statement is kept, and the returned error is a
+// *calc.Error that names the line and column.
+func (s *Sheet) Exec(src string) ([]calc.Step, error) {
+	s.line++
+	return s.ExecLine(src, s.line)
+}
+
+// Line returns the number of the last line run.
+func (s *Sheet) Line() int { return s.line }
+
+// ExecLine runs one statement as line n.
+func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
+	s.line = n
+	before := len(s.steps)
+	err := s.exec(src, n)
+	if err != nil {
+		s.steps = s.steps[:before]
+		return nil, err
+	}
+	s.stmts = append(s.stmts, src)
+	return s.steps[before:len(s.steps):len(s.steps)], nil
+}
+
+// Validate parses one statement without running it and returns its first
+// syntax error, for live feedback while typing.
+func (s *Sheet) Validate(src string) *calc.Error {
+	if !utf8.ValidString(src) || len(src) > calc.MaxLine {
+		return s.execErr(src, 1)
+	}
+	c := s.Clone()
+	c.line = 0
+	if err := c.exec(src, 1); err != nil {
+		if le, ok := err.(*calc.Error); ok {
+			return le
+		}
+		return &calc.Error{Line: 1, Col: 1, Len: 1, Msg: err.Error()}
+	}
+	return nil
+}
+
+func (s *Sheet) execErr(src string, n int) *calc.Error {
+	err := s.exec(src, n)
+	if le, ok := err.(*calc.Error); ok {
+		return le
+	}
+	if err != nil {
+		return &calc.Error{Line: n, Col: 1, Len: 1, Msg: err.Error()}
+	}
+	return nil
+}
+
+// Clone returns a copy of the worksheet whose changes do not reach s.
+func (s *Sheet) Clone() *Sheet {
+	c := *s
+	c.defs = make([]*def, len(s.defs))
+	c.byName = make(map[string]*def, len(s.byName))
+	for i, d := range s.defs {
+		nd := *d
+		if d.elem != nil {
+			e := *d.elem
+			nd.elem = &e
+		}
+		c.defs[i] = &nd
+		c.byName[nd.name] = &nd
+	}
+	c.nets = make(map[string]*network, len(s.nets))
+	for k, v := range s.nets {
+		nv := *v
+		nv.elems = append([]string(nil), v.elems...)
+		c.nets[k] = &nv
+	}
+	c.order = append([]string(nil), s.order...)
+	if s.open != nil {
+		c.open = c.nets[s.open.name]
+		if c.open == nil {
+			o := *s.open
+			o.elems = append([]string(nil), s.open.elems...)
+			c.open = &o
+		}
+	}
+	c.steps = s.steps[:len(s.steps):len(s.steps)]
+	c.stmts = s.stmts[:len(s.stmts):len(s.stmts)]
+	c.tols = make(map[string]float64, len(s.tols))
+	for k, v := range s.tols {
+		c.tols[k] = v
+	}
+	c.sweeps = s.sweeps[:len(s.sweeps):len(s.sweeps)]
+	return &c
+}
+
+func (s *Sheet) exec(src string, n int) error {
+	if len(src) > calc.MaxLine {
+		return lineErr(n, 1, 1, "line too long: %d bytes (the limit is %d)", len(src), calc.MaxLine)
+	}
+	if !utf8.ValidString(src) {
+		col := 1
+		for i, r := range src {
+			if r == utf8.RuneError {
+				if _, w := utf8.DecodeRuneInString(src[i:]); w == 1 {
+					break
+				}
+			}
+			col++
+		}
+		return lineErr(n, col, 1, "invalid UTF-8 byte in the input")
+	}
+	body := src
+	if i := strings.IndexByte(src, '#'); i >= 0 {
+		body = src[:i]
+	}
+	if strings.TrimSpace(body) == "" {
+		return nil
+	}
+	p := calc.NewParser(body, n)
+	first := p.Peek()
+	if s.open != nil {
+		return s.blockLine(p, first)
+	}
+	if first.Tok == calc.TokIdent && !calledAsFunction(body) {
+		switch first.Text {
+		case "frequency":
+			return s.stmtFrequency(p)
+		case "basis":
+			return s.stmtBasis(p)
+		case "angles":
+			return s.stmtAngles(p)
+		case "digits":
+			return s.stmtDigits(p)
+		case "sequence":
+			return s.stmtSequence(p)
+		case "check":
+			return s.stmtCheck(p)
+		case "resistor", "inductor", "capacitor", "impedance":
+			return s.stmtElement(p, nil)
+		case "network":
+			return s.stmtNetwork(p)
+		case "end":
+			p.Next()
+			return perr(p, "'end' without an open network block")
+		case "thevenin":
+			return s.stmtThevenin(p)
+		case "sweep":
+			return s.stmtSweep(p)
+		case "tolerance":
+			return s.stmtTolerance(p)
+		case "spread":
+			return s.stmtSpread(p)
+		case "voltage", "current":
+			if s.isSourceStmt(body) {
+				return s.stmtElement(p, nil)
+			}
+		}
+	}
+	return s.stmtAssignOrEval(p)
+}
+
+// perr returns the parser's error, or a new one at the current token.
+func perr(p *calc.Parser, format string, a ...any) error {
+	if err := p.Err(); err != nil {
+		return err
+	}
+	p.Failf(p.Peek(), format, a...)
+	return p.Err()
+}
+
+// calledAsFunction reports a line that starts with a word and "(", such as
+// thevenin(V, Z1, Z2): a function call, not the statement of that name.
+func calledAsFunction(body string) bool {
+	q := calc.NewParser(body, 0)
+	q.Next()
+	return q.IsOp("(")
+}
+
+func (s *Sheet) isSourceStmt(body string) bool {
+	f := strings.Fields(body)
+	return len(f) >= 2 && f[1] == "source"
+}
+
+// expectWord consumes the identifier w or fails.
+func expectWord(p *calc.Parser, w, context string) bool {
+	if p.IsWord(w) {
+		p.Next()
+		return true
+	}
+	t := p.Peek()
+	if t.Tok == calc.TokEOF {
+		p.FailAt(t.Col, 1, "%s: expected %q, found the end of the line", context, w)
+	} else {
+		p.Failf(t, "%s: expected %q, found %q", context, w, t.Text)
+	}
+	return false
+}
+
+// word reads one identifier from a fixed choice.
+func word(p *calc.Parser, context string, choices ...string) (string, bool) {
+	t := p.Peek()
+	for _, c := range choices {
+		if t.Tok == calc.TokIdent && strings.EqualFold(t.Text, c) {
+			p.Next()
+			return c, true
+		}
+	}
+	what := fmt.Sprintf("%q", t.Text)
+	if t.Tok == calc.TokEOF {
+		what = "nothing"
+	}
+	p.FailAt(t.Col, max(1, utf8.RuneCountInString(t.Text)), "%s takes %s, found %s", context, strings.Join(choices, " or "), what)
+	return "", false
+}
+
+func (s *Sheet) eval(p *calc.Parser, e calc.Expr) (calc.Result, error) {
+	ev := s.evaluator(p.Source(), s.line)
+	r, err := ev.Eval(e)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	return r, nil
+}
+
+func (s *Sheet) stmtFrequency(p *calc.Parser) error {
+	kw := p.Next()
+	if p.Peek().Tok == calc.TokEOF {
+		return perr(p, "frequency needs a value, such as frequency 60 Hz")
+	}
+	e := p.Expr()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	r, err := s.eval(p, e)
+	if err != nil {
+		return err
+	}
+	q := r.Value
+	pos, end, col := e.Span()
+	n := utf8.RuneCountInString(p.Source()[pos:end])
+	var hz float64
+	switch q.Dim {
+	case calc.DimFrequency:
+		hz = real(q.V)
+	case calc.DimAngularFrequency:
+		hz = real(q.V) / (2 * 3.141592653589793)
+	case calc.Dimensionless:
+		return lineErr(s.line, col, n, "frequency needs a unit: Hz or rad/s (as in frequency 60 Hz)")
+	default:
+		return lineErr(s.line, col, n, "frequency must be in Hz or rad/s, not %s", calc.DimName(q.Dim, false))
+	}
+	if !q.IsReal() {
+		return lineErr(s.line, col, n, "frequency must be a real number")
+	}
+	if hz <= 0 || !finite(hz) {
+		return lineErr(s.line, col, n, "frequency must be greater than 0 (got %s)", s.ctx.Format.Mag(real(q.V), q.Dim, 0))
+	}
+	_ = kw
+	old := s.ctx.Freq
+	s.ctx.Freq = hz
+	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f",
+		Results: []calc.Operand{{Name: "f", Value: calc.Real(hz, calc.DimFrequency)}, {Name: "ω", Value: calc.Real(s.ctx.Omega(), calc.DimAngularFrequency)}}}
+	s.record(st)
+	if old != hz {
+		rs, err := s.propagate(map[string]bool{"f": true, "w": true, "ω": true}, "frequency changed from "+s.ctx.Format.Mag(old, calc.DimFrequency, 0)+" to "+s.ctx.Format.Mag(hz, calc.DimFrequency, 0))
+		if err != nil {
+			s.ctx.Freq = old
+			return lineErr(s.line, 1, 1, "%v", err)
+		}
+		if rs != nil {
+			s.record(*rs)
+		}
+	}
+	return nil
+}
+
+func (s *Sheet) stmtBasis(p *calc.Parser) error {
+	p.Next()
+	w, ok := word(p, "basis", "rms", "peak")
+	p.ExpectEnd()
+	if !ok || p.Err() != nil {
+		return p.Err()
+	}
+	if w == "peak" {
+		s.ctx.Basis = calc.Peak
+	} else {
+		s.ctx.Basis = calc.RMS
+	}
+	f := "S = V·I* (RMS phasors)"
+	if w == "peak" {
+		f = "S = ½·V·I* (peak phasors)"
+	}
+	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: "phasor basis " + w, Formula: f})
+	return nil
+}
+
+func (s *Sheet) stmtAngles(p *calc.Parser) error {
+	p.Next()
+	w, ok := word(p, "angles", "deg", "rad", "degrees", "radians")
+	p.ExpectEnd()
+	if !ok || p.Err() != nil {
+		return p.Err()
+	}
+	s.ctx.Format.Radians = w == "rad" || w == "radians"
+	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: "angles shown and read in " + map[bool]string{true: "radians", false: "degrees"}[s.ctx.Format.Radians]})
+	return nil
+}
+
+func (s *Sheet) stmtDigits(p *calc.Parser) error {
+	p.Next()
+	t := p.Peek()
+	if t.Tok != calc.TokNumber {
+		return perr(p, "digits takes a whole number from 1 to %d", calc.MaxDigits)
+	}
+	p.Next()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	d, err := strconv.Atoi(t.Text)
+	if err != nil || d < 1 || d > calc.MaxDigits {
+		p.Failf(t, "digits takes a whole number from 1 to %d", calc.MaxDigits)
+		return p.Err()
+	}
+	s.ctx.Format.Digits = d
+	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: "significant figures shown: " + t.Text})
+	return nil
+}
+
+func (s *Sheet) stmtSequence(p *calc.Parser) error {
+	p.Next()
+	w, ok := word(p, "sequence", "abc", "acb")
+	p.ExpectEnd()
+	if !ok || p.Err() != nil {
+		return p.Err()
+	}
+	s.ctx.Sequence = 1
+	rule := "phase sequence ABC (positive): V_ab = √3·V_an∠+30°"
+	if w == "acb" {
+		s.ctx.Sequence = -1
+		rule = "phase sequence ACB (negative): V_ab = √3·V_an∠−30°"
+	}
+	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: rule})
+	return nil
+}
+
+// autoName gives a result typed without a name a name from its dimension,
+// the letter an engineer would use (Z for an impedance, V, I, S, P, Q, Y,
+// L, C), numbered from 1 past any name already taken.
+func (s *Sheet) autoName(q calc.Quantity) string {
+	letter := "x"
+	switch q.Dim {
+	case calc.DimImpedance:
+		letter = "Z"
+	case calc.DimAdmittance:
+		letter = "Y"
+	case calc.DimVoltage:
+		letter = "V"
+	case calc.DimCurrent:
+		letter = "I"
+	case calc.DimPower:
+		switch q.Kind {
+		case calc.KindActive:
+			letter = "P"
+		case calc.KindReactive:
+			letter = "Q"
+		default:
+			letter = "S"
+		}
+	case calc.DimInductance:
+		letter = "L"
+	case calc.DimCapacitance:
+		letter = "C"
+	case calc.DimFrequency:
+		letter = "fr"
+	case calc.DimTime:
+		letter = "t"
+	}
+	if q.Kind == calc.KindAngle {
+		letter = "θ"
+	}
+	for k := 1; ; k++ {
+		n := letter + strconv.Itoa(k)
+		if _, taken := s.byName[n]; !taken {
+			return n
+		}
+	}
+}
+
+func depsOf(e calc.Expr) map[string]bool {
+	deps := map[string]bool{}
+	calc.Walk(e, func(x calc.Expr) {
+		switch n := x.(type) {
+		case *calc.Name:
+			deps[n.Name] = true
+			if n.Name == "w" || n.Name == "ω" {
+				deps["f"] = true
+			}
+		case *calc.Call:
+			switch n.Fun {
+			case "zl", "zc", "pfc", "resonance":
+				deps["f"] = true
+			default:
+				deps["f"] = true // functions may read the working frequency
+			}
+		}
+	})
+	return deps
+}
+
+func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
+	src := p.Source()
+	first := p.Peek()
+	var name string
+	var nameTok calc.Item
+	// NAME = EXPR: look for the '=' after a leading identifier
+	q := calc.NewParser(src, s.line)
+	if t := q.Next(); (t.Tok == calc.TokIdent || t.Tok == calc.TokImag) && q.IsOp("=") {
+		nameTok = p.Next()
+		p.Next() // =
+		if !s.validName(p, nameTok) {
+			return p.Err()
+		}
+		name = nameTok.Text
+		if p.Peek().Tok == calc.TokEOF {
+			return perr(p, "nothing after '=': give %s a value", name)
+		}
+	}
+	e := p.Expr()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	_ = first
+	r, err := s.eval(p, e)
+	if err != nil {
+		return err
+	}
+	if name != "" {
+		if d, ok := s.byName[name]; ok && d.elem != nil {
+			return s.changeElement(p, d, r.Value, e)
+		}
+		if d, ok := s.byName[name]; ok && d.owner != "" {
+			p.Failf(nameTok, "%q is a result of %s and cannot be assigned", name, d.owner)
+			return p.Err()
+		}
+	}
+	auto := name == ""
+	if auto {
+		name = s.autoName(r.Value)
+	}
+	d := &def{name: name, src: src, line: s.line, expr: e, value: r.Value, deps: depsOf(e)}
+	_, existed := s.byName[name]
+	if err := s.setValue(d); err != nil {
+		p.Failf(nameTok, "%v", err)
+		return p.Err()
+	}
+	extras := s.setExtras(name, src, r.Extra)
+	st := s.describe(p, e, r)
+	st.Kind = "define"
+	if auto {
+		st.Kind = "eval"
+	}
+	st.Results = append([]calc.Operand{{Name: name, Value: r.Value}}, extras...)
+	s.record(r.Steps...)
+	s.record(st)
+	if existed {
+		rs, err := s.propagate(map[string]bool{name: true}, name+" redefined")
+		if err != nil {
+			return lineErr(s.line, 1, 1, "%v", err)
+		}
+		if rs != nil {
+			s.record(*rs)
+		}
+	}
+	return nil
+}
+
+// setExtras defines NAME.key for each extra value of a function result.
+func (s *Sheet) setExtras(name, src string, extra []calc.Operand) []calc.Operand {
+	var out []calc.Operand
+	for _, x := range extra {
+		n := name + "." + x.Name
+		d := &def{name: n, src: src, line: s.line, value: x.Value, owner: name, key: x.Name, deps: map[string]bool{name: true}}
+		if old, ok := s.byName[n]; ok {
+			*old = *d
+		} else {
+			s.defs = append(s.defs, d)
+			s.byName[n] = d
+		}
+		out = append(out, calc.Operand{Name: n, Value: x.Value})
+	}
+	return out
+}
+
+// describe builds the step of an evaluation: the rule and formula of the
+// outermost operation and each of its operands with its value.
+func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
+	st := calc.Step{Source: p.Source(), Notes: r.Notes}
+	ev := s.evaluator(p.Source(), s.line)
+	operand := func(x calc.Expr) {
+		if _, ok := x.(*calc.Lit); ok {
+			return
+		}
+		if u, ok := x.(*calc.Unary); ok {
+			if _, ok := u.X.(*calc.Lit); ok {
+				return
+			}
+		}
+		v, err := ev.Eval(x)
+		if err != nil {
+			return
+		}
+		st.Inputs = append(st.Inputs, calc.Operand{Name: p.Text(x), Value: v.Value})
+	}
+	inner := e
+	for {
+		if pe, ok := inner.(*calc.Paren); ok {
+			inner = pe.X
+			continue
+		}
+		break
+	}
+	switch n := inner.(type) {
+	case *calc.Binary:
+		a, b := p.Text(n.X), p.Text(n.Y)
+		switch n.Op {
+		case "+":
+			st.Rule, st.Formula = "sum", a+" + "+b
+		case "-":
+			st.Rule, st.Formula = "difference (first minus second)", a+" − "+b
+		case "*":
+			st.Rule, st.Formula = "product", a+" · "+b
+		case "/":
+			st.Rule, st.Formula = "quotient (first over second)", a+" / "+b
+		case "^":
+			st.Rule, st.Formula = "power (principal value)", "("+a+")^("+b+")"
+		case "||":
+			st.Rule, st.Formula = "parallel: product over sum", "("+a+")·("+b+") / (("+a+") + ("+b+"))"
+		}
+		operand(n.X)
+		operand(n.Y)
+	case *calc.Polar:
+		st.Rule, st.Formula = "phasor from magnitude and angle", "m∠θ = m·(cos θ + j·sin θ)"
+	case *calc.Unary:
+		st.Rule = "negation"
+		operand(n.X)
+	case *calc.Call:
+		f, ok := s.funcs[n.Fun]
+		if !ok {
+			for _, b := range calc.Builtins() {
+				if b.Name == n.Fun || (n.Fun == "abs" && b.Name == "mag") || (n.Fun == "angle" && b.Name == "arg") {
+					b := b
+					f = &b
+				}
+			}
+		}
+		if f != nil {
+			st.Rule, st.Formula = f.Doc, f.Formula
+		}
+		for _, a := range n.Args {
+			if nm, ok := a.(*calc.Name); ok {
+				if _, def := s.Lookup(nm.Name); !def {
+					continue // a word argument
+				}
+			}
+			operand(a)
+		}
+	case *calc.Name:
+		st.Rule = "value of " + n.Name
+	case *calc.Lit:
+		st.Rule = "value as entered"
+	}
+	return st
+}
+
+// stmtElement defines an element: a named component value that remembers
+// its kind, so its impedance follows the working frequency. Inside a
+// network block it also joins two nodes.
+func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
+	kw := p.Next()
+	kind := map[string]reduce.ElementKind{"resistor": reduce.Resistor, "inductor": reduce.Inductor,
+		"capacitor": reduce.Capacitor, "impedance": reduce.Impedance}[kw.Text]
+	want := map[reduce.ElementKind]calc.Dim{reduce.Resistor: calc.DimImpedance, reduce.Inductor: calc.DimInductance,
+		reduce.Capacitor: calc.DimCapacitance, reduce.Impedance: calc.DimImpedance,
+		reduce.VoltageSource: calc.DimVoltage, reduce.CurrentSource: calc.DimCurrent}
+	if kw.Text == "voltage" || kw.Text == "current" {
+		p.Next() // source
+		kind = reduce.VoltageSource
+		if kw.Text == "current" {
+			kind = reduce.CurrentSource
+		}
+	}
+	nameTok := p.Next()
+	if !s.validName(p, nameTok) {
+		return p.Err()
+	}
+	if !p.IsOp("=") {
+		return perr(p, "expected '=' after the element name %s", nameTok.Text)
+	}
+	p.Next()
+	if p.Peek().Tok == calc.TokEOF {
+		return perr(p, "%s %s needs a value", kind, nameTok.Text)
+	}
+	e := p.Expr()
+	var from, to string
+	var fromTok calc.Item
+	if p.Err() == nil && p.IsWord("from") {
+		p.Next()
+		fromTok = p.Peek()
+		from = nodeName(p)
+		if !expectWord(p, "to", kind.String()+" "+nameTok.Text) {
+			return p.Err()
+		}
+		to = nodeName(p)
+	}
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	if net == nil && from != "" {
+		p.Failf(fromTok, "nodes (from … to …) belong inside a network block: start one with network NAME reference NODE")
+		return p.Err()
+	}
+	if net != nil && from == "" {
+		p.FailAt(p.EndCol(), 1, "an element inside a network joins two nodes: add from NODE to NODE")
+		return p.Err()
+	}
+	if kind.IsSource() && net == nil {
+		p.Failf(kw, "a source belongs inside a network block (network NAME reference NODE … end)")
+		return p.Err()
+	}
+	r, err := s.eval(p, e)
+	if err != nil {
+		return err
+	}
+	pos, end, col := e.Span()
+	n := utf8.RuneCountInString(p.Source()[pos:end])
+	if r.Value.Dim != want[kind] {
+		return lineErr(s.line, col, n, "a %s takes a value in %s, got %s", kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false))
+	}
+	if (kind == reduce.Resistor || kind == reduce.Inductor || kind == reduce.Capacitor) && !r.Value.IsReal() {
+		return lineErr(s.line, col, n, "a %s takes a real value; use impedance for a complex one", kind)
+	}
+	el := &element{kind: kind, raw: r.Value, from: from, to: to}
+	if net != nil {
+		el.net = net.name
+	}
+	v, err2 := s.elementValue(el)
+	if err2 != nil {
+		return lineErr(s.line, col, n, "%v", err2)
+	}
+	if old, ok := s.byName[nameTok.Text]; ok {
+		if old.elem == nil || net != nil {
+			p.Failf(nameTok, "%s is already defined (line %d)", nameTok.Text, old.line)
+			return p.Err()
+		}
+	}
+	d := &def{name: nameTok.Text, src: p.Source(), line: s.line, value: v, elem: el, deps: map[string]bool{}}
+	if kind == reduce.Inductor || kind == reduce.Capacitor {
+		d.deps["f"] = true
+	}
+	_, existed := s.byName[d.name]
+	if err := s.setValue(d); err != nil {
+		return lineErr(s.line, nameTok.Col, 1, "%v", err)
+	}
+	st := calc.Step{Kind: "element", Source: p.Source(), Rule: kind.String()}
+	switch kind {
+	case reduce.Inductor:
+		st.Formula = "Z = jωL, ω = 2π·f"
+	case reduce.Capacitor:
+		st.Formula = "Z = 1/(jωC) = −j/(ωC), ω = 2π·f"
+	case reduce.Resistor:
+		st.Formula = "Z = R"
+	}
+	if kind == reduce.Inductor || kind == reduce.Capacitor {
+		st.Inputs = []calc.Operand{{Name: "value", Value: r.Value}, {Name: "f", Value: calc.Real(s.ctx.Freq, calc.DimFrequency)}}
+	}
+	st.Results = []calc.Operand{{Name: d.name, Value: v}}
+	s.record(st)
+	if net != nil {
+		net.elems = append(net.elems, d.name)
+	}
+	if existed {
+		rs, err := s.propagate(map[string]bool{d.name: true}, d.name+" changed")
+		if err != nil {
+			return lineErr(s.line, 1, 1, "%v", err)
+		}
+		if rs != nil {
+			s.record(*rs)
+		}
+	}
+	return nil
+}
+
+// changeElement gives an element a new component value (R1 = 120 Ω), keeping
+// its kind and nodes, and re-solves what uses it.
+func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Expr) error {
+	want := d.elem.raw.Dim
+	pos, end, col := e.Span()
+	n := utf8.RuneCountInString(p.Source()[pos:end])
+	if v.Dim != want {
+		return lineErr(s.line, col, n, "%s is a %s: its value is in %s, got %s", d.name, d.elem.kind, calc.UnitSymbol(want, 0, false), calc.DimName(v.Dim, false))
+	}
+	el := *d.elem
+	el.raw = v
+	z, err := s.elementValue(&el)
+	if err != nil {
+		return lineErr(s.line, col, n, "%v", err)
+	}
+	*d.elem = el
+	d.value = z
+	s.record(calc.Step{Kind: "element", Source: p.Source(), Rule: d.elem.kind.String() + " value changed", Results: []calc.Operand{{Name: d.name, Value: z}}})
+	rs, err := s.propagate(map[string]bool{d.name: true}, d.name+" changed")
+	if err != nil {
+		return lineErr(s.line, 1, 1, "%v", err)
+	}
+	if rs != nil {
+		s.record(*rs)
+	}
+	return nil
+}
+
+// nodeName reads a node name: an identifier or a whole number.
+func nodeName(p *calc.Parser) string {
+	t := p.Peek()
+	switch t.Tok {
+	case calc.TokIdent, calc.TokNumber:
+		p.Next()
+		return t.Text
+	case calc.TokImag:
+		p.Next()
+		return p.Source()[t.Off:t.End]
+	}
+	if t.Tok == calc.TokEOF {
+		p.FailAt(t.Col, 1, "expected a node name, found the end of the line")
+	} else {
+		p.Failf(t, "expected a node name, found %q", t.Text)
+	}
+	return ""
+}

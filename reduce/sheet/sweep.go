@@ -1,0 +1,301 @@
+package sheet
+
+import (
+	"strconv"
+
+	"argand/calc"
+	"argand/reduce/site"
+	"argand/reduce/sweep"
+)
+
+// SweepResult is a finished sweep, kept for the app to draw.
+type SweepResult struct {
+	Source string
+	Table  *sweep.Table
+	DB     bool
+}
+
+// Sweeps returns the sweeps run so far.
+func (s *Sheet) Sweeps() []*SweepResult { return s.sweeps }
+
+// AtFrequency evaluates an expression with the working frequency set to
+// hz, every frequency-dependent definition and network re-evaluated, and
+// the worksheet itself unchanged.
+func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity, error) {
+	c := s.Clone()
+	c.ctx.Freq = hz
+	if _, err := c.propagate(map[string]bool{"f": true, "w": true, "ω": true}, ""); err != nil {
+		return calc.Quantity{}, err
+	}
+	ev := c.evaluator(src, s.line)
+	r, err := ev.Eval(e)
+	if err != nil {
+		return calc.Quantity{}, errPlain(err)
+	}
+	return r.Value, nil
+}
+
+// errPlain strips the location from an evaluation error at a sweep point,
+// where the message, not the column, matters; calc.ErrOpenCircuit keeps its
+// identity so the sweep can mark the point.
+func errPlain(err *calc.Error) error {
+	if err.Msg == calc.ErrOpenCircuit.Error() {
+		return calc.ErrOpenCircuit
+	}
+	return err
+}
+
+// stmtSweep runs: sweep EXPR from F1 to F2 [points N] [log|linear] [db].
+func (s *Sheet) stmtSweep(p *calc.Parser) error {
+	p.Next()
+	if p.Peek().Tok == calc.TokEOF {
+		return perr(p, "sweep needs a value: sweep Zin from 10 Hz to 10 kHz")
+	}
+	e := p.Expr()
+	if p.Err() != nil {
+		return p.Err()
+	}
+	if !expectWord(p, "from", "sweep") {
+		return p.Err()
+	}
+	f1E := p.Expr()
+	if p.Err() != nil || !expectWord(p, "to", "sweep") {
+		return p.Err()
+	}
+	f2E := p.Expr()
+	n, logScale, db := 41, true, false
+	given := false
+	for p.Err() == nil && p.Peek().Tok != calc.TokEOF {
+		switch {
+		case p.IsWord("points"):
+			p.Next()
+			t := p.Next()
+			k, err := strconv.Atoi(t.Text)
+			if t.Tok != calc.TokNumber || err != nil || k < 2 || k > sweep.MaxPoints {
+				p.Failf(t, "points takes a whole number from 2 to %d", sweep.MaxPoints)
+				return p.Err()
+			}
+			n = k
+		case p.IsWord("log"):
+			p.Next()
+			logScale, given = true, true
+		case p.IsWord("linear"):
+			p.Next()
+			logScale, given = false, true
+		case p.IsWord("db"), p.IsWord("dB"):
+			p.Next()
+			db = true
+		default:
+			return perr(p, "sweep options are points N, log, linear and db; found %q", p.Peek().Text)
+		}
+	}
+	if err := p.Err(); err != nil {
+		return err
+	}
+	freq := func(x calc.Expr) (float64, error) {
+		r, err := s.eval(p, x)
+		if err != nil {
+			return 0, err
+		}
+		_, _, col := x.Span()
+		q := r.Value
+		switch {
+		case q.Dim == calc.DimFrequency && q.IsReal():
+			return real(q.V), nil
+		case q.Dim == calc.DimAngularFrequency && q.IsReal():
+			return real(q.V) / (2 * 3.141592653589793), nil
+		}
+		return 0, lineErr(s.line, col, width(p, x), "a sweep runs over frequencies in Hz or rad/s, not %s", calc.DimName(q.Dim, false))
+	}
+	a, err := freq(f1E)
+	if err != nil {
+		return err
+	}
+	b, err := freq(f2E)
+	if err != nil {
+		return err
+	}
+	if !given && a <= 0 {
+		logScale = false
+	}
+	pts, err := sweep.Points(a, b, n, logScale)
+	if err != nil {
+		_, _, col := f1E.Span()
+		return lineErr(s.line, col, width(p, f1E), "%v", err)
+	}
+	src := p.Source()
+	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) { return s.AtFrequency(src, e, hz) })
+	if err != nil {
+		_, _, col := e.Span()
+		return lineErr(s.line, col, width(p, e), "%v", err)
+	}
+	s.sweeps = append(s.sweeps, &SweepResult{Source: src, Table: tab, DB: db})
+	st := calc.Step{Kind: "sweep", Source: src, Rule: "frequency sweep of " + p.Text(e) + " (" + strconv.Itoa(len(pts)) + " points)",
+		Formula: "each point re-evaluates every frequency-dependent value at f"}
+	for _, pt := range tab.Points {
+		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0)}
+		if pt.Mark != "" {
+			row.Name += " (" + pt.Mark + ")"
+		}
+		row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
+		st.Rows = append(st.Rows, row)
+	}
+	st.Notes = append(st.Notes, "plot:\n"+sweep.Plot(tab, 64, 10, db, s.ctx.Format.ASCII))
+	s.record(st)
+	return nil
+}
+
+// stmtTolerance runs: tolerance NAME P% — the named value may lie within
+// ±P % of its nominal value.
+func (s *Sheet) stmtTolerance(p *calc.Parser) error {
+	p.Next()
+	nameTok := p.Next()
+	d, ok := s.byName[nameTok.Text]
+	if nameTok.Tok != calc.TokIdent || !ok {
+		p.Failf(nameTok, "tolerance names a defined value, as in tolerance R1 5%%")
+		return p.Err()
+	}
+	t := p.Next()
+	if t.Tok != calc.TokNumber || !p.IsWord("%") {
+		p.Failf(t, "a tolerance is written as a percentage, as in tolerance %s 5%%", nameTok.Text)
+		return p.Err()
+	}
+	p.Next()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	v, err := strconv.ParseFloat(t.Text, 64)
+	if err != nil || v < 0 || v >= 100 {
+		p.Failf(t, "a tolerance lies from 0%% to below 100%%")
+		return p.Err()
+	}
+	s.tols[d.name] = v
+	s.record(calc.Step{Kind: "tolerance", Source: p.Source(), Rule: d.name + " may lie within ±" + t.Text + " % of its nominal value",
+		Results: []calc.Operand{{Name: d.name, Value: d.value}}})
+	return nil
+}
+
+// spreadOf finds the range of an expression over the tolerances of the
+// values it depends on.
+func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) {
+	var params []site.Param
+	var names []string
+	for _, n := range s.tolerancesUnder(e) {
+		d := s.byName[n]
+		nominal := d.value
+		if d.elem != nil {
+			nominal = d.elem.raw
+		}
+		params = append(params, site.Param{Name: n, Nominal: nominal, Tol: s.tols[n]})
+		names = append(names, n)
+	}
+	src := p.Source()
+	rr, err := site.Range(params, func(vals []calc.Quantity) (calc.Quantity, error) {
+		c := s.Clone()
+		changed := map[string]bool{}
+		for i, n := range names {
+			d := c.byName[n]
+			if d.elem != nil {
+				d.elem.raw = vals[i]
+				z, err := c.elementValue(d.elem)
+				if err != nil {
+					return calc.Quantity{}, err
+				}
+				d.value = z
+			} else {
+				d.value = vals[i]
+				d.expr = nil // held at the sampled value
+			}
+			changed[n] = true
+		}
+		if _, err := c.propagate(changed, ""); err != nil {
+			return calc.Quantity{}, err
+		}
+		r, err := c.evaluator(src, s.line).Eval(e)
+		if err != nil {
+			return calc.Quantity{}, errPlain(err)
+		}
+		return r.Value, nil
+	})
+	if err != nil {
+		_, _, col := e.Span()
+		return site.RangeResult{}, lineErr(s.line, col, width(p, e), "%v", err)
+	}
+	return rr, nil
+}
+
+// tolerancesUnder lists the toleranced names an expression depends on,
+// directly or through other definitions and networks.
+func (s *Sheet) tolerancesUnder(e calc.Expr) []string {
+	seen := map[string]bool{}
+	var out []string
+	var visit func(name string, depth int)
+	visit = func(name string, depth int) {
+		if seen[name] || depth > 10000 {
+			return
+		}
+		seen[name] = true
+		if _, ok := s.tols[name]; ok {
+			out = append(out, name)
+		}
+		if d, ok := s.byName[name]; ok {
+			for k := range d.deps {
+				visit(k, depth+1)
+			}
+			if d.owner != "" {
+				if nw, ok := s.nets[d.owner]; ok {
+					for k := range nw.deps {
+						visit(k, depth+1)
+					}
+				}
+				visit(d.owner, depth+1)
+			}
+		}
+	}
+	for k := range depsOf(e) {
+		visit(k, 0)
+	}
+	sortStrings(out)
+	return out
+}
+
+// stmtSpread runs: spread [NAME =] EXPR — the range of EXPR's magnitude and
+// angle over the tolerances of the values it depends on.
+func (s *Sheet) stmtSpread(p *calc.Parser) error {
+	p.Next()
+	var name string
+	q := calc.NewParser(p.Source(), s.line)
+	q.Next()
+	if t := q.Next(); t.Tok == calc.TokIdent && q.IsOp("=") {
+		nt := p.Next()
+		p.Next()
+		if !s.validName(p, nt) {
+			return p.Err()
+		}
+		name = nt.Text
+	}
+	if p.Peek().Tok == calc.TokEOF {
+		return perr(p, "spread needs a value: spread Zin")
+	}
+	e := p.Expr()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	rr, err := s.spreadOf(p, e)
+	if err != nil {
+		return err
+	}
+	s.record(rr.Steps...)
+	st := calc.Step{Kind: "spread", Source: p.Source(), Rule: "range over the tolerances (" + site.SampledLabel + ")", Results: rr.Operands()}
+	if name != "" {
+		d := &def{name: name, src: p.Source(), line: s.line, value: rr.Nominal, deps: map[string]bool{}}
+		if err := s.setValue(d); err != nil {
+			return lineErr(s.line, 1, 1, "%v", err)
+		}
+		st.Results = append([]calc.Operand{{Name: name, Value: rr.Nominal}}, s.setExtras(name, p.Source(), rr.Operands())...)
+	}
+	s.record(st)
+	return nil
+}

@@ -1,0 +1,180 @@
+// Package cli prints worksheet work for the command line: the steps of
+// argand eval and argand run as text or as JSON lines, errors with a caret
+// under their place, and the summary of the checks. It holds the exit-code
+// contract of shared DESIGN.md.
+package cli
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+)
+
+// Exit codes (shared DESIGN.md).
+const (
+	ExitOK        = 0
+	ExitCheckFail = 1
+	ExitBadInput  = 2
+)
+
+// Options are the output settings from the command line.
+type Options struct {
+	JSON       bool
+	Digits     int // 0 keeps the worksheet's own setting
+	ASCII      bool
+	PolarFirst bool
+}
+
+// Printer writes steps and errors in one of the two output forms.
+type Printer struct {
+	W   io.Writer // steps and, in JSON mode, errors
+	Err io.Writer // errors in text mode
+	O   Options
+}
+
+func (p *Printer) format(s *sheet.Sheet) calc.Format {
+	f := s.Context().Format
+	f.ASCII = p.O.ASCII
+	return f
+}
+
+// Steps writes steps.
+func (p *Printer) Steps(s *sheet.Sheet, steps []calc.Step) {
+	f := p.format(s)
+	for i := range steps {
+		if p.O.JSON {
+			fmt.Fprintln(p.W, steps[i].JSON())
+			continue
+		}
+		fmt.Fprint(p.W, steps[i].Text(f, p.O.PolarFirst))
+	}
+}
+
+// Error writes a located error: in JSON mode one object, in text mode the
+// message, the line and a caret under the place.
+func (p *Printer) Error(e *calc.Error, src, file string) {
+	if p.O.JSON {
+		fmt.Fprintln(p.W, calc.ErrorJSON(e.Msg, e.Line, e.Col))
+		return
+	}
+	where := fmt.Sprintf("line %d, col %d", e.Line, e.Col)
+	if file != "" {
+		where = fmt.Sprintf("%s:%d:%d", file, e.Line, e.Col)
+	}
+	msg := e.Msg
+	if p.O.ASCII {
+		msg = calc.ASCIIText(msg)
+	}
+	fmt.Fprintf(p.Err, "error: %s: %s\n", where, msg)
+	if src != "" {
+		c := calc.Caret(src, e)
+		if p.O.ASCII {
+			c = asciiOnly(c)
+		}
+		for _, l := range strings.Split(c, "\n") {
+			fmt.Fprintln(p.Err, "  "+l)
+		}
+	}
+}
+
+// asciiOnly replaces every non-ASCII character by '?', one for one, so the
+// caret under it stays in place.
+func asciiOnly(s string) string {
+	var b strings.Builder
+	for _, r := range s {
+		if r < 0x80 {
+			b.WriteRune(r)
+		} else {
+			b.WriteByte('?')
+		}
+	}
+	return b.String()
+}
+
+// Summary writes the checks' outcome.
+func (p *Printer) Summary(pass, fail int) {
+	if pass+fail == 0 {
+		return
+	}
+	if p.O.JSON {
+		fmt.Fprintf(p.W, "{\"kind\":\"summary\",\"checks_passed\":%d,\"checks_failed\":%d}\n", pass, fail)
+		return
+	}
+	fmt.Fprintf(p.W, "checks: %d passed, %d failed\n", pass, fail)
+}
+
+// NewSheet returns a worksheet with the digits option applied.
+func NewSheet(o Options) (*sheet.Sheet, error) {
+	s := sheet.New()
+	if o.Digits < 0 || o.Digits > calc.MaxDigits {
+		return nil, fmt.Errorf("--digits takes a whole number from 1 to %d", calc.MaxDigits)
+	}
+	if o.Digits != 0 {
+		s.Context().Format.Digits = o.Digits
+	}
+	return s, nil
+}
+
+// Eval runs each argument as one statement (usually an expression) and
+// prints its steps; it stops at the first bad one.
+func Eval(args []string, w, ew io.Writer, o Options) int {
+	p := &Printer{W: w, Err: ew, O: o}
+	s, err := NewSheet(o)
+	if err != nil {
+		fmt.Fprintln(ew, "error:", err)
+		return ExitBadInput
+	}
+	for i, a := range args {
+		steps, err := s.ExecLine(a, i+1)
+		if err != nil {
+			e, ok := err.(*calc.Error)
+			if !ok {
+				e = &calc.Error{Line: i + 1, Col: 1, Len: 1, Msg: err.Error()}
+			}
+			e.Line = i + 1
+			p.Error(e, a, "argument")
+			return ExitBadInput
+		}
+		p.Steps(s, steps)
+	}
+	pass, fail := s.Checks()
+	p.Summary(pass, fail)
+	if fail > 0 {
+		return ExitCheckFail
+	}
+	return ExitOK
+}
+
+// Run runs a worksheet, printing each line's steps as it completes, then
+// the checks' summary.
+func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
+	p := &Printer{W: w, Err: ew, O: o}
+	s, err := NewSheet(o)
+	if err != nil {
+		fmt.Fprintln(ew, "error:", err)
+		return ExitBadInput
+	}
+	bw := bufio.NewWriter(w)
+	p.W = bw
+	defer bw.Flush()
+	sum, err := s.Run(r, func(steps []calc.Step) { p.Steps(s, steps) })
+	if err != nil {
+		bw.Flush()
+		fmt.Fprintf(ew, "error: %s: %v\n", file, err)
+		return ExitBadInput
+	}
+	if sum.Err != nil {
+		bw.Flush()
+		p.Error(sum.Err, sum.ErrSrc, file)
+		return ExitBadInput
+	}
+	p.Summary(sum.Pass, sum.Fail)
+	if sum.Fail > 0 {
+		return ExitCheckFail
+	}
+	return ExitOK
+}

@@ -1,0 +1,151 @@
+package cli
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+)
+
+// Safety is the caution shown in help, beside power-factor correction and
+// three-phase results, and in the README (shared DESIGN.md).
+const Safety = `argand is a calculation aid, not a substitute for measurement, isolation
+procedures or a qualified person. Work on energised or mains equipment only
+if qualified, under local electrical codes and licensed practice. Capacitors
+can hold a lethal charge after disconnection: discharge and verify before
+touching. Verify every result by measurement before relying on it.`
+
+const usage = `argand: AC circuit work with phasors, step by step.
+
+usage:
+  argand                 open the app (last session, or the example on first start)
+  argand FILE            open a worksheet in the app
+  argand eval EXPR...    evaluate each argument; print every step
+  argand run FILE        run a worksheet (- for standard input); print every step
+  argand help [TOPIC]    this help; topics: language, functions, networks, safety
+  argand --version
+
+flags:
+  --json       one JSON object per line (same in every locale)
+  --digits N   significant figures shown (1 to 15, default 4)
+  --ascii      ASCII only: ohm, u, @, deg (automatic in a non-UTF-8 locale)
+  --polar      show the polar form first
+  --plain      line-by-line mode instead of the full-screen app (also TERM=dumb)
+
+exit codes: 0 ok, 1 a check failed, 2 bad input or usage.
+`
+
+const language = `worksheet language (one statement a line, # starts a comment)
+
+numbers and units
+  4.7 kΩ   4.7 kohm   10 mH   100 nF   230 V   2.5 A   1.2 kW   300 var   5 kVA
+  prefixes f p n µ (or u) m k M G T; units Ω ohm S H F V A W var VA J C Hz s m rad deg ° %
+  A word right after a number is its unit. An exact unit wins over a prefix
+  reading: 10 m is ten metres, 1 mS a millisiemens, 1 ms a millisecond.
+  Units and prefixed units are reserved: no quantity can be named S, V or mS.
+complex values
+  3+j4 Ω      rectangular; the unit after the imaginary part applies to both
+  3-j4 kΩ     (and 3+4j, 3+i4 are the same forms)
+  230∠-30° V  polar; @ is the ASCII stand-in: 230@-30 V needs no shell quoting
+  a bare angle is in degrees (or radians after: angles rad)
+operators, loosest first
+  + -   then ||  (parallel: a + b || c is a + (b || c))   then * / · × ÷
+  then unary -   then ∠   then ^ (principal value)
+constants: pi (π), e, j; read-only names f (working Hz) and w (ω, rad/s)
+statements
+  NAME = EXPR            define or redefine a named quantity
+  EXPR                   evaluate; the result gets a name such as Z3 or V2
+  frequency 60 Hz        working frequency (or rad/s); re-evaluates what depends on it
+  basis rms | peak       phasor basis (S = V·I* for RMS, ½·V·I* for peak)
+  angles deg | rad       angle unit shown and read
+  digits N               significant figures shown
+  sequence abc | acb     phase sequence
+  resistor R1 = 10 Ω     element values that remember their kind:
+  inductor L1 = 10 mH      an inductor's or capacitor's impedance follows
+  capacitor C1 = 1 µF      the working frequency
+  impedance Z1 = 3+j4 Ω
+  check EXPR is EXPR [within 1% [and 0.5°]]   compare with a hand calculation
+  check EXPR is EXPR within 0.01 A            absolute tolerance
+  tolerance R1 5%        a part may lie within ±5 %
+  spread [NAME =] EXPR   range of EXPR over the tolerances (sampled)
+  check EXPR reads 98.2 Ω within 1% + 2 digits of 0.1 Ω
+                         does a meter reading fit what the parts allow?
+  sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db]
+`
+
+const networks = `networks
+
+node block: each element named, its kind a word, joining two named nodes
+  network bench reference gnd
+    voltage source Vs = 230∠0 V from gnd to a    # V(a) − V(gnd) = 230∠0 V
+    current source Is = 1 A from gnd to b        # drives 1 A into b
+    resistor R1 = 10 Ω from a to b
+    inductor L1 = 50 mH from b to gnd
+  end
+  The network is solved at end and stays live: a new frequency or element
+  value (R1 = 12 Ω) re-solves it. A series-parallel network with one source
+  is reduced one combination at a time and worked back; any other network is
+  solved by modified nodal analysis, with the KCL residual and power balance.
+  Results: bench.R1.v, bench.R1.i, bench.R1.s, and node voltages bench.a.v.
+  Element voltage is V(from) − V(to); current flows from → to through it.
+
+compact series-parallel form over elements already defined
+  network ladder = R1 + (L1 || (C1 + R2)) fed by 12 V
+  Results: ladder.z, ladder.R1.v, ...
+
+equivalents
+  thevenin T = bench between a and gnd      # T, T.vth, T.zth, T.in
+`
+
+// Help prints help on a topic.
+func Help(args []string, w, ew io.Writer, o Options) int {
+	text := usage + "\n" + language + "\n" + networks + "\nfunctions: argand help functions\n\nsafety\n" + Safety + "\n"
+	if len(args) > 0 {
+		switch args[0] {
+		case "language":
+			text = language
+		case "networks":
+			text = networks
+		case "safety":
+			text = Safety + "\n"
+		case "functions":
+			text = FunctionList()
+		default:
+			fmt.Fprintf(ew, "argand: no help topic %q; topics: language, functions, networks, safety\n", args[0])
+			return ExitBadInput
+		}
+	}
+	if o.ASCII {
+		text = calc.ASCIIText(text)
+	}
+	fmt.Fprint(w, text)
+	return ExitOK
+}
+
+// FunctionList lists every function with its arguments and what it does.
+func FunctionList() string {
+	var b strings.Builder
+	b.WriteString("functions\n")
+	fs := sheet.Functions()
+	sort.SliceStable(fs, func(i, j int) bool { return false })
+	for _, f := range fs {
+		fmt.Fprintf(&b, "  %-14s %s\n", f.Name+f.Args, f.Doc)
+	}
+	return b.String()
+}
+
+// UTF8Locale reports whether the locale variables ask for UTF-8. The first
+// of LC_ALL, LC_CTYPE and LANG that is set decides, as in POSIX; none set
+// is the C locale, which is ASCII.
+func UTF8Locale(getenv func(string) string) bool {
+	for _, k := range []string{"LC_ALL", "LC_CTYPE", "LANG"} {
+		if v := getenv(k); v != "" {
+			v = strings.ToLower(v)
+			return strings.Contains(v, "utf-8") || strings.Contains(v, "utf8")
+		}
+	}
+	return false
+}
