@@ -137,12 +137,17 @@ type Power struct {
 // under the passive sign convention).
 func (p Power) Delivering() bool { return real(p.S.V) < 0 }
 
-// Phi returns the power-factor angle φ = arg S in radians, 0 when S = 0.
+// Phi returns the power-factor angle φ = arg S in radians, in (−π, π],
+// 0 when S = 0.
 func (p Power) Phi() float64 {
 	if p.S.V == 0 {
 		return 0
 	}
-	return cmplx.Phase(p.S.V)
+	a := cmplx.Phase(p.S.V)
+	if a == -math.Pi { // a negative zero imaginary part
+		return math.Pi
+	}
+	return a
 }
 
 // Of returns the Power for complex power s (VA), or an error when s is not

@@ -334,3 +334,15 @@ func TestSine(t *testing.T) {
 		t.Error("angle accepted")
 	}
 }
+
+func TestPhiRange(t *testing.T) {
+	// angles in (−180°, 180°] (shared DESIGN.md): −1840 − j0 VA is at +π
+	p, err := Of(complex(-1840, math.Copysign(0, -1)))
+	if err != nil || p.Phi() != math.Pi {
+		t.Errorf("Phi = %v, %v", p.Phi(), err)
+	}
+	p, _ = Of(1840 + 1380i)
+	if !near(p.Phi(), math.Atan2(3, 4)) {
+		t.Errorf("Phi = %v", p.Phi())
+	}
+}

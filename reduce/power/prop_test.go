@@ -119,60 +119,80 @@ func allFinite(t *rapid.T, what string, r calc.Result) {
 	}
 }
 
-// signature gives the dimension of each argument of each worksheet
-// function, so that most drawn calls get past the checks; wordDim marks a
-// bare word.
-// wordDim is no real dimension: a marker for a word argument.
-var wordDim = calc.Dim{calc.BaseCycle: 99}
-
-var signature = map[string][]calc.Dim{
-	"power":         {calc.DimVoltage, calc.DimCurrent},
-	"pf":            {calc.DimPower},
-	"load":          {calc.DimPower, calc.Dimensionless, wordDim},
-	"loadva":        {calc.DimPower, calc.Dimensionless, wordDim},
-	"motor":         {calc.DimPower, calc.Dimensionless, calc.Dimensionless, wordDim, calc.DimVoltage},
-	"loads":         {calc.DimPower, calc.DimPower, calc.DimPower},
-	"current":       {calc.DimPower, calc.DimVoltage, wordDim},
-	"pfc":           {calc.DimPower, calc.Dimensionless, calc.Dimensionless, calc.DimVoltage, wordDim, wordDim},
-	"pfcload":       {calc.DimPower, calc.Dimensionless, calc.DimVoltage, wordDim, wordDim},
-	"rerate":        {calc.DimPower, calc.DimVoltage, calc.DimVoltage},
-	"harmonic":      {calc.DimPower, calc.DimPower},
-	"discharge":     {calc.DimCapacitance, calc.DimVoltage, calc.DimVoltage, calc.DimTime},
-	"dischargetime": {calc.DimImpedance, calc.DimCapacitance, calc.DimVoltage, calc.DimVoltage},
-	"rms":           {calc.DimVoltage},
-	"peak":          {calc.DimCurrent},
-	"rectavg":       {calc.DimVoltage},
-	"rectpeak":      {calc.DimVoltage},
+// argSpec says what a worksheet function expects at one position: a
+// quantity of dimension dim, a fraction in [0, 1], or one of words.
+type argSpec struct {
+	dim      calc.Dim
+	fraction bool
+	words    []string
 }
 
-// drawArg draws any argument a worksheet could pass: usually a finite
-// quantity of the expected dimension (or a word where one is expected),
-// with parts anywhere in the float64 range, near the edges of the valid
-// ranges, or exactly 0 or 1; sometimes a wrong dimension or a stray word.
-func drawArg(t *rapid.T, label string, want []calc.Dim, pos int, words []string) calc.Arg {
+var (
+	aV     = argSpec{dim: calc.DimVoltage}
+	aI     = argSpec{dim: calc.DimCurrent}
+	aP     = argSpec{dim: calc.DimPower}
+	aC     = argSpec{dim: calc.DimCapacitance}
+	aT     = argSpec{dim: calc.DimTime}
+	aR     = argSpec{dim: calc.DimImpedance}
+	aFrac  = argSpec{fraction: true}
+	aPh    = argSpec{words: []string{"single", "three"}}
+	aSense = argSpec{words: []string{"lagging", "leading"}}
+)
+
+// signature gives what each worksheet function expects, so that most
+// drawn calls get past the checks and reach the arithmetic.
+var signature = map[string][]argSpec{
+	"power":         {aV, aI},
+	"pf":            {aP},
+	"load":          {aP, aFrac, aSense},
+	"loadva":        {aP, aFrac, aSense},
+	"motor":         {aP, aFrac, aFrac, aPh, aV},
+	"loads":         {aP, aP, aP},
+	"current":       {aP, aV, aPh},
+	"pfc":           {aP, aFrac, aFrac, aV, aPh, aSense},
+	"pfcload":       {aP, aFrac, aV, aPh, aSense},
+	"rerate":        {aP, aV, aV},
+	"harmonic":      {aP, aP},
+	"discharge":     {aC, aV, aV, aT},
+	"dischargetime": {aR, aC, aV, aV},
+	"rms":           {aV},
+	"peak":          {aI},
+	"rectavg":       {aV},
+	"rectpeak":      {aV},
+}
+
+// drawArg draws any argument a worksheet could pass: usually what the
+// function expects at that position, with parts anywhere in the float64
+// range, near the edges of the valid ranges, or exactly 0 or 1; sometimes
+// a wrong dimension or a stray word.
+func drawArg(t *rapid.T, label string, spec []argSpec, pos int, words []string) calc.Arg {
 	dims := []calc.Dim{calc.Dimensionless, calc.DimVoltage, calc.DimCurrent, calc.DimPower,
 		calc.DimCapacitance, calc.DimTime, calc.DimImpedance, calc.DimFrequency}
-	var d calc.Dim
-	isWord := false
-	switch {
-	case rapid.IntRange(0, 9).Draw(t, label+" stray?") == 0:
-		isWord = len(words) > 0 && rapid.Bool().Draw(t, label+" stray word?")
-		d = rapid.SampledFrom(dims).Draw(t, label+" dim")
-	case pos < len(want) && want[pos] == wordDim:
-		isWord = true
-	case pos < len(want):
-		d = want[pos]
-	default:
-		d = calc.DimPower // extra arguments of loads(...)
+	sp := aP // extra arguments of loads(...)
+	if pos < len(spec) {
+		sp = spec[pos]
 	}
-	if isWord && len(words) > 0 {
-		return calc.Arg{Word: rapid.SampledFrom(words).Draw(t, label+" word")}
+	if rapid.IntRange(0, 19).Draw(t, label+" stray?") == 0 {
+		if len(words) > 0 && rapid.Bool().Draw(t, label+" stray word?") {
+			return calc.Arg{Word: rapid.SampledFrom(words).Draw(t, label+" word")}
+		}
+		sp = argSpec{dim: rapid.SampledFrom(dims).Draw(t, label+" dim")}
 	}
+	if len(sp.words) > 0 {
+		return calc.Arg{Word: rapid.SampledFrom(sp.words).Draw(t, label+" word")}
+	}
+	if sp.fraction && rapid.IntRange(0, 4).Draw(t, label+" in range?") > 0 {
+		x := rapid.OneOf(rapid.Float64Range(0, 1), rapid.SampledFrom([]float64{0, 1, 1e-300, math.SmallestNonzeroFloat64, 1 - 1e-16})).Draw(t, label+" fraction")
+		return calc.Arg{Q: calc.Number(complex(x, 0))}
+	}
+	// ordinary positive values weigh most, so that calls reach the
+	// arithmetic as well as the checks
+	ordinary := rapid.Float64Range(1e-3, 1e6)
 	part := rapid.OneOf(
+		ordinary, ordinary, ordinary,
 		rapid.Float64(),
+		rapid.Float64Range(0, 1e6),
 		rapid.Float64Range(-2, 2),
-		rapid.Float64Range(0, 1),
-		rapid.Float64Range(-1e6, 1e6),
 		rapid.SampledFrom([]float64{0, 1, -1, 1e-300, 1e300, math.SmallestNonzeroFloat64, math.MaxFloat64}),
 	)
 	re := part.Draw(t, label+" re")
@@ -181,10 +201,10 @@ func drawArg(t *rapid.T, label string, want []calc.Dim, pos int, words []string)
 		im = part.Draw(t, label+" im")
 	}
 	kind := calc.KindPlain
-	if d == calc.DimPower {
+	if sp.dim == calc.DimPower {
 		kind = rapid.SampledFrom([]calc.Kind{calc.KindActive, calc.KindReactive, calc.KindApparent}).Draw(t, label+" kind")
 	}
-	return calc.Arg{Q: calc.Quantity{V: complex(re, im), Dim: d, Kind: kind}}
+	return calc.Arg{Q: calc.Quantity{V: complex(re, im), Dim: sp.dim, Kind: kind}}
 }
 
 // TestPropFuncsFinite: every worksheet function, given any finite
@@ -194,7 +214,21 @@ func drawArg(t *rapid.T, label string, want []calc.Dim, pos int, words []string)
 func TestPropFuncsFinite(t *testing.T) {
 	fs := Funcs()
 	ok := map[string]int{}
-	rapid.Check(t, func(t *rapid.T) {
+	// several rounds, so that at the default 100 checks a round every
+	// function still meets enough valid argument lists
+	for range 40 {
+		rapid.Check(t, funcsFiniteProp(fs, ok))
+	}
+	t.Logf("calls that succeeded, by function: %v", ok)
+	for _, f := range fs {
+		if ok[f.Name] == 0 {
+			t.Errorf("%s never succeeded on drawn arguments", f.Name)
+		}
+	}
+}
+
+func funcsFiniteProp(fs []calc.Func, ok map[string]int) func(*rapid.T) {
+	return func(t *rapid.T) {
 		f := rapid.SampledFrom(fs).Draw(t, "func")
 		hi := f.Max
 		if hi < 0 {
@@ -221,11 +255,6 @@ func TestPropFuncsFinite(t *testing.T) {
 		}
 		ok[f.Name]++
 		allFinite(t, f.Name, r)
-	})
-	for _, f := range fs {
-		if ok[f.Name] == 0 {
-			t.Errorf("%s never succeeded on drawn arguments", f.Name)
-		}
 	}
 }
 
