@@ -243,7 +243,7 @@ func sigFixed(x float64, digits int) string {
 // first when polarFirst is set; a real quantity prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() && real(q.V) >= 0 ||
+	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() ||
 		(q.Kind == KindActive || q.Kind == KindReactive) && q.IsReal() {
 		return r
 	}

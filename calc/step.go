@@ -95,17 +95,25 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		return x
 	}
 	head := s.Source
+	rule := s.Rule
+	if head == "" {
+		// a part of a larger calculation: its rule is its heading
+		head, rule = s.Rule, ""
+		if rule == "" && s.Formula != "" {
+			head = s.Formula
+		}
+	}
 	if s.Line > 0 {
 		head = strconv.Itoa(s.Line) + ": " + head
 	}
 	b.WriteString(tr(head) + "\n")
-	if s.Rule != "" {
-		b.WriteString("    " + tr(s.Rule))
+	if rule != "" {
+		b.WriteString("    " + tr(rule))
 		if s.Formula != "" {
 			b.WriteString(":  " + tr(s.Formula))
 		}
 		b.WriteString("\n")
-	} else if s.Formula != "" {
+	} else if s.Formula != "" && head != strconv.Itoa(s.Line)+": "+s.Formula && head != s.Formula {
 		b.WriteString("    " + tr(s.Formula) + "\n")
 	}
 	for _, o := range s.Inputs {

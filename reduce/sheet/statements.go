@@ -531,9 +531,20 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
 		}
 		break
 	}
+	isLit := func(x calc.Expr) bool {
+		if u, ok := x.(*calc.Unary); ok {
+			x = u.X
+		}
+		_, ok := x.(*calc.Lit)
+		return ok
+	}
 	switch n := inner.(type) {
 	case *calc.Binary:
 		a, b := p.Text(n.X), p.Text(n.Y)
+		if (n.Op == "+" || n.Op == "-") && isLit(n.X) && isLit(n.Y) {
+			st.Rule = "value as entered (rectangular form)"
+			break
+		}
 		switch n.Op {
 		case "+":
 			st.Rule, st.Formula = "sum", a+" + "+b
@@ -553,6 +564,10 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
 	case *calc.Polar:
 		st.Rule, st.Formula = "phasor from magnitude and angle", "m∠θ = m·(cos θ + j·sin θ)"
 	case *calc.Unary:
+		if isLit(n.X) {
+			st.Rule = "value as entered"
+			break
+		}
 		st.Rule = "negation"
 		operand(n.X)
 	case *calc.Call:

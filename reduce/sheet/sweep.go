@@ -287,8 +287,13 @@ func (s *Sheet) stmtSpread(p *calc.Parser) error {
 	if err != nil {
 		return err
 	}
-	s.record(rr.Steps...)
 	st := calc.Step{Kind: "spread", Source: p.Source(), Rule: "range over the tolerances (" + site.SampledLabel + ")", Results: rr.Operands()}
+	if n := len(rr.Steps); n > 0 {
+		// the range's own last step is the summary: head it with the statement
+		st = rr.Steps[n-1]
+		st.Kind, st.Source = "spread", p.Source()
+		s.record(rr.Steps[:n-1]...)
+	}
 	if name != "" {
 		d := &def{name: name, src: p.Source(), line: s.line, value: rr.Nominal, deps: map[string]bool{}}
 		if err := s.setValue(d); err != nil {
