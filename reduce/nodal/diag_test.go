@@ -2,7 +2,9 @@ package nodal_test
 
 import (
 	"errors"
+	"fmt"
 	"math/cmplx"
+	"math/rand/v2"
 	"slices"
 	"strings"
 	"testing"
@@ -155,5 +157,49 @@ func TestNoPanicOnOddInput(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// TestWildNetworks throws 2000 random networks with no care for sense at
+// Solve: sources and shorts anywhere, loose parts, one-node elements. Each
+// must give either a *NetError with a message or a solution that meets
+// KCL and Tellegen, and never panic.
+func TestWildNetworks(t *testing.T) {
+	rng := rand.New(rand.NewPCG(99, 60375))
+	solved, refused := 0, 0
+	for c := range 2000 {
+		nn := 2 + rng.IntN(6)
+		n := network("n0")
+		for k := range 1 + rng.IntN(10) {
+			a, b := fmt.Sprintf("n%d", rng.IntN(nn)), fmt.Sprintf("n%d", rng.IntN(nn))
+			name := fmt.Sprintf("E%d", k)
+			switch rng.IntN(6) {
+			case 0:
+				n.Elements = append(n.Elements, vsrc(name, a, b, randPhasor(rng, 10)))
+			case 1:
+				n.Elements = append(n.Elements, isrc(name, a, b, randPhasor(rng, 1)))
+			case 2:
+				n.Elements = append(n.Elements, imp(name, a, b, 0))
+			default:
+				n.Elements = append(n.Elements, imp(name, a, b, randPhasor(rng, 100)))
+			}
+		}
+		s, err := nodal.Solve(n, calc.RMS)
+		if err != nil {
+			var ne *nodal.NetError
+			if !errors.As(err, &ne) || ne.Msg == "" {
+				t.Fatalf("network %d: error %T %v", c, err, err)
+			}
+			refused++
+			continue
+		}
+		solved++
+		if s.MaxKCL > 1e-9*s.MaxI || cmplx.Abs(s.PowerSum) > 1e-9*s.PowerAbs {
+			t.Errorf("network %d: KCL %g of %g, ΣS %v of %g", c, s.MaxKCL, s.MaxI, s.PowerSum, s.PowerAbs)
+		}
+	}
+	t.Logf("%d solved, %d refused", solved, refused)
+	if solved < 100 || refused < 100 {
+		t.Errorf("%d solved, %d refused: the generator should produce plenty of both", solved, refused)
 	}
 }

@@ -24,6 +24,10 @@ import (
 // times the float64 unit round-off.
 const pivotTol = 1e-13
 
+// noiseTol is the relative size below which a solved element voltage or
+// current is rounding noise and shown as 0.
+const noiseTol = 1e-13
+
 // caution is the safety text shown beside results that involve dangerous
 // voltages.
 const caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
@@ -266,7 +270,17 @@ func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 	if basis == calc.Peak {
 		half = 0.5
 	}
-	kcl := make([]complex128, len(t.nodes))
+	// Rounding leaves specks such as 1e-17 A in a source with nowhere to
+	// drive current, or across a balanced bridge. An element voltage below
+	// noiseTol of the largest node voltage is such a speck, and so is a
+	// current below noiseTol of the largest current that is not: a source
+	// current or a passive current whose voltage is no speck. Specks are
+	// shown as 0. A current is never dropped for its voltage alone, so a
+	// jumper of 1 pΩ keeps its current.
+	vScale, iScale := 0.0, 0.0
+	for _, x := range v {
+		vScale = math.Max(vScale, cmplx.Abs(x))
+	}
 	s.Branches = make([]Branch, len(els))
 	for k, e := range els {
 		br := Branch{Name: e.Name, Kind: e.Kind, From: e.From, To: e.To, Line: e.Line}
@@ -285,17 +299,33 @@ func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 			default:
 				br.I = br.V / e.Z
 			}
+			if e.Kind == reduce.CurrentSource || (curOf[k] < 0 && cmplx.Abs(br.V) > noiseTol*vScale) {
+				iScale = math.Max(iScale, cmplx.Abs(br.I))
+			}
+		}
+		if !finite(br.I) {
+			return nil, &NetError{Msg: fmt.Sprintf("%s: the current is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
+		}
+		s.Branches[k] = br
+	}
+	kcl := make([]complex128, len(t.nodes))
+	for k := range s.Branches {
+		br := &s.Branches[k]
+		if cmplx.Abs(br.V) <= noiseTol*vScale {
+			br.V = 0
+		}
+		if br.Kind != reduce.CurrentSource && (iScale == 0 || cmplx.Abs(br.I) <= noiseTol*iScale) {
+			br.I = 0
 		}
 		br.S = complex(half, 0) * br.V * cmplx.Conj(br.I)
-		if !finite(br.I) || !finite(br.S) {
-			return nil, &NetError{Msg: fmt.Sprintf("%s: the current or power is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
+		if !finite(br.S) {
+			return nil, &NetError{Msg: fmt.Sprintf("%s: the power is too large to represent", br.Name), Elements: []string{br.Name}, Line: br.Line}
 		}
 		kcl[t.from[k]] += br.I
 		kcl[t.to[k]] -= br.I
 		s.MaxI = math.Max(s.MaxI, cmplx.Abs(br.I))
 		s.PowerSum += br.S
 		s.PowerAbs += cmplx.Abs(br.S)
-		s.Branches[k] = br
 	}
 	for i, name := range t.nodes {
 		s.KCL[name] = kcl[i]

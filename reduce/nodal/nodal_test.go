@@ -324,3 +324,35 @@ func TestCaution(t *testing.T) {
 		}
 	}
 }
+
+// TestTinyNetworks: the smallest networks solve without fuss: a lone
+// voltage source (no current, nothing to drive), and a passive element
+// joined to the reference at both ends (no unknowns at all).
+func TestTinyNetworks(t *testing.T) {
+	s := solve(t, network("0", vsrc("V1", "0", "a", 5)))
+	if s.Voltage["a"] != 5 || branch(t, s, "V1").I != 0 {
+		t.Errorf("lone source: V(a) = %v, I = %v", s.Voltage["a"], branch(t, s, "V1").I)
+	}
+	s = solve(t, network("0", res("R1", "0", "0", 5)))
+	if s.Unknowns != 0 || len(s.Nodes) != 1 || s.PowerSum != 0 {
+		t.Errorf("self loop at the reference: %+v", s)
+	}
+	if st := s.Steps(calc.Format{}); len(st) != 3 {
+		t.Errorf("%d steps", len(st))
+	}
+}
+
+// TestSpecks: rounding specks are shown as 0 (the middle of a balanced
+// bridge), but a tiny jumper keeps its real current: 230 V over 23 Ω in
+// series with a 1 pΩ jumper drives 10 A through both (Ohm's law).
+func TestSpecks(t *testing.T) {
+	n := network("0", vsrc("V1", "0", "top", 230),
+		res("R1", "top", "l", 100), res("R2", "l", "0", 200), res("R3", "top", "r", 150), res("R4", "r", "0", 300), res("G", "l", "r", 47))
+	if i := branch(t, solve(t, n), "G").I; i != 0 {
+		t.Errorf("balanced bridge: middle current %v, want exactly 0", i)
+	}
+	n = network("0", vsrc("V1", "0", "a", 230), res("R1", "a", "b", 23), res("J1", "b", "0", 1e-12))
+	if i := branch(t, solve(t, n), "J1").I; cmplx.Abs(i-10) > 1e-9*10 {
+		t.Errorf("jumper current %v, want 10 A", i)
+	}
+}
