@@ -136,7 +136,6 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 		Inputs: []calc.Operand{
 			{Name: "P", Value: before.P},
 			{Name: "Q₁", Value: before.Q},
-			{Name: "PF₂", Value: number(t.PF)},
 		},
 		Results: []calc.Operand{
 			{Name: "Q_c", Value: c.Qc},
@@ -149,6 +148,7 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 	if before.PF.Defined() {
 		st.Inputs = append(st.Inputs, calc.Operand{Name: "PF₁", Value: number(before.PF.Value)})
 	}
+	st.Inputs = append(st.Inputs, calc.Operand{Name: "PF₂", Value: number(t.PF)})
 	if c.Reactor.V != 0 {
 		st.Results = append(st.Results, calc.Operand{Name: "Q_reactor", Value: c.Reactor})
 	}
