@@ -281,6 +281,11 @@ func (t *topology) solve(basis calc.Basis) (*Solution, error) {
 	for _, x := range v {
 		vScale = math.Max(vScale, cmplx.Abs(x))
 	}
+	for name, x := range s.Voltage {
+		if cmplx.Abs(x) <= noiseTol*vScale {
+			s.Voltage[name] = 0
+		}
+	}
 	s.Branches = make([]Branch, len(els))
 	for k, e := range els {
 		br := Branch{Name: e.Name, Kind: e.Kind, From: e.From, To: e.To, Line: e.Line}
