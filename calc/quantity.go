@@ -54,14 +54,14 @@ func finite(v complex128) bool {
 // Check returns an error when q holds NaN or an infinity, so that no such
 // value is ever shown. op names the operation for the message.
 func (q Quantity) Check(op string) (Quantity, error) {
-	if finite(q.V) {
+	if finite(q.V) && !math.IsInf(cmplx.Abs(q.V), 0) {
 		if !q.Dim.fits() {
 			return Quantity{}, errorf("%s: dimension exponent out of range", op)
 		}
 		return q, nil
 	}
 	if math.IsNaN(real(q.V)) || math.IsNaN(imag(q.V)) {
-		return Quantity{}, errorf("%s: result is undefined", op)
+		return Quantity{}, errorf("%s: result is undefined (not a number)", op)
 	}
 	return Quantity{}, errorf("%s: overflow (result too large to represent)", op)
 }
@@ -166,8 +166,14 @@ func cycleMix(a, b Dim, op string) error {
 	return nil
 }
 
-// Neg returns −a.
-func Neg(a Quantity) Quantity { return Quantity{V: -a.V, Dim: a.Dim, Kind: a.Kind} }
+// Neg returns −a. A zero part stays +0: −(4+0i) is −4+0i, not −4−0i,
+// which would put it on the other side of the branch cut of √ and ln.
+func Neg(a Quantity) Quantity { return Quantity{V: unsignZero(-a.V), Dim: a.Dim, Kind: a.Kind} }
+
+// unsignZero turns a −0 part into +0 (−0 + 0 is +0 in IEEE 754), so the
+// principal branch of √, ln and powers does not depend on the sign of a
+// zero that no one can see: √(−4) is j2, never −j2.
+func unsignZero(v complex128) complex128 { return complex(real(v)+0, imag(v)+0) }
 
 // Conj returns the complex conjugate.
 func Conj(a Quantity) Quantity {
@@ -227,7 +233,7 @@ func Pow(a, b Quantity) (Quantity, error) {
 	if imag(b.V) == 0 && real(b.V) == math.Trunc(real(b.V)) && math.Abs(real(b.V)) <= 64 {
 		v = ipow(a.V, int(real(b.V)))
 	} else {
-		v = cmplx.Pow(a.V, b.V)
+		v = cmplx.Pow(unsignZero(a.V), b.V)
 	}
 	return Quantity{V: v, Dim: d}.Check("power")
 }
@@ -255,7 +261,7 @@ func Sqrt(a Quantity) (Quantity, error) {
 	if !ok {
 		return Quantity{}, errorf("the square root of %s has no whole unit", DimName(a.Dim, false))
 	}
-	return Quantity{V: cmplx.Sqrt(a.V), Dim: d}.Check("square root")
+	return Quantity{V: cmplx.Sqrt(unsignZero(a.V)), Dim: d}.Check("square root")
 }
 
 // Parallel returns a‖b = a·b/(a+b) for two impedances (or any like
