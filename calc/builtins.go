@@ -139,7 +139,7 @@ var builtins = [...]Func{
 			if a.V == 0 {
 				return Quantity{}, fmt.Errorf("the logarithm of 0 is undefined")
 			}
-			return Number(cmplx.Log(a.V)).Check("ln")
+			return Number(cmplx.Log(unsignZero(a.V))).Check("ln")
 		})},
 	{Name: "log10", Args: "(z)", Doc: "common logarithm (principal)", Formula: "log₁₀ z", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
@@ -149,7 +149,7 @@ var builtins = [...]Func{
 			if a.V == 0 {
 				return Quantity{}, fmt.Errorf("the logarithm of 0 is undefined")
 			}
-			return Number(cmplx.Log10(a.V)).Check("log10")
+			return Number(cmplx.Log10(unsignZero(a.V))).Check("log10")
 		})},
 	{Name: "deg", Args: "(θ)", Doc: "an angle (or a number of radians) as a plain number of degrees", Formula: "θ·180/π", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {

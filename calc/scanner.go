@@ -118,11 +118,12 @@ func (s *Scanner) Scan() Item {
 	case isDigit(r) || (r == '.' && s.digitAt(s.off+1)):
 		s.number()
 		text := s.src[start:s.off]
-		// 4j or 4.5i: an imaginary literal, unless a longer word follows
+		// 4j or 4.5i: an imaginary literal, unless a longer word follows.
+		// The text is normalised to the j4 form, which the parser reads.
 		if c, w := s.peekRune(s.off); (c == 'j' || c == 'i') && !s.identPartAt(s.off+w) {
 			s.off += w
 			s.col++
-			return item(TokImag, text+"j")
+			return item(TokImag, "j"+text)
 		}
 		return item(TokNumber, text)
 	case (r == 'j' || r == 'i') && (s.digitAt(s.off+1) || (s.byteAt(s.off+1) == '.' && s.digitAt(s.off+2))):

@@ -1,0 +1,224 @@
+package calc
+
+import (
+	"math"
+	"strings"
+	"testing"
+	"unicode/utf8"
+)
+
+// TestFormatEngineering: engineering notation with an SI prefix and the
+// unit symbol, one space between number and unit (SI Brochure 9th ed.
+// §5.4.3; NIST SP 811 §7.2), prefixes in steps of 10³ (SI Brochure table 7).
+func TestFormatEngineering(t *testing.T) {
+	f := Format{}
+	tests := []struct {
+		q         Quantity
+		rect, pol string
+	}{
+		{Q(3+4i, DimImpedance), "3.000 + j4.000 Ω", "5.000 Ω ∠53.13°"},
+		{Q(3e3-4e3i, DimImpedance), "3.000 - j4.000 kΩ", "5.000 kΩ ∠-53.13°"},
+		{Real(4700, DimImpedance), "4.700 kΩ", "4.700 kΩ ∠0°"},
+		{Real(4.7e-6, DimCapacitance), "4.700 µF", "4.700 µF ∠0°"},
+		{Real(100e-9, DimCapacitance), "100.0 nF", "100.0 nF ∠0°"},
+		{Real(0.01, DimInductance), "10.00 mH", "10.00 mH ∠0°"},
+		{Real(230, DimVoltage), "230.0 V", "230.0 V ∠0°"},
+		{Real(11e3, DimVoltage), "11.00 kV", "11.00 kV ∠0°"},
+		{Real(2.5e6, DimPower), "2.500 MVA", "2.500 MVA ∠0°"},
+		{Quantity{V: 1500, Dim: DimPower, Kind: KindActive}, "1.500 kW", "1.500 kW ∠0°"},
+		{Quantity{V: -300, Dim: DimPower, Kind: KindReactive}, "-300.0 var", "300.0 var ∠180.0°"},
+		{Real(1e-15, DimCapacitance), "1.000 fF", "1.000 fF ∠0°"},
+		{Real(1e12, DimImpedance), "1.000 TΩ", "1.000 TΩ ∠0°"},
+		{Real(50, DimFrequency), "50.00 Hz", "50.00 Hz ∠0°"},
+		{Real(999.96, DimImpedance), "1.000 kΩ", "1.000 kΩ ∠0°"}, // rounding carries into the next prefix
+		{Real(999.94, DimImpedance), "999.9 Ω", "999.9 Ω ∠0°"},
+		{Q(10i, DimVoltage), "j10.00 V", "10.00 V ∠90.00°"},
+		{Q(-10i, DimVoltage), "-j10.00 V", "10.00 V ∠-90.00°"},
+		{Number(2), "2.000", "2.000 ∠0°"},
+		{Real(0, DimVoltage), "0.000 V", "0.000 V ∠0°"},
+		{Number(0), "0.000", "0.000 ∠0°"},
+	}
+	for _, tt := range tests {
+		if got := f.Rect(tt.q); got != tt.rect {
+			t.Errorf("Rect(%v %v) = %q, want %q", tt.q.V, tt.q.Dim, got, tt.rect)
+		}
+		if got := f.Polar(tt.q); got != tt.pol {
+			t.Errorf("Polar(%v %v) = %q, want %q", tt.q.V, tt.q.Dim, got, tt.pol)
+		}
+	}
+}
+
+// TestFormatDigits: settable significant figures.
+func TestFormatDigits(t *testing.T) {
+	q := Q(3+4i, DimImpedance)
+	tests := []struct {
+		digits    int
+		rect, pol string
+	}{
+		{0, "3.000 + j4.000 Ω", "5.000 Ω ∠53.13°"}, // 0: the default of 4
+		{1, "3 + j4 Ω", "5 Ω ∠53°"}, // an angle keeps its whole degrees
+		{2, "3.0 + j4.0 Ω", "5.0 Ω ∠53°"},
+		{3, "3.00 + j4.00 Ω", "5.00 Ω ∠53.1°"},
+		{6, "3.00000 + j4.00000 Ω", "5.00000 Ω ∠53.1301°"},
+		{10, "3.000000000 + j4.000000000 Ω", "5.000000000 Ω ∠53.13010235°"},
+		{15, "3.00000000000000 + j4.00000000000000 Ω", "5.00000000000000 Ω ∠53.1301023541560°"},
+		{99, "3.00000000000000 + j4.00000000000000 Ω", "5.00000000000000 Ω ∠53.1301023541560°"}, // capped at 15
+	}
+	for _, tt := range tests {
+		f := Format{Digits: tt.digits}
+		if got := f.Rect(q); got != tt.rect {
+			t.Errorf("digits %d: Rect = %q, want %q", tt.digits, got, tt.rect)
+		}
+		if got := f.Polar(q); got != tt.pol {
+			t.Errorf("digits %d: Polar = %q, want %q", tt.digits, got, tt.pol)
+		}
+	}
+}
+
+// TestAngleRange: angles shown in (−180°, 180°], never −0° and never −180°
+// (atan2 of a −0 imaginary part gives −180°).
+func TestAngleRange(t *testing.T) {
+	tests := []struct {
+		v    complex128
+		want float64
+	}{
+		{complex(-1, 0), 180},
+		{complex(-1, math.Copysign(0, -1)), 180}, // atan2(−0, −1) = −π
+		{complex(1, math.Copysign(0, -1)), 0},    // atan2(−0, 1) = −0
+		{complex(math.Copysign(0, -1), math.Copysign(0, -1)), 0},
+		{complex(-1, -1e-13), 180}, // below 1e-12 of |v|: shown as real
+		{complex(-1, 1e-13), 180},
+		{complex(1, -1e-13), 0},
+		{complex(0, -1), -90},
+		{complex(0, 1), 90},
+		{complex(-1, -1e-9), -179.99999994270422}, // above the threshold it stays
+	}
+	for _, tt := range tests {
+		d := Deg(tt.v)
+		if d != tt.want || math.Signbit(d) && d == 0 {
+			t.Errorf("Deg(%v) = %v, want %v", tt.v, d, tt.want)
+		}
+		if d <= -180 || d > 180 {
+			t.Errorf("Deg(%v) = %v outside (−180, 180]", tt.v, d)
+		}
+	}
+	for _, in := range []float64{-180, 180, 540, -540, 360, -360, 0, math.Copysign(0, -1), 720.5, -179.5, 179.99999} {
+		d := NormDeg(in)
+		if d <= -180 || d > 180 || (d == 0 && math.Signbit(d)) {
+			t.Errorf("NormDeg(%v) = %v", in, d)
+		}
+	}
+	f := Format{}
+	for _, v := range []complex128{complex(-1, math.Copysign(0, -1)), complex(-5, -1e-14), complex(1, math.Copysign(0, -1)), complex(math.Copysign(0, -1), 0)} {
+		for _, s := range []string{f.Polar(Q(v, DimVoltage)), f.Rect(Q(v, DimVoltage)), Format{ASCII: true}.Polar(Q(v, DimVoltage))} {
+			if strings.Contains(s, "-0°") || strings.Contains(s, "-180") || strings.Contains(s, "-0 deg") || strings.Contains(s, "-0.000") {
+				t.Errorf("%v formats as %q", v, s)
+			}
+		}
+	}
+}
+
+// TestTinyParts: a part below 1e-12 of the magnitude shows as 0.
+func TestTinyParts(t *testing.T) {
+	f := Format{}
+	tests := []struct {
+		v         complex128
+		rect, pol string
+	}{
+		{complex(3, 1e-15), "3.000 V", "3.000 V ∠0°"},
+		{complex(1.8369701987210297e-16, 3), "j3.000 V", "3.000 V ∠90.00°"}, // 3∠90° via sin/cos
+		{complex(-2, 1e-13), "-2.000 V", "2.000 V ∠180.0°"},
+		{complex(1, 1e-11), "1.000 + j0.000 V", "1.000 V ∠5.730e-10°"}, // above the threshold: kept
+	}
+	for _, tt := range tests {
+		q := Q(tt.v, DimVoltage)
+		if got := f.Rect(q); got != tt.rect {
+			t.Errorf("Rect(%v) = %q, want %q", tt.v, got, tt.rect)
+		}
+		if got := f.Polar(q); got != tt.pol {
+			t.Errorf("Polar(%v) = %q, want %q", tt.v, got, tt.pol)
+		}
+	}
+	// JSON writes the parts as shown
+	if js := JSONValue("x", Q(complex(3, 1e-15), DimVoltage), RMS); !strings.Contains(js, `"im":0,`) || !strings.Contains(js, `"deg":0,`) {
+		t.Errorf("JSONValue keeps a tiny part: %s", js)
+	}
+}
+
+// TestASCII: ASCII mode changes only what a person reads. NIST SP 811 §6.1
+// allows "u" for µ where the symbol is unavailable, and "ohm" spelled out.
+func TestASCII(t *testing.T) {
+	f := Format{ASCII: true}
+	tests := []struct {
+		q         Quantity
+		rect, pol string
+	}{
+		{Q(3+4i, DimImpedance), "3.000 + j4.000 ohm", "5.000 ohm @53.13 deg"},
+		{Real(4.7e-6, DimCapacitance), "4.700 uF", "4.700 uF @0 deg"},
+		{Q(-2.2e3i, DimImpedance), "-j2.200 kohm", "2.200 kohm @-90.00 deg"},
+		{Real(1, Dim{BaseVolt: 2, BaseAmpere: -2}), "1.000 V^2/A^2", "1.000 V^2/A^2 @0 deg"},
+	}
+	for _, tt := range tests {
+		for _, got := range []string{f.Rect(tt.q), f.Polar(tt.q), f.Both(tt.q, false), f.Both(tt.q, true)} {
+			if !isASCII(got) {
+				t.Errorf("ASCII format of %v gives non-ASCII %q", tt.q, got)
+			}
+		}
+		if got := f.Rect(tt.q); got != tt.rect {
+			t.Errorf("Rect = %q, want %q", got, tt.rect)
+		}
+		if got := f.Polar(tt.q); got != tt.pol {
+			t.Errorf("Polar = %q, want %q", got, tt.pol)
+		}
+	}
+	// a whole step: no ∠ Ω µ ° or box drawing in ASCII text, UTF-8 in JSON
+	st := Step{Kind: "eval", Source: "Z1 = 3+j4 Ω ∥ 1 µF", Rule: "parallel", Formula: "Z = Z₁·Z₂/(Z₁+Z₂) ∠ ω √ π ─│",
+		Inputs:  []Operand{{Name: "Z₁", Value: Q(3+4i, DimImpedance)}},
+		Results: []Operand{{Name: "Z", Value: Q(3+4i, DimImpedance)}}, Notes: []string{"θ ≤ 90°"},
+		Check: &CheckOutcome{Pass: true, Got: Real(1e-6, DimCapacitance), Want: Real(1e-6, DimCapacitance), Tolerance: "1 %"}}
+	txt := st.Text(f, false)
+	for _, bad := range []string{"∠", "Ω", "µ", "°", "─", "│", "→"} {
+		if strings.Contains(txt, bad) {
+			t.Errorf("ASCII step text contains %q:\n%s", bad, txt)
+		}
+	}
+	js := st.JSON()
+	if !strings.Contains(js, `"unit":"Ω"`) || !utf8.ValidString(js) {
+		t.Errorf("JSON should carry the UTF-8 unit symbol: %s", js)
+	}
+}
+
+func isASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] >= 0x80 {
+			return false
+		}
+	}
+	return true
+}
+
+// TestNoNaNInf: no NaN or infinity is ever shown; arithmetic that would
+// make one is an error saying what happened.
+func TestNoNaNInf(t *testing.T) {
+	bad := []string{"1e308*1e308", "1/0", "1 V / 0", "(1e200 Ω)^2", "exp(1000)", "ln(0)", "0^-1", "tan(90)", "1e308 V + 1e308 V", "recip(0)", "zc(0 F)"}
+	for _, src := range bad {
+		q, err := evalString(newTestEnv(), src)
+		if err == nil {
+			t.Errorf("%s = %v: want an error", src, q.V)
+			continue
+		}
+		if strings.Contains(err.Msg, "NaN") || strings.Contains(err.Msg, "Inf") {
+			t.Errorf("%s: message %q shows NaN/Inf", src, err.Msg)
+		}
+	}
+	for _, src := range []string{"1/0", "1 V / 0"} {
+		_, err := evalString(newTestEnv(), src)
+		if err == nil || !strings.Contains(err.Msg, "division by zero") {
+			t.Errorf("%s: %v, want division by zero", src, err)
+		}
+	}
+	_, err := evalString(newTestEnv(), "1e308*1e308")
+	if err == nil || !strings.Contains(err.Msg, "overflow") {
+		t.Errorf("1e308*1e308: %v, want overflow", err)
+	}
+}
