@@ -56,7 +56,7 @@ func TestFormatDigits(t *testing.T) {
 		rect, pol string
 	}{
 		{0, "3.000 + j4.000 Ω", "5.000 Ω ∠53.13°"}, // 0: the default of 4
-		{1, "3 + j4 Ω", "5 Ω ∠53°"}, // an angle keeps its whole degrees
+		{1, "3 + j4 Ω", "5 Ω ∠53°"},                // an angle keeps its whole degrees
 		{2, "3.0 + j4.0 Ω", "5.0 Ω ∠53°"},
 		{3, "3.00 + j4.00 Ω", "5.00 Ω ∠53.1°"},
 		{6, "3.00000 + j4.00000 Ω", "5.00000 Ω ∠53.1301°"},
