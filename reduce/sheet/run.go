@@ -51,6 +51,10 @@ func ReadLine(r *bufio.Reader) (line string, n int, err error) {
 func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 	br := bufio.NewReaderSize(r, 64*1024)
 	var sum Summary
+	// an error can name an earlier line (the element a network diagnostic
+	// is about), so keep the text of each line for the caret
+	first := s.line + 1
+	var lines []string
 	for {
 		line, n, err := ReadLine(br)
 		if errors.Is(err, io.EOF) {
@@ -65,6 +69,7 @@ func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 			sum.Err = lineErr(s.line, 1, 1, "line too long: %d bytes (the limit is %d)", n, calc.MaxLine)
 			break
 		}
+		lines = append(lines, line)
 		steps, e := s.Exec(line)
 		if e != nil {
 			var le *calc.Error
@@ -72,6 +77,9 @@ func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 				le = lineErr(s.line, 1, 1, "%v", e)
 			}
 			sum.Err, sum.ErrSrc = le, line
+			if k := le.Line - first; k >= 0 && k < len(lines) {
+				sum.ErrSrc = lines[k]
+			}
 			break
 		}
 		if emit != nil && len(steps) > 0 {
