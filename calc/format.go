@@ -196,15 +196,27 @@ func (f Format) Mag(x float64, d Dim, k Kind) string {
 	return fixed(x, exp3, dec) + expo + unit
 }
 
-// angle formats an angle given in degrees in the display unit.
+// angle formats an angle given in degrees in the display unit. An angle
+// just above −180° that rounds to −180° at the digits shown is written as
+// 180°, the same direction, so that no angle is ever shown as −180°.
 func (f Format) angle(deg float64) string {
+	n := f.digits()
+	var s string
 	if f.Radians {
-		return sigFixed(deg*math.Pi/180, f.digits()) + " rad"
+		s = sigFixed(deg*math.Pi/180, n)
+		if s == sigFixed(-math.Pi, n) {
+			s = sigFixed(math.Pi, n)
+		}
+		return s + " rad"
+	}
+	s = sigFixed(deg, n)
+	if s == sigFixed(-180, n) {
+		s = sigFixed(180, n)
 	}
 	if f.ASCII {
-		return sigFixed(deg, f.digits()) + " deg"
+		return s + " deg"
 	}
-	return sigFixed(deg, f.digits()) + "°"
+	return s + "°"
 }
 
 // AngleValue formats an angle held in radians.

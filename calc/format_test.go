@@ -2,6 +2,7 @@ package calc
 
 import (
 	"math"
+	"math/cmplx"
 	"strings"
 	"testing"
 	"unicode/utf8"
@@ -220,5 +221,25 @@ func TestNoNaNInf(t *testing.T) {
 	_, err := evalString(newTestEnv(), "1e308*1e308")
 	if err == nil || !strings.Contains(err.Msg, "overflow") {
 		t.Errorf("1e308*1e308: %v, want overflow", err)
+	}
+}
+
+// TestAngleRoundsToMinus180: an angle just above −180° that rounds to
+// −180° at the digits shown is written as 180° (the same direction).
+func TestAngleRoundsToMinus180(t *testing.T) {
+	q := Q(cmplx.Rect(1, -179.99*math.Pi/180), DimVoltage)
+	for d := 1; d <= 4; d++ {
+		for _, f := range []Format{{Digits: d}, {Digits: d, ASCII: true}, {Digits: d, Radians: true}} {
+			s := f.Polar(q)
+			if strings.Contains(s, "-180") || strings.Contains(s, "-3.14 ") || strings.Contains(s, "-3.1 ") || strings.Contains(s, "-3 rad") {
+				t.Errorf("digits %d: %q shows −180°", d, s)
+			}
+		}
+	}
+	if got := (Format{Digits: 4}).Polar(q); got != "1.000 V ∠180.0°" {
+		t.Errorf("got %q, want 1.000 V ∠180.0°", got)
+	}
+	if got := (Format{Digits: 5}).Polar(q); got != "1.0000 V ∠-179.99°" {
+		t.Errorf("got %q, want 1.0000 V ∠-179.99°", got)
 	}
 }

@@ -1,0 +1,215 @@
+package calc
+
+import (
+	"errors"
+	"math"
+	"math/cmplx"
+	"strconv"
+	"testing"
+
+	"pgregory.net/rapid"
+)
+
+var propDims = []Dim{Dimensionless, DimVoltage, DimCurrent, DimImpedance, DimAdmittance, DimInductance,
+	DimCapacitance, DimPower, DimFrequency, DimAngularFrequency, DimTime, DimLength, DimEnergy, DimCharge}
+
+// genValue draws a complex value with magnitude in [1e-12, 1e12] and any
+// angle, the range of everyday circuit quantities.
+func genValue(t *rapid.T, label string) complex128 {
+	e := rapid.Float64Range(-12, 12).Draw(t, label+".exp")
+	m := math.Pow(10, e)
+	deg := rapid.Float64Range(-180, 180).Draw(t, label+".deg")
+	switch rapid.IntRange(0, 4).Draw(t, label+".axis") {
+	case 0:
+		return complex(m, 0)
+	case 1:
+		return complex(0, -m)
+	}
+	return cmplx.Rect(m, deg*math.Pi/180)
+}
+
+func genQuantity(t *rapid.T, label string) Quantity {
+	d := rapid.SampledFrom(propDims).Draw(t, label+".dim")
+	q := Q(genValue(t, label), d)
+	if d == DimPower {
+		q.Kind = rapid.SampledFrom([]Kind{KindApparent, KindActive, KindReactive}).Draw(t, label+".kind")
+		if q.Kind != KindApparent {
+			q.V = complex(real(q.V), 0)
+			if q.V == 0 {
+				q.V = 1
+			}
+		}
+	}
+	return q
+}
+
+// TestPropRectPolar: a value rebuilt from its magnitude and angle, written
+// in full precision and parsed as m∠θ, is the value (to 1e-12 of |z|).
+func TestPropRectPolar(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		v := genValue(t, "v")
+		m, deg := cmplx.Abs(v), Deg(v)
+		if deg <= -180 || deg > 180 {
+			t.Fatalf("Deg(%v) = %v outside (−180, 180]", v, deg)
+		}
+		src := strconv.FormatFloat(m, 'g', -1, 64) + "∠" + strconv.FormatFloat(deg, 'g', -1, 64)
+		q, err := evalString(newTestEnv(), src)
+		if err != nil {
+			t.Fatalf("%s: %v", src, err)
+		}
+		if !closeC(q.V, v, 1e-12) {
+			t.Fatalf("%v → %s → %v", v, src, q.V)
+		}
+		back := cmplx.Rect(m, deg*math.Pi/180)
+		if !closeC(back, v, 1e-12) {
+			t.Fatalf("cmplx.Rect(|v|, ∠v) = %v, want %v", back, v)
+		}
+	})
+}
+
+// TestPropMulDiv: (a·b)/b = a to 1e-12 relative.
+func TestPropMulDiv(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		a, b := genQuantity(t, "a"), genQuantity(t, "b")
+		p, err := Mul(a, b)
+		var ce *CycleError
+		if errors.As(err, &ce) {
+			t.Skip("Hz times a reactive element: refused by design")
+		}
+		if err != nil {
+			t.Fatalf("Mul: %v", err)
+		}
+		r, err := Div(p, b)
+		if err != nil {
+			t.Fatalf("Div: %v", err)
+		}
+		if !closeC(r.V, a.V, 1e-12) {
+			t.Fatalf("(a·b)/b = %v, a = %v", r.V, a.V)
+		}
+		if r.Dim != a.Dim {
+			t.Fatalf("dimension of a·b/b = %v, of a = %v", r.Dim, a.Dim)
+		}
+	})
+}
+
+// TestPropParallel: a‖b = b‖a, and it matches 1/(1/a + 1/b) computed
+// independently (common practice) where the sum is not near cancellation.
+func TestPropParallel(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		d := rapid.SampledFrom([]Dim{DimImpedance, DimAdmittance, DimInductance}).Draw(t, "dim")
+		a, b := Q(genValue(t, "a"), d), Q(genValue(t, "b"), d)
+		ab, err1 := Parallel(a, b)
+		ba, err2 := Parallel(b, a)
+		if (err1 == nil) != (err2 == nil) {
+			t.Fatalf("errors differ: %v vs %v", err1, err2)
+		}
+		if err1 != nil {
+			if err1 != ErrOpenCircuit {
+				t.Fatalf("Parallel: %v", err1)
+			}
+			return
+		}
+		if !closeC(ab.V, ba.V, 1e-15) || ab.Dim != d {
+			t.Fatalf("a‖b = %v, b‖a = %v", ab.V, ba.V)
+		}
+		s := 1/a.V + 1/b.V
+		if cmplx.Abs(s) > 1e-6*math.Max(cmplx.Abs(1/a.V), cmplx.Abs(1/b.V)) {
+			if want := 1 / s; !closeC(ab.V, want, 1e-9) {
+				t.Fatalf("a‖b = %v, 1/(1/a+1/b) = %v", ab.V, want)
+			}
+		}
+	})
+}
+
+// TestPropRecip: 1/(1/a) = a, and the dimension comes back.
+func TestPropRecip(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		a := genQuantity(t, "a")
+		r, err := Recip(a)
+		if err != nil {
+			t.Fatalf("Recip: %v", err)
+		}
+		rr, err := Recip(r)
+		if err != nil {
+			t.Fatalf("Recip twice: %v", err)
+		}
+		if !closeC(rr.V, a.V, 1e-15*4) || rr.Dim != a.Dim {
+			t.Fatalf("1/(1/a) = %v %v, a = %v %v", rr.V, rr.Dim, a.V, a.Dim)
+		}
+	})
+}
+
+// TestPropDimension: the dimension of a×b÷b equals a's for any exponents,
+// including combinations no table lists.
+func TestPropDimension(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		var a, b Dim
+		for i := range a {
+			a[i] = int8(rapid.IntRange(-4, 4).Draw(t, "a"))
+			b[i] = int8(rapid.IntRange(-4, 4).Draw(t, "b"))
+		}
+		if got := a.Mul(b).Div(b); got != a {
+			t.Fatalf("dim a×b÷b = %v, a = %v", got, a)
+		}
+		qa, qb := Q(2, a), Q(3i, b)
+		p, err := Mul(qa, qb)
+		var ce *CycleError
+		if errors.As(err, &ce) {
+			return
+		}
+		if err != nil {
+			t.Fatalf("Mul: %v", err)
+		}
+		r, err := Div(p, qb)
+		if err != nil && !errors.As(err, &ce) {
+			t.Fatalf("Div: %v", err)
+		}
+		if err == nil && r.Dim != a {
+			t.Fatalf("Div(Mul(a, b), b).Dim = %v, want %v", r.Dim, a)
+		}
+	})
+}
+
+// shownBound is how far a value printed to n significant figures may lie
+// from the true one: half a unit in the last place of the magnitude's
+// leading digit for each part, with room for the angle's rounding, plus a
+// part below 1e-12 of the magnitude, which is shown as 0 by design (at 13
+// or more digits that rule is the coarser of the two).
+func shownBound(m float64, digits int) float64 {
+	if digits <= 0 {
+		digits = DefaultDigits
+	}
+	if digits > MaxDigits {
+		digits = MaxDigits
+	}
+	return m*math.Pow(10, float64(1-digits)) + 1.5*tiny*m + 1e-300
+}
+
+// roundTrip parses a formatted value back and reports whether it lies
+// within the rounding of the digits shown.
+func roundTrip(t interface{ Fatalf(string, ...any) }, text string, q Quantity, digits int) {
+	back, err := evalString(newTestEnv(), text)
+	if err != nil {
+		t.Fatalf("%q (from %v %v) does not parse back: %v", text, q.V, q.Dim, err)
+	}
+	if back.Dim != q.Dim {
+		t.Fatalf("%q parses back as dimension %v, want %v", text, back.Dim, q.Dim)
+	}
+	if d := cmplx.Abs(back.V - q.V); d > shownBound(cmplx.Abs(q.V), digits) {
+		t.Fatalf("%q parses back as %v, value %v, off by %g (> %g)", text, back.V, q.V, d, shownBound(cmplx.Abs(q.V), digits))
+	}
+}
+
+// TestPropFormatRoundTrip: a formatted result parses back to the same
+// value at the digits shown, in rectangular and polar form, UTF-8 and ASCII.
+func TestPropFormatRoundTrip(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		q := genQuantity(t, "q")
+		if q.Dim == DimEnergy || q.Dim == DimCharge || q.Dim == DimAngularFrequency || q.Dim == DimLength {
+			q.Dim = DimVoltage // "J", "C", "m" are fine too, but keep the test to phasor units
+		}
+		f := Format{Digits: rapid.IntRange(1, 15).Draw(t, "digits"), ASCII: rapid.Bool().Draw(t, "ascii")}
+		roundTrip(t, f.Rect(q), q, f.Digits)
+		roundTrip(t, f.Polar(q), q, f.Digits)
+	})
+}
