@@ -203,11 +203,8 @@ func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, bool) {
 			st.Rule = "not series-parallel: solved by modified nodal analysis"
 			st.Notes = []string{nsp.Error()}
 			if len(nsp.Triangles) > 0 {
-				var tri []string
-				for _, t := range nsp.Triangles {
-					tri = append(tri, strings.Join(t.Parts[:], ", "))
-				}
-				st.Notes = append(st.Notes, "a Δ–Y conversion of one of these triangles would make it series-parallel: "+strings.Join(tri, "; ")+" (delta2y(Zab, Zbc, Zca) gives the Y)")
+				t := nsp.Triangles[0]
+				st.Notes = append(st.Notes, "to step it by series and parallel, convert a triangle: deltay "+net.Name+"y = "+net.Name+" triangle "+strings.Join(t.Parts[:], " "))
 			}
 		} else {
 			st.Rule = "series-parallel stepping not possible (" + err.Error() + "): solved by modified nodal analysis"

@@ -23,7 +23,8 @@ type network struct {
 	feed    calc.Expr
 	deps    map[string]bool
 	sol     *nodal.Solution
-	results []string // names this network defined
+	results []string  // names this network defined
+	tri     *triangle // a network derived by a Δ–Y conversion
 }
 
 // NetworkInfo describes a defined network for the app.
@@ -206,13 +207,19 @@ func (s *Sheet) solve(nw *network, reason string) error {
 	if err != nil {
 		return err
 	}
+	var pre []calc.Step
+	if nw.tri != nil {
+		if pre, err = s.yArms(nw.tri, net); err != nil {
+			return err
+		}
+	}
 	sol, err := nodal.Solve(net, s.ctx.Basis)
 	if err != nil {
 		return err
 	}
 	nw.sol = sol
 	sp, stepped := s.spSteps(net)
-	steps := sp
+	steps := append(pre, sp...)
 	for _, st := range sol.Steps(s.ctx.Format) {
 		// a network reduced step by step has its element table already
 		if stepped && st.Kind == "element" {

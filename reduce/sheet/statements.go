@@ -153,6 +153,8 @@ func (s *Sheet) exec(src string, n int) error {
 			return perr(p, "'end' without an open network block")
 		case "thevenin":
 			return s.stmtThevenin(p)
+		case "deltay":
+			return s.stmtDeltaY(p)
 		case "sweep":
 			return s.stmtSweep(p)
 		case "tolerance":
