@@ -98,6 +98,9 @@ compact series-parallel form over elements already defined
 
 equivalents
   thevenin T = bench between a and gnd      # T, T.vth, T.zth, T.in
+
+Δ–Y of a triangle (named in order around it), to step a bridge
+  deltay bench2 = bench triangle R1 R2 R3   # a new network with the Y arms Y_node
 `
 
 // Help prints help on a topic.
