@@ -1,11 +1,12 @@
 package threephase
 
 import (
+	"errors"
 	"fmt"
-	"math"
-	"math/cmplx"
 
 	"argand/calc"
+	"argand/reduce"
+	"argand/reduce/nodal"
 )
 
 // WyeLoad is the solution of an unbalanced Y load on a balanced supply.
@@ -55,27 +56,30 @@ func SolveWye(vPhase calc.Quantity, z [3]calc.Quantity, neutral bool, seq Sequen
 			if z[k].V == 0 {
 				return w, nil, fmt.Errorf("%w: %s is zero with the neutral connected, so phase %c is shorted", errShort, names[k], 'a'+k)
 			}
-			cur[k] = vs[k] / z[k].V
+		}
+		var err error
+		if _, cur, err = starPoint(vs, z, true, basis); err != nil {
+			return WyeLoad{}, nil, err
 		}
 		in := cur[0] + cur[1] + cur[2]
 		w.IN = amp(in)
 		steps = append(steps, calc.Step{
 			Kind:    "unbalanced",
-			Rule:    "unbalanced Y load, neutral connected: each phase takes its supply voltage; the neutral carries the sum (" + seq.String() + ")",
+			Rule:    "unbalanced Y load, neutral connected, solved by modified nodal analysis: each phase takes its supply voltage; the neutral carries the sum (" + seq.String() + ")",
 			Formula: "I_k = V_kN/Z_k;  I_N = I_a + I_b + I_c",
 			Inputs:  inputs,
 			Results: []calc.Operand{op("I_N", w.IN), op("I_a", amp(cur[0])), op("I_b", amp(cur[1])), op("I_c", amp(cur[2]))},
 		})
 	} else {
 		var err error
-		shift, cur, err = millman(vs, z)
+		shift, cur, err = starPoint(vs, z, false, basis)
 		if err != nil {
 			return WyeLoad{}, nil, err
 		}
 		w.VShift = volt(shift)
 		steps = append(steps, calc.Step{
 			Kind:    "unbalanced",
-			Rule:    "unbalanced Y load, star point floating: node equation of the star point (Millman's theorem) (" + seq.String() + ")",
+			Rule:    "unbalanced Y load, star point floating, solved by modified nodal analysis: the node equation of the star point is Millman's theorem (" + seq.String() + ")",
 			Formula: "V_nN = (V_aN·Y_a + V_bN·Y_b + V_cN·Y_c)/(Y_a + Y_b + Y_c);  I_k = (V_kN − V_nN)/Z_k",
 			Inputs:  inputs,
 			Results: []calc.Operand{op("V_nN", w.VShift), op("I_a", amp(cur[0])), op("I_b", amp(cur[1])), op("I_c", amp(cur[2]))},
@@ -110,47 +114,40 @@ func SolveWye(vPhase calc.Quantity, z [3]calc.Quantity, neutral bool, seq Sequen
 	return w, steps, nil
 }
 
-// millman solves the floating star point. With a zero impedance in one
-// phase the star point sits on that line; zeros in two phases short the
-// supply between lines.
-func millman(vs [3]complex128, z [3]calc.Quantity) (complex128, [3]complex128, error) {
+// starPoint solves a Y load on a supply of phase voltages vs by the nodal
+// engine (package nodal, modified nodal analysis): the supply's star point
+// N is the reference, each phase a voltage source from N to its line node,
+// each load impedance from its line node to the load's star point n. With
+// the neutral connected a 0 Ω wire joins n to N; floating, the engine's one
+// node equation at n is Millman's theorem. It returns the neutral-point
+// shift V_nN and the line currents, which flow from the line into the load.
+func starPoint(vs [3]complex128, z [3]calc.Quantity, neutral bool, basis calc.Basis) (complex128, [3]complex128, error) {
 	var cur [3]complex128
-	zero := -1
+	lines := [3]string{"A", "B", "C"}
+	net := &reduce.Network{Name: "Y load", Reference: "N"}
+	for k := range vs {
+		net.Elements = append(net.Elements, reduce.Element{Name: "V_" + string(rune('a'+k)) + "N", Kind: reduce.VoltageSource,
+			From: "N", To: lines[k], Value: vs[k]})
+	}
 	for k := range z {
-		if z[k].V == 0 {
-			if zero >= 0 {
-				return 0, cur, fmt.Errorf("%w: two phase impedances are zero, so lines %c and %c are shorted together", errShort, 'a'+zero, 'a'+k)
-			}
-			zero = k
+		net.Elements = append(net.Elements, reduce.Element{Name: "Z_" + string(rune('a'+k)), Kind: reduce.Impedance,
+			From: lines[k], To: "n", Z: z[k].V, Raw: z[k].V})
+	}
+	if neutral {
+		net.Elements = append(net.Elements, reduce.Element{Name: "neutral", Kind: reduce.Impedance, From: "n", To: "N"})
+	}
+	sol, err := nodal.Solve(net, basis)
+	if err != nil {
+		var ne *nodal.NetError
+		if errors.As(err, &ne) {
+			return 0, cur, fmt.Errorf("%w: %s", errShort, ne.Msg)
 		}
+		return 0, cur, fmt.Errorf("the star-point voltage is undefined (%v)", err)
 	}
-	var shift complex128
-	if zero >= 0 {
-		shift = vs[zero]
-		for k := range z {
-			if k != zero {
-				cur[k] = (vs[k] - shift) / z[k].V
-				cur[zero] -= cur[k]
-			}
-		}
-		return shift, cur, nil
-	}
-	var num, den complex128
-	maxY := 0.0
 	for k := range z {
-		y := 1 / z[k].V
-		num += vs[k] * y
-		den += y
-		maxY = math.Max(maxY, cmplx.Abs(y))
+		cur[k] = sol.Branches[3+k].I
 	}
-	if cmplx.Abs(den) <= 1e-12*maxY {
-		return 0, cur, fmt.Errorf("the star-point voltage is undefined: the phase admittances sum to zero (Y_a + Y_b + Y_c = 0, a resonance), so the neutral-point shift is unbounded")
-	}
-	shift = num / den
-	for k := range z {
-		cur[k] = (vs[k] - shift) / z[k].V
-	}
-	return shift, cur, nil
+	return sol.Voltage["n"], cur, nil
 }
 
 // DeltaLoad is the solution of an unbalanced Δ load on a balanced supply.
