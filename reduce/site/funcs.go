@@ -13,6 +13,7 @@ import (
 // through Range by the worksheet interpreter rather than as a function.
 func Funcs() []calc.Func {
 	fs := []calc.Func{
+		radialFunc(),
 		{Name: "fromvi", Args: "(V, I, φ)", Min: 3, Max: 3,
 			Doc:     "equivalent series and parallel R and X, and the L or C they imply, from RMS readings of V, I and the angle by which V leads I; .rs .xs .rp .xp .ls .cs .lp .cp .p .q .s .pf",
 			Formula: "Z = (V/I)∠φ; Rs = P/I², Xs = Q/I²; Rp = V²/P, Xp = V²/Q; L = X/ω, C = −1/(ω·X)",

@@ -241,6 +241,9 @@ func SolveRadial(sys Radial) (RadialResult, error) {
 	for i, z := range zs {
 		acc += z
 		v := complex(e, 0) - ipu*acc
+		if cmplx.Abs(v) < 1e-12*e {
+			v = 0 // rounding noise at a bolted fault
+		}
 		ib := sys.SBase / (math.Sqrt(3) * zones[i])
 		r.Zpu = append(r.Zpu, calc.Number(z))
 		name := used[i].Name
