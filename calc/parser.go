@@ -123,6 +123,8 @@ func (p *Parser) ExpectEnd() {
 		p.Failf(t, "unbalanced parentheses: ')' without a matching '('")
 	case t.Tok == TokIdent && IsUnit(t.Text):
 		p.Failf(t, "unit %q must follow a number directly (as in 10 %s)", t.Text, t.Text)
+	case t.Tok == TokIdent && prefixes[t.Text] != 0:
+		p.Failf(t, "prefix %q needs a unit right after it (as in 10 %sΩ)", t.Text, t.Text)
 	case t.Tok == TokIdent || t.Tok == TokNumber || t.Tok == TokImag:
 		p.Failf(t, "unexpected %q: missing operator? (write * to multiply)", t.Text)
 	default:

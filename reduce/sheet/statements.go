@@ -130,7 +130,7 @@ func (s *Sheet) exec(src string, n int) error {
 	if s.open != nil {
 		return s.blockLine(p, first)
 	}
-	if first.Tok == calc.TokIdent && !calledAsFunction(body) {
+	if first.Tok == calc.TokIdent && !calledAsFunction(body) && !assignsTo(body) {
 		switch first.Text {
 		case "frequency":
 			return s.stmtFrequency(p)
@@ -149,8 +149,8 @@ func (s *Sheet) exec(src string, n int) error {
 		case "network":
 			return s.stmtNetwork(p)
 		case "end":
-			p.Next()
-			return perr(p, "'end' without an open network block")
+			p.Failf(p.Next(), "'end' without an open network block")
+			return p.Err()
 		case "thevenin":
 			return s.stmtThevenin(p)
 		case "deltay":
@@ -185,6 +185,15 @@ func calledAsFunction(body string) bool {
 	q := calc.NewParser(body, 0)
 	q.Next()
 	return q.IsOp("(")
+}
+
+// assignsTo reports a line that starts with a word and "=", such as
+// frequency = 2: an attempt to define a name, which the definition then
+// refuses with the reason when the word is reserved.
+func assignsTo(body string) bool {
+	q := calc.NewParser(body, 0)
+	q.Next()
+	return q.IsOp("=")
 }
 
 func (s *Sheet) isSourceStmt(body string) bool {

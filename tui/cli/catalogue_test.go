@@ -1,0 +1,240 @@
+package cli
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+)
+
+// catalogue is a list of malformed inputs. Each is the last line of a
+// worksheet whose earlier lines are good (pre, then two fixed lines), so
+// the test also sees that the work before the bad line was printed.
+var catalogue = []struct {
+	name string
+	pre  []string // lines before the two fixed good lines, if the case needs them
+	src  string   // the bad line
+	msg  string   // substring of the message
+	col  int
+}{
+	{"unclosed paren", nil, "(1+2", "'(' is never closed", 1},
+	{"unopened paren", nil, "1+2)", "')' without a matching '('", 4},
+	{"unclosed nested", nil, "((1)", "'(' is never closed", 1},
+	{"unclosed call", nil, "mag(3+j4", "never closed", 4},
+	{"empty parens", nil, "()", "empty parentheses", 2},
+	{"dangling plus", nil, "1 +", "operand is missing", 4},
+	{"leading times", nil, "* 2", "operand is missing", 1},
+	{"two operators", nil, "1 * / 2", "operand is missing", 5},
+	{"dangling parallel", nil, "1 ||", "operand is missing", 5},
+	{"single bar", nil, "1 | 2", "write || for parallel", 3},
+	{"unknown unit", nil, "3 xyz", "unexpected \"xyz\"", 3},
+	{"unknown unit glued", nil, "3xyz", "unknown unit \"xyz\"", 2},
+	{"unknown function", nil, "foo(2)", "unknown function \"foo\"", 1},
+	{"prefix without unit", nil, "10 k", "prefix \"k\" needs a unit", 4},
+	{"prefix glued without unit", nil, "10k", "prefix \"k\" needs a unit", 3},
+	{"unit without number", nil, "mS", "without a number", 1},
+	{"ohm without number", nil, "Ω * 2", "without a number", 1},
+	{"V plus ohm", nil, "1 V + 2 Ω", "cannot combine V + Ω", 5},
+	{"A minus V", nil, "2 A - 1 V", "cannot combine A − V", 5},
+	{"Hz times H", nil, "50 Hz * 10 mH", "use omega(f)", 7},
+	{"Hz times F", nil, "1 / (50 Hz * 1 µF)", "Hz counts cycles", 12},
+	{"division by zero", nil, "1/0", "division by zero", 2},
+	{"reciprocal of zero", nil, "recip(0)", "division by zero", 1},
+	{"polar without angle", nil, "5∠", "angle missing", 2},
+	{"ascii polar without angle", nil, "5@", "angle missing", 2},
+	{"second angle", nil, "5∠∠3", "operand is missing", 3},
+	{"overflow", nil, "1e308*1e308", "overflow", 6},
+	{"number too large", nil, "1e400", "number too large", 1},
+	{"unknown name", nil, "nosuch + 1", "unknown name \"nosuch\"", 1},
+	{"reserved unit name S", nil, "S = 3", "\"S\" is reserved", 1},
+	{"reserved unit name V", nil, "V = 1", "\"V\" is reserved", 1},
+	{"reserved prefixed unit", nil, "mS = 1", "\"mS\" is reserved", 1},
+	{"reserved keyword", nil, "frequency = 2", "\"frequency\" is reserved", 1},
+	{"reserved constant", nil, "pi = 3", "\"pi\" is reserved", 1},
+	{"reserved function", nil, "sqrt = 3", "\"sqrt\" is reserved", 1},
+	{"frequency zero", nil, "frequency 0 Hz", "greater than 0", 11},
+	{"frequency negative", nil, "frequency -50 Hz", "greater than 0", 11},
+	{"frequency wrong unit", nil, "frequency 10 Ω", "Hz or rad/s", 11},
+	{"digits out of range", nil, "digits 99", "1 to 15", 8},
+	{"basis unknown", nil, "basis wobble", "rms or peak", 7},
+	{"too many arguments", nil, "mag(1, 2)", "takes 1 argument", 1},
+	{"too few arguments", nil, "atan2(1)", "takes 2 argument", 1},
+	{"root without unit", nil, "sqrt(1 V)", "no whole unit", 1},
+	{"log of zero", nil, "ln(0)", "logarithm of 0", 1},
+	{"tan at 90", nil, "tan(90)", "infinite", 1},
+	{"stray character", nil, "3 $ 4", "unexpected character '$'", 3},
+	{"two units on a phasor", nil, "1 V ∠30 Ω", "two units", 1},
+	{"function without call", nil, "mag + 1", "is a function", 1},
+	{"nothing after equals", nil, "x = ", "nothing after '='", 5},
+	{"open circuit", nil, "j10 Ω || -j10 Ω", "open circuit", 7},
+	{"inductor given ohms", nil, "zl(10 Ω)", "needs an inductance", 1},
+	{"unit with power", nil, "(10 Ω)^0.5", "no whole unit", 7},
+	{"end without network", nil, "end", "without an open network", 1},
+	{"resistor in volts", nil, "resistor R1 = 10 V", "in Ω", 15},
+	{"check of unlike units", nil, "check 1 Ω is 1 V", "the units differ", 14},
+	{"circular definition", []string{"p = 1", "q = p + 1"}, "p = q", "circular", 1},
+	{"value called", []string{"r = 2"}, "r(3)", "is a value, not a function", 1},
+	{"comma", nil, "1,2", "unexpected \",\"", 2},
+	{"invalid UTF-8", nil, "1 + \xff2", "invalid UTF-8", 5},
+	{"invalid UTF-8 after multibyte", nil, "Ω\xfe", "invalid UTF-8", 2},
+	{"10 MB line", nil, "1+" + strings.Repeat(" ", 10<<20) + "1", "line too long", 1},
+	{"100 000 nested parentheses", nil, strings.Repeat("(", 100000) + "1" + strings.Repeat(")", 100000), "line too long", 1},
+	{"deep nesting within the line limit", nil, strings.Repeat("(", 30000) + "1" + strings.Repeat(")", 30000), "nested too deeply", 200},
+	{"deep unary minus", nil, strings.Repeat("-", 30000) + "1", "nested too deeply", 200},
+}
+
+// good are the two lines every catalogue worksheet starts with; their
+// results must be printed before the error.
+const good = "a_ok = 230 V\nb_ok = a_ok / (3+j4 Ω)\n"
+
+func TestCatalogue(t *testing.T) {
+	if len(catalogue) < 40 {
+		t.Fatalf("catalogue has %d entries, want at least 40", len(catalogue))
+	}
+	for _, c := range catalogue {
+		t.Run(c.name, func(t *testing.T) {
+			pre := ""
+			for _, l := range c.pre {
+				pre += l + "\n"
+			}
+			line := len(c.pre) + 3
+			ws := pre + good + c.src + "\n" + "c_never = 1 V\n"
+
+			// the interpreter: message, line, column
+			s := sheet.New()
+			var got []calc.Step
+			sum, err := s.Run(strings.NewReader(ws), func(st []calc.Step) { got = append(got, st...) })
+			if err != nil {
+				t.Fatalf("Run: %v", err)
+			}
+			e := sum.Err
+			if e == nil {
+				t.Fatalf("no error for %.60q", c.src)
+			}
+			if !strings.Contains(e.Msg, c.msg) {
+				t.Errorf("message %q, want it to contain %q", e.Msg, c.msg)
+			}
+			if e.Line != line || e.Col != c.col {
+				t.Errorf("at line %d col %d, want line %d col %d (%s)", e.Line, e.Col, line, c.col, e.Msg)
+			}
+			if n := utf8.RuneCountInString(c.src); e.Col < 1 || e.Col > n+1 {
+				t.Errorf("column %d outside the line (1…%d)", e.Col, n+1)
+			}
+			var names []string
+			for _, st := range got {
+				if r, ok := st.Result(); ok {
+					names = append(names, r.Name)
+				}
+			}
+			if !contains(names, "a_ok") || !contains(names, "b_ok") || contains(names, "c_never") {
+				t.Errorf("steps emitted for %v; want a_ok and b_ok, not c_never", names)
+			}
+
+			// the caret sits under the column
+			if sum.ErrSrc != "" {
+				caret := strings.Split(calc.Caret(sum.ErrSrc, e), "\n")
+				if len(caret) != 2 || !strings.HasPrefix(caret[1], strings.Repeat(" ", e.Col-1)+"^") &&
+					!strings.Contains(sum.ErrSrc[:min(len(sum.ErrSrc), e.Col)], "\t") {
+					t.Errorf("caret %q not at column %d", caret[len(caret)-1], e.Col)
+				}
+			}
+
+			// the command line: steps before the bad line printed, exit 2,
+			// the error located, no panic or stack trace
+			var out, errb bytes.Buffer
+			code := Run(strings.NewReader(ws), "cat.argand", &out, &errb, Options{})
+			if code != ExitBadInput {
+				t.Errorf("exit code %d, want %d", code, ExitBadInput)
+			}
+			if !strings.Contains(out.String(), "→ a_ok = 230.0 V") || !strings.Contains(out.String(), "→ b_ok = ") {
+				t.Errorf("results before the bad line missing from the output:\n%.400s", out.String())
+			}
+			if strings.Contains(out.String(), "c_never") {
+				t.Errorf("the line after the error was run")
+			}
+			wantHead := fmt.Sprintf("error: cat.argand:%d:%d: ", line, c.col)
+			if !strings.HasPrefix(errb.String(), wantHead) {
+				t.Errorf("stderr starts %.80q, want %q", errb.String(), wantHead)
+			}
+			for _, bad := range []string{"panic", "goroutine", "runtime error", "NaN", "Inf"} {
+				if strings.Contains(out.String()+errb.String(), bad) {
+					t.Errorf("output contains %q", bad)
+				}
+			}
+			if sum.ErrSrc != "" && utf8.ValidString(sum.ErrSrc) && len(sum.ErrSrc) < 200 {
+				lines := strings.Split(strings.TrimRight(errb.String(), "\n"), "\n")
+				wantCaret := "  " + strings.Repeat(" ", c.col-1) + "^"
+				if len(lines) != 3 || !strings.HasPrefix(lines[2], wantCaret) {
+					t.Errorf("caret lines %q, want the caret at column %d", lines, c.col)
+				}
+			}
+
+			// JSON: one error object with error, line, col
+			out.Reset()
+			errb.Reset()
+			code = Run(strings.NewReader(ws), "cat.argand", &out, &errb, Options{JSON: true})
+			if code != ExitBadInput {
+				t.Errorf("--json exit code %d", code)
+			}
+			outLines := strings.Split(strings.TrimRight(out.String(), "\n"), "\n")
+			last := outLines[len(outLines)-1]
+			var je struct {
+				Error     string
+				Line, Col int
+			}
+			if err := json.Unmarshal([]byte(last), &je); err != nil || je.Error == "" || je.Line != line || je.Col != c.col {
+				t.Errorf("last JSON line %.200q: %+v %v", last, je, err)
+			}
+		})
+	}
+}
+
+func contains(xs []string, x string) bool {
+	for _, y := range xs {
+		if y == x {
+			return true
+		}
+	}
+	return false
+}
+
+// TestCatalogueEval: the same inputs as arguments of argand eval fail with
+// exit code 2 and the error at column of the argument.
+func TestCatalogueEval(t *testing.T) {
+	for _, c := range catalogue {
+		if c.pre != nil || len(c.src) > 1000 {
+			continue
+		}
+		var out, errb bytes.Buffer
+		code := Eval([]string{"1 V", c.src}, &out, &errb, Options{})
+		if code != ExitBadInput {
+			t.Errorf("%s: exit %d", c.name, code)
+		}
+		if want := fmt.Sprintf("argument:2:%d: ", c.col); !strings.Contains(errb.String(), want) {
+			t.Errorf("%s: stderr %q, want %q", c.name, errb.String(), want)
+		}
+		if !strings.Contains(out.String(), "1.000 V") {
+			t.Errorf("%s: first argument's result not printed", c.name)
+		}
+	}
+}
+
+// TestEmptyInput: an empty worksheet or a worksheet of comments runs and
+// exits 0 with nothing to show; an empty expression to eval is an error.
+func TestEmptyInput(t *testing.T) {
+	for _, ws := range []string{"", "\n\n", "# only a comment\n", "   \t\n"} {
+		var out, errb bytes.Buffer
+		if code := Run(strings.NewReader(ws), "empty", &out, &errb, Options{}); code != ExitOK || errb.Len() != 0 {
+			t.Errorf("%q: exit %d, stderr %q", ws, code, errb.String())
+		}
+	}
+	_, err := calc.ParseExpr("", 1)
+	if err == nil || !strings.Contains(err.Msg, "empty input") || err.Col != 1 {
+		t.Errorf("ParseExpr(\"\") error %v, want empty input at col 1", err)
+	}
+}
