@@ -138,7 +138,9 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + sigFixed(c.RelMag*100, 3) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
 	}
 	for _, n := range s.Notes {
-		b.WriteString("    note: " + tr(n) + "\n")
+		// a note of several lines (a plot) keeps its shape, indented
+		n = strings.TrimRight(n, "\n")
+		b.WriteString("    note: " + strings.ReplaceAll(tr(n), "\n", "\n      ") + "\n")
 	}
 	out := b.String()
 	if f.ASCII {

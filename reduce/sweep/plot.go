@@ -110,8 +110,9 @@ func Plot(t *Table, width, height int, dB bool, ascii bool) string {
 
 	// the margin fits the widest label of either panel
 	margin := 0
-	for _, s := range []string{magLabel(magLo), magLabel(magHi), magLabel((magLo + magHi) / 2),
-		angLabel(angLo), angLabel(angHi), angLabel((angLo + angHi) / 2)} {
+	mid := func(lo, hi float64) float64 { return hi - (hi-lo)*float64((height-1)/2)/float64(height-1) }
+	for _, s := range []string{magLabel(magLo), magLabel(magHi), magLabel(mid(magLo, magHi)),
+		angLabel(angLo), angLabel(angHi), angLabel(mid(angLo, angHi))} {
 		margin = max(margin, utf8.RuneCountInString(s))
 	}
 	cols := max(width-margin-2, 10)
