@@ -73,15 +73,36 @@ func (s *Step) Result() (Operand, bool) {
 
 // asciiReplacer turns the symbols in rule and formula text into ASCII.
 var asciiReplacer = strings.NewReplacer(
-	"Ω", "ohm", "µ", "u", "μ", "u", "∠", "@", "°", " deg", "·", "*", "×", "*", "÷", "/",
+	"°C", "degC", "(°)", "(deg)", "Ω", "ohm", "±", "+/-", "α", "alpha", "β", "beta", "η", "eta", "τ", "tau",
+	"λ", "lambda", "ρ", "rho", "σ", "sigma", "ε", "eps", "δ", "delta", "≠", "!=", "ₖ", "k", "ₙ", "n", "₀", "0",
+	"⁰", "^0", "¹", "^1", "⁴", "^4", "⁵", "^5", "⁶", "^6", "⁷", "^7", "⁸", "^8", "⁹", "^9", "ᶻ", "^z", "′", "'",
+	"“", "\"", "”", "\"", "‘", "'", "’", "'", "•", "*", "…", "...", "µ", "u", "μ", "u", "∠", "@", "°", " deg", "·", "*", "×", "*", "÷", "/",
 	"−", "-", "√", "sqrt", "π", "pi", "ω", "w", "φ", "phi", "θ", "theta", "‖", "||",
 	"≈", "~", "≤", "<=", "≥", ">=", "²", "^2", "³", "^3", "₁", "1", "₂", "2", "₃", "3",
 	"→", "->", "←", "<-", "Σ", "sum", "Δ", "D", "∞", "inf", "—", "-", "–", "-", "⁻¹", "^-1",
 	"½", "1/2", "…", "...", "│", "|", "─", "-", "ₐ", "a", "ᵦ", "b", "✓", "ok", "✗", "x",
 )
 
-// ASCIIText returns s with the symbols argand uses replaced by ASCII.
-func ASCIIText(s string) string { return asciiReplacer.Replace(s) }
+// ASCIIText returns s with the symbols argand uses replaced by ASCII; any
+// other non-ASCII character becomes '?', so the result is ASCII whatever
+// text a user or a function supplied.
+func ASCIIText(s string) string {
+	s = asciiReplacer.Replace(s)
+	for i := 0; i < len(s); i++ {
+		if s[i] >= 0x80 {
+			var b strings.Builder
+			for _, r := range s {
+				if r < 0x80 {
+					b.WriteRune(r)
+				} else {
+					b.WriteByte('?')
+				}
+			}
+			return b.String()
+		}
+	}
+	return s
+}
 
 // Text writes the step for a person, in the given format, as indented
 // lines: the statement, the rule and formula, each operand and each result
