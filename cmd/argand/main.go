@@ -24,6 +24,7 @@ import (
 	"strconv"
 	"strings"
 
+	"argand/tui"
 	"argand/tui/cli"
 
 	"github.com/charmbracelet/x/term"
@@ -161,7 +162,13 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 	case f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "":
 		return cli.Plain(file, in, out, errw, f.opt)
 	}
-	return cli.Plain(file, in, out, errw, f.opt)
+	return tui.Run(tui.Options{
+		ASCII:      f.opt.ASCII,
+		Color:      tui.ColorWanted(os.Getenv),
+		PolarFirst: f.opt.PolarFirst,
+		Digits:     f.opt.Digits,
+		File:       file,
+	}, in, out, errw)
 }
 
 // cleanErr shortens an *os.PathError to what a person needs.

@@ -1,0 +1,344 @@
+package tui
+
+import (
+	"fmt"
+	"path/filepath"
+	"strings"
+
+	"argand/tui/cli"
+	"argand/tui/clip"
+	"argand/tui/store"
+
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/x/ansi"
+)
+
+// safetyText is the caution of shared DESIGN.md.
+const safetyText = cli.Safety
+
+// question is one thing asked: a role of an operation, a name, a file.
+type question struct {
+	label string
+	def   string // offered answer, taken when the answer is left empty
+	names bool   // the answer names rows: checked before going on
+	list  bool   // several names, separated by commas
+}
+
+// questions asks a sequence of questions in the entry line, then hands the
+// answers on.
+type questions struct {
+	title string
+	qs    []question
+	i     int
+	ans   []string
+	f     field
+	done  func([]string)
+}
+
+func (m *Model) startAsk(title string, qs []question, done func([]string)) {
+	m.ask = &questions{title: title, qs: qs, done: done}
+	m.back = m.mode
+	if m.back == modePrompt || m.back == modeHelp {
+		m.back = modeRows
+	}
+	m.mode = modePrompt
+}
+
+func (q *questions) view(m *Model, w int) string {
+	cur := q.qs[q.i]
+	label := cur.label
+	if len(q.qs) > 1 {
+		label = fmt.Sprintf("%d/%d %s", q.i+1, len(q.qs), label)
+	}
+	if cur.def != "" {
+		label += " [" + cur.def + "]"
+	}
+	label = m.tr(label) + ": "
+	s, _ := q.f.render(max(4, w-ansi.StringWidth(label)), func(c string) string { return m.th.cursor.Render(c) })
+	return m.th.label.Render(label) + s
+}
+
+// askKey handles a key while a question is open.
+func (m *Model) askKey(k tea.KeyMsg) tea.Cmd {
+	q := m.ask
+	km := m.keys
+	switch {
+	case key.Matches(k, km.Accept):
+		a := strings.TrimSpace(q.f.String())
+		cur := q.qs[q.i]
+		if a == "" {
+			a = cur.def
+		}
+		if cur.names && a != "" {
+			for _, n := range strings.Split(a, ",") {
+				n = strings.TrimSpace(n)
+				if _, ok := m.s.sh.Lookup(n); !ok {
+					m.note(true, fmt.Sprintf("no row named %q; type a name from the table", n))
+					return nil
+				}
+			}
+		}
+		q.ans = append(q.ans, a)
+		q.f.clear()
+		q.i++
+		if q.i == len(q.qs) {
+			m.ask = nil
+			m.mode = m.back
+			m.note(false, "")
+			q.done(q.ans)
+		}
+	case key.Matches(k, km.Cancel):
+		m.ask = nil
+		m.mode = m.back
+		m.note(false, "cancelled")
+	case key.Matches(k, km.PromptLeft):
+		q.f.left()
+	case key.Matches(k, km.PromptRight):
+		q.f.right()
+	case key.Matches(k, km.PromptHome):
+		q.f.home()
+	case key.Matches(k, km.PromptEnd):
+		q.f.end()
+	case key.Matches(k, km.PromptBack):
+		q.f.backspace()
+	case key.Matches(k, km.PromptDel):
+		q.f.del()
+	case key.Matches(k, km.PromptClear):
+		q.f.clear()
+	case key.Matches(k, km.PromptQuit):
+		m.quitting = true
+		return tea.Quit
+	default:
+		if k.Type == tea.KeyRunes || k.Type == tea.KeySpace {
+			q.f.insert(keyRunes(k))
+		}
+	}
+	return nil
+}
+
+func keyRunes(k tea.KeyMsg) []rune {
+	if k.Type == tea.KeySpace {
+		return []rune{' '}
+	}
+	return k.Runes
+}
+
+// lineKey handles a key while the entry line has the keyboard.
+func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
+	km := m.keys
+	l := &m.line
+	switch {
+	case key.Matches(k, km.Run):
+		m.submit()
+	case key.Matches(k, km.Leave):
+		m.mode = modeRows
+	case key.Matches(k, km.Left):
+		l.f.left()
+	case key.Matches(k, km.Right):
+		l.f.right()
+	case key.Matches(k, km.Home):
+		l.f.home()
+	case key.Matches(k, km.End):
+		l.f.end()
+	case key.Matches(k, km.Back):
+		l.f.backspace()
+	case key.Matches(k, km.Del):
+		l.f.del()
+	case key.Matches(k, km.Kill):
+		l.f.kill()
+	case key.Matches(k, km.Clear):
+		l.f.clear()
+	case key.Matches(k, km.Prev):
+		if l.hpos > 0 {
+			l.hpos--
+			l.f.set(l.history[l.hpos])
+		}
+	case key.Matches(k, km.Next):
+		if l.hpos < len(l.history) {
+			l.hpos++
+			if l.hpos == len(l.history) {
+				l.f.clear()
+			} else {
+				l.f.set(l.history[l.hpos])
+			}
+		}
+	case key.Matches(k, km.LineHelp):
+		m.openHelp()
+	case key.Matches(k, km.LineQuit):
+		m.quitting = true
+		return tea.Quit
+	default:
+		if k.Type == tea.KeyRunes || k.Type == tea.KeySpace {
+			rs := keyRunes(k)
+			if k.Paste && strings.ContainsAny(string(rs), "\n\r") {
+				m.pasteLines(string(rs))
+				break
+			}
+			l.f.insert(rs)
+		}
+	}
+	l.validate(m)
+	return nil
+}
+
+// submit runs the entry line.
+func (m *Model) submit() {
+	l := &m.line
+	src := strings.TrimSpace(l.f.String())
+	if src == "" {
+		m.mode = modeRows
+		return
+	}
+	if m.run("", src) {
+		l.history = append(l.history, src)
+		l.hpos = len(l.history)
+		l.f.clear()
+		if m.s.sh.OpenNetwork() == "" {
+			m.note(false, m.msg)
+		} else {
+			m.note(false, "network block open: type its elements, then end")
+		}
+	}
+}
+
+// pasteLines runs pasted text of several lines as one change: every line
+// or none.
+func (m *Model) pasteLines(text string) {
+	text = strings.ReplaceAll(text, "\r\n", "\n")
+	text = strings.ReplaceAll(text, "\r", "\n")
+	var stmts []string
+	if cur := strings.TrimSpace(m.line.f.String()); cur != "" {
+		stmts = append(stmts, cur)
+	}
+	for _, l := range strings.Split(text, "\n") {
+		if strings.TrimSpace(l) != "" {
+			stmts = append(stmts, l)
+		}
+	}
+	if len(stmts) == 0 {
+		return
+	}
+	if m.run(fmt.Sprintf("pasted %d lines", len(stmts)), stmts...) {
+		m.line.f.clear()
+	}
+}
+
+// exportKey handles the choice of what to export.
+func (m *Model) exportKey(k tea.KeyMsg) tea.Cmd {
+	km := m.keys
+	write := func(title, def string, text func() string) {
+		m.startAsk(title, []question{{label: "file", def: def}}, func(a []string) {
+			path := a[0]
+			if path == "" {
+				m.note(true, "no file named")
+				return
+			}
+			if err := store.Save(path, []byte(text())); err != nil {
+				m.note(true, "could not write "+path+": "+err.Error())
+				return
+			}
+			abs, _ := filepath.Abs(path)
+			m.note(false, "wrote "+abs)
+		})
+		m.back = modeRows
+	}
+	switch {
+	case key.Matches(k, km.ExMarkdown):
+		write("export the trail as Markdown", "argand-trail.md", m.trailMarkdown)
+	case key.Matches(k, km.ExText):
+		write("export the trail as plain text", "argand-trail.txt", m.trailText)
+	case key.Matches(k, km.ExSheet):
+		def := m.s.worksheet
+		if def == "" {
+			def = "session.argand"
+		}
+		write("save the session as a worksheet (argand run FILE replays it)", def, m.worksheetText)
+	case key.Matches(k, km.ExCancel):
+		m.mode = modeRows
+		m.note(false, "nothing exported")
+	}
+	return nil
+}
+
+// copiedMsg reports the outcome of a clipboard request.
+type copiedMsg struct {
+	what string
+	err  error
+}
+
+// copyCmd writes the OSC 52 request for text to the terminal, outside the
+// renderer (bubbletea has no way to pass an escape sequence through).
+func (m *Model) copyCmd(what, text string) tea.Cmd {
+	if m.opt.ASCII {
+		text = m.tr(text)
+	}
+	seq, err := clip.Sequence(text, m.opt.Getenv)
+	if err != nil {
+		m.note(true, "copy: "+err.Error())
+		return nil
+	}
+	w := m.opt.Out
+	m.note(false, "copying "+what+"…")
+	return func() tea.Msg {
+		_, err := w.Write([]byte(seq))
+		return copiedMsg{what: what, err: err}
+	}
+}
+
+// helpLines is the help screen: every binding of every mode, by bubbles
+// help, then the safety caution.
+func (m *Model) helpLines() []string {
+	var out []string
+	out = append(out, m.th.label.Render("argand: AC phasor work, step by step")+"   (esc closes; ↑↓ scroll)")
+	out = append(out, "Rows are named values, newest at the top. Operations take the marked rows in the")
+	out = append(out, "order marked, else the two newest (older first). Each becomes a worksheet statement.")
+	out = append(out, "")
+	hm := m.help
+	hm.Width = m.width
+	for _, md := range allModes {
+		out = append(out, m.th.heading.Render("keys: "+md.String()))
+		v := hm.FullHelpView([][]key.Binding{m.keys.Mode(md)})
+		out = append(out, strings.Split(v, "\n")...)
+		out = append(out, "")
+	}
+	out = append(out, m.th.heading.Render("safety"))
+	out = append(out, strings.Split(safetyText, "\n")...)
+	out = append(out, "", "Statements: see argand help language; functions: argand help functions.")
+	for i := range out {
+		out[i] = m.tr(out[i])
+	}
+	return out
+}
+
+func (m *Model) helpView() []string {
+	all := m.helpLines()
+	h := m.height - 1
+	m.helpTop = max(0, min(m.helpTop, len(all)-h))
+	end := min(len(all), m.helpTop+h)
+	out := append([]string(nil), all[m.helpTop:end]...)
+	for len(out) < h {
+		out = append(out, "")
+	}
+	out = append(out, m.th.dim.Render(fmt.Sprintf("help %d-%d of %d lines", m.helpTop+1, end, len(all))))
+	return out
+}
+
+func (m *Model) lockedView() []string {
+	who := "another argand"
+	if m.lockPID > 0 {
+		who = fmt.Sprintf("another argand (process %d)", m.lockPID)
+	}
+	return []string{
+		m.th.label.Render("argand: this session is in use"),
+		"",
+		m.tr(who + " has the session open, perhaps in another login."),
+		"Two programs saving one session would overwrite each other's work.",
+		"",
+		"  r  open it read-only: look, nothing is kept",
+		"  s  start a separate session (kept in its own file)",
+		"  q  quit",
+		"",
+		m.th.dim.Render(m.tr("session file: " + m.lockPath)),
+	}
+}

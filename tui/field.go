@@ -1,0 +1,156 @@
+package tui
+
+import (
+	"strings"
+
+	"github.com/charmbracelet/x/ansi"
+)
+
+// maxField bounds the text of one field, in runes: a statement longer
+// than the worksheet's line limit could never run anyway.
+const maxField = 8192
+
+// field is a one-line text editor: the entry line and the answers to
+// questions both use it. It keeps no terminal state and never blinks, so
+// a keystroke redraws one line and nothing else.
+type field struct {
+	text []rune
+	pos  int
+}
+
+func (f *field) String() string { return string(f.text) }
+
+func (f *field) set(s string) {
+	f.text = []rune(s)
+	if len(f.text) > maxField {
+		f.text = f.text[:maxField]
+	}
+	f.pos = len(f.text)
+}
+
+// insert puts runes at the cursor. Control characters are dropped and
+// line breaks become spaces; the caller deals with pasted lines before.
+func (f *field) insert(rs []rune) bool {
+	clean := make([]rune, 0, len(rs))
+	for _, r := range rs {
+		switch {
+		case r == '\n' || r == '\r' || r == '\t':
+			clean = append(clean, ' ')
+		case r < 0x20 || r == 0x7f || (r >= 0x80 && r < 0xa0):
+		default:
+			clean = append(clean, r)
+		}
+	}
+	if room := maxField - len(f.text); len(clean) > room {
+		clean = clean[:max(room, 0)]
+	}
+	if len(clean) == 0 {
+		return false
+	}
+	f.text = append(f.text[:f.pos], append(clean, f.text[f.pos:]...)...)
+	f.pos += len(clean)
+	return true
+}
+
+func (f *field) left() bool {
+	if f.pos == 0 {
+		return false
+	}
+	f.pos--
+	return true
+}
+
+func (f *field) right() bool {
+	if f.pos >= len(f.text) {
+		return false
+	}
+	f.pos++
+	return true
+}
+
+func (f *field) home() bool { p := f.pos; f.pos = 0; return p != 0 }
+func (f *field) end() bool  { p := f.pos; f.pos = len(f.text); return p != f.pos }
+
+func (f *field) backspace() bool {
+	if f.pos == 0 {
+		return false
+	}
+	f.text = append(f.text[:f.pos-1], f.text[f.pos:]...)
+	f.pos--
+	return true
+}
+
+func (f *field) del() bool {
+	if f.pos >= len(f.text) {
+		return false
+	}
+	f.text = append(f.text[:f.pos], f.text[f.pos+1:]...)
+	return true
+}
+
+func (f *field) kill() bool {
+	if f.pos >= len(f.text) {
+		return false
+	}
+	f.text = f.text[:f.pos]
+	return true
+}
+
+func (f *field) clear() bool {
+	if len(f.text) == 0 {
+		return false
+	}
+	f.text, f.pos = nil, 0
+	return true
+}
+
+// window returns the part of the text that fits in width cells with the
+// cursor visible, the offset (in runes) of its first rune, and the cursor
+// cell within it. Long text scrolls sideways; "…" is not used because a
+// caret under the text must stay aligned.
+func (f *field) window(width int) (start int) {
+	if width < 2 {
+		return f.pos
+	}
+	w := 0
+	start = f.pos
+	for start > 0 {
+		rw := ansi.StringWidth(string(f.text[start-1]))
+		if w+rw > width-1 {
+			break
+		}
+		w += rw
+		start--
+	}
+	// show as much before the cursor as fits, but start at 0 when all fits
+	if ansi.StringWidth(string(f.text)) < width {
+		return 0
+	}
+	return start
+}
+
+// render draws the field in width cells with the cursor shown by cursor
+// (a function styling the cell under the cursor). It returns the line and
+// the rune offset of its first character.
+func (f *field) render(width int, cursor func(string) string) (string, int) {
+	start := f.window(width)
+	var b strings.Builder
+	w := 0
+	for i := start; i <= len(f.text); i++ {
+		ch := " "
+		if i < len(f.text) {
+			ch = string(f.text[i])
+		}
+		cw := ansi.StringWidth(ch)
+		if w+cw > width {
+			break
+		}
+		if i == f.pos {
+			b.WriteString(cursor(ch))
+		} else {
+			b.WriteString(ch)
+		}
+		w += cw
+	}
+	return b.String(), start
+}

@@ -1,0 +1,425 @@
+// Package tui is argand's interactive terminal app: a table of named
+// phasors, one-key reductions, a step trail, a phasor sketch and an entry
+// line, built on bubbletea.
+//
+// Every change the user makes is a statement of the worksheet language run
+// through package sheet: an operation key on the rows Z1 and Z2 becomes
+// "Z3 = Z1 || Z2", a new frequency "frequency 60 Hz". The session is
+// therefore a worksheet, and saving it, restoring it, undoing a change and
+// exporting a worksheet that argand run replays all follow from the
+// accepted statements. What is not part of the worksheet (marks, the order
+// of the rows, rows put away, which form is shown first) is kept beside it
+// in the session file.
+//
+// Each part of the screen is a small model with its own update and view
+// (status, table, trail, sketch, entry line, hint, questions, network,
+// help); Model routes keys to the part that has the keyboard and lays the
+// parts out.
+package tui
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"argand/calc"
+	"argand/tui/cli"
+	"argand/tui/store"
+
+	"github.com/charmbracelet/bubbles/help"
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
+)
+
+// Options configure the app.
+type Options struct {
+	ASCII      bool   // ASCII glyphs only (--ascii or a non-UTF-8 locale)
+	Color      bool   // colour allowed (false under NO_COLOR)
+	PolarFirst bool   // show the polar form first on a new session
+	Digits     int    // significant figures for a new session; 0 keeps the worksheet's
+	File       string // worksheet to open; "" restores the last session
+	Dir        string // state directory; "" is store.Dir()
+	// Out receives clipboard requests (OSC 52), written outside the
+	// screen renderer; nil discards them.
+	Out    io.Writer
+	Getenv func(string) string // environment; nil is os.Getenv
+}
+
+// Minimum terminal size for the full screen; below it a short notice is
+// shown instead.
+const (
+	minWidth  = 60
+	minHeight = 16
+)
+
+// Model is the app's top-level bubbletea model.
+type Model struct {
+	opt    Options
+	keys   KeyMap
+	help   help.Model
+	th     theme
+	s      *session
+	lock   *store.FileLock
+	mode   mode
+	back   mode // mode to return to from help or a question
+	width  int
+	height int
+
+	line    entryLine
+	table   tableView
+	trail   trailView
+	sketch  sketchPane
+	ask     *questions
+	net     *netView
+	helpTop int
+
+	msg    string // last outcome, shown under the entry line
+	msgErr bool
+
+	lockPath string // session held by another process
+	lockPID  int
+	quitting bool
+}
+
+// New creates the app: it takes the session lock, restores the last
+// session (or opens opt.File, or the built-in example on first start). A
+// session held by another argand leaves the app asking what to do.
+func New(opt Options) *Model {
+	if opt.Getenv == nil {
+		opt.Getenv = os.Getenv
+	}
+	if opt.Out == nil {
+		opt.Out = io.Discard
+	}
+	m := &Model{opt: opt, keys: DefaultKeyMap(), help: help.New(), th: newTheme(opt), s: newSession(), width: 80, height: 24}
+	m.s.v.PolarFirst = opt.PolarFirst
+	m.start()
+	return m
+}
+
+// sessionPath returns the session file for opt: one for the last session,
+// and one per worksheet file opened.
+func (m *Model) sessionPath(suffix string) (string, error) {
+	dir := m.opt.Dir
+	if dir == "" {
+		d, err := store.Dir()
+		if err != nil {
+			return "", err
+		}
+		dir = d
+	}
+	name := "session"
+	if m.opt.File != "" {
+		abs, err := filepath.Abs(m.opt.File)
+		if err != nil {
+			abs = m.opt.File
+		}
+		name = "worksheet-" + fileKey(abs)
+	}
+	return filepath.Join(dir, name+suffix+".json"), nil
+}
+
+// fileKey names a worksheet's session file: its base name (safe
+// characters only) and a hash of its full path (FNV-1a, 32 bits).
+func fileKey(abs string) string {
+	h := uint32(2166136261)
+	for i := 0; i < len(abs); i++ {
+		h ^= uint32(abs[i])
+		h *= 16777619
+	}
+	base := []rune(filepath.Base(abs))
+	var b strings.Builder
+	for _, r := range base {
+		if r < 0x80 && (r == '-' || r == '_' || r == '.' || r >= '0' && r <= '9' || r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z') {
+			b.WriteRune(r)
+		}
+		if b.Len() >= 32 {
+			break
+		}
+	}
+	return fmt.Sprintf("%s-%08x", b.String(), h)
+}
+
+func (m *Model) start() {
+	path, err := m.sessionPath("")
+	if err != nil {
+		m.note(true, "no place to keep the session ("+err.Error()+"): changes are not saved")
+		m.fresh()
+		return
+	}
+	lk, err := store.Lock(path)
+	if err != nil {
+		if pid, locked := lockedBy(err); locked {
+			m.mode = modeLocked
+			m.lockPath = path
+			m.lockPID = pid
+			return
+		}
+		m.note(true, "could not lock the session ("+err.Error()+"); saving anyway")
+	}
+	m.lock = lk
+	m.s.path = path
+	m.restore()
+}
+
+// restore loads the session file, or starts afresh when there is none.
+func (m *Model) restore() {
+	ok, note := m.s.loadFile(m.s.path)
+	if ok {
+		if m.opt.File != "" {
+			m.note(false, "restored your session on "+m.opt.File+" (the file itself is unchanged until you save with x w)")
+		} else {
+			m.note(false, fmt.Sprintf("session restored: %d rows, %d steps", len(m.s.rows()), len(m.s.sh.Steps())))
+		}
+		return
+	}
+	m.fresh()
+	if note != "" {
+		m.note(true, note)
+	}
+	m.s.save()
+}
+
+// fresh opens the worksheet file or the built-in example.
+func (m *Model) fresh() {
+	pf := m.s.v.PolarFirst
+	if m.opt.File != "" {
+		m.s.worksheet = m.opt.File
+		b, err := os.ReadFile(m.opt.File)
+		switch {
+		case err != nil:
+			m.s.loadWorksheet("")
+			m.note(true, "could not open "+m.opt.File+": "+err.Error())
+		default:
+			if err := m.s.loadWorksheet(string(b)); err != nil {
+				m.note(true, m.opt.File+": "+err.Error())
+			} else {
+				m.note(false, "opened "+m.opt.File)
+			}
+		}
+	} else {
+		m.s.loadWorksheet(cli.Example)
+		m.note(false, "first start: the built-in example worksheet (example data, an invented scenario). ? for help")
+	}
+	m.s.v.PolarFirst = pf
+	if m.opt.Digits > 0 && m.s.sh.Settings().Digits != m.opt.Digits {
+		m.s.sh.Exec(fmt.Sprintf("digits %d", m.opt.Digits))
+	}
+	m.s.tidy()
+}
+
+// Close releases the session lock.
+func (m *Model) Close() {
+	m.lock.Unlock()
+	m.lock = nil
+}
+
+// chooseLocked acts on the answer to a session held elsewhere.
+func (m *Model) chooseLocked(readOnly bool) {
+	m.mode = modeRows
+	if readOnly {
+		m.s.path = m.lockPath
+		m.s.readOnly = true
+		data, err := store.Load(m.lockPath)
+		if err == nil {
+			if sh, f, err := decode(data); err == nil {
+				m.s.sh, m.s.v, m.s.worksheet = sh, f.View, f.Worksheet
+				m.s.tidy()
+				m.note(false, "read-only: the session of the other argand; nothing you do here is kept")
+				return
+			}
+		}
+		m.fresh()
+		m.note(true, "read-only, but the session file could not be read; showing a fresh worksheet")
+		return
+	}
+	for n := 2; n < 100; n++ {
+		path, err := m.sessionPath(fmt.Sprintf("-%d", n))
+		if err != nil {
+			break
+		}
+		lk, err := store.Lock(path)
+		if err != nil {
+			continue
+		}
+		m.lock = lk
+		m.s.path = path
+		m.restore()
+		m.note(false, "separate session in "+path)
+		return
+	}
+	m.fresh()
+	m.note(true, "no separate session could be locked; changes are not saved")
+}
+
+func (m *Model) note(isErr bool, s string) {
+	m.msg = s
+	m.msgErr = isErr
+}
+
+// Init implements tea.Model.
+func (m *Model) Init() tea.Cmd { return nil }
+
+// Update implements tea.Model.
+func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
+	switch msg := msg.(type) {
+	case tea.WindowSizeMsg:
+		m.width, m.height = msg.Width, msg.Height
+		return m, nil
+	case copiedMsg:
+		if msg.err != nil {
+			m.note(true, "copy failed: "+msg.err.Error())
+		} else {
+			m.note(false, "copied "+msg.what+" to the clipboard (OSC 52; your terminal must allow it)")
+		}
+		return m, nil
+	case tea.KeyMsg:
+		return m, m.key(msg)
+	}
+	return m, nil
+}
+
+func (m *Model) key(k tea.KeyMsg) tea.Cmd {
+	switch m.mode {
+	case modeLocked:
+		switch {
+		case key.Matches(k, m.keys.LockRead):
+			m.chooseLocked(true)
+		case key.Matches(k, m.keys.LockSeparate):
+			m.chooseLocked(false)
+		case key.Matches(k, m.keys.LockQuit):
+			m.quitting = true
+			return tea.Quit
+		}
+		return nil
+	case modeHelp:
+		switch {
+		case key.Matches(k, m.keys.HelpUp):
+			m.helpTop = max(0, m.helpTop-max(1, m.height/2))
+		case key.Matches(k, m.keys.HelpDown):
+			m.helpTop += max(1, m.height/2)
+		case key.Matches(k, m.keys.HelpClose):
+			m.mode = m.back
+		case key.Matches(k, m.keys.HelpQuit):
+			m.quitting = true
+			return tea.Quit
+		}
+		return nil
+	case modeLine:
+		return m.lineKey(k)
+	case modePrompt:
+		return m.askKey(k)
+	case modeNet:
+		return m.netKey(k)
+	case modeExport:
+		return m.exportKey(k)
+	}
+	return m.rowsKey(k)
+}
+
+func (m *Model) openHelp() {
+	m.back = m.mode
+	m.mode = modeHelp
+	m.helpTop = 0
+}
+
+// View implements tea.Model.
+func (m *Model) View() string {
+	if m.quitting {
+		return ""
+	}
+	w, h := m.width, m.height
+	if w < minWidth || h < minHeight {
+		return m.tooSmall()
+	}
+	var lines []string
+	switch m.mode {
+	case modeLocked:
+		lines = m.lockedView()
+	case modeHelp:
+		lines = m.helpView()
+	case modeNet:
+		lines = append([]string{m.statusView()}, m.netPane(w, h-3)...)
+		lines = append(lines, m.feedbackView(), m.hintView())
+	default:
+		lines = m.mainView()
+	}
+	return m.finish(lines)
+}
+
+// finish fits the lines to the screen: exactly height lines, none wider
+// than the width, ASCII only when asked.
+func (m *Model) finish(lines []string) string {
+	if len(lines) > m.height {
+		lines = lines[:m.height]
+	}
+	var b strings.Builder
+	b.Grow(m.width * m.height)
+	for i, l := range lines {
+		if i > 0 {
+			b.WriteByte('\n')
+		}
+		b.WriteString(fit(l, m.width))
+	}
+	for i := len(lines); i < m.height; i++ {
+		b.WriteByte('\n')
+	}
+	out := b.String()
+	if m.opt.ASCII {
+		out = asciiOnly(out)
+	}
+	return out
+}
+
+func (m *Model) tooSmall() string {
+	lines := []string{
+		"argand: terminal too small",
+		fmt.Sprintf("%d×%d; needs %d×%d", m.width, m.height, minWidth, minHeight),
+		"enlarge the window,",
+		"or run argand --plain",
+		"q quits; work is saved",
+	}
+	var out []string
+	for i := 0; i < m.height && i < len(lines); i++ {
+		out = append(out, fit(lines[i], m.width))
+	}
+	s := strings.Join(out, "\n")
+	if m.opt.ASCII {
+		s = asciiOnly(calc.ASCIIText(s))
+	}
+	return s
+}
+
+// layout splits the height between the table and the lower panes.
+func (m *Model) layout() (tableH, lowerH, sketchW int) {
+	rest := m.height - 4 // status, entry line, feedback, hint
+	tableH = max(5, rest*45/100)
+	lowerH = rest - tableH
+	sketchW = m.width * 42 / 100
+	return
+}
+
+func (m *Model) mainView() []string {
+	tableH, lowerH, sketchW := m.layout()
+	lines := make([]string, 0, m.height)
+	lines = append(lines, m.statusView())
+	lines = append(lines, m.table.view(m, m.width, tableH)...)
+	trailW := m.width - sketchW - 1
+	tl := m.trail.view(m, trailW, lowerH)
+	sk := m.sketch.view(m, sketchW, lowerH)
+	sep := m.th.rule.Render(m.th.g.vbar)
+	for i := 0; i < lowerH; i++ {
+		a, b := "", ""
+		if i < len(tl) {
+			a = tl[i]
+		}
+		if i < len(sk) {
+			b = sk[i]
+		}
+		lines = append(lines, pad(a, trailW)+sep+b)
+	}
+	lines = append(lines, m.entryView(), m.feedbackView(), m.hintView())
+	return lines
+}

@@ -1,0 +1,606 @@
+package tui
+
+import (
+	"fmt"
+	"slices"
+	"strconv"
+	"strings"
+
+	"argand/calc"
+
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
+)
+
+// operands returns the rows an operation of n operands takes: the marked
+// rows in the order they were marked, else the n newest rows with the
+// older first, so that − and ÷ read as the rows are listed bottom up.
+// n < 0 takes every mark (at least two).
+func (m *Model) operands(n int) []string {
+	if len(m.s.v.Marks) > 0 {
+		if n < 0 || len(m.s.v.Marks) >= n {
+			if n < 0 {
+				return slices.Clone(m.s.v.Marks)
+			}
+			return slices.Clone(m.s.v.Marks[:n])
+		}
+	}
+	if n < 0 {
+		n = 2
+	}
+	rows := m.s.rows()
+	if len(rows) < n {
+		return nil
+	}
+	out := make([]string, n)
+	for i := 0; i < n; i++ {
+		out[i] = rows[n-1-i]
+	}
+	return out
+}
+
+// single is the operand of a one-operand operation: the selected row.
+func (m *Model) single() string { return m.s.v.Selected }
+
+// run executes statements as one change and reports the outcome.
+func (m *Model) run(what string, stmts ...string) bool {
+	steps, err := m.s.exec(stmts...)
+	if err != nil {
+		m.note(true, what+": "+errText(err))
+		return false
+	}
+	for _, st := range steps {
+		for _, r := range st.Results {
+			m.s.unhide(r.Name)
+		}
+	}
+	m.trail.back = 0
+	res := ""
+	if n := len(steps); n > 0 {
+		if r, ok := steps[n-1].Result(); ok {
+			res = r.Name + " = " + m.format().Both(r.Value, m.s.v.PolarFirst)
+			if _, exists := m.s.sh.Lookup(r.Name); exists && !strings.Contains(r.Name, ".") {
+				m.s.v.Selected = r.Name
+				m.s.tidy()
+			}
+		}
+	}
+	m.note(false, strings.TrimSpace(what+"  "+res))
+	return true
+}
+
+func errText(err error) string {
+	if e, ok := err.(*calc.Error); ok {
+		return e.Msg
+	}
+	return err.Error()
+}
+
+// newName returns the name the worksheet would give the value of expr,
+// found by evaluating it on a copy of the sheet.
+func (m *Model) newName(expr string) (string, error) {
+	c := m.s.sh.Clone()
+	before := len(c.Entries())
+	if _, err := c.Exec(expr); err != nil {
+		return "", err
+	}
+	ents := c.Entries()
+	if len(ents) <= before {
+		return "", fmt.Errorf("%s gave no value", expr)
+	}
+	return ents[len(ents)-1].Name, nil
+}
+
+// define runs "NAME = expr" with a name the worksheet chooses.
+func (m *Model) define(what, expr string) {
+	if m.s.readOnly {
+		m.note(true, errReadOnly.Error())
+		return
+	}
+	name, err := m.newName(expr)
+	if err != nil {
+		m.note(true, what+" "+expr+": "+errText(err))
+		return
+	}
+	m.run(what, name+" = "+expr)
+}
+
+// binary applies an operator to the first two operands.
+func (m *Model) binary(what, op string) {
+	ops := m.operands(2)
+	if ops == nil {
+		m.note(true, what+" needs two rows")
+		return
+	}
+	m.define(what+" (first "+ops[0]+", second "+ops[1]+"):", ops[0]+" "+op+" "+ops[1])
+}
+
+// unary applies a function to the selected row.
+func (m *Model) unary(what, fn string) {
+	n := m.single()
+	if n == "" {
+		m.note(true, what+" needs a row")
+		return
+	}
+	m.define(what+":", fn+"("+n+")")
+}
+
+// combine calls a function of two or more impedances: the marks, or the
+// two newest rows.
+func (m *Model) combine(what, fn string) {
+	ops := m.operands(-1)
+	if ops == nil {
+		m.note(true, what+" needs two rows")
+		return
+	}
+	if len(ops) == 1 {
+		m.note(true, what+" needs two or more rows: mark another, or clear the mark (esc)")
+		return
+	}
+	expr := fn + "(" + strings.Join(ops, ", ") + ")"
+	if len(ops) == 2 && fn == "parallel" {
+		expr = ops[0] + " || " + ops[1]
+	}
+	m.define(what+" of "+strings.Join(ops, ", ")+":", expr)
+}
+
+// newest returns the newest rows whose quantity has dimension d, skipping
+// the names in skip.
+func (m *Model) newest(d calc.Dim, n int, skip ...string) []string {
+	var out []string
+	for _, r := range m.s.rows() {
+		if slices.Contains(skip, r) {
+			continue
+		}
+		if q, ok := m.s.sh.Lookup(r); ok && q.Dim == d {
+			out = append(out, r)
+			if len(out) == n {
+				break
+			}
+		}
+	}
+	return out
+}
+
+// roleDefaults offers names for roles: the marks in order when there are
+// enough, else the newest rows of each role's dimension.
+func (m *Model) roleDefaults(dims []calc.Dim, listLast bool) []string {
+	out := make([]string, len(dims))
+	if len(m.s.v.Marks) >= len(dims) {
+		copy(out, m.s.v.Marks)
+		if listLast {
+			out[len(dims)-1] = strings.Join(m.s.v.Marks[len(dims)-1:], ", ")
+		}
+		return out
+	}
+	var used []string
+	for i, d := range dims {
+		if c := m.newest(d, 1, used...); len(c) > 0 {
+			out[i] = c[0]
+			used = append(used, c[0])
+		}
+	}
+	return out
+}
+
+// roles asks for each role of a divider or Thevenin operation by name,
+// then runs "NAME = fn(answers...)".
+func (m *Model) roles(title, fn string, names []string, dims []calc.Dim, listLast bool) {
+	defs := m.roleDefaults(dims, listLast)
+	qs := make([]question, len(names))
+	for i := range names {
+		qs[i] = question{label: names[i], def: defs[i], names: true, list: listLast && i == len(names)-1}
+	}
+	m.startAsk(title, qs, func(ans []string) {
+		for i, a := range ans {
+			if strings.TrimSpace(a) == "" {
+				m.note(true, title+": no "+names[i]+" given")
+				return
+			}
+		}
+		m.define(title+":", fn+"("+strings.Join(ans, ", ")+")")
+	})
+}
+
+// threeOf converts a Δ or a Y: the marks, or the three newest rows, in
+// the order shown.
+func (m *Model) threeOf(what, fn string, roles string) {
+	ops := m.operands(3)
+	if ops == nil {
+		m.note(true, what+" needs three rows ("+roles+")")
+		return
+	}
+	m.define(what+" ("+roles+" = "+strings.Join(ops, ", ")+"):", fn+"("+strings.Join(ops, ", ")+")")
+}
+
+// rowsKey handles a key while the entries table has the keyboard.
+func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
+	km := m.keys
+	rows := m.s.rows()
+	sel := slices.Index(rows, m.s.v.Selected)
+	moveTo := func(i int) {
+		if len(rows) == 0 {
+			return
+		}
+		i = max(0, min(i, len(rows)-1))
+		m.s.v.Selected = rows[i]
+	}
+	switch {
+	case key.Matches(k, km.Up):
+		moveTo(sel - 1)
+	case key.Matches(k, km.Down):
+		moveTo(sel + 1)
+	case key.Matches(k, km.Top):
+		moveTo(0)
+	case key.Matches(k, km.Bottom):
+		moveTo(len(rows) - 1)
+	case key.Matches(k, km.Mark):
+		n := m.s.v.Selected
+		if n == "" {
+			m.note(true, "no row to mark")
+			break
+		}
+		m.s.touch(func(v *view) {
+			if i := slices.Index(v.Marks, n); i >= 0 {
+				v.Marks = slices.Delete(v.Marks, i, i+1)
+			} else {
+				v.Marks = append(v.Marks, n)
+			}
+		})
+		if len(m.s.v.Marks) > 0 {
+			m.note(false, "marked, in order: "+strings.Join(m.s.v.Marks, ", "))
+		} else {
+			m.note(false, "no rows marked: operations take the two newest")
+		}
+	case key.Matches(k, km.Unmark):
+		if len(m.s.v.Marks) == 0 {
+			m.note(false, "no marks to clear")
+			break
+		}
+		m.s.touch(func(v *view) { v.Marks = nil })
+		m.note(false, "marks cleared: operations take the two newest rows")
+	case key.Matches(k, km.Focus):
+		m.mode = modeLine
+		m.line.validate(m)
+	case key.Matches(k, km.Recall):
+		n := m.s.v.Selected
+		if n == "" {
+			m.note(true, "no row to recall")
+			break
+		}
+		m.line.f.set(m.recallText(n))
+		m.mode = modeLine
+		m.line.validate(m)
+		m.note(false, "recalled "+n+": edit and press enter to redefine it (what depends on it follows)")
+	case key.Matches(k, km.Add):
+		m.binary("add", "+")
+	case key.Matches(k, km.Sub):
+		m.binary("subtract", "-")
+	case key.Matches(k, km.Mul):
+		m.binary("multiply", "*")
+	case key.Matches(k, km.Div):
+		m.binary("divide", "/")
+	case key.Matches(k, km.Recip):
+		m.unary("reciprocal", "recip")
+	case key.Matches(k, km.Conj):
+		m.unary("conjugate", "conj")
+	case key.Matches(k, km.Neg):
+		n := m.single()
+		if n == "" {
+			m.note(true, "negate needs a row")
+			break
+		}
+		m.define("negate:", "-"+n)
+	case key.Matches(k, km.Series):
+		m.combine("series", "series")
+	case key.Matches(k, km.Parallel):
+		m.combine("parallel", "parallel")
+	case key.Matches(k, km.VDiv):
+		m.roles("voltage divider V_k = V·Z_k/ΣZ", "vdiv", []string{"source voltage", "impedance across which", "rest of the string"},
+			[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, true)
+	case key.Matches(k, km.IDiv):
+		m.roles("current divider I_k = I·Y_k/ΣY", "idiv", []string{"source current", "branch", "other branches"},
+			[]calc.Dim{calc.DimCurrent, calc.DimImpedance, calc.DimImpedance}, true)
+	case key.Matches(k, km.Thevenin):
+		m.roles("Thevenin equivalent across the shunt", "thevenin", []string{"source voltage", "series impedance", "shunt impedance"},
+			[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, false)
+	case key.Matches(k, km.DeltaY):
+		m.threeOf("Δ → Y", "delta2y", "Zab, Zbc, Zca")
+	case key.Matches(k, km.YDelta):
+		m.threeOf("Y → Δ", "y2delta", "Za, Zb, Zc")
+	case key.Matches(k, km.Rename):
+		m.askRename()
+	case key.Matches(k, km.Copy):
+		m.askCopy()
+	case key.Matches(k, km.Delete):
+		n := m.s.v.Selected
+		if n == "" {
+			m.note(true, "no row to put away")
+			break
+		}
+		if err := m.s.change(func(v *view) {
+			v.Hidden = append(v.Hidden, n)
+			if i := slices.Index(rows, n); i+1 < len(rows) {
+				v.Selected = rows[i+1]
+			} else if i > 0 {
+				v.Selected = rows[i-1]
+			}
+		}); err != nil {
+			m.note(true, err.Error())
+			break
+		}
+		m.note(false, n+" put away (its value stays in the worksheet for what depends on it; u brings it back)")
+	case key.Matches(k, km.Raise), key.Matches(k, km.Lower):
+		m.reorder(key.Matches(k, km.Raise))
+	case key.Matches(k, km.Freq):
+		f := m.format().Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
+		m.startAsk("working frequency, in Hz or rad/s (inductors and capacitors follow it)", []question{{label: "frequency", def: f}}, func(a []string) {
+			v := strings.TrimSpace(a[0])
+			if _, err := strconv.ParseFloat(v, 64); err == nil {
+				v += " Hz"
+			}
+			m.run("frequency", "frequency "+v)
+		})
+	case key.Matches(k, km.Form):
+		m.s.touch(func(v *view) { v.PolarFirst = !v.PolarFirst })
+		if m.s.v.PolarFirst {
+			m.note(false, "polar form first")
+		} else {
+			m.note(false, "rectangular form first")
+		}
+	case key.Matches(k, km.Fewer), key.Matches(k, km.More):
+		d := m.s.sh.Settings().Digits
+		if key.Matches(k, km.Fewer) {
+			d--
+		} else {
+			d++
+		}
+		if d < 1 || d > calc.MaxDigits {
+			m.note(true, fmt.Sprintf("digits stay between 1 and %d", calc.MaxDigits))
+			break
+		}
+		m.run("digits", "digits "+strconv.Itoa(d))
+	case key.Matches(k, km.Basis):
+		b := "peak"
+		if m.s.sh.Settings().Basis == calc.Peak {
+			b = "rms"
+		}
+		m.run("basis (S = V·I* for RMS, ½·V·I* for peak)", "basis "+b)
+	case key.Matches(k, km.Angles):
+		a := "rad"
+		if m.s.sh.Settings().Radians {
+			a = "deg"
+		}
+		m.run("angles", "angles "+a)
+	case key.Matches(k, km.Undo):
+		if m.s.doUndo() {
+			m.trail.back = 0
+			m.note(false, fmt.Sprintf("undone (%d more to undo, U redoes)", len(m.s.undo)))
+		} else if m.s.readOnly {
+			m.note(true, errReadOnly.Error())
+		} else {
+			m.note(false, "nothing to undo")
+		}
+	case key.Matches(k, km.Redo):
+		if m.s.doRedo() {
+			m.note(false, "redone")
+		} else {
+			m.note(false, "nothing to redo")
+		}
+	case key.Matches(k, km.Networks):
+		m.openNet("")
+	case key.Matches(k, km.Export):
+		m.mode = modeExport
+		m.note(false, "export: m trail as Markdown, t trail as text, w session as worksheet")
+	case key.Matches(k, km.Clip):
+		n := m.s.v.Selected
+		if n == "" {
+			m.note(true, "no row to copy")
+			break
+		}
+		q, _ := m.s.sh.Lookup(n)
+		return m.copyCmd(n, n+" = "+m.format().Both(q, m.s.v.PolarFirst))
+	case key.Matches(k, km.ClipTrail):
+		return m.copyCmd("the trail", m.trailText())
+	case key.Matches(k, km.TrailBack):
+		m.trail.scroll(m, 5)
+	case key.Matches(k, km.TrailOn):
+		m.trail.scroll(m, -5)
+	case key.Matches(k, km.TrailLast):
+		m.trail.back = 0
+		m.note(false, "trail at the latest step")
+	case key.Matches(k, km.Help):
+		m.openHelp()
+	case key.Matches(k, km.Quit):
+		m.quitting = true
+		return tea.Quit
+	default:
+		if k.Type == tea.KeyRunes && !k.Alt {
+			// typing starts a statement: the first character goes to the line
+			if rs := k.Runes; len(rs) > 0 && startsStatement(rs[0]) {
+				m.mode = modeLine
+				return m.lineKey(k)
+			}
+		}
+	}
+	return nil
+}
+
+// startsStatement reports characters that no binding takes and that begin
+// a statement: digits, letters not bound, '(' and '#'.
+func startsStatement(r rune) bool {
+	return r >= '0' && r <= '9' || r == '(' || r == '.' || r >= 0x80
+}
+
+// recallText is the statement that defines name, for editing.
+func (m *Model) recallText(name string) string {
+	for _, e := range m.s.sh.Entries() {
+		if e.Name == name {
+			src := strings.TrimSpace(e.Source)
+			if i := strings.IndexByte(src, '#'); i >= 0 {
+				src = strings.TrimSpace(src[:i])
+			}
+			if strings.HasPrefix(src, name) || e.Kind != "value" {
+				return src
+			}
+			return name + " = " + src
+		}
+	}
+	q, _ := m.s.sh.Lookup(name)
+	f := m.format()
+	f.Digits = calc.MaxDigits
+	return name + " = " + f.Rect(q)
+}
+
+func (m *Model) reorder(up bool) {
+	rows := m.s.rows()
+	i := slices.Index(rows, m.s.v.Selected)
+	j := i + 1
+	if up {
+		j = i - 1
+	}
+	if i < 0 || j < 0 || j >= len(rows) {
+		m.note(false, "already at the end")
+		return
+	}
+	a, b := rows[i], rows[j]
+	if err := m.s.change(func(v *view) {
+		ia, ib := slices.Index(v.Order, a), slices.Index(v.Order, b)
+		v.Order[ia], v.Order[ib] = v.Order[ib], v.Order[ia]
+	}); err != nil {
+		m.note(true, err.Error())
+		return
+	}
+	m.note(false, "moved "+a)
+}
+
+func (m *Model) askRename() {
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to rename")
+		return
+	}
+	m.startAsk("rename "+n+": the new name takes its place (the worksheet records NEW = "+n+")", []question{{label: "new name"}}, func(a []string) {
+		nn := strings.TrimSpace(a[0])
+		if nn == "" || nn == n {
+			m.note(false, "not renamed")
+			return
+		}
+		if why := m.s.sh.Reserved(nn); why != "" {
+			m.note(true, fmt.Sprintf("%q is reserved (%s)", nn, why))
+			return
+		}
+		if _, taken := m.s.sh.Lookup(nn); taken {
+			m.note(true, nn+" is already taken")
+			return
+		}
+		rows := m.s.rows()
+		pos := slices.Index(rows, n)
+		if !m.run("rename "+n+" to "+nn, nn+" = "+n) {
+			return
+		}
+		// the same change: the old row goes, the new one takes its place
+		m.s.v.Hidden = append(m.s.v.Hidden, n)
+		m.s.v.Order = slices.DeleteFunc(m.s.v.Order, func(x string) bool { return x == nn })
+		at := slices.Index(m.s.v.Order, n)
+		if at < 0 {
+			at = min(pos, len(m.s.v.Order))
+		}
+		m.s.v.Order = slices.Insert(m.s.v.Order, at, nn)
+		for i, mk := range m.s.v.Marks {
+			if mk == n {
+				m.s.v.Marks[i] = nn
+			}
+		}
+		m.s.v.Selected = nn
+		m.s.tidy()
+		m.s.save()
+	})
+}
+
+func (m *Model) askCopy() {
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to copy")
+		return
+	}
+	def, _ := m.newName(n)
+	m.startAsk("copy "+n+" under a new name", []question{{label: "name", def: def}}, func(a []string) {
+		nn := strings.TrimSpace(a[0])
+		if nn == "" {
+			return
+		}
+		m.run("copy of "+n, nn+" = "+n)
+	})
+}
+
+// trailText is the whole trail as plain text.
+func (m *Model) trailText() string {
+	var b strings.Builder
+	f := m.format()
+	for _, st := range m.s.sh.Steps() {
+		b.WriteString(st.Text(f, m.s.v.PolarFirst))
+	}
+	return b.String()
+}
+
+// trailMarkdown is the whole trail as Markdown: each step a heading with
+// its statement, the rule and formula, operands and results in a list.
+func (m *Model) trailMarkdown() string {
+	var b strings.Builder
+	f := m.format()
+	st := m.s.sh.Settings()
+	fmt.Fprintf(&b, "# argand trail\n\nWorking frequency %s, %s basis, %d significant figures.\n\n",
+		f.Mag(st.Freq, calc.DimFrequency, 0), strings.ToUpper(st.Basis.String()), st.Digits)
+	for i, s := range m.s.sh.Steps() {
+		head := s.Source
+		if head == "" {
+			head = s.Kind
+		}
+		fmt.Fprintf(&b, "## %d. `%s`\n\n", i+1, strings.ReplaceAll(head, "`", "'"))
+		if s.Rule != "" {
+			b.WriteString(s.Rule)
+			if s.Formula != "" {
+				b.WriteString(": `" + s.Formula + "`")
+			}
+			b.WriteString("\n\n")
+		}
+		for _, o := range s.Inputs {
+			b.WriteString("- " + o.Name + " = " + f.Both(o.Value, m.s.v.PolarFirst) + "\n")
+		}
+		for _, o := range s.Results {
+			b.WriteString("- **" + o.Name + " = " + f.Both(o.Value, m.s.v.PolarFirst) + "**\n")
+		}
+		for _, r := range s.Rows {
+			b.WriteString("- " + r.Name + ":")
+			for _, v := range r.Values {
+				b.WriteString(" " + v.Name + " = " + f.Polar(v.Value) + ";")
+			}
+			b.WriteString("\n")
+		}
+		if c := s.Check; c != nil {
+			v := "PASS"
+			if !c.Pass {
+				v = "FAIL"
+			}
+			b.WriteString("- check " + v + ": got " + f.Both(c.Got, false) + ", expected " + f.Both(c.Want, false) + "\n")
+		}
+		for _, n := range s.Notes {
+			b.WriteString("- note: " + n + "\n")
+		}
+		b.WriteString("\n")
+	}
+	b.WriteString("---\n\n" + strings.ReplaceAll(safetyText, "\n", " ") + "\n")
+	return b.String()
+}
+
+// worksheetText is the session as a worksheet: the accepted statements,
+// which argand run replays to the same values.
+func (m *Model) worksheetText() string {
+	var b strings.Builder
+	b.WriteString("# argand worksheet saved from a session\n")
+	for _, s := range m.s.sh.Statements() {
+		b.WriteString(s + "\n")
+	}
+	return b.String()
+}

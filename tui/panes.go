@@ -1,0 +1,410 @@
+package tui
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+	"argand/tui/sketch"
+
+	"github.com/charmbracelet/x/ansi"
+)
+
+// format returns the number format in force: the worksheet's digits and
+// angle unit, the app's glyph set.
+func (m *Model) format() calc.Format {
+	f := m.s.sh.Context().Format
+	f.ASCII = m.opt.ASCII
+	return f
+}
+
+// statusView is the top line: the settings every number depends on.
+func (m *Model) statusView() string {
+	st := m.s.sh.Settings()
+	f := m.format()
+	ang := "degrees"
+	if st.Radians {
+		ang = "radians"
+	}
+	basis := "RMS"
+	if st.Basis == calc.Peak {
+		basis = "peak"
+	}
+	first := "rect first"
+	if m.s.v.PolarFirst {
+		first = "polar first"
+	}
+	parts := []string{
+		f.Mag(st.Freq, calc.DimFrequency, 0),
+		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, 0),
+		ang, strconv.Itoa(st.Digits) + " digits", basis, first,
+	}
+	s := m.th.label.Render("argand") + "  " + m.tr(strings.Join(parts, " · "))
+	var flags []string
+	if m.s.readOnly {
+		flags = append(flags, "READ-ONLY")
+	}
+	if m.s.saveErr != nil {
+		flags = append(flags, "NOT SAVED")
+	}
+	if n := m.s.sh.OpenNetwork(); n != "" {
+		flags = append(flags, "writing network "+n)
+	}
+	if len(flags) > 0 {
+		s += "  " + m.th.err.Render("["+strings.Join(flags, ", ")+"]")
+	}
+	return s
+}
+
+// tableView is the entries table, newest at the top.
+type tableView struct {
+	top int // first row shown
+}
+
+func (t *tableView) view(m *Model, w, h int) []string {
+	rows := m.s.rows()
+	out := make([]string, 0, h)
+	info := fmt.Sprintf("%d rows", len(rows))
+	if n := len(m.s.v.Marks); n > 0 {
+		info += ", marked " + strings.Join(m.s.v.Marks, " ")
+	}
+	if n := len(m.s.v.Hidden); n > 0 {
+		info += fmt.Sprintf(", %d put away", n)
+	}
+	out = append(out, m.th.section("entries", m.tr(info), w))
+	nameW := 8
+	for _, r := range rows {
+		nameW = max(nameW, min(14, ansi.StringWidth(r)))
+	}
+	h1, h2 := "rectangular", "polar"
+	if m.s.v.PolarFirst {
+		h1, h2 = h2, h1
+	}
+	body := h - 2
+	sel := 0
+	for i, r := range rows {
+		if r == m.s.v.Selected {
+			sel = i
+		}
+	}
+	if sel < t.top {
+		t.top = sel
+	}
+	if sel >= t.top+body {
+		t.top = sel - body + 1
+	}
+	t.top = max(0, min(t.top, len(rows)-body))
+	// format the rows shown, then size the columns to them
+	f := m.format()
+	omega := m.s.sh.Context().Omega()
+	type cells struct{ name, a, b, eq string }
+	var shown []cells
+	c1, c2 := ansi.StringWidth(h1), ansi.StringWidth(h2)
+	for i := t.top; i < len(rows) && i < t.top+body; i++ {
+		q, _ := m.s.sh.Lookup(rows[i])
+		a, b := f.Rect(q), f.Polar(q)
+		if m.s.v.PolarFirst {
+			a, b = b, a
+		}
+		c := cells{rows[i], a, b, equivalent(f, q, omega)}
+		c1 = max(c1, ansi.StringWidth(a))
+		c2 = max(c2, ansi.StringWidth(b))
+		shown = append(shown, c)
+	}
+	c1, c2 = min(c1, 30), min(c2, 26)
+	freq := f.Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
+	head := "    " + pad("name", nameW) + "  " + pad(h1, c1) + "  " + pad(h2, c2) + "  " + "at " + freq
+	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
+	if body < 1 {
+		return out
+	}
+	if len(rows) == 0 {
+		out = append(out, m.th.dim.Render(fit(m.tr("    no entries yet: tab, then type a value such as Z1 = 3+j4 Ω"), w)))
+		return out
+	}
+	for _, c := range shown {
+		name := c.name
+		selMark := " "
+		if name == m.s.v.Selected {
+			selMark = m.th.g.sel
+		}
+		mark := "  "
+		if k := m.s.markIndex(name); k >= 0 {
+			mark = m.th.g.mark + strconv.Itoa(k+1)
+			if k >= 9 {
+				mark = m.th.g.mark + "+"
+			}
+		}
+		line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  " + c.eq
+		line = fit(line, w)
+		switch {
+		case name == m.s.v.Selected:
+			line = m.th.sel.Render(pad(line, w))
+		case mark != "  ":
+			line = m.th.marked.Render(line)
+		}
+		out = append(out, line)
+	}
+	return out
+}
+
+// equivalent describes what an impedance or admittance is at the working
+// frequency: series R with L or C (Z = R + jωL, or R − j/(ωC)), or for an
+// admittance the parallel G with C or L (Y = G + jωC, or G − j/(ωL)).
+func equivalent(f calc.Format, q calc.Quantity, omega float64) string {
+	if omega <= 0 || math.IsInf(omega, 0) || math.IsNaN(omega) {
+		return ""
+	}
+	re, im := real(q.V), imag(q.V)
+	switch q.Dim {
+	case calc.DimImpedance:
+		var parts []string
+		if re != 0 || im == 0 {
+			parts = append(parts, "R "+f.Mag(re, calc.DimImpedance, 0))
+		}
+		switch {
+		case im > 0:
+			parts = append(parts, "L "+f.Mag(im/omega, calc.DimInductance, 0))
+		case im < 0:
+			parts = append(parts, "C "+f.Mag(-1/(omega*im), calc.DimCapacitance, 0))
+		}
+		return strings.Join(parts, " + ")
+	case calc.DimAdmittance:
+		s := "G " + f.Mag(re, calc.DimAdmittance, 0)
+		switch {
+		case im > 0:
+			s += " ‖ C " + f.Mag(im/omega, calc.DimCapacitance, 0)
+		case im < 0:
+			s += " ‖ L " + f.Mag(-1/(omega*im), calc.DimInductance, 0)
+		}
+		if f.ASCII {
+			s = calc.ASCIIText(s)
+		}
+		return s
+	}
+	return ""
+}
+
+// trailView is the step trail, scrollable through the whole session.
+type trailView struct {
+	back  int // lines scrolled back from the latest
+	key   trailKey
+	lines []trailLine
+}
+
+type trailKey struct {
+	sh     *sheet.Sheet
+	n      int
+	f      calc.Format
+	polar  bool
+	digits int
+}
+
+type trailLine struct {
+	text string
+	head bool
+}
+
+// build renders every step of the session once; the trail only grows
+// while the sheet stays the same, so new steps are appended.
+func (t *trailView) build(m *Model) {
+	steps := m.s.sh.Steps()
+	k := trailKey{sh: m.s.sh, n: len(steps), f: m.format(), polar: m.s.v.PolarFirst}
+	if k == t.key {
+		return
+	}
+	from := 0
+	if t.key.sh == k.sh && t.key.f == k.f && t.key.polar == k.polar && t.key.n <= k.n {
+		from = t.key.n
+	} else {
+		t.lines = t.lines[:0]
+	}
+	for i := from; i < len(steps); i++ {
+		text := strings.TrimRight(steps[i].Text(k.f, k.polar), "\n")
+		for j, l := range strings.Split(text, "\n") {
+			t.lines = append(t.lines, trailLine{text: m.tr(l), head: j == 0})
+		}
+	}
+	t.key = k
+}
+
+func (t *trailView) scroll(m *Model, by int) {
+	t.build(m)
+	t.back = max(0, min(t.back+by, len(t.lines)-1))
+}
+
+func (t *trailView) view(m *Model, w, h int) []string {
+	t.build(m)
+	n := len(m.s.sh.Steps())
+	info := fmt.Sprintf("%d steps", n)
+	if t.back > 0 {
+		info = fmt.Sprintf("%d lines back (L: latest)", t.back)
+	}
+	out := make([]string, 0, h)
+	out = append(out, m.th.section("trail", info, w))
+	body := h - 1
+	end := len(t.lines) - t.back
+	start := max(0, end-body)
+	for i := start; i < end; i++ {
+		l := t.lines[i]
+		s := fit(l.text, w)
+		if l.head {
+			s = m.th.label.Render(s)
+		}
+		out = append(out, s)
+	}
+	if len(t.lines) == 0 {
+		out = append(out, m.th.dim.Render("no steps yet"))
+	}
+	return out
+}
+
+// sketchPane draws the marked rows (or the selected one) as arrows.
+type sketchPane struct {
+	key   string
+	lines []string
+}
+
+func (p *sketchPane) view(m *Model, w, h int) []string {
+	names := m.s.v.Marks
+	what := "marked rows"
+	if len(names) == 0 && m.s.v.Selected != "" {
+		names = []string{m.s.v.Selected}
+		what = "selected row; space marks more"
+	}
+	k := fmt.Sprintf("%p|%d|%s|%d|%d|%v", m.s.sh, len(m.s.sh.Steps()), strings.Join(names, ","), w, h, m.opt.ASCII)
+	if k == p.key {
+		return p.lines
+	}
+	items := make([]sketch.Item, 0, len(names))
+	for _, n := range names {
+		q, ok := m.s.sh.Lookup(n)
+		if !ok {
+			continue
+		}
+		items = append(items, sketch.Item{Label: n, V: q.V, Unit: calc.UnitSymbol(q.Dim, q.Kind, m.opt.ASCII)})
+	}
+	out := []string{m.th.section("sketch", m.tr(what), w)}
+	if len(items) == 0 {
+		out = append(out, m.th.dim.Render("nothing to draw"))
+	} else {
+		out = append(out, sketch.Render(items, w, h-1, sketch.Options{ASCII: m.opt.ASCII})...)
+	}
+	p.key, p.lines = k, out
+	return out
+}
+
+// entryLine is the line where statements are typed, with live feedback:
+// each change is checked by the worksheet (parsed and tried on a copy) so
+// an error and its place show before enter is pressed.
+type entryLine struct {
+	f       field
+	err     *calc.Error
+	checked string
+	history []string
+	hpos    int
+}
+
+func (e *entryLine) validate(m *Model) {
+	s := e.f.String()
+	if s == e.checked {
+		return
+	}
+	e.checked = s
+	e.err = nil
+	if strings.TrimSpace(s) != "" {
+		e.err = m.s.sh.Validate(s)
+	}
+}
+
+const linePrompt = "› "
+
+func (m *Model) promptText() string {
+	p := linePrompt
+	if n := m.s.sh.OpenNetwork(); n != "" {
+		p = n + " › "
+	}
+	return m.tr(p)
+}
+
+func (m *Model) entryView() string {
+	if m.mode == modePrompt && m.ask != nil {
+		return m.ask.view(m, m.width)
+	}
+	p := m.promptText()
+	w := m.width - ansi.StringWidth(p)
+	if m.mode != modeLine {
+		if m.line.f.String() == "" {
+			return m.th.dim.Render(p + "tab or e: type a statement, such as Zc = 1/(j·ω·4.7 µF)")
+		}
+		s, _ := m.line.f.render(w, func(c string) string { return c })
+		return m.th.dim.Render(p + s)
+	}
+	s, _ := m.line.f.render(w, func(c string) string { return m.th.cursor.Render(c) })
+	return m.th.label.Render(p) + s
+}
+
+// feedbackView is the line under the entry line: the live parse error
+// with a caret under its place, or the outcome of the last action.
+func (m *Model) feedbackView() string {
+	if m.mode == modeLine && m.line.err != nil {
+		e := m.line.err
+		p := m.promptText()
+		start := m.line.f.window(m.width - ansi.StringWidth(p))
+		col := ansi.StringWidth(p)
+		text := m.line.f.text
+		for i := start; i < e.Col-1 && i < len(text); i++ {
+			col += ansi.StringWidth(string(text[i]))
+		}
+		if e.Col-1 > len(text) {
+			col++
+		}
+		n := max(1, min(e.Len, 20))
+		marks := m.th.g.caret + strings.Repeat("~", n-1)
+		msg := "error: " + m.tr(e.Msg)
+		if col+n+1+ansi.StringWidth(msg) <= m.width {
+			return strings.Repeat(" ", col) + m.th.err.Render(marks+" "+msg)
+		}
+		room := col - 1
+		if room > 12 {
+			return m.th.err.Render(pad(fit(msg, room), room) + " " + marks)
+		}
+		return m.th.err.Render(strings.Repeat(" ", col) + marks + " " + msg)
+	}
+	if m.mode == modePrompt && m.ask != nil {
+		return m.th.dim.Render(m.tr(m.ask.title))
+	}
+	if m.msg == "" {
+		return ""
+	}
+	if m.msgErr {
+		return m.th.err.Render("error: " + m.tr(m.msg))
+	}
+	return m.tr(m.msg)
+}
+
+// hintView is one line of the keys most likely wanted next.
+func (m *Model) hintView() string {
+	k := func(key, what string) string { return m.th.key.Render(key) + " " + what }
+	var parts []string
+	switch m.mode {
+	case modeLine:
+		parts = []string{k("enter", "run"), k("esc", "back to rows"), k("↑↓", "earlier lines"), k("f1", "help")}
+	case modePrompt:
+		parts = []string{k("enter", "accept"), k("esc", "cancel")}
+	case modeNet:
+		parts = []string{k("→←", "step"), k("↑↓", "element"), k("v i s", "take V I S"), k("t", "Thevenin"), k("esc", "back"), k("?", "help")}
+	case modeExport:
+		parts = []string{k("m", "Markdown"), k("t", "text"), k("w", "worksheet"), k("esc", "cancel")}
+	default:
+		ops := m.operands(2)
+		if len(ops) == 2 {
+			parts = append(parts, k("p s + - * /", ops[0]+" op "+ops[1]), k("v c t", "roles"))
+		}
+		parts = append(parts, k("space", "mark"), k("tab", "type"), k("N", "networks"), k("u", "undo"), k("?", "help"))
+	}
+	return m.tr(strings.Join(parts, "  "))
+}

@@ -1,0 +1,312 @@
+package tui
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"os"
+	"slices"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+	"argand/tui/store"
+)
+
+// sessionVersion is written into every session file so that a later
+// format can tell an old file from a corrupt one.
+const sessionVersion = 1
+
+// view is the state of the screen that is not part of the worksheet:
+// which rows are marked and in what order, the order of the rows, the rows
+// put away, which form is shown first, and the selected row. It is saved
+// beside the worksheet statements in the session file.
+type view struct {
+	Order      []string `json:"order"`  // row names, top first
+	Marks      []string `json:"marks"`  // marked names in the order marked
+	Hidden     []string `json:"hidden"` // names removed from the table
+	PolarFirst bool     `json:"polar_first"`
+	Selected   string   `json:"selected"`
+}
+
+func (v view) clone() view {
+	v.Order = slices.Clone(v.Order)
+	v.Marks = slices.Clone(v.Marks)
+	v.Hidden = slices.Clone(v.Hidden)
+	return v
+}
+
+// file is the session file's content: the worksheet as its accepted
+// statements, which replay to the same values, and the view.
+type file struct {
+	Version    int      `json:"argand_session"`
+	Worksheet  string   `json:"worksheet,omitempty"` // the file opened, if any
+	Statements []string `json:"statements"`
+	View       view     `json:"view"`
+}
+
+// snapshot is one point of the undo history. Sheets are cloned, so a
+// snapshot never changes after it is taken.
+type snapshot struct {
+	sh *sheet.Sheet
+	v  view
+}
+
+// session is the worksheet being worked on, its view, the undo history and
+// where it is kept on disk.
+type session struct {
+	sh        *sheet.Sheet
+	v         view
+	undo      []snapshot
+	redo      []snapshot
+	path      string // session file; "" keeps nothing on disk
+	worksheet string // worksheet file opened, the default target of a save
+	readOnly  bool
+	saveErr   error // last failure to save, shown until a save succeeds
+}
+
+func newSession() *session {
+	return &session{sh: sheet.New()}
+}
+
+// replay runs statements on a fresh sheet, stopping at the first that
+// fails.
+func replay(stmts []string) (*sheet.Sheet, error) {
+	sh := sheet.New()
+	for i, st := range stmts {
+		if _, err := sh.Exec(st); err != nil {
+			return sh, fmt.Errorf("statement %d (%q): %v", i+1, short(st, 40), err)
+		}
+	}
+	return sh, nil
+}
+
+func short(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n-1]) + "…"
+}
+
+// decode reads a session file and replays it.
+func decode(data []byte) (*sheet.Sheet, file, error) {
+	var f file
+	if err := json.Unmarshal(data, &f); err != nil {
+		return nil, f, fmt.Errorf("not a session file: %v", err)
+	}
+	if f.Version != sessionVersion {
+		return nil, f, fmt.Errorf("session file version %d, expected %d", f.Version, sessionVersion)
+	}
+	sh, err := replay(f.Statements)
+	if err != nil {
+		return nil, f, err
+	}
+	return sh, f, nil
+}
+
+// encode writes the session file's content.
+func (s *session) encode() []byte {
+	f := file{Version: sessionVersion, Worksheet: s.worksheet, Statements: s.sh.Statements(), View: s.v}
+	if f.Statements == nil {
+		f.Statements = []string{}
+	}
+	b, _ := json.MarshalIndent(f, "", " ") // plain strings and slices always marshal
+	return append(b, '\n')
+}
+
+// save writes the session to its file, if it has one.
+func (s *session) save() {
+	if s.path == "" || s.readOnly {
+		return
+	}
+	s.saveErr = store.Save(s.path, s.encode())
+}
+
+// loadFile restores a session from path. A missing file is not an error
+// (ok is false); a corrupt one is moved aside and reported in note.
+func (s *session) loadFile(path string) (ok bool, note string) {
+	var sh *sheet.Sheet
+	var f file
+	_, err := store.LoadChecked(path, func(b []byte) error {
+		var err error
+		sh, f, err = decode(b)
+		return err
+	})
+	if err != nil {
+		var ce *store.CorruptError
+		if errors.As(err, &ce) {
+			return false, fmt.Sprintf("the session file could not be used (%v); it was moved to %s and a fresh session started", ce.Err, ce.MovedTo)
+		}
+		if errors.Is(err, os.ErrNotExist) {
+			return false, ""
+		}
+		return false, fmt.Sprintf("could not read the session: %v", err)
+	}
+	s.sh, s.v, s.worksheet = sh, f.View, f.Worksheet
+	s.tidy()
+	return true, ""
+}
+
+// loadWorksheet runs a worksheet text into a fresh sheet. Lines up to the
+// first bad one are kept; the error names the bad line.
+func (s *session) loadWorksheet(text string) error {
+	sh := sheet.New()
+	sum, err := sh.Run(strings.NewReader(text), nil)
+	s.sh = sh
+	s.v = view{}
+	s.tidy()
+	if err != nil {
+		return err
+	}
+	if sum.Err != nil {
+		return fmt.Errorf("line %d: %s; the lines before it were kept", sum.Err.Line, sum.Err.Msg)
+	}
+	return nil
+}
+
+// checkpoint records the state before a change, for undo.
+func (s *session) checkpoint() {
+	s.undo = append(s.undo, snapshot{sh: s.sh.Clone(), v: s.v.clone()})
+	s.redo = nil
+}
+
+// errReadOnly refuses a change in a read-only session.
+var errReadOnly = errors.New("read-only session: changes are not made (another argand holds this session)")
+
+// exec runs statements as one change: all of them or none.
+func (s *session) exec(stmts ...string) ([]calc.Step, error) {
+	if s.readOnly {
+		return nil, errReadOnly
+	}
+	before := snapshot{sh: s.sh.Clone(), v: s.v.clone()}
+	var steps []calc.Step
+	for _, st := range stmts {
+		st2, err := s.sh.Exec(st)
+		if err != nil {
+			s.sh = before.sh
+			return nil, err
+		}
+		steps = append(steps, st2...)
+	}
+	s.undo = append(s.undo, before)
+	s.redo = nil
+	s.tidy()
+	s.save()
+	return steps, nil
+}
+
+// change applies a change of the view alone as one undoable step.
+func (s *session) change(f func(v *view)) error {
+	if s.readOnly {
+		return errReadOnly
+	}
+	s.checkpoint()
+	f(&s.v)
+	s.tidy()
+	s.save()
+	return nil
+}
+
+// touch saves a change that is not worth an undo step (marks, selection).
+func (s *session) touch(f func(v *view)) {
+	f(&s.v)
+	s.tidy()
+	s.save()
+}
+
+func (s *session) doUndo() bool {
+	if len(s.undo) == 0 || s.readOnly {
+		return false
+	}
+	s.redo = append(s.redo, snapshot{sh: s.sh, v: s.v})
+	last := s.undo[len(s.undo)-1]
+	s.undo = s.undo[:len(s.undo)-1]
+	s.sh, s.v = last.sh.Clone(), last.v.clone()
+	s.tidy()
+	s.save()
+	return true
+}
+
+func (s *session) doRedo() bool {
+	if len(s.redo) == 0 || s.readOnly {
+		return false
+	}
+	s.undo = append(s.undo, snapshot{sh: s.sh, v: s.v})
+	last := s.redo[len(s.redo)-1]
+	s.redo = s.redo[:len(s.redo)-1]
+	s.sh, s.v = last.sh.Clone(), last.v.clone()
+	s.tidy()
+	s.save()
+	return true
+}
+
+// tidy brings the view in line with the sheet: new entries go to the top
+// of the order, names that no longer exist leave the order and the marks,
+// and the selection stays on a visible row.
+func (s *session) tidy() {
+	ents := s.sh.Entries()
+	exists := make(map[string]bool, len(ents))
+	for _, e := range ents {
+		exists[e.Name] = true
+	}
+	hidden := map[string]bool{}
+	var keepHidden []string
+	for _, h := range s.v.Hidden {
+		if exists[h] && !hidden[h] {
+			hidden[h] = true
+			keepHidden = append(keepHidden, h)
+		}
+	}
+	s.v.Hidden = keepHidden
+	inOrder := map[string]bool{}
+	var order []string
+	for _, n := range s.v.Order {
+		if exists[n] && !inOrder[n] {
+			inOrder[n] = true
+			order = append(order, n)
+		}
+	}
+	var fresh []string
+	for i := len(ents) - 1; i >= 0; i-- {
+		if !inOrder[ents[i].Name] {
+			fresh = append(fresh, ents[i].Name)
+		}
+	}
+	s.v.Order = append(fresh, order...)
+	var marks []string
+	for _, m := range s.v.Marks {
+		if exists[m] && !hidden[m] && !slices.Contains(marks, m) {
+			marks = append(marks, m)
+		}
+	}
+	s.v.Marks = marks
+	if s.v.Selected == "" || !exists[s.v.Selected] || hidden[s.v.Selected] {
+		s.v.Selected = ""
+		if rows := s.rows(); len(rows) > 0 {
+			s.v.Selected = rows[0]
+		}
+	}
+}
+
+// rows returns the names shown in the table, top first.
+func (s *session) rows() []string {
+	if len(s.v.Hidden) == 0 {
+		return s.v.Order
+	}
+	out := make([]string, 0, len(s.v.Order))
+	for _, n := range s.v.Order {
+		if !slices.Contains(s.v.Hidden, n) {
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
+// unhide shows a name again, when a statement defines it anew.
+func (s *session) unhide(name string) {
+	s.v.Hidden = slices.DeleteFunc(s.v.Hidden, func(h string) bool { return h == name })
+}
+
+// markIndex returns the position of name in the marks, or −1.
+func (s *session) markIndex(name string) int { return slices.Index(s.v.Marks, name) }

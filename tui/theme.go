@@ -1,0 +1,149 @@
+package tui
+
+import (
+	"errors"
+	"strings"
+
+	"argand/calc"
+	"argand/tui/store"
+
+	"github.com/charmbracelet/lipgloss"
+	"github.com/charmbracelet/x/ansi"
+)
+
+// glyphs are the characters that draw the screen's structure, in a
+// UTF-8 and an ASCII set.
+type glyphs struct {
+	rule, vbar, sel, mark, hi, arrow, caret string
+}
+
+var (
+	utf8Glyphs  = glyphs{rule: "─", vbar: "│", sel: "▸", mark: "◆", hi: "»", arrow: "→", caret: "^"}
+	asciiGlyphs = glyphs{rule: "-", vbar: "|", sel: ">", mark: "*", hi: ">>", arrow: "->", caret: "^"}
+)
+
+// theme is argand's restrained look: no boxes, thin rules with a label,
+// one warm accent for what needs attention. Every distinction drawn by
+// style is also drawn by a character (the selection marker, mark numbers,
+// "error:" before an error), so nothing depends on colour or on bold.
+type theme struct {
+	g       glyphs
+	label   lipgloss.Style // section labels
+	rule    lipgloss.Style
+	sel     lipgloss.Style // selected row
+	marked  lipgloss.Style
+	hi      lipgloss.Style // highlighted elements of a reduction step
+	err     lipgloss.Style
+	dim     lipgloss.Style
+	key     lipgloss.Style // key names in the hint line
+	cursor  lipgloss.Style
+	heading lipgloss.Style
+}
+
+func newTheme(o Options) theme {
+	t := theme{g: utf8Glyphs}
+	if o.ASCII {
+		t.g = asciiGlyphs
+	}
+	t.label = lipgloss.NewStyle().Bold(true)
+	t.rule = lipgloss.NewStyle().Faint(true)
+	t.sel = lipgloss.NewStyle().Reverse(true)
+	t.marked = lipgloss.NewStyle().Bold(true)
+	t.hi = lipgloss.NewStyle().Bold(true).Underline(true)
+	t.err = lipgloss.NewStyle().Bold(true)
+	t.dim = lipgloss.NewStyle().Faint(true)
+	t.key = lipgloss.NewStyle().Bold(true)
+	t.cursor = lipgloss.NewStyle().Reverse(true)
+	t.heading = lipgloss.NewStyle().Bold(true).Underline(true)
+	if o.Color {
+		// amber accent and a muted brick for errors: ANSI 256 colours that
+		// read on dark and light backgrounds alike
+		t.label = t.label.Foreground(lipgloss.Color("172"))
+		t.marked = t.marked.Foreground(lipgloss.Color("172"))
+		t.hi = t.hi.Foreground(lipgloss.Color("172"))
+		t.err = t.err.Foreground(lipgloss.Color("167"))
+		t.key = t.key.Foreground(lipgloss.Color("109"))
+	}
+	return t
+}
+
+// section draws a rule with a label: "── entries ───── 12 rows".
+func (t theme) section(label, info string, width int) string {
+	head := t.g.rule + t.g.rule + " "
+	s := t.rule.Render(head) + t.label.Render(label) + " "
+	used := ansi.StringWidth(head) + ansi.StringWidth(label) + 1
+	infoW := ansi.StringWidth(info)
+	if info != "" && used+infoW+4 <= width {
+		n := width - used - infoW - 2
+		return s + t.rule.Render(strings.Repeat(t.g.rule, n)) + " " + info
+	}
+	if width > used {
+		s += t.rule.Render(strings.Repeat(t.g.rule, width-used))
+	}
+	return s
+}
+
+// fit cuts s (which may hold escape sequences) to width cells.
+func fit(s string, width int) string {
+	if ansi.StringWidth(s) <= width {
+		return s
+	}
+	return ansi.Truncate(s, width, "…")
+}
+
+// pad cuts or pads s to exactly width cells.
+func pad(s string, width int) string {
+	w := ansi.StringWidth(s)
+	if w > width {
+		return ansi.Truncate(s, width, "…")
+	}
+	return s + strings.Repeat(" ", width-w)
+}
+
+// asciiReplacer spells the app's own symbols in ASCII; calc.ASCIIText
+// does the rest.
+var asciiReplacer = strings.NewReplacer("↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
+	"…", "~", "…", "~", "×", "x", "├", "+", "└", "+")
+
+// asciiOnly makes sure a frame holds only ASCII: every character left
+// above 0x7f after transliteration becomes '?' so widths stay as drawn.
+func asciiOnly(s string) string {
+	ascii := true
+	for i := 0; i < len(s); i++ {
+		if s[i] >= 0x80 {
+			ascii = false
+			break
+		}
+	}
+	if ascii {
+		return s
+	}
+	var b strings.Builder
+	for _, r := range s {
+		if r < 0x80 {
+			b.WriteRune(r)
+		} else {
+			b.WriteByte('?')
+		}
+	}
+	return b.String()
+}
+
+// tr writes text for the screen: in ASCII mode every symbol argand uses is
+// spelled in ASCII before widths are measured.
+func (m *Model) tr(s string) string {
+	if !m.opt.ASCII {
+		return s
+	}
+	return calc.ASCIIText(asciiReplacer.Replace(s))
+}
+
+// lockedBy reports whether err says the session is held elsewhere, and
+// the holder's process ID when known.
+func lockedBy(err error) (pid int, locked bool) {
+	var le *store.LockedError
+	if errors.As(err, &le) {
+		return le.PID, true
+	}
+	return 0, errors.Is(err, store.ErrLocked)
+}
