@@ -353,7 +353,7 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 				if !changed[d.name] {
 					changed[d.name] = true
 					more = true
-					step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " was", Value: old})
+					step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
 					step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
 				}
 			}
