@@ -1,0 +1,83 @@
+package sheet
+
+import (
+	"encoding/json"
+	"math"
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"argand/calc"
+)
+
+var sheetSeeds = []string{
+	"x = 3+j4 Ω\ny = x || 10 Ω\ncheck y is 4.4∠26.57 Ω within 1%",
+	"frequency 60 Hz\ninductor L1 = 10 mH\nZ = L1 + 10 Ω\nfrequency 50 Hz",
+	"capacitor C1 = 1 µF\nresistor R1 = 1 kΩ\nZt = R1 || C1\ndigits 6\nangles rad\nZt",
+	"basis peak\nV1 = 325∠0 V\nI1 = V1 / (10 Ω)\nS1 = V1 * conj(I1) / 2",
+	"network bench reference n\n  voltage source Vs = 230∠0 V from n to a\n  resistor R1 = 10 Ω from a b\nend",
+	"network bench reference n\n  voltage source Vs = 230∠0 V from n to a\n  resistor R1 = 10 Ω from a to n\nend\nthevenin T = bench between a and n",
+	"frequency 0 Hz", "S = 1", "x = (1+2", "1e308*1e308", "5∠", "j10 || -j10", "50 Hz * 10 mH",
+	"sequence acb\nsequence abc", "tolerance R1 5%", "check 1 is 2 within 1%", "x = 1\nx = x + 1",
+	"a = 1\nb = a\na = b", "sweep 1 Hz from 1 Hz to 10 Hz points 3", "\xff\xfe", "# comment only",
+}
+
+// FuzzSheet runs arbitrary lines through the worksheet interpreter. An
+// error lies inside its line and names it; every step shown as text or
+// JSON is free of NaN and Inf, and the JSON is valid.
+func FuzzSheet(f *testing.F) {
+	for _, s := range sheetSeeds {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		lines := strings.Split(src, "\n")
+		if len(lines) > 40 {
+			lines = lines[:40]
+		}
+		s := New()
+		for i, line := range lines {
+			steps, err := s.Exec(line)
+			if err != nil {
+				le, ok := err.(*calc.Error)
+				if !ok {
+					t.Fatalf("line %d %q: error %T %v is not located", i+1, line, err, err)
+				}
+				if le.Line != i+1 {
+					t.Fatalf("line %d %q: error names line %d", i+1, line, le.Line)
+				}
+				if n := utf8.RuneCountInString(line); le.Col < 1 || le.Col > n+1 {
+					t.Fatalf("line %d %q: column %d outside 1…%d: %s", i+1, line, le.Col, n+1, le.Msg)
+				}
+				// a message may quote what was typed ("unknown name NaN")
+				if (strings.Contains(le.Msg, "NaN") || strings.Contains(le.Msg, "Inf") || strings.Contains(le.Msg, "panic")) &&
+					!strings.Contains(line, "NaN") && !strings.Contains(line, "Inf") && !strings.Contains(line, "panic") {
+					t.Fatalf("line %q: message %q", line, le.Msg)
+				}
+				continue
+			}
+			f := s.Context().Format
+			for _, st := range steps {
+				for _, o := range append(append([]calc.Operand(nil), st.Inputs...), st.Results...) {
+					if v := o.Value.V; math.IsNaN(real(v)) || math.IsNaN(imag(v)) || math.IsInf(real(v), 0) || math.IsInf(imag(v), 0) {
+						t.Fatalf("line %q: %s = %v", line, o.Name, v)
+					}
+				}
+				// values as shown (the step's text also quotes what was typed,
+				// which may spell NaN, so look at the formatted values)
+				for _, fm := range []calc.Format{f, {Digits: f.Digits, ASCII: true, Radians: f.Radians}} {
+					_ = st.Text(fm, false)
+					for _, o := range append(append([]calc.Operand(nil), st.Inputs...), st.Results...) {
+						v := fm.Both(o.Value, false)
+						if strings.Contains(v, "NaN") || strings.Contains(v, "Inf") || strings.Contains(v, "∠-180") || strings.Contains(v, "@-180") {
+							t.Fatalf("line %q: %s shows as %s", line, o.Name, v)
+						}
+					}
+				}
+				js := st.JSON()
+				if !json.Valid([]byte(js)) || strings.Contains(js, "NaN") || strings.Contains(js, "Inf") {
+					t.Fatalf("line %q: JSON %s", line, js)
+				}
+			}
+		}
+	})
+}
