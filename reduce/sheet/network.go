@@ -354,6 +354,10 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 	}
 	vth, zth, steps, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
 	name := nameTok.Text
+	deps := map[string]bool{"f": true, "net:" + nw.name: true}
+	for k := range nw.deps {
+		deps[k] = true
+	}
 	if err != nil {
 		// an ideal current source has only the Norton form
 		in, yn, nsteps, nerr := nodal.Norton(net, a, b, s.ctx.Basis)
@@ -361,7 +365,15 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 			return lineErr(s.line, 1, 8, "%v", err)
 		}
 		s.record(nsteps...)
-		d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: map[string]bool{}}
+		d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: deps}
+		d.recalc = func() (calc.Quantity, []calc.Operand, error) {
+			net, err := s.build(nw)
+			if err != nil {
+				return calc.Quantity{}, nil, err
+			}
+			in, yn, _, err := nodal.Norton(net, a, b, s.ctx.Basis)
+			return calc.Q(in, calc.DimCurrent), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}}, err
+		}
 		if e := s.setValue(d); e != nil {
 			return lineErr(s.line, nameTok.Col, 1, "%v", e)
 		}
@@ -370,21 +382,33 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 		return nil
 	}
 	s.record(steps...)
-	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(vth, calc.DimVoltage), deps: map[string]bool{}}
+	extras := func(vth, zth complex128) []calc.Operand {
+		extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
+		if zth != 0 {
+			extra = append(extra, calc.Operand{Name: "in", Value: calc.Q(vth/zth, calc.DimCurrent)})
+		}
+		return extra
+	}
+	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(vth, calc.DimVoltage), deps: deps}
+	d.recalc = func() (calc.Quantity, []calc.Operand, error) {
+		net, err := s.build(nw)
+		if err != nil {
+			return calc.Quantity{}, nil, err
+		}
+		vth, zth, _, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
+		return calc.Q(vth, calc.DimVoltage), extras(vth, zth), err
+	}
 	if e := s.setValue(d); e != nil {
 		return lineErr(s.line, nameTok.Col, 1, "%v", e)
 	}
-	extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
 	st := calc.Step{Kind: "thevenin", Source: p.Source(), Rule: "Thevenin equivalent of " + nw.name + " between " + a + " and " + b,
 		Formula: "V_th = V(" + a + ") − V(" + b + ") open-circuit; Z_th with sources set to zero"}
 	if zth != 0 {
-		in := vth / zth
-		extra = append(extra, calc.Operand{Name: "in", Value: calc.Q(in, calc.DimCurrent)})
 		st.Formula += "; I_N = V_th/Z_th"
 	} else {
 		st.Notes = append(st.Notes, "Z_th = 0: an ideal voltage source between these nodes has no Norton form")
 	}
-	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), extra)...)
+	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), extras(vth, zth))...)
 	s.record(st)
 	return nil
 }

@@ -34,6 +34,9 @@ type def struct {
 	elem  *element        // non-nil for an element definition
 	owner string          // for NAME.key extras: the defining name
 	key   string
+	// recalc recomputes a value made by a statement rather than an
+	// expression (a Thevenin equivalent), with its extras.
+	recalc func() (calc.Quantity, []calc.Operand, error)
 }
 
 // element remembers the component value of an element definition, so its
@@ -327,7 +330,7 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 	for pass := 0; pass <= len(s.defs)+1; pass++ {
 		more := false
 		for _, d := range s.defs {
-			if d.expr == nil && d.elem == nil {
+			if d.expr == nil && d.elem == nil && d.recalc == nil {
 				continue
 			}
 			hit := false
@@ -380,6 +383,18 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 func (s *Sheet) reeval(d *def) (calc.Quantity, error) {
 	if d.elem != nil {
 		return s.elementValue(d.elem)
+	}
+	if d.recalc != nil {
+		v, extra, err := d.recalc()
+		if err != nil {
+			return calc.Quantity{}, err
+		}
+		for _, x := range extra {
+			if e, ok := s.byName[d.name+"."+x.Name]; ok {
+				e.value = x.Value
+			}
+		}
+		return v, nil
 	}
 	if d.owner != "" {
 		return d.value, nil
