@@ -368,7 +368,7 @@ func (m *Model) finish(lines []string) string {
 	}
 	out := b.String()
 	if m.opt.ASCII {
-		out = asciiOnly(out)
+		out = asciiOnly(strings.ReplaceAll(out, "…", "~"))
 	}
 	return out
 }

@@ -49,22 +49,37 @@ func (m *Model) run(what string, stmts ...string) bool {
 		m.note(true, what+": "+errText(err))
 		return false
 	}
-	for _, st := range steps {
-		for _, r := range st.Results {
-			m.s.unhide(r.Name)
-		}
-	}
-	m.trail.back = 0
+	// the names the statements define (not those re-evaluated because
+	// they depend on them) come to the top: the newest row is the top row
+	var defined []string
 	res := ""
-	if n := len(steps); n > 0 {
-		if r, ok := steps[n-1].Result(); ok {
-			res = r.Name + " = " + m.format().Both(r.Value, m.s.v.PolarFirst)
-			if _, exists := m.s.sh.Lookup(r.Name); exists && !strings.Contains(r.Name, ".") {
-				m.s.v.Selected = r.Name
-				m.s.tidy()
+	for _, st := range steps {
+		if st.Kind == "recompute" {
+			continue
+		}
+		for _, r := range st.Results {
+			if strings.Contains(r.Name, ".") || slices.Contains(defined, r.Name) {
+				continue
+			}
+			if _, ok := m.s.sh.Lookup(r.Name); ok {
+				defined = append(defined, r.Name)
+				res = r.Name + " = " + m.format().Both(r.Value, m.s.v.PolarFirst)
 			}
 		}
 	}
+	if len(defined) > 0 {
+		for _, d := range defined {
+			m.s.unhide(d)
+		}
+		rest := slices.DeleteFunc(slices.Clone(m.s.v.Order), func(x string) bool { return slices.Contains(defined, x) })
+		top := slices.Clone(defined)
+		slices.Reverse(top)
+		m.s.v.Order = append(top, rest...)
+		m.s.v.Selected = defined[len(defined)-1]
+		m.s.tidy()
+		m.s.save()
+	}
+	m.trail.back = 0
 	m.note(false, strings.TrimSpace(what+"  "+res))
 	return true
 }

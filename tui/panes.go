@@ -338,7 +338,7 @@ func (m *Model) entryView() string {
 	w := m.width - ansi.StringWidth(p)
 	if m.mode != modeLine {
 		if m.line.f.String() == "" {
-			return m.th.dim.Render(p + "tab or e: type a statement, such as Zc = 1/(j·ω·4.7 µF)")
+			return m.th.dim.Render(p + m.tr("tab or e: type a statement, such as Zc = 1/(j·ω·4.7 µF)"))
 		}
 		s, _ := m.line.f.render(w, func(c string) string { return c })
 		return m.th.dim.Render(p + s)
@@ -400,11 +400,11 @@ func (m *Model) hintView() string {
 	case modeExport:
 		parts = []string{k("m", "Markdown"), k("t", "text"), k("w", "worksheet"), k("esc", "cancel")}
 	default:
-		ops := m.operands(2)
-		if len(ops) == 2 {
-			parts = append(parts, k("p s + - * /", ops[0]+" op "+ops[1]), k("v c t", "roles"))
+		parts = append(parts, k("?", "help"), k("tab", "type"), k("space", "mark"))
+		if ops := m.operands(2); len(ops) == 2 {
+			parts = append(parts, "on "+ops[0]+", "+ops[1]+":", k("p s + - * /", ""), k("v c t", "roles"))
 		}
-		parts = append(parts, k("space", "mark"), k("tab", "type"), k("N", "networks"), k("u", "undo"), k("?", "help"))
+		parts = append(parts, k("u", "undo"), k("N", "networks"), k("x", "export"), k("q", "quit"))
 	}
 	return m.tr(strings.Join(parts, "  "))
 }
