@@ -87,7 +87,12 @@ var asciiReplacer = strings.NewReplacer(
 // other non-ASCII character becomes '?', so the result is ASCII whatever
 // text a user or a function supplied.
 func ASCIIText(s string) string {
-	s = asciiReplacer.Replace(s)
+	return ASCIIOnly(asciiReplacer.Replace(s))
+}
+
+// ASCIIOnly replaces each non-ASCII character by '?', one for one, so that
+// a caret under the text stays in place.
+func ASCIIOnly(s string) string {
 	for i := 0; i < len(s); i++ {
 		if s[i] >= 0x80 {
 			var b strings.Builder

@@ -160,16 +160,7 @@ func (s *Sheet) solveCompact(nw *network, reason string) error {
 	}
 	s.record(steps...)
 	var names []string
-	set := func(name string, q calc.Quantity) {
-		names = append(names, name)
-		if d, ok := s.byName[name]; ok {
-			d.value = q
-			return
-		}
-		d := &def{name: name, src: nw.src, line: nw.line, value: q, owner: nw.name, deps: map[string]bool{}}
-		s.defs = append(s.defs, d)
-		s.byName[name] = d
-	}
+	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }
 	set(nw.name+".z", red.Z)
 	if fed {
 		for _, e := range append(red.Elements, red.Source) {

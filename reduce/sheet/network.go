@@ -242,16 +242,7 @@ func (s *Sheet) solve(nw *network, reason string) error {
 
 func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
 	var names []string
-	set := func(name string, q calc.Quantity) {
-		names = append(names, name)
-		if d, ok := s.byName[name]; ok {
-			d.value = q
-			return
-		}
-		d := &def{name: name, src: "network " + nw.name, line: nw.line, value: q, owner: nw.name, deps: map[string]bool{}}
-		s.defs = append(s.defs, d)
-		s.byName[name] = d
-	}
+	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }
 	for _, b := range sol.Branches {
 		set(nw.name+"."+b.Name+".v", calc.Q(b.V, calc.DimVoltage))
 		set(nw.name+"."+b.Name+".i", calc.Q(b.I, calc.DimCurrent))
@@ -261,6 +252,23 @@ func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
 		set(nw.name+"."+n+".v", calc.Q(sol.Voltage[n], calc.DimVoltage))
 	}
 	nw.results = names
+}
+
+// setResult defines or updates one result of a network as a name owned by
+// the network, and returns the name.
+func (s *Sheet) setResult(nw *network, name string, q calc.Quantity) string {
+	if d, ok := s.byName[name]; ok {
+		d.value = q
+		return name
+	}
+	src := nw.src
+	if src == "" {
+		src = "network " + nw.name
+	}
+	d := &def{name: name, src: src, line: nw.line, value: q, owner: nw.name, deps: map[string]bool{}}
+	s.defs = append(s.defs, d)
+	s.byName[name] = d
+	return name
 }
 
 // resolveNets re-solves the networks that use a changed name; it marks

@@ -295,36 +295,40 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	return nil
 }
 
-func (s *Sheet) stmtBasis(p *calc.Parser) error {
-	p.Next()
-	w, ok := word(p, "basis", "rms", "peak")
+// setting reads a settings statement that takes one word from a fixed
+// choice, applies it, and records the step apply returns.
+func (s *Sheet) setting(p *calc.Parser, choices []string, apply func(w string) calc.Step) error {
+	kw := p.Next()
+	w, ok := word(p, kw.Text, choices...)
 	p.ExpectEnd()
 	if !ok || p.Err() != nil {
 		return p.Err()
 	}
-	if w == "peak" {
-		s.ctx.Basis = calc.Peak
-	} else {
-		s.ctx.Basis = calc.RMS
-	}
-	f := "S = V·I* (RMS phasors)"
-	if w == "peak" {
-		f = "S = ½·V·I* (peak phasors)"
-	}
-	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: "phasor basis " + w, Formula: f})
+	st := apply(w)
+	st.Kind, st.Source = "setting", p.Source()
+	s.record(st)
 	return nil
 }
 
+func (s *Sheet) stmtBasis(p *calc.Parser) error {
+	return s.setting(p, []string{"rms", "peak"}, func(w string) calc.Step {
+		if w == "peak" {
+			s.ctx.Basis = calc.Peak
+			return calc.Step{Rule: "phasor basis peak", Formula: "S = ½·V·I* (peak phasors)"}
+		}
+		s.ctx.Basis = calc.RMS
+		return calc.Step{Rule: "phasor basis rms", Formula: "S = V·I* (RMS phasors)"}
+	})
+}
+
 func (s *Sheet) stmtAngles(p *calc.Parser) error {
-	p.Next()
-	w, ok := word(p, "angles", "deg", "rad", "degrees", "radians")
-	p.ExpectEnd()
-	if !ok || p.Err() != nil {
-		return p.Err()
-	}
-	s.ctx.Format.Radians = w == "rad" || w == "radians"
-	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: "angles shown and read in " + map[bool]string{true: "radians", false: "degrees"}[s.ctx.Format.Radians]})
-	return nil
+	return s.setting(p, []string{"deg", "rad", "degrees", "radians"}, func(w string) calc.Step {
+		s.ctx.Format.Radians = w == "rad" || w == "radians"
+		if s.ctx.Format.Radians {
+			return calc.Step{Rule: "angles shown and read in radians"}
+		}
+		return calc.Step{Rule: "angles shown and read in degrees"}
+	})
 }
 
 func (s *Sheet) stmtDigits(p *calc.Parser) error {
@@ -349,20 +353,14 @@ func (s *Sheet) stmtDigits(p *calc.Parser) error {
 }
 
 func (s *Sheet) stmtSequence(p *calc.Parser) error {
-	p.Next()
-	w, ok := word(p, "sequence", "abc", "acb")
-	p.ExpectEnd()
-	if !ok || p.Err() != nil {
-		return p.Err()
-	}
-	s.ctx.Sequence = 1
-	rule := "phase sequence ABC (positive): V_ab = √3·V_an∠+30°"
-	if w == "acb" {
-		s.ctx.Sequence = -1
-		rule = "phase sequence ACB (negative): V_ab = √3·V_an∠−30°"
-	}
-	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: rule})
-	return nil
+	return s.setting(p, []string{"abc", "acb"}, func(w string) calc.Step {
+		if w == "acb" {
+			s.ctx.Sequence = -1
+			return calc.Step{Rule: "phase sequence ACB (negative): V_ab = √3·V_an∠−30°"}
+		}
+		s.ctx.Sequence = 1
+		return calc.Step{Rule: "phase sequence ABC (positive): V_ab = √3·V_an∠+30°"}
+	})
 }
 
 // autoName gives a result typed without a name a name from its dimension,

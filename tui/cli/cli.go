@@ -73,26 +73,12 @@ func (p *Printer) Error(e *calc.Error, src, file string) {
 	if src != "" {
 		c := calc.Caret(src, e)
 		if p.O.ASCII {
-			c = asciiOnly(c)
+			c = calc.ASCIIOnly(c)
 		}
 		for _, l := range strings.Split(c, "\n") {
 			fmt.Fprintln(p.Err, "  "+l)
 		}
 	}
-}
-
-// asciiOnly replaces every non-ASCII character by '?', one for one, so the
-// caret under it stays in place.
-func asciiOnly(s string) string {
-	var b strings.Builder
-	for _, r := range s {
-		if r < 0x80 {
-			b.WriteRune(r)
-		} else {
-			b.WriteByte('?')
-		}
-	}
-	return b.String()
 }
 
 // Summary writes the checks' outcome.
