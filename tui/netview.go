@@ -12,6 +12,7 @@ import (
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/x/ansi"
 )
 
 // netView shows one network of the worksheet: its elements and nodes, its
@@ -231,10 +232,10 @@ func (m *Model) netPane(w, h int) []string {
 			hot[e] = true
 		}
 	}
-	head := fmt.Sprintf("   %-8s %-15s %-9s %-18s %-20s %-20s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
+	head := fmt.Sprintf("   %-7s %-9s %-8s %-14s %-18s %-18s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
 	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
 	// leave room for the reduction step below the element table
-	listH := max(3, h-2-8)
+	listH := max(3, min(len(n.net.Elements), h-2-8))
 	top := max(0, min(n.sel-listH/2, len(n.net.Elements)-listH))
 	for i := top; i < len(n.net.Elements) && i < top+listH; i++ {
 		e := n.net.Elements[i]
@@ -245,7 +246,7 @@ func (m *Model) netPane(w, h int) []string {
 		hi := "  "
 		if hot[e.Name] {
 			hi = m.th.g.hi
-			if len(hi) < 2 {
+			if ansi.StringWidth(hi) < 2 {
 				hi += " "
 			}
 		}
@@ -262,8 +263,8 @@ func (m *Model) netPane(w, h int) []string {
 			}
 			return "-"
 		}
-		line := fmt.Sprintf("%s%s%-8s %-15s %-9s %-18s %-20s %-20s %s", sel, hi, e.Name, e.Kind.String(), e.From+m.th.g.arrow+e.To, m.tr(val),
-			get("v"), get("i"), get("s"))
+		line := sel + hi + pad(e.Name, 7) + " " + pad(kindWord(e.Kind), 9) + " " + pad(e.From+m.th.g.arrow+e.To, 8) + " " +
+			pad(m.tr(val), 14) + " " + pad(get("v"), 18) + " " + pad(get("i"), 18) + " " + get("s")
 		line = fit(m.tr(line), w)
 		switch {
 		case i == n.sel:
@@ -303,6 +304,17 @@ func (m *Model) netPane(w, h int) []string {
 		out = append(out, "")
 	}
 	return out[:h]
+}
+
+// kindWord names an element kind in at most nine cells.
+func kindWord(k reduce.ElementKind) string {
+	switch k {
+	case reduce.VoltageSource:
+		return "V source"
+	case reduce.CurrentSource:
+		return "I source"
+	}
+	return k.String()
 }
 
 // elementValue writes an element's component value.

@@ -42,7 +42,7 @@ func (m *Model) statusView() string {
 		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, 0),
 		ang, strconv.Itoa(st.Digits) + " digits", basis, first,
 	}
-	s := m.th.label.Render("argand") + "  " + m.tr(strings.Join(parts, " · "))
+	s := m.th.label.Render("argand") + "  "
 	var flags []string
 	if m.s.readOnly {
 		flags = append(flags, "READ-ONLY")
@@ -54,9 +54,9 @@ func (m *Model) statusView() string {
 		flags = append(flags, "writing network "+n)
 	}
 	if len(flags) > 0 {
-		s += "  " + m.th.err.Render("["+strings.Join(flags, ", ")+"]")
+		s += m.th.err.Render("["+strings.Join(flags, ", ")+"]") + "  "
 	}
-	return s
+	return s + m.tr(strings.Join(parts, " · "))
 }
 
 // tableView is the entries table, newest at the top.

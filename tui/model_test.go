@@ -1,0 +1,613 @@
+package tui
+
+import (
+	"bytes"
+	"flag"
+	"math/cmplx"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"argand/calc"
+	"argand/tui/store"
+
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+	"github.com/muesli/termenv"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden views in testdata")
+
+func TestMain(m *testing.M) {
+	// Plain text views: goldens must not depend on the terminal running
+	// the tests.
+	lipgloss.SetColorProfile(termenv.Ascii)
+	if os.Getenv(childEnv) != "" {
+		os.Exit(durabilityChild())
+	}
+	os.Exit(m.Run())
+}
+
+const benchSheet = "testdata/bench.argand"
+
+// newModel opens the test worksheet in a fresh state directory.
+func newModel(t testing.TB, o Options) *Model {
+	t.Helper()
+	if o.Dir == "" {
+		o.Dir = t.TempDir()
+	}
+	if o.File == "" {
+		o.File = benchSheet
+	}
+	o.Getenv = func(string) string { return "" }
+	m := New(o)
+	t.Cleanup(m.Close)
+	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
+	return m
+}
+
+// keyMsg turns a key name as bubbletea writes it into a message.
+func keyMsg(k string) tea.KeyMsg {
+	names := map[string]tea.KeyType{
+		"enter": tea.KeyEnter, "esc": tea.KeyEscape, "tab": tea.KeyTab, "up": tea.KeyUp, "down": tea.KeyDown,
+		"left": tea.KeyLeft, "right": tea.KeyRight, "home": tea.KeyHome, "end": tea.KeyEnd,
+		"backspace": tea.KeyBackspace, "delete": tea.KeyDelete, "pgup": tea.KeyPgUp, "pgdown": tea.KeyPgDown,
+		"ctrl+c": tea.KeyCtrlC, "ctrl+u": tea.KeyCtrlU, "ctrl+k": tea.KeyCtrlK, "ctrl+a": tea.KeyCtrlA,
+		"ctrl+e": tea.KeyCtrlE, "ctrl+b": tea.KeyCtrlB, "ctrl+f": tea.KeyCtrlF, "ctrl+d": tea.KeyCtrlD,
+		"ctrl+z": tea.KeyCtrlZ, "ctrl+y": tea.KeyCtrlY, " ": tea.KeySpace, "f1": tea.KeyF1,
+		"shift+up": tea.KeyShiftUp, "shift+down": tea.KeyShiftDown,
+	}
+	if t, ok := names[k]; ok {
+		return tea.KeyMsg{Type: t}
+	}
+	return tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(k)}
+}
+
+// press sends keys one by one and returns the last command.
+func press(m *Model, keys ...string) tea.Cmd {
+	var cmd tea.Cmd
+	for _, k := range keys {
+		_, cmd = m.Update(keyMsg(k))
+	}
+	return cmd
+}
+
+// typeLine types a statement into the entry line and runs it.
+func typeLine(t *testing.T, m *Model, src string) {
+	t.Helper()
+	if m.mode != modeLine {
+		press(m, "tab")
+	}
+	for _, r := range src {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if m.msgErr {
+		t.Fatalf("%s: %s", src, m.msg)
+	}
+	press(m, "esc")
+}
+
+func value(t *testing.T, m *Model, name string) complex128 {
+	t.Helper()
+	q, ok := m.s.sh.Lookup(name)
+	if !ok {
+		t.Fatalf("no value %s; rows %v", name, m.s.rows())
+	}
+	return q.V
+}
+
+func near(a, b complex128) bool {
+	return cmplx.Abs(a-b) <= 1e-9*cmplx.Abs(b)+1e-300
+}
+
+func TestOperations(t *testing.T) {
+	za, zb := complex(3, 4), complex(10, 0)
+	// Reference values are the textbook formulas (common practice):
+	// series Z = Z1 + Z2, parallel product over sum, divider V·Zk/ΣZ,
+	// current divider I·Zother/ΣZ for two branches, Thevenin V·Z2/(Z1+Z2).
+	tests := []struct {
+		keys []string
+		want complex128
+		stmt string
+	}{
+		{[]string{"+"}, za + zb, "Za + Zb"},
+		{[]string{"-"}, za - zb, "Za - Zb"},
+		{[]string{"*"}, za * zb, "Za * Zb"},
+		{[]string{"/"}, za / zb, "Za / Zb"},
+		{[]string{"s"}, za + zb, "series(Za, Zb)"},
+		{[]string{"p"}, za * zb / (za + zb), "Za || Zb"},
+		{[]string{"r"}, 1 / zb, "recip(Zb)"},
+		{[]string{"~"}, cmplx.Conj(zb), "conj(Zb)"},
+		{[]string{"n"}, -zb, "-Zb"},
+	}
+	for _, tc := range tests {
+		m := newModel(t, Options{})
+		typeLine(t, m, "Za = 3+j4 Ω")
+		typeLine(t, m, "Zb = 10 Ω")
+		press(m, tc.keys...)
+		if m.msgErr {
+			t.Fatalf("%v: %s", tc.keys, m.msg)
+		}
+		got := value(t, m, m.s.v.Selected)
+		if !near(got, tc.want) {
+			t.Errorf("%v: got %v, want %v", tc.keys, got, tc.want)
+		}
+		stmts := m.s.sh.Statements()
+		if last := stmts[len(stmts)-1]; !strings.HasSuffix(last, "= "+tc.stmt) {
+			t.Errorf("%v: statement %q, want … = %s", tc.keys, last, tc.stmt)
+		}
+	}
+}
+
+func TestMarkOrder(t *testing.T) {
+	m := newModel(t, Options{})
+	typeLine(t, m, "Za = 3+j4 Ω")
+	typeLine(t, m, "Zb = 10 Ω")
+	// the newest two, older first
+	if h := m.hintView(); !strings.Contains(h, "on Za, Zb") {
+		t.Errorf("hint does not show the order: %q", h)
+	}
+	// mark Zb first, then Za: Zb − Za
+	press(m, "home", " ", "down", " ")
+	if got := m.s.v.Marks; len(got) != 2 || got[0] != "Zb" || got[1] != "Za" {
+		t.Fatalf("marks %v", got)
+	}
+	if v := m.View(); !strings.Contains(v, "◆1 Zb") || !strings.Contains(v, "◆2 Za") {
+		t.Errorf("mark order not shown:\n%s", v)
+	}
+	press(m, "-")
+	if got, want := value(t, m, m.s.v.Selected), complex(7, -4); !near(got, want) {
+		t.Errorf("Zb − Za = %v, want %v", got, want)
+	}
+	if !strings.Contains(m.msg, "first Zb, second Za") {
+		t.Errorf("message does not say the order: %q", m.msg)
+	}
+}
+
+func TestRoles(t *testing.T) {
+	m := newModel(t, Options{})
+	typeLine(t, m, "V1 = 100 V")
+	typeLine(t, m, "Zs = 3+j4 Ω")
+	typeLine(t, m, "Zh = 10 Ω")
+	// defaults: newest voltage, newest impedance, next impedance
+	press(m, "v")
+	if m.mode != modePrompt || !strings.Contains(m.entryView(), "[V1]") {
+		t.Fatalf("divider does not ask for the source with a default: %q", m.entryView())
+	}
+	press(m, "enter", "enter", "enter")
+	got := value(t, m, m.s.v.Selected)
+	if want := 100 * complex(10, 0) / complex(13, 4); !near(got, want) {
+		t.Errorf("vdiv = %v, want %v", got, want)
+	}
+	// Thevenin with names typed for each role
+	press(m, "t")
+	for _, ans := range []string{"V1", "Zs", "Zh"} {
+		for _, r := range ans {
+			m.Update(keyMsg(string(r)))
+		}
+		press(m, "enter")
+	}
+	got = value(t, m, m.s.v.Selected)
+	if want := 100 * complex(10, 0) / complex(13, 4); !near(got, want) {
+		t.Errorf("Thevenin V = %v, want %v", got, want)
+	}
+	// a role naming no row is refused and asked again
+	press(m, "c")
+	for _, r := range "nothing" {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if m.mode != modePrompt || !m.msgErr {
+		t.Errorf("unknown name accepted")
+	}
+	press(m, "esc")
+	if m.mode != modeRows {
+		t.Errorf("esc does not cancel the question")
+	}
+}
+
+func TestDeltaWye(t *testing.T) {
+	m := newModel(t, Options{})
+	for _, s := range []string{"Zab = 30 Ω", "Zbc = 30 Ω", "Zca = 30 Ω"} {
+		typeLine(t, m, s)
+	}
+	press(m, "w")
+	// balanced Δ of 30 Ω is a Y of 10 Ω (common practice: Z_Y = Z_Δ/3)
+	if got := value(t, m, m.s.v.Selected); !near(got, 10) {
+		t.Errorf("Δ→Y arm %v, want 10", got)
+	}
+	press(m, "esc")
+	m.s.v.Marks = []string{"Zab", "Zbc", "Zca"}
+	press(m, "W")
+	if got := value(t, m, m.s.v.Selected); !near(got, 90) {
+		t.Errorf("Y→Δ side %v, want 90", got)
+	}
+}
+
+func TestUndoRedo(t *testing.T) {
+	m := newModel(t, Options{})
+	n0 := len(m.s.sh.Statements())
+	typeLine(t, m, "Za = 3+j4 Ω")
+	typeLine(t, m, "Zb = 10 Ω")
+	press(m, "p", "d", "J", "B", ">")
+	press(m, "u", "u", "u", "u", "u", "u", "u")
+	if got := len(m.s.sh.Statements()); got != n0 {
+		t.Fatalf("after undoing all: %d statements, want %d", got, n0)
+	}
+	press(m, "U", "U", "U")
+	if _, ok := m.s.sh.Lookup("Z3"); !ok {
+		t.Errorf("redo did not bring the parallel back: rows %v", m.s.rows())
+	}
+	// a new change after undo drops the redo history
+	press(m, "u")
+	typeLine(t, m, "Zc = 1 Ω")
+	press(m, "U")
+	if m.msg != "nothing to redo" {
+		t.Errorf("redo after a new change: %q", m.msg)
+	}
+}
+
+func TestRowEditing(t *testing.T) {
+	m := newModel(t, Options{})
+	typeLine(t, m, "Za = 3+j4 Ω")
+	// rename
+	press(m, "R")
+	for _, r := range "Zload" {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if rows := m.s.rows(); rows[0] != "Zload" || contains(rows, "Za") {
+		t.Errorf("rename: rows %v", rows)
+	}
+	// copy under the offered name
+	press(m, "C", "enter")
+	if rows := m.s.rows(); len(rows) < 2 || !near(value(t, m, rows[0]), complex(3, 4)) {
+		t.Errorf("copy: rows %v", rows)
+	}
+	// reorder and put away
+	top := m.s.rows()[0]
+	press(m, "J")
+	if m.s.rows()[1] != top {
+		t.Errorf("lower: rows %v", m.s.rows())
+	}
+	press(m, "d")
+	if contains(m.s.rows(), top) {
+		t.Errorf("put away: %s still shown", top)
+	}
+	press(m, "u")
+	if !contains(m.s.rows(), top) {
+		t.Errorf("undo of put away: %s not back", top)
+	}
+	// recall puts the defining statement in the line
+	press(m, "home", "enter")
+	if m.mode != modeLine || !strings.Contains(m.line.f.String(), "=") {
+		t.Errorf("recall: mode %v, line %q", m.mode, m.line.f.String())
+	}
+}
+
+func contains(xs []string, x string) bool {
+	for _, y := range xs {
+		if y == x {
+			return true
+		}
+	}
+	return false
+}
+
+func TestSettings(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "f")
+	for _, r := range "60" {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if f := m.s.sh.Settings().Freq; f != 60 {
+		t.Fatalf("frequency %v", f)
+	}
+	// an inductor's impedance follows: X = 2π·60·31.83 mH (common practice)
+	if got, want := imag(value(t, m, "L1")), 2*3.141592653589793*60*31.83e-3; !near(complex(got, 0), complex(want, 0)) {
+		t.Errorf("X_L at 60 Hz = %v, want %v", got, want)
+	}
+	v := m.View()
+	if !strings.Contains(v, "60.00 Hz") || !strings.Contains(v, "377.0 rad/s") {
+		t.Errorf("status does not show 60 Hz and ω:\n%s", v)
+	}
+	press(m, "B", "a", "<", "o")
+	st := m.s.sh.Settings()
+	if st.Basis != calc.Peak || !st.Radians || st.Digits != 3 || !m.s.v.PolarFirst {
+		t.Errorf("settings %+v polar %v", st, m.s.v.PolarFirst)
+	}
+	if v := m.View(); !strings.Contains(v, "peak") || !strings.Contains(v, "radians") || !strings.Contains(v, "polar first") {
+		t.Errorf("status line:\n%s", strings.SplitN(v, "\n", 2)[0])
+	}
+}
+
+func TestLiveFeedback(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	for _, r := range "Zq = 3 + * 4" {
+		m.Update(keyMsg(string(r)))
+	}
+	v := m.View()
+	lines := strings.Split(v, "\n")
+	fb := lines[len(lines)-2]
+	if !strings.Contains(fb, "error:") || !strings.Contains(fb, "^") {
+		t.Fatalf("no live error with caret:\n%s", v)
+	}
+	// the caret sits under the offending '*'
+	entry := lines[len(lines)-3]
+	col := strings.Index(fb, "^")
+	if col < 0 || col >= len([]rune(entry)) || []rune(entry)[col] != '*' {
+		t.Errorf("caret at %d not under '*':\n%s\n%s", col, entry, fb)
+	}
+	press(m, "enter")
+	if _, ok := m.s.sh.Lookup("Zq"); ok || !m.msgErr {
+		t.Errorf("a bad statement was accepted")
+	}
+}
+
+func TestPaste(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	long := strings.Repeat("1+", 20000) + "1"
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(long), Paste: true})
+	if n := len(m.line.f.text); n != maxField {
+		t.Errorf("long paste kept %d runes, want the bound %d", n, maxField)
+	}
+	_ = m.View()
+	press(m, "ctrl+u")
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("Zp = 5 Ω\nZq = Zp * 2\n"), Paste: true})
+	if got := value(t, m, "Zq"); got != 10 {
+		t.Errorf("pasted lines: Zq = %v", got)
+	}
+}
+
+func TestSmallAndResize(t *testing.T) {
+	m := newModel(t, Options{})
+	for _, sz := range [][2]int{{40, 12}, {0, 0}, {1, 1}, {59, 30}, {200, 15}, {80, 24}, {300, 100}, {60, 16}} {
+		m.Update(tea.WindowSizeMsg{Width: sz[0], Height: sz[1]})
+		v := m.View()
+		if sz[0] < minWidth || sz[1] < minHeight {
+			if sz[1] >= 1 && sz[0] >= 20 && !strings.Contains(v, "too small") {
+				t.Errorf("%v: no too-small notice:\n%s", sz, v)
+			}
+			continue
+		}
+		lines := strings.Split(v, "\n")
+		if len(lines) != sz[1] {
+			t.Errorf("%v: %d lines", sz, len(lines))
+		}
+		for _, l := range lines {
+			if w := lipgloss.Width(l); w > sz[0] {
+				t.Errorf("%v: line of %d cells: %q", sz, w, l)
+			}
+		}
+	}
+	// every mode at the smallest full size
+	m.Update(tea.WindowSizeMsg{Width: minWidth, Height: minHeight})
+	press(m, "?")
+	_ = m.View()
+	press(m, "esc", "N")
+	_ = m.View()
+}
+
+func TestRestoreAndCorrupt(t *testing.T) {
+	dir := t.TempDir()
+	m := newModel(t, Options{Dir: dir})
+	typeLine(t, m, "Zkeep = 7 Ω")
+	press(m, " ", "o")
+	m.Close()
+	m2 := newModel(t, Options{Dir: dir})
+	if got := value(t, m2, "Zkeep"); got != 7 {
+		t.Errorf("restored Zkeep = %v", got)
+	}
+	if !m2.s.v.PolarFirst || len(m2.s.v.Marks) != 1 {
+		t.Errorf("view not restored: %+v", m2.s.v)
+	}
+	path := m2.s.path
+	m2.Close()
+	if err := os.WriteFile(path, []byte("{not json"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	m3 := newModel(t, Options{Dir: dir})
+	if !m3.msgErr || !strings.Contains(m3.msg, "moved to") {
+		t.Errorf("corrupt file: message %q", m3.msg)
+	}
+	if _, ok := m3.s.sh.Lookup("R1"); !ok {
+		t.Errorf("app did not start afresh from the worksheet")
+	}
+	moved, _ := filepath.Glob(path + ".corrupt-*")
+	if len(moved) != 1 {
+		t.Errorf("corrupt file not kept aside: %v", moved)
+	}
+}
+
+func TestLocked(t *testing.T) {
+	dir := t.TempDir()
+	first := newModel(t, Options{Dir: dir})
+	typeLine(t, first, "Zmine = 1 Ω")
+	second := newModel(t, Options{Dir: dir})
+	if second.mode != modeLocked || !strings.Contains(second.View(), "in use") {
+		t.Fatalf("second instance not told:\n%s", second.View())
+	}
+	press(second, "r")
+	if !second.s.readOnly || !strings.Contains(second.View(), "READ-ONLY") {
+		t.Fatalf("read-only not shown")
+	}
+	if _, ok := second.s.sh.Lookup("Zmine"); !ok {
+		t.Errorf("read-only view does not show the session")
+	}
+	press(second, "p")
+	if !second.msgErr {
+		t.Errorf("read-only accepted a change")
+	}
+	third := newModel(t, Options{Dir: dir})
+	press(third, "s")
+	if third.s.readOnly || third.s.path == first.s.path {
+		t.Errorf("separate session uses %s", third.s.path)
+	}
+	typeLine(t, third, "Zother = 2 Ω")
+	data, _ := store.Load(first.s.path)
+	if bytes.Contains(data, []byte("Zother")) {
+		t.Errorf("separate session wrote into the first")
+	}
+}
+
+func TestNetworkView(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "N")
+	if m.mode != modeNet {
+		t.Fatalf("no network view: %s", m.msg)
+	}
+	v := m.View()
+	for _, want := range []string{"network bench", "Ra", "Cb", "gnd", "0 of"} {
+		if !strings.Contains(v, want) {
+			t.Errorf("network view lacks %q:\n%s", want, v)
+		}
+	}
+	press(m, "right")
+	v = m.View()
+	if !strings.Contains(v, "»") || !strings.Contains(v, "step 1 of") {
+		t.Errorf("step 1 not highlighted by a marker:\n%s", v)
+	}
+	press(m, "left")
+	if m.net.step != 0 {
+		t.Errorf("step back")
+	}
+	// take the current of the selected element as a row
+	press(m, "down", "i", "enter")
+	if m.msgErr {
+		t.Fatalf("take: %s", m.msg)
+	}
+	name := m.s.v.Selected
+	e := m.net.net.Elements[1]
+	if want := value(t, m, "bench."+e.Name+".i"); value(t, m, name) != want {
+		t.Errorf("row %s differs from the branch current", name)
+	}
+	// Thevenin between b and gnd: check against the loaded network by
+	// hand (common practice): V_th = V·Zb/(Ra+Zb), Zb = La‖Rb, Cb across
+	// the ideal source drops out.
+	press(m, "t", "ctrl+u")
+	for _, a := range []string{"b", "gnd", "Tb"} {
+		for _, r := range a {
+			m.Update(keyMsg(string(r)))
+		}
+		press(m, "enter")
+	}
+	if m.msgErr {
+		t.Fatalf("thevenin: %s", m.msg)
+	}
+	zl := complex(0, 2*3.141592653589793*50*31.83e-3)
+	zb := zl * 20 / (zl + 20)
+	if got, want := value(t, m, "Tb"), 230*zb/(10+zb); !near(got, want) {
+		t.Errorf("V_th = %v, want %v", got, want)
+	}
+	if got, want := value(t, m, "ZTb"), 10*zb/(10+zb); !near(got, want) {
+		t.Errorf("Z_th = %v, want %v", got, want)
+	}
+	press(m, "tab")
+	if m.net.name != "ladder" {
+		t.Errorf("tab: network %s", m.net.name)
+	}
+	press(m, "esc")
+	if m.mode != modeRows {
+		t.Errorf("esc leaves the network view")
+	}
+}
+
+func TestExportAndClipboard(t *testing.T) {
+	m := newModel(t, Options{})
+	var out bytes.Buffer
+	m.opt.Out = &out
+	typeLine(t, m, "Za = 3+j4 Ω")
+	press(m, "p")
+	dir := t.TempDir()
+	for _, c := range []struct{ key, file, want string }{
+		{"m", "t.md", "# argand trail"},
+		{"t", "t.txt", "Za = 3+j4"},
+		{"w", "s.argand", "network bench reference gnd"},
+	} {
+		press(m, "x", c.key, "ctrl+u")
+		for _, r := range filepath.Join(dir, c.file) {
+			m.Update(keyMsg(string(r)))
+		}
+		press(m, "enter")
+		b, err := os.ReadFile(filepath.Join(dir, c.file))
+		if err != nil || !strings.Contains(string(b), c.want) {
+			t.Errorf("%s: %v %q", c.file, err, short(string(b), 200))
+		}
+	}
+	// the saved worksheet replays to the same values
+	b, _ := os.ReadFile(filepath.Join(dir, "s.argand"))
+	sh, err := replay(strings.Split(strings.TrimSpace(string(b)), "\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range m.s.sh.Entries() {
+		q, ok := sh.Lookup(e.Name)
+		if !ok || q.V != e.Value.V {
+			t.Errorf("replayed %s = %v, want %v", e.Name, q.V, e.Value.V)
+		}
+	}
+	cmd := press(m, "y")
+	if cmd == nil {
+		t.Fatal("no clipboard command")
+	}
+	m.Update(cmd())
+	if !strings.HasPrefix(out.String(), "\x1b]52;c;") || !strings.Contains(m.msg, "copied") {
+		t.Errorf("OSC 52 not written: %q, %q", out.String(), m.msg)
+	}
+}
+
+func TestASCII(t *testing.T) {
+	m := newModel(t, Options{ASCII: true})
+	press(m, " ", "down", " ")
+	for _, v := range []string{m.View(), func() string { press(m, "?"); return m.View() }(), func() string { press(m, "esc", "N", "right"); return m.View() }()} {
+		for i := 0; i < len(v); i++ {
+			if v[i] >= 0x80 {
+				t.Fatalf("non-ASCII byte in ASCII mode:\n%s", v)
+			}
+		}
+	}
+}
+
+func TestGolden(t *testing.T) {
+	for _, c := range []struct {
+		name  string
+		w, h  int
+		ascii bool
+		keys  []string
+	}{
+		{"rows-80x24", 80, 24, false, []string{"home", " ", "down", " "}},
+		{"rows-120x40", 120, 40, false, []string{"home", " ", "down", " ", "p"}},
+		{"rows-80x24-ascii", 80, 24, true, []string{"home", " ", "down", " "}},
+		{"network-80x24", 80, 24, false, []string{"N", "right", "right"}},
+		{"network-120x40", 120, 40, false, []string{"N", "right"}},
+		{"help-80x24", 80, 24, false, []string{"?"}},
+		{"small-40x12", 40, 12, false, nil},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			m := newModel(t, Options{ASCII: c.ascii})
+			m.note(false, "")
+			m.Update(tea.WindowSizeMsg{Width: c.w, Height: c.h})
+			press(m, c.keys...)
+			got := m.View()
+			path := filepath.Join("testdata", c.name+".golden")
+			if *update {
+				if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+					t.Fatal(err)
+				}
+				return
+			}
+			want, err := os.ReadFile(path)
+			if err != nil {
+				t.Fatalf("%v (run go test ./tui -run TestGolden -update)", err)
+			}
+			if got != string(want) {
+				t.Errorf("view differs from %s:\n%s", path, got)
+			}
+		})
+	}
+}
