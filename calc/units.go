@@ -44,7 +44,7 @@ var units = map[string]unitDef{
 	"Hz":      {1, DimFrequency, KindPlain, true},
 	"s":       {1, DimTime, KindPlain, true},
 	"m":       {1, DimLength, KindPlain, true},
-	"rad":     {1, Dimensionless, KindAngle, false},
+	"rad":     {1, Dimensionless, KindAngle, true}, // mrad; krad/s as shown for ω
 	"deg":     {math.Pi / 180, Dimensionless, KindAngle, false},
 	"°":       {math.Pi / 180, Dimensionless, KindAngle, false},
 	"%":       {0.01, Dimensionless, KindPlain, false},
@@ -148,8 +148,9 @@ func prefixable(d Dim) bool {
 	if d == DimPower {
 		return true
 	}
-	_, ok := dimNames[d]
-	return ok
+	n, ok := dimNames[d]
+	// "k1/A" would read as nonsense: a reciprocal takes an exponent
+	return ok && !strings.HasPrefix(n.sym, "1/")
 }
 
 // DimName names a dimension for messages: its unit symbol, or

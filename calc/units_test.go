@@ -40,6 +40,8 @@ func TestPrefixes(t *testing.T) {
 		{"1 kVA", 1e3, DimPower},
 		{"50 Hz", 50, DimFrequency},
 		{"314 rad/s", 314, DimAngularFrequency},
+		{"3.142 krad/s", 3142, DimAngularFrequency}, // as ω is shown
+		{"2 mrad", 2e-3, Dimensionless},
 		{"1.5e3 Ω", 1500, DimImpedance},
 		{".5 A", 0.5, DimCurrent},
 		{"5. V", 5, DimVoltage},
