@@ -154,8 +154,11 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		if err != nil {
 			return Quantity{}, err
 		}
-		if !a.Dim.IsDimensionless() || !a.IsReal() {
-			return Quantity{}, ev.errAt(n.Ang, fmt.Errorf("an angle must be a real plain number (degrees) or an angle, not %s", DimName(a.Dim, false)))
+		if !a.Dim.IsDimensionless() {
+			return Quantity{}, ev.errAt(n.Ang, fmt.Errorf("an angle must be a plain number (degrees) or an angle, not %s", DimName(a.Dim, false)))
+		}
+		if !a.IsReal() {
+			return Quantity{}, ev.errAt(n.Ang, fmt.Errorf("an angle must be real, not complex (write parentheses to add after ∠: (10∠30) + j4)"))
 		}
 		if !m.IsReal() {
 			return Quantity{}, ev.errAt(n.Mag, fmt.Errorf("the magnitude before ∠ must be real"))

@@ -2,7 +2,9 @@ package calc
 
 import (
 	"fmt"
+	"math"
 	"strconv"
+	"strings"
 	"unicode/utf8"
 )
 
@@ -167,6 +169,11 @@ func (p *Parser) sum() Expr {
 	x := p.parallel()
 	for p.Err() == nil && (p.IsOp("+") || p.IsOp("-")) {
 		op := p.Next()
+		if op.Text == "-" && p.tok.Tok == TokRect {
+			t := p.tok
+			p.Failf(t, "ambiguous: write − (%s) to subtract the complex number, or put spaces around its sign", t.Text)
+			return x
+		}
 		y := p.parallel()
 		distribute(x, y)
 		x = &Binary{span: spanOf(x, y), Op: op.Text, X: x, Y: y, OpCol: op.Col}
@@ -225,6 +232,16 @@ func (p *Parser) unary() Expr {
 		}
 		defer p.leave()
 		op := p.Next()
+		if op.Text == "-" && p.tok.Tok == TokRect {
+			// -3-j4 is the number −3 − j4: the sign belongs to the real part
+			t := p.Next()
+			e := p.literal(t)
+			if l, ok := e.(*Lit); ok {
+				l.Val = complex(-real(l.Val), imag(l.Val))
+				l.pos, l.col = op.Off, op.Col
+			}
+			return p.polarAfter(e)
+		}
 		x := p.unary()
 		_, end, _ := x.Span()
 		return &Unary{span: span{op.Off, end, op.Col}, Op: op.Text, X: x}
@@ -233,7 +250,11 @@ func (p *Parser) unary() Expr {
 }
 
 func (p *Parser) polar() Expr {
-	x := p.power()
+	return p.polarAfter(p.power())
+}
+
+// polarAfter reads an optional ∠angle after the magnitude x.
+func (p *Parser) polarAfter(x Expr) Expr {
 	if p.Err() != nil || !p.IsOp("∠") {
 		return x
 	}
@@ -301,7 +322,7 @@ func (p *Parser) power() Expr {
 func (p *Parser) primary() Expr {
 	t := p.tok
 	switch t.Tok {
-	case TokNumber, TokImag:
+	case TokNumber, TokImag, TokRect:
 		p.next()
 		return p.literal(t)
 	case TokIdent:
@@ -418,6 +439,18 @@ func (c *Call) finish(name, open Item) Expr {
 func (p *Parser) literal(t Item) Expr {
 	l := &Lit{span: span{t.Off, t.End, t.Col}, scale: 1}
 	text := t.Text
+	if t.Tok == TokRect {
+		re, im, ok := splitRect(text)
+		if !ok {
+			p.Failf(t, "malformed number %q", t.Text)
+			return l
+		}
+		l.Val = complex(re, im)
+		if math.IsInf(re, 0) || math.IsInf(im, 0) {
+			p.Failf(t, "number too large: %s", t.Text)
+		}
+		return p.unit(l)
+	}
 	if t.Tok == TokImag {
 		text = text[1:]
 		if len(text) > 0 && text[len(text)-1] == 'j' {
@@ -446,6 +479,40 @@ func (p *Parser) literal(t Item) Expr {
 	} else {
 		l.Val = complex(x, 0)
 	}
+	return p.unit(l)
+}
+
+// splitRect reads the two parts of a rectangular literal: 3+j4, 3-4j.
+func splitRect(text string) (re, im float64, ok bool) {
+	k := -1
+	for i := 1; i < len(text); i++ {
+		if (text[i] == '+' || text[i] == '-') && text[i-1] != 'e' && text[i-1] != 'E' {
+			k = i
+			break
+		}
+	}
+	if k < 0 {
+		return 0, 0, false
+	}
+	imText := strings.NewReplacer("j", "", "i", "").Replace(text[k+1:])
+	var err1, err2 error
+	re, err1 = strconv.ParseFloat(text[:k], 64)
+	im, err2 = strconv.ParseFloat(imText, 64)
+	if text[k] == '-' {
+		im = -im
+	}
+	if e, ok := err1.(*strconv.NumError); ok && e.Err == strconv.ErrRange {
+		err1 = nil
+	}
+	if e, ok := err2.(*strconv.NumError); ok && e.Err == strconv.ErrRange {
+		err2 = nil
+	}
+	return re, im, err1 == nil && err2 == nil
+}
+
+// unit reads the unit written after a number, if any.
+func (p *Parser) unit(l *Lit) Expr {
+	t := Item{Text: p.src[l.pos:l.end]}
 	if p.tok.Tok != TokIdent {
 		return l
 	}

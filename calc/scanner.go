@@ -15,6 +15,7 @@ const (
 	TokImag          // j4, 4j, i2.5, j (alone: the imaginary unit)
 	TokIdent         // a name, a unit word, a keyword; also ° and %
 	TokOp            // + - * / ^ ( ) , = ∠ || and their Unicode forms
+	TokRect          // 3+j4, 3-j4, 3+4j written without spaces: one complex number
 )
 
 // MaxLine is the longest statement argand reads, in bytes. Longer input is
@@ -124,6 +125,9 @@ func (s *Scanner) Scan() Item {
 			s.off += w
 			s.col++
 			return item(TokImag, "j"+text)
+		}
+		if s.rect() {
+			return item(TokRect, s.src[start:s.off])
 		}
 		return item(TokNumber, text)
 	case (r == 'j' || r == 'i') && (s.digitAt(s.off+1) || (s.byteAt(s.off+1) == '.' && s.digitAt(s.off+2))):
@@ -249,4 +253,42 @@ func (s *Scanner) number() {
 			}
 		}
 	}
+}
+
+// rect extends a number just scanned into a rectangular literal when a sign
+// and an imaginary part follow with no space between: 3+j4, 3-j4.5, 3+4j.
+// Written that way an engineer reads one complex number, so it binds as
+// one: 2*3+j4 is 2·(3+j4). With spaces, 3 + j4 is a sum as usual.
+func (s *Scanner) rect() bool {
+	c := s.byteAt(s.off)
+	if c != '+' && c != '-' {
+		return false
+	}
+	save := *s
+	s.off++
+	s.col++
+	if d := s.byteAt(s.off); (d == 'j' || d == 'i') && (s.digitAt(s.off+1) || s.byteAt(s.off+1) == '.' && s.digitAt(s.off+2)) {
+		s.off++
+		s.col++
+		s.number()
+		if !s.identPartAt(s.off) || !s.imagSuffixAt(s.off) {
+			return true
+		}
+	} else if s.digitAt(s.off) || d == '.' && s.digitAt(s.off+1) {
+		s.number()
+		if c, w := s.peekRune(s.off); (c == 'j' || c == 'i') && !s.identPartAt(s.off+w) {
+			s.off += w
+			s.col++
+			return true
+		}
+	}
+	*s = save
+	return false
+}
+
+// imagSuffixAt reports a j or i right after the digits of j4 (as in j4j),
+// which makes the text no rectangular literal.
+func (s *Scanner) imagSuffixAt(i int) bool {
+	c := s.byteAt(i)
+	return (c == 'j' || c == 'i') && !s.identPartAt(i+1)
 }
