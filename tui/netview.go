@@ -277,6 +277,9 @@ func (m *Model) netPane(w, h int) []string {
 	for len(out) < 2+listH {
 		out = append(out, "")
 	}
+	if n.sel >= 0 && n.sel < len(n.net.Elements) {
+		out = append(out, fit(m.tr(m.th.g.sel+" "+m.branchText(n.net.Elements[n.sel].Name)), w))
+	}
 	// the reduction step
 	title := "reduction"
 	var body []string
