@@ -47,8 +47,9 @@ numbers and units
   reading: 10 m is ten metres, 1 mS a millisiemens, 1 ms a millisecond.
   Units and prefixed units are reserved: no quantity can be named S, V or mS.
 complex values
-  3+j4 Ω      rectangular; the unit after the imaginary part applies to both
-  3-j4 kΩ     (and 3+4j, 3+i4 are the same forms)
+  3+j4 Ω      rectangular; the unit applies to both parts
+  3-j4 kΩ     (and 3+4j, 3+i4 are the same forms); written without spaces
+              it is one number: 2*3+j4 is 2·(3+j4); write x - (3-j4)
   230∠-30° V  polar; @ is the ASCII stand-in: 230@-30 V needs no shell quoting
   a bare angle is in degrees (or radians after: angles rad)
 operators, loosest first
