@@ -75,6 +75,9 @@ type Sheet struct {
 	fail   int
 	sweeps []*SweepResult
 	tols   map[string]float64 // relative tolerance of a named value
+	// autoNext is the next number to try for each letter of an automatic
+	// name, so naming stays linear in a long worksheet.
+	autoNext map[string]int
 }
 
 // New returns an empty worksheet at the default settings with every

@@ -94,6 +94,10 @@ func (s *Sheet) Clone() *Sheet {
 	}
 	c.steps = s.steps[:len(s.steps):len(s.steps)]
 	c.stmts = s.stmts[:len(s.stmts):len(s.stmts)]
+	c.autoNext = make(map[string]int, len(s.autoNext))
+	for k, v := range s.autoNext {
+		c.autoNext[k] = v
+	}
 	c.tols = make(map[string]float64, len(s.tols))
 	for k, v := range s.tols {
 		c.tols[k] = v
@@ -398,9 +402,13 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 	if q.Kind == calc.KindAngle {
 		letter = "θ"
 	}
-	for k := 1; ; k++ {
+	if s.autoNext == nil {
+		s.autoNext = map[string]int{}
+	}
+	for k := max(1, s.autoNext[letter]); ; k++ {
 		n := letter + strconv.Itoa(k)
 		if _, taken := s.byName[n]; !taken {
+			s.autoNext[letter] = k + 1
 			return n
 		}
 	}
