@@ -129,6 +129,9 @@ var builtins = [...]Func{
 			if err := needPlain("exp", a); err != nil {
 				return Quantity{}, err
 			}
+			if real(a.V) > maxExp {
+				return Quantity{}, errorf("overflow (result too large to represent)")
+			}
 			return Number(cmplx.Exp(a.V)).Check("exp")
 		})},
 	{Name: "ln", Args: "(z)", Doc: "natural logarithm (principal)", Formula: "ln z", Min: 1, Max: 1,

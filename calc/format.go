@@ -80,12 +80,7 @@ func engScale(x float64, digits int) (exp3, decimals int) {
 	if x == 0 {
 		return 0, digits - 1
 	}
-	e := int(math.Floor(math.Log10(x)))
-	// rounding to the shown digits can carry into the next decade (999.96)
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'e', digits-1, 64), 64)
-	if r >= math.Pow(10, float64(e+1)) {
-		e++
-	}
+	e := decExp(x, digits)
 	exp3 = int(math.Floor(float64(e) / 3))
 	exp3 *= 3
 	decimals = digits - 1 - (e - exp3)
@@ -95,11 +90,31 @@ func engScale(x float64, digits int) (exp3, decimals int) {
 	return exp3, decimals
 }
 
+// decExp returns the decimal exponent of x (≠ 0) rounded to the given
+// significant figures, so that 999.96 at 4 digits has exponent 3. It reads
+// the exponent from strconv's 'e' form, which is exact, rather than from
+// math.Log10, which is off for subnormal numbers (Log10(1e-320) ≈ −307.95).
+func decExp(x float64, digits int) int {
+	s := strconv.FormatFloat(x, 'e', digits-1, 64)
+	i := strings.LastIndexByte(s, 'e')
+	e, _ := strconv.Atoi(s[i+1:])
+	return e
+}
+
+// scale10 returns x/10^e, in two steps where 10^e alone would be subnormal
+// and lose digits.
+func scale10(x float64, e int) float64 {
+	if e < -290 {
+		return x * 1e300 / math.Pow(10, float64(e+300))
+	}
+	return x / math.Pow(10, float64(e))
+}
+
 var prefixFor = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}
 
 // fixed formats x/10^exp3 with the given decimals, never as "-0.000".
 func fixed(x float64, exp3, decimals int) string {
-	s := strconv.FormatFloat(x/math.Pow(10, float64(exp3)), 'f', decimals, 64)
+	s := strconv.FormatFloat(scale10(x, exp3), 'f', decimals, 64)
 	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
 		s = s[1:]
 	}
@@ -113,13 +128,9 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 	sym := UnitSymbol(d, k, f.ASCII)
 	if sym == "" && exp3 >= -3 && exp3 < 6 {
 		// plain numbers of everyday size read better without an exponent
-		e := int(math.Floor(math.Log10(m)))
-		if m == 0 {
-			e = 0
-		}
-		r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', f.digits()-1, 64), 64)
-		if m != 0 && r >= math.Pow(10, float64(e+1)) {
-			e++
+		e := 0
+		if m != 0 {
+			e = decExp(m, f.digits())
 		}
 		decimals = f.digits() - 1 - e
 		if decimals < 0 {
@@ -238,8 +249,7 @@ func sigFixed(x float64, digits int) string {
 	if a < 1e-3 {
 		return strconv.FormatFloat(x, 'e', digits-1, 64)
 	}
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', digits-1, 64), 64)
-	e := int(math.Floor(math.Log10(r)))
+	e := decExp(a, digits)
 	dec := digits - 1 - e
 	if dec < 0 {
 		dec = 0

@@ -203,9 +203,16 @@ func Pow(a, b Quantity) (Quantity, error) {
 		}
 		e := real(b.V)
 		switch {
-		case e == math.Trunc(e) && math.Abs(e) <= 60:
+		case e == math.Trunc(e):
+			// check the exponents in int: Dim.Pow works in int8 and would wrap
+			for _, x := range a.Dim {
+				if math.Abs(float64(x)*e) > 60 {
+					return Quantity{}, errorf("the power %g of %s is out of range: unit exponents are limited to ±60", e, DimName(a.Dim, false))
+				}
+			}
 			d = a.Dim.Pow(int(e))
-		case math.Abs(e) > 0 && math.Abs(1/e-math.Round(1/e)) < 1e-12 && math.Abs(1/e) <= 60:
+		case math.Abs(e) <= 0.5 && math.Abs(1/e-math.Round(1/e)) < 1e-12 && math.Abs(1/e) <= 60:
+			// a root 1/n with 2 ≤ |n| ≤ 60; a tiny e (1/n rounding to 0) fails the last test
 			n := int(math.Round(1 / e))
 			var ok bool
 			if n > 0 {
@@ -229,14 +236,26 @@ func Pow(a, b Quantity) (Quantity, error) {
 		}
 		return Quantity{}, errorf("division by zero (0 raised to a negative power)")
 	}
+	// |a^b| = exp(re(b)·ln|a| − im(b)·arg a): beyond the float64 range the
+	// result is an overflow, which the arithmetic would show as NaN
+	if lm := real(b.V)*math.Log(cmplx.Abs(a.V)) - imag(b.V)*cmplx.Phase(unsignZero(a.V)); lm > maxExp {
+		return Quantity{}, errorf("power: overflow (result too large to represent)")
+	}
 	var v complex128
 	if imag(b.V) == 0 && real(b.V) == math.Trunc(real(b.V)) && math.Abs(real(b.V)) <= 64 {
 		v = ipow(a.V, int(real(b.V)))
 	} else {
 		v = cmplx.Pow(unsignZero(a.V), b.V)
 	}
+	if !finite(v) {
+		// finite operands: a NaN here is Inf·0 inside an overflowing product
+		return Quantity{}, errorf("power: overflow (result too large to represent)")
+	}
 	return Quantity{V: v, Dim: d}.Check("power")
 }
+
+// maxExp is ln of the largest float64, about 709.78: e^x overflows above it.
+const maxExp = 709.782712893384
 
 // ipow computes integer powers by repeated squaring so that (3+j4)^2 is
 // exact rather than going through logarithms.

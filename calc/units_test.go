@@ -387,3 +387,49 @@ func TestNamesAndUnits(t *testing.T) {
 		}
 	}
 }
+
+// TestPowerLimits: powers that leave the float64 range or the range of
+// unit exponents are errors that say so, never NaN and never a panic.
+func TestPowerLimits(t *testing.T) {
+	tests := []struct{ src, msg string }{
+		{"2^10000", "overflow"},
+		{"2^1024", "overflow"},
+		{"10^309", "overflow"},
+		{"exp(710)", "overflow"},
+		{"e^710", "overflow"},
+		{"(1 A)^(2^100)", "out of range"}, // once a division by zero inside the root case
+		{"((1 V)^6)^43", "out of range"},  // int8 exponents would wrap to V²
+		{"(1 V)^100", "out of range"},
+		{"(1 V)^(1e-40)", "no whole unit"},
+		{"(1 V)^0.5", "no whole unit"},
+	}
+	for _, tt := range tests {
+		_, err := evalString(newTestEnv(), tt.src)
+		if err == nil || !strings.Contains(err.Msg, tt.msg) {
+			t.Errorf("%s: error %v, want %q", tt.src, err, tt.msg)
+		}
+	}
+	for _, src := range []string{"2^1023", "10^308", "e^709", "(4 Ω^2)^0.5", "(1 V)^60"} {
+		if _, err := evalString(newTestEnv(), src); err != nil {
+			t.Errorf("%s: %v", src, err)
+		}
+	}
+}
+
+// TestSubnormalFormat: math.Log10 is off for subnormal numbers, so the
+// exponent shown must come from elsewhere; 1e-320 is not "0.00e-309".
+func TestSubnormalFormat(t *testing.T) {
+	tests := []struct {
+		x    float64
+		want string
+	}{
+		{1e-320, "10.00e-321 V"},
+		{1e-310, "100.0e-312 V"},
+		{1e-300, "1.000e-300 V"},
+	}
+	for _, tt := range tests {
+		if got := (Format{}).Rect(Real(tt.x, DimVoltage)); got != tt.want {
+			t.Errorf("Rect(%g V) = %q, want %q", tt.x, got, tt.want)
+		}
+	}
+}
