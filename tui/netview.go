@@ -183,7 +183,7 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 		if !ok {
 			break
 		}
-		return m.copyCmd(e.Name+"'s values", m.branchText(e.Name))
+		return m.copyCmd(e.Name+"'s values", m.branchText(e.Name, true))
 	case key.Matches(k, km.NetClose):
 		m.mode = modeRows
 		m.note(false, "")
@@ -197,12 +197,16 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 }
 
 // branchText is an element's solved values as text.
-func (m *Model) branchText(name string) string {
+func (m *Model) branchText(name string, both bool) string {
 	f := m.format()
 	var parts []string
 	for _, x := range []string{"v", "i", "s"} {
 		if q, ok := m.s.sh.Lookup(m.net.name + "." + name + "." + x); ok {
-			parts = append(parts, strings.ToUpper(x)+" = "+f.Both(q, m.s.v.PolarFirst))
+			v := f.Polar(q)
+			if both {
+				v = f.Both(q, m.s.v.PolarFirst)
+			}
+			parts = append(parts, strings.ToUpper(x)+" = "+v)
 		}
 	}
 	return name + ": " + strings.Join(parts, "; ")
@@ -278,7 +282,7 @@ func (m *Model) netPane(w, h int) []string {
 		out = append(out, "")
 	}
 	if n.sel >= 0 && n.sel < len(n.net.Elements) {
-		out = append(out, fit(m.tr(m.th.g.sel+" "+m.branchText(n.net.Elements[n.sel].Name)), w))
+		out = append(out, fit(m.tr(m.th.g.sel+" "+m.branchText(n.net.Elements[n.sel].Name, false)), w))
 	}
 	// the reduction step
 	title := "reduction"
