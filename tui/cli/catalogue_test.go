@@ -238,3 +238,22 @@ func TestEmptyInput(t *testing.T) {
 		t.Errorf("ParseExpr(\"\") error %v, want empty input at col 1", err)
 	}
 }
+
+// TestLongLineNotCut: a line just within argand's limit (64 KiB, the size
+// at which a standard line scanner gives up) is read whole, and one beyond
+// it is an error naming its length; nothing is cut short silently.
+func TestLongLineNotCut(t *testing.T) {
+	n := calc.MaxLine - 20
+	long := "x_long = " + strings.Repeat("1+", n/2) + "1" // within the limit
+	var out, errb bytes.Buffer
+	code := Run(strings.NewReader(long+"\ncheck x_long is "+fmt.Sprint(n/2+1)+" within 0%\n"), "long", &out, &errb, Options{JSON: true})
+	if code != ExitOK {
+		t.Fatalf("exit %d: %s %s", code, errb.String(), out.String()[max(0, out.Len()-300):])
+	}
+	tooLong := "x = 1" + strings.Repeat(" ", calc.MaxLine) + "+1"
+	out.Reset()
+	code = Run(strings.NewReader("a_ok = 1\n"+tooLong+"\n"), "long", &out, &errb, Options{JSON: true})
+	if code != ExitBadInput || !strings.Contains(out.String(), "line too long: "+fmt.Sprint(len(tooLong))+" bytes") {
+		t.Errorf("exit %d: %.300s", code, out.String())
+	}
+}
