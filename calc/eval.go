@@ -139,7 +139,10 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 			e2 = fmt.Errorf("unknown operator %s", n.Op)
 		}
 		if e2 != nil {
-			if (n.Op == "+" || n.Op == "-") && isDimErr(e2) && (x.Dim.IsDimensionless() || y.Dim.IsDimensionless()) {
+			if yb, ok := n.Y.(*Binary); ok && yb.Op == "||" && (n.Op == "+" || n.Op == "-") && isDimErr(e2) {
+				// 3+j4 Ω || Z2 reads as 3 + (j4 Ω || Z2)
+				e2 = fmt.Errorf("%v (|| binds tighter than + and −: write (%s) || …)", e2, ev.text(&Binary{span: spanOf(n.X, yb.X)}))
+			} else if (n.Op == "+" || n.Op == "-") && isDimErr(e2) && (x.Dim.IsDimensionless() || y.Dim.IsDimensionless()) {
 				e2 = fmt.Errorf("%v (give both a unit, as in 3+j4 Ω written without spaces)", e2)
 			}
 			return Quantity{}, ev.errCol(n.OpCol, e2)

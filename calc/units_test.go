@@ -433,3 +433,12 @@ func TestSubnormalFormat(t *testing.T) {
 		}
 	}
 }
+
+// TestParallelPrecedenceHint: || binds tighter than + and −, so a spaced
+// "3 + j4 Ω || 10 Ω" adds a plain 3 to an impedance; the message says why.
+func TestParallelPrecedenceHint(t *testing.T) {
+	_, err := evalString(newTestEnv(), "3 + j4 Ω || 10 Ω")
+	if err == nil || !strings.Contains(err.Msg, "|| binds tighter") || !strings.Contains(err.Msg, "(3 + j4 Ω) ||") {
+		t.Errorf("error %v, want the precedence hint", err)
+	}
+}
