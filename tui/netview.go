@@ -72,11 +72,58 @@ func (m *Model) openNet(name string) {
 	m.note(false, fmt.Sprintf("network %s: → steps through its reduction, v i s take a branch value as a row", name))
 }
 
+// steps counts the steps shown: the reductions, then the work back to
+// every branch value, the powers and the balance.
 func (n *netView) steps() int {
 	if n.red == nil {
 		return 0
 	}
-	return len(n.red.Merges)
+	return len(n.red.Steps)
+}
+
+// merged counts the merges done by step k.
+func (n *netView) merged(k int) int {
+	c := 0
+	for _, mg := range n.red.Merges {
+		if mg.Step < k {
+			c++
+		}
+	}
+	return c
+}
+
+// hot returns the elements step k (1-based) works on: the parts a merge
+// combines, or the element or equivalent whose values a step of the work
+// back finds (its results are named like V(Ra) or I(Zeq1)).
+func (n *netView) hot(k int) map[string]bool {
+	out := map[string]bool{}
+	if n.red == nil || k < 1 || k > len(n.red.Steps) {
+		return out
+	}
+	eq := map[string][]string{}
+	for _, mg := range n.red.Merges {
+		eq[mg.Name] = mg.Elements
+		if mg.Step == k-1 {
+			for _, e := range mg.Elements {
+				out[e] = true
+			}
+			return out
+		}
+	}
+	for _, r := range n.red.Steps[k-1].Results {
+		name := r.Name
+		if i := strings.IndexByte(name, '('); i >= 0 && strings.HasSuffix(name, ")") {
+			name = name[i+1 : len(name)-1]
+		}
+		if els, ok := eq[name]; ok {
+			for _, e := range els {
+				out[e] = true
+			}
+		} else {
+			out[name] = true
+		}
+	}
+	return out
 }
 
 // within returns, for each element, the newest equivalent it has become
@@ -225,17 +272,16 @@ func (m *Model) netPane(w, h int) []string {
 	}
 	info := fmt.Sprintf("%s, reference %s, nodes %s", kind, n.net.Reference, strings.Join(n.nodes, " "))
 	out = append(out, m.th.section("network "+n.name, m.tr(info), w))
-	within := n.within(n.step)
+	within := map[string]string{}
 	var cur *reduce.Merge
 	if n.red != nil && n.step > 0 {
-		cur = &n.red.Merges[n.step-1]
-	}
-	hot := map[string]bool{}
-	if cur != nil {
-		for _, e := range cur.Elements {
-			hot[e] = true
+		done := n.merged(n.step)
+		within = n.within(done)
+		if done > 0 && n.red.Merges[done-1].Step == n.step-1 {
+			cur = &n.red.Merges[done-1]
 		}
 	}
+	hot := n.hot(n.step)
 	head := fmt.Sprintf("   %-7s %-9s %-8s %-14s %-18s %-18s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
 	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
 	// leave room for the reduction step below the element table
@@ -257,7 +303,7 @@ func (m *Model) netPane(w, h int) []string {
 		val := elementValue(f, e)
 		if eq := within[e.Name]; eq != "" {
 			val = "in " + eq
-			if hot[e.Name] {
+			if cur != nil && hot[e.Name] {
 				val = "→ " + eq
 			}
 		}
@@ -293,11 +339,24 @@ func (m *Model) netPane(w, h int) []string {
 		body = append(body, n.why, "The values above come from the nodal solution of the worksheet.")
 	case n.step == 0:
 		title = fmt.Sprintf("reduction: the network as drawn (0 of %d steps)", n.steps())
-		body = append(body, fmt.Sprintf("→ combines the first parts; the source sees %s when all %d steps are done.", f.Both(n.red.Z, false), n.steps()))
+		body = append(body, fmt.Sprintf("→ combines parts one step at a time (%d reductions), then works back to every branch.", len(n.red.Merges)),
+			"The source sees "+f.Both(n.red.Z, false)+".")
 	default:
-		title = fmt.Sprintf("reduction step %d of %d", n.step, n.steps())
-		st := n.red.Steps[cur.Step]
-		body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", m.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), m.th.g.hi))
+		st := n.red.Steps[n.step-1]
+		if cur != nil {
+			title = fmt.Sprintf("reduction step %d of %d", n.step, n.steps())
+			body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", m.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), m.th.g.hi))
+		} else {
+			title = fmt.Sprintf("working back, step %d of %d", n.step, n.steps())
+			var names []string
+			for x := range hot {
+				names = append(names, x)
+			}
+			sort.Strings(names)
+			if len(names) > 0 {
+				body = append(body, fmt.Sprintf("%s %s (marked %s above)", m.th.g.hi, strings.Join(names, ", "), m.th.g.hi))
+			}
+		}
 		body = append(body, strings.Split(strings.TrimRight(st.Text(f, m.s.v.PolarFirst), "\n"), "\n")[1:]...)
 	}
 	out = append(out, m.th.section(title, "", w))
