@@ -257,3 +257,18 @@ func TestLongLineNotCut(t *testing.T) {
 		t.Errorf("exit %d: %.300s", code, out.String())
 	}
 }
+
+// TestErrorOnEarlierLine: an error found at "end" but placed on the line
+// of its network block names that line and draws the caret under it.
+func TestErrorOnEarlierLine(t *testing.T) {
+	ws := "network B\nresistor A0 = 10 Ω from x to y\nend\n"
+	var out, errb bytes.Buffer
+	code := Run(strings.NewReader(ws), "n", &out, &errb, Options{})
+	if code != ExitBadInput {
+		t.Fatalf("exit %d", code)
+	}
+	lines := strings.Split(strings.TrimSpace(errb.String()), "\n")
+	if !strings.HasPrefix(lines[0], "error: n:1:1: network B") || len(lines) != 3 || lines[1] != "  network B" || lines[2] != "  ^^^^^^^" {
+		t.Errorf("stderr %q, want line 1 named with the caret under it", errb.String())
+	}
+}
