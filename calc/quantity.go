@@ -92,10 +92,27 @@ func scaleKind(k Kind, factor complex128) Kind {
 	return k
 }
 
+// quadrature refuses a sum of a real power in W and a reactive power in
+// var held as plain reals: they are at right angles, S = P + jQ (IEEE Std
+// 1459-2010), so adding them as numbers (800 W + 600 var = 1400) would be
+// a silent error.
+func quadrature(a, b Quantity, op string) error {
+	if !(a.Kind == KindActive && b.Kind == KindReactive || a.Kind == KindReactive && b.Kind == KindActive) {
+		return nil
+	}
+	if !a.IsReal() || !b.IsReal() {
+		return nil
+	}
+	return errorf("cannot %s W and var as plain numbers: real and reactive power are at right angles; write P + j·Q (S = P + jQ)", op)
+}
+
 // Add returns a+b; both must have the same dimension.
 func Add(a, b Quantity) (Quantity, error) {
 	if a.Dim != b.Dim {
 		return Quantity{}, &DimError{Op: "+", A: a.Dim, B: b.Dim}
+	}
+	if err := quadrature(a, b, "add"); err != nil {
+		return Quantity{}, err
 	}
 	return Quantity{V: a.V + b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("addition")
 }
@@ -104,6 +121,9 @@ func Add(a, b Quantity) (Quantity, error) {
 func Sub(a, b Quantity) (Quantity, error) {
 	if a.Dim != b.Dim {
 		return Quantity{}, &DimError{Op: "−", A: a.Dim, B: b.Dim}
+	}
+	if err := quadrature(a, b, "subtract"); err != nil {
+		return Quantity{}, err
 	}
 	return Quantity{V: a.V - b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("subtraction")
 }

@@ -442,3 +442,23 @@ func TestParallelPrecedenceHint(t *testing.T) {
 		t.Errorf("error %v, want the precedence hint", err)
 	}
 }
+
+// TestPowerQuadrature: real and reactive power are at right angles,
+// S = P + jQ and |S|² = P² + Q² (IEEE Std 1459-2010). Adding 800 W and
+// 600 var as plain numbers would give 1400 silently; it is an error that
+// shows the right form, which gives 1000 VA ∠36.87°.
+func TestPowerQuadrature(t *testing.T) {
+	for _, src := range []string{"800 W + 600 var", "800 W - 600 var", "600 var + 800 W"} {
+		_, err := evalString(newTestEnv(), src)
+		if err == nil || !strings.Contains(err.Msg, "P + j·Q") {
+			t.Errorf("%s: error %v, want the P + jQ hint", src, err)
+		}
+	}
+	q := mustEval(t, "800 W + j*600 var")
+	if q.Mag() != 1000 || math.Abs(Deg(q.V)-math.Atan2(600, 800)*180/math.Pi) > 1e-12 || q.Kind != KindApparent {
+		t.Errorf("800 W + j·600 var = %v kind %v, want 1000 VA ∠36.87°", q.V, q.Kind)
+	}
+	if q := mustEval(t, "100 var + 50 var"); q.V != 150 || q.Kind != KindReactive {
+		t.Errorf("100 var + 50 var = %v kind %v", q.V, q.Kind)
+	}
+}
