@@ -165,15 +165,8 @@ func (s *Sheet) dropElements(names []string) {
 	drop := map[string]bool{}
 	for _, n := range names {
 		drop[n] = true
-		delete(s.byName, n)
 	}
-	keep := s.defs[:0]
-	for _, d := range s.defs {
-		if !drop[d.name] {
-			keep = append(keep, d)
-		}
-	}
-	s.defs = keep
+	s.dropNames(func(d *def) bool { return drop[d.name] })
 }
 
 // build makes the reduce.Network of a worksheet network at the working

@@ -187,6 +187,7 @@ var reservedWords = map[string]string{
 	"inductor": "a statement keyword", "capacitor": "a statement keyword", "impedance": "a statement keyword",
 	"thevenin": "a statement keyword", "sweep": "a statement keyword", "tolerance": "a statement keyword",
 	"spread": "a statement keyword", "deltay": "a statement keyword",
+	"forget": "a statement keyword", "rename": "a statement keyword",
 	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",

@@ -159,6 +159,10 @@ func (s *Sheet) exec(src string, n int) error {
 			return s.stmtThevenin(p)
 		case "deltay":
 			return s.stmtDeltaY(p)
+		case "forget":
+			return s.stmtForget(p)
+		case "rename":
+			return s.stmtRename(p)
 		case "sweep":
 			return s.stmtSweep(p)
 		case "tolerance":
@@ -400,7 +404,7 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 		letter = "t"
 	}
 	if q.Kind == calc.KindAngle {
-		letter = "θ"
+		letter = "ang" // typed on any keyboard, ASCII mode included
 	}
 	if s.autoNext == nil {
 		s.autoNext = map[string]int{}
