@@ -368,7 +368,7 @@ func (m *Model) finish(lines []string) string {
 	}
 	out := b.String()
 	if m.opt.ASCII {
-		out = asciiOnly(strings.ReplaceAll(out, "…", "~"))
+		out = calc.ASCIIOnly(strings.ReplaceAll(out, "…", "~"))
 	}
 	return out
 }
@@ -387,7 +387,7 @@ func (m *Model) tooSmall() string {
 	}
 	s := strings.Join(out, "\n")
 	if m.opt.ASCII {
-		s = asciiOnly(calc.ASCIIText(s))
+		s = calc.ASCIIOnly(calc.ASCIIText(s))
 	}
 	return s
 }

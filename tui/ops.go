@@ -333,18 +333,31 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 			m.note(true, "no row to put away")
 			break
 		}
+		next := ""
+		if i := slices.Index(rows, n); i+1 < len(rows) {
+			next = rows[i+1]
+		} else if i > 0 {
+			next = rows[i-1]
+		}
+		// a value nothing depends on leaves the worksheet; one that others
+		// read is only put away from the table, since they still need it
+		if m.s.sh.Validate("forget "+n) == nil {
+			if m.run("delete "+n, "forget "+n) {
+				m.s.v.Selected = next
+				m.s.tidy()
+				m.s.save()
+				m.note(false, n+" deleted (u brings it back)")
+			}
+			break
+		}
 		if err := m.s.change(func(v *view) {
 			v.Hidden = append(v.Hidden, n)
-			if i := slices.Index(rows, n); i+1 < len(rows) {
-				v.Selected = rows[i+1]
-			} else if i > 0 {
-				v.Selected = rows[i-1]
-			}
+			v.Selected = next
 		}); err != nil {
 			m.note(true, err.Error())
 			break
 		}
-		m.note(false, n+" put away (its value stays in the worksheet for what depends on it; u brings it back)")
+		m.note(false, n+" put away: other values depend on it, so it stays in the worksheet (u brings it back)")
 	case key.Matches(k, km.Raise), key.Matches(k, km.Lower):
 		m.reorder(key.Matches(k, km.Raise))
 	case key.Matches(k, km.Freq):
@@ -495,27 +508,18 @@ func (m *Model) askRename() {
 		m.note(true, "no row to rename")
 		return
 	}
-	m.startAsk("rename "+n+": the new name takes its place (the worksheet records NEW = "+n+")", []question{{label: "new name"}}, func(a []string) {
+	m.startAsk("rename "+n+" (the worksheet records: rename "+n+" to NEW)", []question{{label: "new name"}}, func(a []string) {
 		nn := strings.TrimSpace(a[0])
 		if nn == "" || nn == n {
 			m.note(false, "not renamed")
 			return
 		}
-		if why := m.s.sh.Reserved(nn); why != "" {
-			m.note(true, fmt.Sprintf("%q is reserved (%s)", nn, why))
-			return
-		}
-		if _, taken := m.s.sh.Lookup(nn); taken {
-			m.note(true, nn+" is already taken")
-			return
-		}
 		rows := m.s.rows()
 		pos := slices.Index(rows, n)
-		if !m.run("rename "+n+" to "+nn, nn+" = "+n) {
+		if !m.run("rename "+n+" to "+nn, "rename "+n+" to "+nn) {
 			return
 		}
-		// the same change: the old row goes, the new one takes its place
-		m.s.v.Hidden = append(m.s.v.Hidden, n)
+		// the same row under its new name, in the same place
 		m.s.v.Order = slices.DeleteFunc(m.s.v.Order, func(x string) bool { return x == nn })
 		at := slices.Index(m.s.v.Order, n)
 		if at < 0 {

@@ -105,30 +105,6 @@ func pad(s string, width int) string {
 var asciiReplacer = strings.NewReplacer("›", ">", "↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
 	"…", "~", "…", "~", "×", "x", "├", "+", "└", "+")
 
-// asciiOnly makes sure a frame holds only ASCII: every character left
-// above 0x7f after transliteration becomes '?' so widths stay as drawn.
-func asciiOnly(s string) string {
-	ascii := true
-	for i := 0; i < len(s); i++ {
-		if s[i] >= 0x80 {
-			ascii = false
-			break
-		}
-	}
-	if ascii {
-		return s
-	}
-	var b strings.Builder
-	for _, r := range s {
-		if r < 0x80 {
-			b.WriteRune(r)
-		} else {
-			b.WriteByte('?')
-		}
-	}
-	return b.String()
-}
-
 // tr writes text for the screen: in ASCII mode every symbol argand uses is
 // spelled in ASCII before widths are measured.
 func (m *Model) tr(s string) string {
