@@ -287,6 +287,15 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 		}
 		items = append(items, sketch.Item{Label: n, V: q.V, Unit: calc.UnitSymbol(q.Dim, q.Kind, m.opt.ASCII)})
 	}
+	// one complex power on its own is drawn as its power triangle
+	if len(names) == 1 {
+		if q, ok := m.s.sh.Lookup(names[0]); ok && q.Dim == calc.DimPower && q.Kind == calc.KindApparent && q.V != 0 {
+			out := []string{m.th.section("power triangle", m.tr(names[0]+": P, Q and S"), w)}
+			out = append(out, sketch.Triangle(real(q.V), imag(q.V), w, h-1, sketch.Options{ASCII: m.opt.ASCII})...)
+			p.key, p.lines = k, out
+			return out
+		}
+	}
 	out := []string{m.th.section("sketch", m.tr(what), w)}
 	if len(items) == 0 {
 		out = append(out, m.th.dim.Render("nothing to draw"))
