@@ -496,12 +496,8 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	s.record(r.Steps...)
 	s.record(st)
 	if existed {
-		rs, err := s.propagate(map[string]bool{name: true}, name+" redefined")
-		if err != nil {
-			return lineErr(s.line, 1, 1, "%v", err)
-		}
-		if rs != nil {
-			s.record(*rs)
+		if err := s.reevaluate(map[string]bool{name: true}, name+" redefined"); err != nil {
+			return err
 		}
 	}
 	return nil
@@ -728,13 +724,22 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 		net.elems = append(net.elems, d.name)
 	}
 	if existed {
-		rs, err := s.propagate(map[string]bool{d.name: true}, d.name+" changed")
-		if err != nil {
-			return lineErr(s.line, 1, 1, "%v", err)
+		if err := s.reevaluate(map[string]bool{d.name: true}, d.name+" changed"); err != nil {
+			return err
 		}
-		if rs != nil {
-			s.record(*rs)
-		}
+	}
+	return nil
+}
+
+// reevaluate re-evaluates what depends on the changed names and records
+// the one step that lists what changed.
+func (s *Sheet) reevaluate(changed map[string]bool, reason string) error {
+	rs, err := s.propagate(changed, reason)
+	if err != nil {
+		return lineErr(s.line, 1, 1, "%v", err)
+	}
+	if rs != nil {
+		s.record(*rs)
 	}
 	return nil
 }
@@ -757,12 +762,8 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 	*d.elem = el
 	d.value = z
 	s.record(calc.Step{Kind: "element", Source: p.Source(), Rule: d.elem.kind.String() + " value changed", Results: []calc.Operand{{Name: d.name, Value: z}}})
-	rs, err := s.propagate(map[string]bool{d.name: true}, d.name+" changed")
-	if err != nil {
-		return lineErr(s.line, 1, 1, "%v", err)
-	}
-	if rs != nil {
-		s.record(*rs)
+	if err := s.reevaluate(map[string]bool{d.name: true}, d.name+" changed"); err != nil {
+		return err
 	}
 	return nil
 }
