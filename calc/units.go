@@ -162,3 +162,27 @@ func DimName(d Dim, ascii bool) string {
 	s := UnitSymbol(d, KindPlain, ascii)
 	return s
 }
+
+// DimWord names the physical quantity of a dimension for messages, such
+// as "an impedance (Ω)", falling back to its unit symbol.
+func DimWord(d Dim) string {
+	switch d {
+	case DimImpedance:
+		return "an impedance (Ω)"
+	case DimAdmittance:
+		return "an admittance (S)"
+	case DimVoltage:
+		return "a voltage (V)"
+	case DimCurrent:
+		return "a current (A)"
+	case DimPower:
+		return "a power (W, var or VA)"
+	case DimInductance:
+		return "an inductance (H)"
+	case DimCapacitance:
+		return "a capacitance (F)"
+	case DimFrequency:
+		return "a frequency (Hz)"
+	}
+	return DimName(d, false)
+}

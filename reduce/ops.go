@@ -52,23 +52,6 @@ func power(v complex128, op string) (calc.Quantity, error) {
 	return calc.Quantity{V: v, Dim: calc.DimPower, Kind: calc.KindApparent}.Check(op)
 }
 
-// dimWord names the physical quantity of a dimension for messages.
-func dimWord(d calc.Dim) string {
-	switch d {
-	case calc.DimImpedance:
-		return "an impedance (Ω)"
-	case calc.DimAdmittance:
-		return "an admittance (S)"
-	case calc.DimVoltage:
-		return "a voltage (V)"
-	case calc.DimCurrent:
-		return "a current (A)"
-	case calc.DimPower:
-		return "a power (VA)"
-	}
-	return calc.DimName(d, false)
-}
-
 // named returns the operands with empty names filled in as prefix1,
 // prefix2, ... by position.
 func named(ops []calc.Operand, prefix string) []calc.Operand {
@@ -92,7 +75,7 @@ func nameOr(o calc.Operand, def string) calc.Operand {
 // wantDim returns an error unless o has dimension d.
 func wantDim(op string, o calc.Operand, d calc.Dim) error {
 	if o.Value.Dim != d {
-		return fmt.Errorf("%s: %s is %s, but %s is needed", op, o.Name, dimWord(o.Value.Dim), dimWord(d))
+		return fmt.Errorf("%s: %s is %s, but %s is needed", op, o.Name, calc.DimWord(o.Value.Dim), calc.DimWord(d))
 	}
 	return nil
 }
@@ -105,11 +88,11 @@ func sameDim(op string, ops []calc.Operand) (calc.Dim, error) {
 	}
 	d := ops[0].Value.Dim
 	if d != calc.DimImpedance && d != calc.DimAdmittance {
-		return d, fmt.Errorf("%s: %s is %s, but an impedance (Ω) or an admittance (S) is needed", op, ops[0].Name, dimWord(d))
+		return d, fmt.Errorf("%s: %s is %s, but an impedance (Ω) or an admittance (S) is needed", op, ops[0].Name, calc.DimWord(d))
 	}
 	for _, o := range ops[1:] {
 		if o.Value.Dim != d {
-			return d, fmt.Errorf("%s: %s is %s but %s is %s; give all of them in Ω or all in S", op, ops[0].Name, dimWord(d), o.Name, dimWord(o.Value.Dim))
+			return d, fmt.Errorf("%s: %s is %s but %s is %s; give all of them in Ω or all in S", op, ops[0].Name, calc.DimWord(d), o.Name, calc.DimWord(o.Value.Dim))
 		}
 	}
 	return d, nil
@@ -534,7 +517,7 @@ func TheveninToNorton(vth, zth calc.Operand) (Equivalent, []calc.Step, error) {
 		}
 		z, y = 1/zth.Value.V, zth.Value.V
 	default:
-		return Equivalent{}, nil, fmt.Errorf("Norton: %s is %s, but an impedance (Ω) or an admittance (S) is needed", zth.Name, dimWord(zth.Value.Dim))
+		return Equivalent{}, nil, fmt.Errorf("Norton: %s is %s, but an impedance (Ω) or an admittance (S) is needed", zth.Name, calc.DimWord(zth.Value.Dim))
 	}
 	in, err := checked(vth.Value.V*y, calc.DimCurrent, op)
 	if err != nil {
@@ -585,7 +568,7 @@ func NortonToThevenin(in, y calc.Operand) (Equivalent, []calc.Step, error) {
 		}
 		formula = "V_th = " + in.Name + "·" + y.Name + ", Z_th = " + y.Name
 	default:
-		return Equivalent{}, nil, fmt.Errorf("Thevenin: %s is %s, but an admittance (S) or an impedance (Ω) is needed", y.Name, dimWord(y.Value.Dim))
+		return Equivalent{}, nil, fmt.Errorf("Thevenin: %s is %s, but an admittance (S) or an impedance (Ω) is needed", y.Name, calc.DimWord(y.Value.Dim))
 	}
 	v, err := checked(in.Value.V*z, calc.DimVoltage, op)
 	if err != nil {

@@ -26,7 +26,7 @@ func convert(x calc.Quantity, conn Connection, seq Sequence, toLine bool) (calc.
 		return calc.Quantity{}, nil, err
 	}
 	if x.Dim != calc.DimVoltage && x.Dim != calc.DimCurrent {
-		return calc.Quantity{}, nil, fmt.Errorf("line and phase conversion takes a voltage or a current, not %s", dimWord(x.Dim))
+		return calc.Quantity{}, nil, fmt.Errorf("line and phase conversion takes a voltage or a current, not %s", calc.DimWord(x.Dim))
 	}
 	if err := checkAll("line/phase conversion", x); err != nil {
 		return calc.Quantity{}, nil, err

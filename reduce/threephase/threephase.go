@@ -175,26 +175,12 @@ func checkAll(what string, qs ...calc.Quantity) error {
 
 func needDim(q calc.Quantity, d calc.Dim, what string) error {
 	if q.Dim != d {
-		return fmt.Errorf("%s must be %s, not %s", what, dimWord(d), dimWord(q.Dim))
+		return fmt.Errorf("%s must be %s, not %s", what, calc.DimWord(d), calc.DimWord(q.Dim))
 	}
 	if _, err := q.Check(what); err != nil {
 		return err
 	}
 	return nil
-}
-
-func dimWord(d calc.Dim) string {
-	switch d {
-	case calc.DimVoltage:
-		return "a voltage (V)"
-	case calc.DimCurrent:
-		return "a current (A)"
-	case calc.DimImpedance:
-		return "an impedance (Ω)"
-	case calc.DimPower:
-		return "a power (W)"
-	}
-	return calc.DimName(d, false)
 }
 
 // errShort is returned when a zero impedance shorts the supply.
