@@ -350,18 +350,29 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 			if !hit || changed[d.name] && d.owner == "" && pass == 0 && d.expr == nil {
 				continue
 			}
-			old := d.value
-			nv, err := s.reeval(d)
+			nv, extra, err := s.reeval(d)
 			if err != nil {
-				return nil, fmt.Errorf("while re-evaluating %s (line %d): %v", d.name, d.line, err)
+				return nil, fmt.Errorf("while re-evaluating %s (line %d): %w", d.name, d.line, err)
 			}
-			if nv.V != old.V || nv.Dim != old.Dim {
+			note := func(d *def, nv calc.Quantity) {
+				old := d.value
+				if nv.V == old.V && nv.Dim == old.Dim {
+					return
+				}
 				d.value = nv
 				if !changed[d.name] {
 					changed[d.name] = true
 					more = true
 					step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
 					step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
+				}
+			}
+			note(d, nv)
+			// the NAME.key results of a function follow their owner, and
+			// what reads them follows in turn
+			for _, x := range extra {
+				if e, ok := s.byName[d.name+"."+x.Name]; ok {
+					note(e, x.Value)
 				}
 			}
 		}
@@ -384,37 +395,23 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 
 // reeval computes a definition's value again from its expression or
 // element value.
-func (s *Sheet) reeval(d *def) (calc.Quantity, error) {
+func (s *Sheet) reeval(d *def) (calc.Quantity, []calc.Operand, error) {
 	if d.elem != nil {
-		return s.elementValue(d.elem)
+		q, err := s.elementValue(d.elem)
+		return q, nil, err
 	}
 	if d.recalc != nil {
-		v, extra, err := d.recalc()
-		if err != nil {
-			return calc.Quantity{}, err
-		}
-		for _, x := range extra {
-			if e, ok := s.byName[d.name+"."+x.Name]; ok {
-				e.value = x.Value
-			}
-		}
-		return v, nil
+		return d.recalc()
 	}
 	if d.owner != "" {
-		return d.value, nil
+		return d.value, nil, nil
 	}
 	ev := s.evaluator(d.src, d.line)
 	r, err := ev.Eval(d.expr)
 	if err != nil {
-		return calc.Quantity{}, err
+		return calc.Quantity{}, nil, err
 	}
-	// extras of a function result follow their owner
-	for _, x := range r.Extra {
-		if e, ok := s.byName[d.name+"."+x.Name]; ok {
-			e.value = x.Value
-		}
-	}
-	return r.Value, nil
+	return r.Value, r.Extra, nil
 }
 
 // elementValue is the quantity an element name stands for: its impedance
