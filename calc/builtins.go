@@ -176,7 +176,7 @@ var builtins = [...]Func{
 			if err := needDim("omega", a, DimFrequency, "a frequency"); err != nil {
 				return Quantity{}, err
 			}
-			return Quantity{V: 2 * math.Pi * a.V, Dim: DimAngularFrequency}.Check("omega")
+			return Quantity{V: 2 * math.Pi * a.V, Dim: DimAngularFrequency, Kind: KindAngle}.Check("omega")
 		})},
 	{Name: "zr", Args: "(R)", Doc: "impedance of a resistor", Formula: "Z = R", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {

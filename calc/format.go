@@ -139,7 +139,7 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 		return 0, decimals, "", ""
 	}
 	p, ok := prefixFor[exp3]
-	if ok && sym != "" && prefixable(d) {
+	if ok && sym != "" && prefixable(d) && !strings.HasPrefix(sym, "/") {
 		if p == "µ" && f.ASCII {
 			p = "u"
 		}
@@ -157,7 +157,7 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 // Rect formats q in rectangular form, both parts to one prefix chosen from
 // the magnitude: "3.000 + j4.000 Ω".
 func (f Format) Rect(q Quantity) string {
-	if q.Kind == KindAngle && q.IsReal() {
+	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() {
 		return f.AngleValue(real(q.V))
 	}
 	re, im := cleanParts(q.V)
@@ -189,7 +189,7 @@ func (f Format) Rect(q Quantity) string {
 
 // Polar formats q as magnitude and angle: "5.000 Ω ∠53.13°".
 func (f Format) Polar(q Quantity) string {
-	if q.Kind == KindAngle && q.IsReal() {
+	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() {
 		return f.AngleValue(real(q.V))
 	}
 	m := cmplx.Abs(q.V)
@@ -231,7 +231,17 @@ func (f Format) angle(deg float64) string {
 }
 
 // AngleValue formats an angle held in radians.
+//
+// An angle of more than half a turn either way (2π, 540°) is a count of
+// turns rather than a direction: it is shown in radians as it is, since
+// reducing it to (−180°, 180°] would hide the turns.
 func (f Format) AngleValue(rad float64) string {
+	if rad > math.Pi || rad <= -math.Pi {
+		if rad == -math.Pi {
+			return f.angle(180)
+		}
+		return sigFixed(rad, f.digits()) + " rad"
+	}
 	return f.angle(rad * 180 / math.Pi)
 }
 
@@ -265,7 +275,7 @@ func sigFixed(x float64, digits int) string {
 // first when polarFirst is set; a real quantity prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Kind == KindAngle && q.IsReal() || !phasorDim(q.Dim) && q.IsReal() ||
+	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() || !phasorDim(q.Dim) && q.IsReal() ||
 		(q.Kind == KindActive || q.Kind == KindReactive) && q.IsReal() {
 		return r
 	}

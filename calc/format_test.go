@@ -38,8 +38,9 @@ func TestFormatEngineering(t *testing.T) {
 		{Number(2), "2.000", "2.000 ∠0°"},
 		{Real(0, DimVoltage), "0.000 V", "0.000 V ∠0°"},
 		{Number(0), "0.000", "0.000 ∠0°"},
-		{Real(2*math.Pi*500, DimAngularFrequency), "3.142 krad/s", "3.142 krad/s ∠0°"},
-		{Real(1e-3, Dim{BaseAmpere: -1}), "1.000e-3 1/A", "1.000e-3 1/A ∠0°"}, // no prefix on a reciprocal
+		{Quantity{V: 2 * math.Pi * 500, Dim: DimAngularFrequency, Kind: KindAngle}, "3.142 krad/s", "3.142 krad/s ∠0°"},
+		{Real(2000, DimAngularFrequency), "2.000e3 /s", "2.000e3 /s ∠0°"},   // a rate that is not angular
+		{Real(1e-3, Dim{BaseAmpere: -1}), "1.000e-3 /A", "1.000e-3 /A ∠0°"}, // no prefix on a reciprocal
 	}
 	for _, tt := range tests {
 		if got := f.Rect(tt.q); got != tt.rect {

@@ -513,6 +513,19 @@ func splitRect(text string) (re, im float64, ok bool) {
 // unit reads the unit written after a number, if any.
 func (p *Parser) unit(l *Lit) Expr {
 	t := Item{Text: p.src[l.pos:l.end]}
+	if p.IsOp("/") {
+		// "50 /s": a unit word after a slash is a unit, since no name can
+		// be a unit word; this is how a rate per second is written back
+		sc := *p.s
+		nt := sc.Scan()
+		if u, ok := lookupUnit(nt.Text); ok && nt.Tok == TokIdent && !nt.Space {
+			p.next()
+			p.next()
+			l.hasUnit, l.Unit, l.scale, l.dim, l.kind = true, "/"+nt.Text, 1/u.scale, u.dim.Pow(-1), KindPlain
+			l.end = nt.End
+			return l
+		}
+	}
 	if p.tok.Tok != TokIdent {
 		return l
 	}
@@ -553,12 +566,11 @@ func (p *Parser) unit(l *Lit) Expr {
 			l.scale *= u2.scale
 			l.dim = l.dim.Mul(u2.dim)
 		}
-		if l.kind != u2.kind || save.Text == "/" {
-			if l.kind == KindAngle && u2.kind == KindPlain {
-				l.kind = KindPlain // rad/s is a rate, not an angle
-			} else {
-				l.kind = KindPlain
-			}
+		switch {
+		case l.kind == KindAngle && save.Text == "/" && u2.kind == KindPlain:
+			// rad/s is an angular rate: it stays marked as angular
+		case l.kind != u2.kind || save.Text == "/":
+			l.kind = KindPlain
 		}
 		l.Unit += save.Text + nt.Text
 		l.end = nt.End

@@ -17,6 +17,11 @@ const (
 	KindReactive      // reactive power, var
 	KindApparent      // apparent or complex power, VA
 	KindAngle         // a plane angle held in radians
+	// KindTurn marks a product of an angle and a quantity that counts no
+	// cycles, such as 2π·R·C: the angle is per cycle, so the product is
+	// per cycle too (2π·R·C is a period) and 1/(2π·R·C) is in Hz.
+	// Shown as a plain value.
+	KindTurn
 )
 
 // Quantity is a complex value with a physical dimension. Phasors,
@@ -71,7 +76,8 @@ func sumKind(a, b Kind) Kind {
 	if a == b {
 		return a
 	}
-	if (a == KindAngle || a == KindPlain) && (b == KindAngle || b == KindPlain) {
+	plain := func(k Kind) bool { return k == KindAngle || k == KindPlain || k == KindTurn }
+	if plain(a) && plain(b) {
 		return KindPlain
 	}
 	return KindApparent
@@ -130,6 +136,12 @@ func Sub(a, b Quantity) (Quantity, error) {
 
 // Mul returns a·b.
 func Mul(a, b Quantity) (Quantity, error) {
+	if r, ok := turns(a, b); ok {
+		return r.Check("multiplication")
+	}
+	if r, ok := turns(b, a); ok {
+		return r.Check("multiplication")
+	}
 	if err := cycleMix(a.Dim, b.Dim, "×"); err != nil {
 		return Quantity{}, err
 	}
@@ -138,10 +150,47 @@ func Mul(a, b Quantity) (Quantity, error) {
 	return r.Check("multiplication")
 }
 
+// perCycle reports a factor that counts per cycle: an angle (2π is one
+// turn, in rad per cycle) or a product already marked KindTurn.
+func perCycle(q Quantity) bool {
+	return q.IsReal() && (q.Kind == KindTurn || q.Kind == KindAngle && q.Dim.IsDimensionless())
+}
+
+// turns multiplies a per-cycle factor (see perCycle) by x. Against a
+// quantity that counts cycles the cycle goes and what is left is angular:
+// 2π·f in Hz is ω in rad/s, 360°·f·Δt is a phase angle. Against anything
+// else the product stays per cycle (KindTurn), so that 2π·R·C is a period
+// and its reciprocal a frequency in Hz.
+func turns(angle, x Quantity) (Quantity, bool) {
+	if !perCycle(angle) || x.Kind == KindAngle || x.Kind == KindTurn {
+		return Quantity{}, false
+	}
+	d := angle.Dim.Mul(x.Dim)
+	switch {
+	case x.Dim[BaseCycle] > 0:
+		d[BaseCycle]--
+		k := KindPlain
+		if d.IsDimensionless() || d == DimAngularFrequency {
+			k = KindAngle
+		}
+		return Quantity{V: angle.V * x.V, Dim: d, Kind: k}, true
+	case x.Dim[BaseCycle] == 0 && !x.Dim.IsDimensionless():
+		return Quantity{V: angle.V * x.V, Dim: d, Kind: KindTurn}, true
+	}
+	return Quantity{}, false
+}
+
 // Div returns a/b. Division by an exact zero is an error.
 func Div(a, b Quantity) (Quantity, error) {
 	if b.V == 0 {
 		return Quantity{}, errorf("division by zero")
+	}
+	// over a per-cycle factor cycles are counted again: ω/2π = f, and
+	// 1/(2π·R·C) = 1/(a period) is a frequency in Hz
+	if perCycle(b) && a.Kind != KindTurn && (a.Kind == KindAngle && !a.Dim.IsDimensionless() || b.Kind == KindTurn && b.Dim[BaseSecond] > 0) {
+		d := a.Dim.Div(b.Dim)
+		d[BaseCycle]++
+		return Quantity{V: a.V / b.V, Dim: d}.Check("division")
 	}
 	if err := cycleMix(a.Dim, b.Dim.Pow(-1), "÷"); err != nil {
 		return Quantity{}, err
@@ -158,6 +207,8 @@ func Div(a, b Quantity) (Quantity, error) {
 
 func productKind(a, b Quantity, d Dim) Kind {
 	switch {
+	case (a.Kind == KindAngle || b.Kind == KindAngle) && d.IsDimensionless() && a.Kind != b.Kind && imag(a.V) == 0 && imag(b.V) == 0:
+		return KindAngle // ω·t is an angle
 	case a.Dim.IsDimensionless() && a.Kind != KindAngle:
 		return scaleKind(b.Kind, a.V)
 	case b.Dim.IsDimensionless() && b.Kind != KindAngle:
@@ -206,7 +257,12 @@ func Recip(a Quantity) (Quantity, error) {
 	if a.V == 0 {
 		return Quantity{}, errorf("division by zero (reciprocal of 0)")
 	}
-	return Quantity{V: 1 / a.V, Dim: a.Dim.Pow(-1)}.Check("reciprocal")
+	r, err := Div(Number(1), a)
+	if err != nil {
+		return Quantity{}, err
+	}
+	r.Kind = KindPlain
+	return r, nil
 }
 
 // Pow returns a^b for a dimensionless exponent b, using the principal

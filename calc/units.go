@@ -112,8 +112,8 @@ var dimNames = map[Dim]unitName{
 	{BaseVolt: 1, BaseAmpere: -1, BaseSecond: 1, BaseMetre: -1}: {"H/m", "H/m"},
 	{BaseVolt: -1, BaseAmpere: 1, BaseSecond: 1, BaseMetre: -1}: {"F/m", "F/m"},
 	{BaseVolt: 1, BaseMetre: -1}:                                {"V/m", "V/m"},
-	{BaseAmpere: -1}:                                            {"1/A", "1/A"},
-	{BaseVolt: -1}:                                              {"1/V", "1/V"},
+	{BaseAmpere: -1}:                                            {"/A", "/A"},
+	{BaseVolt: -1}:                                              {"/V", "/V"},
 }
 
 // UnitSymbol returns the symbol shown for a quantity: "" for a plain number,
@@ -132,6 +132,10 @@ func UnitSymbol(d Dim, k Kind, ascii bool) string {
 	if d.IsDimensionless() {
 		return ""
 	}
+	// s⁻¹ is rad/s only for an angular rate; 1/(20 ms) is fifty per second
+	if d == DimAngularFrequency && k != KindAngle {
+		return "/s"
+	}
 	if n, ok := dimNames[d]; ok {
 		if ascii {
 			return n.ascii
@@ -149,8 +153,8 @@ func prefixable(d Dim) bool {
 		return true
 	}
 	n, ok := dimNames[d]
-	// "k1/A" would read as nonsense: a reciprocal takes an exponent
-	return ok && !strings.HasPrefix(n.sym, "1/")
+	// "k/A" would read as kilo-per-ampere: a reciprocal takes an exponent
+	return ok && !strings.HasPrefix(n.sym, "/")
 }
 
 // DimName names a dimension for messages: its unit symbol, or
@@ -158,6 +162,9 @@ func prefixable(d Dim) bool {
 func DimName(d Dim, ascii bool) string {
 	if d.IsDimensionless() {
 		return "a plain number"
+	}
+	if d == DimAngularFrequency {
+		return "rad/s"
 	}
 	s := UnitSymbol(d, KindPlain, ascii)
 	return s

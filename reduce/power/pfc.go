@@ -155,7 +155,7 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 	steps := []calc.Step{st}
 
 	w := 2 * math.Pi * t.Freq
-	omega := calc.Real(w, calc.DimAngularFrequency)
+	omega := calc.Quantity{V: complex(w, 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}
 	capQ := func(x float64) (calc.Quantity, error) {
 		return calc.Real(x, calc.DimCapacitance).Check("pfc capacitance")
 	}

@@ -112,7 +112,7 @@ func (s *Sheet) Lookup(name string) (calc.Quantity, bool) {
 	case "f":
 		return calc.Real(s.ctx.Freq, calc.DimFrequency), true
 	case "w", "ω":
-		return calc.Real(s.ctx.Omega(), calc.DimAngularFrequency), true
+		return calc.Quantity{V: complex(s.ctx.Omega(), 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}, true
 	}
 	if d, ok := s.byName[name]; ok {
 		return d.value, true

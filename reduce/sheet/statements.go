@@ -288,7 +288,7 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	old := s.ctx.Freq
 	s.ctx.Freq = hz
 	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f",
-		Results: []calc.Operand{{Name: "f", Value: calc.Real(hz, calc.DimFrequency)}, {Name: "ω", Value: calc.Real(s.ctx.Omega(), calc.DimAngularFrequency)}}}
+		Results: []calc.Operand{{Name: "f", Value: calc.Real(hz, calc.DimFrequency)}, {Name: "ω", Value: calc.Quantity{V: complex(s.ctx.Omega(), 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}}}}
 	s.record(st)
 	if old != hz {
 		rs, err := s.propagate(map[string]bool{"f": true, "w": true, "ω": true}, "frequency changed from "+s.ctx.Format.Mag(old, calc.DimFrequency, 0)+" to "+s.ctx.Format.Mag(hz, calc.DimFrequency, 0))
@@ -403,8 +403,11 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 	case calc.DimTime:
 		letter = "t"
 	}
-	if q.Kind == calc.KindAngle {
+	if q.Kind == calc.KindAngle && q.Dim.IsDimensionless() {
 		letter = "ang" // typed on any keyboard, ASCII mode included
+	}
+	if q.Dim == calc.DimAngularFrequency && q.Kind == calc.KindAngle {
+		letter = "w"
 	}
 	if s.autoNext == nil {
 		s.autoNext = map[string]int{}

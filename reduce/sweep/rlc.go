@@ -49,7 +49,7 @@ func Resonance(l, c calc.Quantity) (f0, w0 calc.Quantity, steps []calc.Step, err
 		return f0, w0, nil, err
 	}
 	w := 1 / math.Sqrt(lv*cv)
-	w0 = calc.Real(w, calc.DimAngularFrequency)
+	w0 = calc.Quantity{V: complex(w, 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}
 	f0 = hz(w / (2 * math.Pi))
 	if err := check("resonant frequency", f0, w0); err != nil {
 		return calc.Quantity{}, calc.Quantity{}, nil, err
@@ -147,9 +147,9 @@ func Bandwidth(f0, q calc.Quantity) (Band, []calc.Step, error) {
 	}
 	h := 1 / (2 * qv)
 	root := math.Sqrt(1 + h*h)
-	bd.B = calc.Real(fv/qv, f0.Dim)
-	bd.F1 = calc.Real(fv*(root-h), f0.Dim)
-	bd.F2 = calc.Real(fv*(root+h), f0.Dim)
+	bd.B = calc.Quantity{V: complex(fv/qv, 0), Dim: f0.Dim, Kind: f0.Kind}
+	bd.F1 = calc.Quantity{V: complex(fv*(root-h), 0), Dim: f0.Dim, Kind: f0.Kind}
+	bd.F2 = calc.Quantity{V: complex(fv*(root+h), 0), Dim: f0.Dim, Kind: f0.Kind}
 	if err := check("bandwidth", bd.B, bd.F1, bd.F2); err != nil {
 		return Band{}, nil, err
 	}
