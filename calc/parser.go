@@ -219,6 +219,10 @@ func (p *Parser) product() Expr {
 	x := p.unary()
 	for p.Err() == nil && (p.IsOp("*") || p.IsOp("/")) {
 		op := p.Next()
+		if p.tok.Tok == TokRect {
+			p.Failf(p.tok, "ambiguous after %s: write (%s) for the complex number, or put spaces around its sign", op.Text, p.tok.Text)
+			return x
+		}
 		y := p.unary()
 		x = &Binary{span: spanOf(x, y), Op: op.Text, X: x, Y: y, OpCol: op.Col}
 	}
@@ -313,6 +317,10 @@ func (p *Parser) power() Expr {
 		}
 		defer p.leave()
 		op := p.Next()
+		if p.tok.Tok == TokRect {
+			p.Failf(p.tok, "ambiguous after ^: write (%s) for the complex number, or put spaces around its sign", p.tok.Text)
+			return x
+		}
 		y := p.unary() // right-assoc, and 2^-1 reads as expected
 		return &Binary{span: spanOf(x, y), Op: "^", X: x, Y: y, OpCol: op.Col}
 	}

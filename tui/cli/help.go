@@ -49,7 +49,7 @@ numbers and units
 complex values
   3+j4 Ω      rectangular; the unit applies to both parts
   3-j4 kΩ     (and 3+4j, 3+i4 are the same forms); written without spaces
-              it is one number: 2*3+j4 is 2·(3+j4); write x - (3-j4)
+              it is one number; after - * / ^ write it in parentheses
   230∠-30° V  polar; @ is the ASCII stand-in: 230@-30 V needs no shell quoting
   a bare angle is in degrees (or radians after: angles rad)
 operators, loosest first
