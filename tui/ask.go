@@ -291,20 +291,27 @@ func (m *Model) copyCmd(what, text string) tea.Cmd {
 func (m *Model) helpLines() []string {
 	var out []string
 	out = append(out, m.th.label.Render("argand: AC phasor work, step by step")+"   (esc closes; ↑↓ scroll)")
-	out = append(out, "Rows are named values, newest at the top. Operations take the marked rows in the")
-	out = append(out, "order marked, else the two newest (older first). Each becomes a worksheet statement.")
+	intro := "Rows are named values, newest at the top. Operations take the marked rows in the " +
+		"order marked, else the two newest (older first). Each becomes a worksheet statement. " +
+		"T shows the trail in full, every step whole."
+	out = append(out, wrapLine(intro, m.width, 0)...)
 	out = append(out, "")
 	hm := m.help
 	hm.Width = m.width
 	for _, md := range allModes {
 		out = append(out, m.th.heading.Render("keys: "+md.String()))
 		v := hm.FullHelpView([][]key.Binding{m.keys.Mode(md)})
-		out = append(out, strings.Split(v, "\n")...)
+		for _, l := range strings.Split(v, "\n") {
+			// a description too long for a narrow screen continues under itself
+			l = strings.TrimRight(l, " ")
+			out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
+		}
 		out = append(out, "")
 	}
 	out = append(out, m.th.heading.Render("safety"))
-	out = append(out, strings.Split(safetyText, "\n")...)
-	out = append(out, "", "Statements: see argand help language; functions: argand help functions.")
+	out = append(out, wrapLine(strings.ReplaceAll(safetyText, "\n", " "), m.width, 0)...)
+	out = append(out, "")
+	out = append(out, wrapLine("Statements: see argand help language; functions: argand help functions.", m.width, 0)...)
 	for i := range out {
 		out[i] = m.tr(out[i])
 	}
@@ -341,4 +348,15 @@ func (m *Model) lockedView() []string {
 		"",
 		m.th.dim.Render(m.tr("session file: " + m.lockPath)),
 	}
+}
+
+// descCol is the cell where the description of a help line starts: after
+// the first run of two or more spaces.
+func descCol(l string) int {
+	i := strings.Index(l, "  ")
+	if i < 0 {
+		return 0
+	}
+	rest := strings.TrimLeft(l[i:], " ")
+	return ansi.StringWidth(l[:len(l)-len(rest)])
 }

@@ -14,9 +14,10 @@ const (
 	modeExport             // choosing what to export
 	modeHelp               // the help screen
 	modeLocked             // the session is held by another argand
+	modeTrail              // the whole trail at full width
 )
 
-var modeNames = [...]string{"entries", "entry line", "question", "network", "export", "help", "session in use"}
+var modeNames = [...]string{"entries", "entry line", "question", "network", "export", "help", "session in use", "trail in full"}
 
 func (m mode) String() string { return modeNames[m] }
 
@@ -39,7 +40,7 @@ type KeyMap struct {
 	Networks, Export              key.Binding
 	Clip, ClipTrail               key.Binding
 	TrailBack, TrailOn, TrailLast key.Binding
-	Help, Quit                    key.Binding
+	TrailFull, Help, Quit         key.Binding
 
 	// entry line and questions
 	Run, Leave, Left, Right, Home, End  key.Binding
@@ -63,6 +64,10 @@ type KeyMap struct {
 
 	// session in use
 	LockRead, LockSeparate, LockQuit key.Binding
+
+	// the trail in full
+	FullUp, FullDown, FullPageUp, FullPageDown key.Binding
+	FullTop, FullEnd, FullClose, FullQuit      key.Binding
 }
 
 func kb(keys []string, k, desc string) key.Binding {
@@ -115,6 +120,7 @@ func DefaultKeyMap() KeyMap {
 		TrailBack: kb([]string{"pgup", "["}, "pgup/[", "scroll the trail back"),
 		TrailOn:   kb([]string{"pgdown", "]"}, "pgdn/]", "scroll the trail on"),
 		TrailLast: kb([]string{"L"}, "L", "trail: jump to the latest step"),
+		TrailFull: kb([]string{"T"}, "T", "read the trail in full: every step whole, at full width"),
 		Help:      kb([]string{"?", "f1"}, "?", "this help"),
 		Quit:      kb([]string{"q", "ctrl+c"}, "q", "quit (the session is already saved)"),
 
@@ -171,6 +177,15 @@ func DefaultKeyMap() KeyMap {
 		LockRead:     kb([]string{"r"}, "r", "open the session read-only"),
 		LockSeparate: kb([]string{"s"}, "s", "start a separate session"),
 		LockQuit:     kb([]string{"q", "ctrl+c", "esc"}, "q", "quit"),
+
+		FullUp:       kb([]string{"up", "k"}, "↑/k", "scroll up a line"),
+		FullDown:     kb([]string{"down", "j"}, "↓/j", "scroll down a line"),
+		FullPageUp:   kb([]string{"pgup", "["}, "pgup/[", "scroll up a page"),
+		FullPageDown: kb([]string{"pgdown", "]", " "}, "pgdn/]/space", "scroll down a page"),
+		FullTop:      kb([]string{"home", "g"}, "home/g", "the first step"),
+		FullEnd:      kb([]string{"end", "G"}, "end/G", "the latest step"),
+		FullClose:    kb([]string{"esc", "q", "T"}, "esc/q/T", "back to the entries"),
+		FullQuit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
 	}
 }
 
@@ -184,7 +199,7 @@ func (k KeyMap) Mode(m mode) []key.Binding {
 			k.VDiv, k.IDiv, k.Thevenin, k.DeltaY, k.YDelta,
 			k.Rename, k.Copy, k.Delete, k.Raise, k.Lower,
 			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Undo, k.Redo,
-			k.Networks, k.Export, k.Clip, k.ClipTrail, k.TrailBack, k.TrailOn, k.TrailLast, k.Help, k.Quit}
+			k.Networks, k.Export, k.Clip, k.ClipTrail, k.TrailBack, k.TrailOn, k.TrailLast, k.TrailFull, k.Help, k.Quit}
 	case modeLine:
 		return []key.Binding{k.Run, k.Leave, k.Left, k.Right, k.Home, k.End, k.Back, k.Del, k.Kill, k.Clear, k.Prev, k.Next, k.LineHelp, k.LineQuit}
 	case modePrompt:
@@ -197,9 +212,11 @@ func (k KeyMap) Mode(m mode) []key.Binding {
 		return []key.Binding{k.HelpUp, k.HelpDown, k.HelpClose, k.HelpQuit}
 	case modeLocked:
 		return []key.Binding{k.LockRead, k.LockSeparate, k.LockQuit}
+	case modeTrail:
+		return []key.Binding{k.FullUp, k.FullDown, k.FullPageUp, k.FullPageDown, k.FullTop, k.FullEnd, k.FullClose, k.FullQuit}
 	}
 	return nil
 }
 
 // allModes lists every mode, for help and tests.
-var allModes = []mode{modeRows, modeLine, modePrompt, modeNet, modeExport, modeHelp, modeLocked}
+var allModes = []mode{modeRows, modeLine, modePrompt, modeNet, modeExport, modeTrail, modeHelp, modeLocked}

@@ -80,6 +80,8 @@ func modelIn(t *testing.T, md mode) *Model {
 		press(m, "x")
 	case modeHelp:
 		press(m, "?", "down")
+	case modeTrail:
+		press(m, "T", "up", "up")
 	}
 	if m.mode != md {
 		t.Fatalf("setting up %s: in %s", md, m.mode)
@@ -97,7 +99,7 @@ func state(m *Model) string {
 	if m.ask != nil {
 		ask = fmt.Sprint(m.ask.i, m.ask.f.String(), m.ask.f.pos)
 	}
-	return fmt.Sprint(m.View(), m.mode, m.msg, m.s.v, m.line.f.String(), m.line.f.pos, m.trail.back,
+	return fmt.Sprint(m.View(), m.mode, m.msg, m.s.v, m.line.f.String(), m.line.f.pos, m.trail.back, m.full.back,
 		len(m.s.sh.Statements()), m.helpTop, net, ask, m.quitting)
 }
 

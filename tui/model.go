@@ -70,6 +70,7 @@ type Model struct {
 	line    entryLine
 	table   tableView
 	trail   trailView
+	full    trailView // the trail in full, at the screen's width
 	sketch  sketchPane
 	ask     *questions
 	net     *netView
@@ -315,6 +316,8 @@ func (m *Model) key(k tea.KeyMsg) tea.Cmd {
 		return m.netKey(k)
 	case modeExport:
 		return m.exportKey(k)
+	case modeTrail:
+		return m.fullKey(k)
 	}
 	return m.rowsKey(k)
 }
@@ -340,6 +343,8 @@ func (m *Model) View() string {
 		lines = m.lockedView()
 	case modeHelp:
 		lines = m.helpView()
+	case modeTrail:
+		lines = m.fullView()
 	case modeNet:
 		lines = append([]string{m.statusView()}, m.netPane(w, h-3)...)
 		lines = append(lines, m.feedbackView(), m.hintView())

@@ -437,6 +437,8 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 	case key.Matches(k, km.TrailLast):
 		m.trail.back = 0
 		m.note(false, "trail at the latest step")
+	case key.Matches(k, km.TrailFull):
+		m.openFull()
 	case key.Matches(k, km.Help):
 		m.openHelp()
 	case key.Matches(k, km.Quit):

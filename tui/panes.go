@@ -39,7 +39,7 @@ func (m *Model) statusView() string {
 	}
 	parts := []string{
 		f.Mag(st.Freq, calc.DimFrequency, 0),
-		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, 0),
+		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, calc.KindAngle),
 		ang, strconv.Itoa(st.Digits) + " digits", basis, first,
 	}
 	s := m.th.label.Render("argand") + "  "
@@ -201,43 +201,72 @@ type trailKey struct {
 	f      calc.Format
 	polar  bool
 	digits int
+	width  int
 }
 
 type trailLine struct {
 	text string
 	head bool
+	pre  bool // a line of a plot: cut, never wrapped, at narrow widths
 }
 
-// build renders every step of the session once; the trail only grows
-// while the sheet stays the same, so new steps are appended.
-func (t *trailView) build(m *Model) {
+// build renders every step of the session once for width cells; the trail
+// only grows while the sheet stays the same, so new steps are appended.
+func (t *trailView) build(m *Model, width int) {
 	steps := m.s.sh.Steps()
-	k := trailKey{sh: m.s.sh, n: len(steps), f: m.format(), polar: m.s.v.PolarFirst}
+	k := trailKey{sh: m.s.sh, n: len(steps), f: m.format(), polar: m.s.v.PolarFirst, width: width}
 	if k == t.key {
 		return
 	}
 	from := 0
-	if t.key.sh == k.sh && t.key.f == k.f && t.key.polar == k.polar && t.key.n <= k.n {
+	if t.key.sh == k.sh && t.key.f == k.f && t.key.polar == k.polar && t.key.width == k.width && t.key.n <= k.n {
 		from = t.key.n
 	} else {
 		t.lines = t.lines[:0]
 	}
 	for i := from; i < len(steps); i++ {
-		text := strings.TrimRight(steps[i].Text(k.f, k.polar), "\n")
-		for j, l := range strings.Split(text, "\n") {
-			t.lines = append(t.lines, trailLine{text: m.tr(l), head: j == 0})
-		}
+		t.lines = append(t.lines, stepLines(m, &steps[i], k.f, k.polar, width)...)
 	}
 	t.key = k
 }
 
+// stepLines writes one step as trail lines wrapped to width: continuation
+// lines hang under their line, notes wrap word by word, and a note of
+// several lines (a plot) keeps its shape.
+func stepLines(m *Model, st *calc.Step, f calc.Format, polar bool, width int) []trailLine {
+	c := *st
+	c.Notes = nil
+	text := strings.TrimRight(c.Text(f, polar), "\n")
+	for _, n := range st.Notes {
+		n = strings.TrimRight(n, "\n")
+		if f.ASCII {
+			n = calc.ASCIIText(n)
+		}
+		text += "\n    note: " + strings.ReplaceAll(n, "\n", "\n\x00      ")
+	}
+	var out []trailLine
+	for j, l := range strings.Split(text, "\n") {
+		if rest, ok := strings.CutPrefix(l, "\x00"); ok {
+			out = append(out, trailLine{text: m.tr(rest), pre: true})
+			continue
+		}
+		l = m.tr(l)
+		for _, w := range wrapLine(l, width, hangIndent(l)) {
+			out = append(out, trailLine{text: w, head: j == 0})
+		}
+	}
+	return out
+}
+
 func (t *trailView) scroll(m *Model, by int) {
-	t.build(m)
+	_, _, sketchW := m.layout()
+	t.build(m, m.width-sketchW-1)
 	t.back = max(0, min(t.back+by, len(t.lines)-1))
 }
 
 func (t *trailView) view(m *Model, w, h int) []string {
-	t.build(m)
+	t.build(m, w)
+	t.back = max(0, min(t.back, len(t.lines)-1))
 	n := len(m.s.sh.Steps())
 	info := fmt.Sprintf("%d steps", n)
 	if t.back > 0 {

@@ -1,0 +1,88 @@
+package tui
+
+import (
+	"strings"
+	"testing"
+
+	"github.com/charmbracelet/x/ansi"
+)
+
+func TestWrapLine(t *testing.T) {
+	tests := []struct {
+		in     string
+		width  int
+		indent int
+		want   []string
+	}{
+		{"short", 20, 2, []string{"short"}},
+		// the polar value stays whole: the break comes before "="
+		{"    → Is = 525.6 - j473.2 mA = 707.2 mA ∠-41.99°", 40, 6,
+			[]string{"    → Is = 525.6 - j473.2 mA", "      = 707.2 mA ∠-41.99°"}},
+		{"    note: Capacitor banks: a capacitor can hold a lethal charge", 30, 10,
+			[]string{"    note: Capacitor banks: a", "          capacitor can hold a", "          lethal charge"}},
+		// a word longer than the line is cut by cells
+		{"abcdefghij", 4, 0, []string{"abcd", "efgh", "ij"}},
+	}
+	for _, tt := range tests {
+		got := wrapLine(tt.in, tt.width, tt.indent)
+		if strings.Join(got, "|") != strings.Join(tt.want, "|") {
+			t.Errorf("wrapLine(%q, %d, %d) = %q, want %q", tt.in, tt.width, tt.indent, got, tt.want)
+		}
+		for _, l := range got {
+			if ansi.StringWidth(l) > tt.width {
+				t.Errorf("wrapLine(%q): %q is wider than %d", tt.in, l, tt.width)
+			}
+		}
+		if strings.Join(strings.Fields(strings.Join(got, " ")), "") != strings.Join(strings.Fields(tt.in), "") {
+			t.Errorf("wrapLine(%q) lost text: %q", tt.in, got)
+		}
+	}
+}
+
+// The caution beside a power-factor correction reads whole in the trail
+// at 80 columns, and T shows every step at full width.
+func TestTrailWrapsCaution(t *testing.T) {
+	m := newModel(t, Options{})
+	typeLine(t, m, "corr = pfc(10 kW, 0.8, 0.95, 400 V, three)")
+	m.View()
+	_, _, sketchW := m.layout()
+	paneW := m.width - sketchW - 1
+	var all []string
+	for _, l := range m.trail.lines {
+		if w := ansi.StringWidth(l.text); w > paneW && !l.pre {
+			t.Errorf("trail line wider than the pane (%d > %d): %q", w, paneW, l.text)
+		}
+		all = append(all, strings.TrimSpace(l.text))
+	}
+	joined := strings.Join(all, " ")
+	for _, w := range []string{"a capacitor can hold a lethal charge after disconnection", "licensed practice."} {
+		if !strings.Contains(joined, w) {
+			t.Errorf("trail lacks %q", w)
+		}
+	}
+	// scrolling back reaches the caution on screen
+	found := false
+	for i := 0; i < 40 && !found; i++ {
+		found = strings.Contains(m.View(), "lethal charge")
+		press(m, "[")
+	}
+	if !found {
+		t.Errorf("scrolling the trail never shows the caution")
+	}
+	press(m, "T")
+	if m.mode != modeTrail {
+		t.Fatalf("T: mode %s", m.mode)
+	}
+	v := m.View()
+	if !strings.Contains(v, "trail in full") {
+		t.Errorf("full trail view:\n%s", v)
+	}
+	press(m, "g")
+	if !strings.Contains(m.View(), "lines 1-") {
+		t.Errorf("g does not go to the first step:\n%s", m.View())
+	}
+	press(m, "esc")
+	if m.mode != modeRows {
+		t.Errorf("esc: mode %s", m.mode)
+	}
+}
