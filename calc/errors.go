@@ -46,7 +46,12 @@ func errorf(format string, args ...any) error {
 type Error struct {
 	Line, Col, Len int
 	Msg            string
+	Err            error // the cause, such as ErrOpenCircuit, when there is one
 }
+
+// Unwrap returns the cause, so that errors.Is(err, ErrOpenCircuit) holds
+// for an open circuit met while evaluating a line.
+func (e *Error) Unwrap() error { return e.Err }
 
 func (e *Error) Error() string {
 	if e.Line > 0 {

@@ -66,11 +66,11 @@ func (ev *Evaluator) errAt(e Expr, err error) *Error {
 	if errors.As(err, &le) {
 		return le
 	}
-	return &Error{Line: ev.Line, Col: col, Len: n, Msg: err.Error()}
+	return &Error{Line: ev.Line, Col: col, Len: n, Msg: err.Error(), Err: err}
 }
 
 func (ev *Evaluator) errCol(col int, err error) *Error {
-	return &Error{Line: ev.Line, Col: col, Len: 1, Msg: err.Error()}
+	return &Error{Line: ev.Line, Col: col, Len: 1, Msg: err.Error(), Err: err}
 }
 
 func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
@@ -265,7 +265,9 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		if errors.As(err, &le) {
 			return Result{}, le
 		}
-		return Result{}, nameErr("%s: %v", c.Fun, err)
+		e := nameErr("%s: %v", c.Fun, err)
+		e.Err = err
+		return Result{}, e
 	}
 	if _, e2 := r.Value.Check(c.Fun); e2 != nil {
 		return Result{}, nameErr("%s: %v", c.Fun, e2)

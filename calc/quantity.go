@@ -120,7 +120,19 @@ func Add(a, b Quantity) (Quantity, error) {
 	if err := quadrature(a, b, "add"); err != nil {
 		return Quantity{}, err
 	}
-	return Quantity{V: a.V + b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("addition")
+	return Quantity{V: cancel(a.V+b.V, a.V, b.V), Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("addition")
+}
+
+// cancel returns s, the sum of a and b, or 0 when the terms cancel to
+// within rounding: j1 Ω + (−j0.9999999999999997 Ω) at series resonance is a
+// short, not 333e-18 Ω. Four units in the last place of the larger term
+// are below anything the inputs can tell.
+func cancel(s, a, b complex128) complex128 {
+	const ulps = 4 * 2.220446049250313e-16
+	if cmplx.Abs(s) <= ulps*math.Max(cmplx.Abs(a), cmplx.Abs(b)) {
+		return 0
+	}
+	return s
 }
 
 // Sub returns a−b; both must have the same dimension.
@@ -131,7 +143,7 @@ func Sub(a, b Quantity) (Quantity, error) {
 	if err := quadrature(a, b, "subtract"); err != nil {
 		return Quantity{}, err
 	}
-	return Quantity{V: a.V - b.V, Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("subtraction")
+	return Quantity{V: cancel(a.V-b.V, a.V, b.V), Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("subtraction")
 }
 
 // Mul returns a·b.

@@ -149,7 +149,10 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		b.WriteString("    → " + tr(o.Name) + " = " + f.Both(o.Value, polarFirst) + "\n")
 	}
 	for _, r := range s.Rows {
-		b.WriteString("    " + tr(r.Name) + ":")
+		b.WriteString("    " + tr(r.Name))
+		if len(r.Values) > 0 {
+			b.WriteString(":")
+		}
 		for _, v := range r.Values {
 			b.WriteString("  " + v.Name + " = " + f.Polar(v.Value))
 		}

@@ -30,3 +30,31 @@ check thz is th.z within 1e-12 Ω
 		t.Errorf("checks: %d passed, %d failed; want 2, 0", sum.Pass, sum.Fail)
 	}
 }
+
+// A sweep point at a parallel resonance is marked as an open circuit
+// (X_L = −X_C at ω0 = 1/√(LC), common practice), and a definition the
+// swept value does not read cannot stop the sweep.
+func TestSweepThroughResonance(t *testing.T) {
+	src := `inductor L = 1 H
+capacitor Cx = 1 F
+Zp = L || Cx
+Zs = L + Cx
+sweep Zp from 0.5 rad/s to 1.5 rad/s points 3 linear
+sweep Zs from 0.5 rad/s to 1.5 rad/s points 3 linear
+`
+	s := New()
+	sum, err := s.Run(strings.NewReader(src), nil)
+	if err != nil || sum.Err != nil {
+		t.Fatal(err, sum.Err)
+	}
+	sw := s.Sweeps()
+	if len(sw) != 2 {
+		t.Fatalf("%d sweeps, want 2", len(sw))
+	}
+	if m := sw[0].Table.Points[1].Mark; m == "" {
+		t.Error("parallel resonance not marked")
+	}
+	if v := sw[1].Table.Points[1].Value.V; v != 0 {
+		t.Errorf("series resonance: Z = %v, want exactly 0 (the reactances cancel)", v)
+	}
+}

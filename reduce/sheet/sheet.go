@@ -75,6 +75,9 @@ type Sheet struct {
 	fail   int
 	sweeps []*SweepResult
 	tols   map[string]float64 // relative tolerance of a named value
+	// lenient, when set, collects the definitions that fail to re-evaluate
+	// instead of failing the propagation (used at sweep points).
+	lenient map[string]error
 	// autoNext is the next number to try for each letter of an automatic
 	// name, so naming stays linear in a long worksheet.
 	autoNext map[string]int
@@ -352,6 +355,10 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 			}
 			nv, extra, err := s.reeval(d)
 			if err != nil {
+				if s.lenient != nil {
+					s.lenient[d.name] = err
+					continue
+				}
 				return nil, fmt.Errorf("while re-evaluating %s (line %d): %w", d.name, d.line, err)
 			}
 			note := func(d *def, nv calc.Quantity) {

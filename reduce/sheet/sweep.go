@@ -1,6 +1,7 @@
 package sheet
 
 import (
+	"fmt"
 	"strconv"
 
 	"argand/calc"
@@ -21,11 +22,22 @@ func (s *Sheet) Sweeps() []*SweepResult { return s.sweeps }
 // AtFrequency evaluates an expression with the working frequency set to
 // hz, every frequency-dependent definition and network re-evaluated, and
 // the worksheet itself unchanged.
+//
+// A definition the expression does not read may fail at this frequency (a
+// tank elsewhere in the worksheet at its resonance) without failing the
+// expression; one it does read passes its error on, with the cause kept
+// (errors.Is(err, calc.ErrOpenCircuit)) so that a sweep can mark the point.
 func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity, error) {
 	c := s.Clone()
 	c.ctx.Freq = hz
+	c.lenient = map[string]error{}
 	if _, err := c.propagate(map[string]bool{"f": true, "w": true, "ω": true}, ""); err != nil {
 		return calc.Quantity{}, err
+	}
+	for name := range depsOf(e) {
+		if err := c.brokenUnder(name, 0); err != nil {
+			return calc.Quantity{}, err
+		}
 	}
 	ev := c.evaluator(src, s.line)
 	r, err := ev.Eval(e)
@@ -35,12 +47,37 @@ func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity,
 	return r.Value, nil
 }
 
-// errPlain strips the location from an evaluation error at a sweep point,
-// where the message, not the column, matters; calc.ErrOpenCircuit keeps its
-// identity so the sweep can mark the point.
+// brokenUnder returns the error of a definition that failed to re-evaluate
+// in a lenient propagation, if name depends on one.
+func (s *Sheet) brokenUnder(name string, depth int) error {
+	if err, ok := s.lenient[name]; ok && err != nil {
+		return err
+	}
+	d, ok := s.byName[name]
+	if !ok || depth > 10000 {
+		return nil
+	}
+	if d.owner != "" {
+		if err := s.brokenUnder(d.owner, depth+1); err != nil {
+			return err
+		}
+	}
+	for k := range d.deps {
+		if k == name {
+			continue
+		}
+		if err := s.brokenUnder(k, depth+1); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// errPlain turns an evaluation error at a sweep point into a plain error
+// that keeps its cause.
 func errPlain(err *calc.Error) error {
-	if err.Msg == calc.ErrOpenCircuit.Error() {
-		return calc.ErrOpenCircuit
+	if err.Err != nil {
+		return fmt.Errorf("%s: %w", err.Msg, err.Err)
 	}
 	return err
 }
@@ -135,9 +172,10 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	for _, pt := range tab.Points {
 		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0)}
 		if pt.Mark != "" {
-			row.Name += " (" + pt.Mark + ")"
+			row.Name += ": " + pt.Mark // no value to show
+		} else {
+			row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
 		}
-		row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
 		st.Rows = append(st.Rows, row)
 	}
 	st.Notes = append(st.Notes, "plot:\n"+sweep.Plot(tab, 64, 10, db, s.ctx.Format.ASCII))
