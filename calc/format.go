@@ -126,12 +126,13 @@ func fixed(x float64, exp3, decimals int) string {
 func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo string) {
 	exp3, decimals = engScale(m, f.digits())
 	sym := UnitSymbol(d, k, f.ASCII)
-	if sym == "" && exp3 >= -3 && exp3 < 6 {
-		// plain numbers of everyday size read better without an exponent
-		e := 0
-		if m != 0 {
-			e = decExp(m, f.digits())
-		}
+	e := 0
+	if m != 0 {
+		e = decExp(m, f.digits())
+	}
+	if sym == "" && exp3 >= -3 && exp3 < 6 && e < f.digits() {
+		// plain numbers of everyday size read better without an exponent,
+		// as long as no more figures show than are significant
 		decimals = f.digits() - 1 - e
 		if decimals < 0 {
 			decimals = 0

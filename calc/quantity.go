@@ -388,9 +388,16 @@ func Parallel(a, b Quantity) (Quantity, error) {
 	if a.V == 0 || b.V == 0 {
 		return Quantity{V: 0, Dim: a.Dim}, nil
 	}
-	s := a.V + b.V
-	if s == 0 || cmplx.Abs(s) <= 1e-15*math.Max(cmplx.Abs(a.V), cmplx.Abs(b.V)) {
+	// a‖b = a/(1 + a/b) with |a| ≤ |b|: no product to overflow or
+	// underflow, so 1e-300 Ω ‖ 1e-300 Ω is 5e-301 Ω and 1e200 ‖ 1e200 is
+	// 5e199; 1 + a/b near 0 is the admittances cancelling
+	x, y := a.V, b.V
+	if cmplx.Abs(x) > cmplx.Abs(y) {
+		x, y = y, x
+	}
+	den := 1 + x/y
+	if cmplx.Abs(den) <= 4*2.220446049250313e-16 {
 		return Quantity{}, ErrOpenCircuit
 	}
-	return Quantity{V: a.V * b.V / s, Dim: a.Dim}.Check("parallel")
+	return Quantity{V: x / den, Dim: a.Dim}.Check("parallel")
 }
