@@ -223,6 +223,7 @@ func (m *Model) chooseLocked(readOnly bool) {
 	if readOnly {
 		m.s.path = m.lockPath
 		m.s.readOnly = true
+		m.s.holder = m.lockPID
 		data, err := store.Load(m.lockPath)
 		if err == nil {
 			if sh, f, err := decode(data); err == nil {

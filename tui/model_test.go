@@ -443,6 +443,16 @@ func TestLocked(t *testing.T) {
 	if !second.msgErr {
 		t.Errorf("read-only accepted a change")
 	}
+	// a typed statement is refused in plain words, with no empty location
+	press(second, "tab")
+	for _, r := range "Zro = 5 Ω" {
+		second.Update(keyMsg(string(r)))
+	}
+	press(second, "enter")
+	fb := second.feedbackView()
+	if !strings.HasPrefix(fb, "read-only: this session is open in another argand (pid ") || strings.Contains(fb, ": :") {
+		t.Errorf("read-only refusal reads %q", fb)
+	}
 	third := newModel(t, Options{Dir: dir})
 	press(third, "s")
 	if third.s.readOnly || third.s.path == first.s.path {
@@ -609,5 +619,48 @@ func TestGolden(t *testing.T) {
 				t.Errorf("view differs from %s:\n%s", path, got)
 			}
 		})
+	}
+}
+
+// A reactive power Q is the imaginary part of S = P + jQ (shared
+// DESIGN.md: S = V·I*, Q > 0 inductive), so it is drawn on the j axis;
+// an active power P lies on the real axis.
+func TestSketchPowerKinds(t *testing.T) {
+	tests := []struct {
+		q    calc.Quantity
+		want complex128
+	}{
+		{calc.Quantity{V: 86.96, Dim: calc.DimPower, Kind: calc.KindReactive}, complex(0, 86.96)},
+		{calc.Quantity{V: -40, Dim: calc.DimPower, Kind: calc.KindReactive}, complex(0, -40)},
+		{calc.Quantity{V: 120, Dim: calc.DimPower, Kind: calc.KindActive}, 120},
+		{calc.Quantity{V: complex(120, 90), Dim: calc.DimPower, Kind: calc.KindApparent}, complex(120, 90)},
+		{calc.Quantity{V: 230, Dim: calc.DimVoltage}, 230},
+	}
+	for _, tt := range tests {
+		if got := sketchValue(tt.q); got != tt.want {
+			t.Errorf("sketchValue(%v) = %v, want %v", tt.q, got, tt.want)
+		}
+	}
+	m := newModel(t, Options{})
+	typeLine(t, m, "Qx = 80 var")
+	typeLine(t, m, "Px = 60 W")
+	m.s.v.Marks = []string{"Px", "Qx"}
+	v := m.View()
+	// one scale for both (same dimension), Qx above the real axis
+	if strings.Count(v, "+ = ") != 1 {
+		t.Errorf("P and Q not on one scale:\n%s", v)
+	}
+	lines := strings.Split(v, "\n")
+	row := func(s string) int {
+		for i, l := range lines {
+			_, sk, ok := strings.Cut(l, "│")
+			if ok && strings.Contains(sk, s) {
+				return i
+			}
+		}
+		return -1
+	}
+	if q, re := row("Qx"), row("Re"); q < 0 || re < 0 || q >= re-1 {
+		t.Errorf("Qx (line %d) is not drawn above the real axis (line %d):\n%s", q, re, v)
 	}
 }

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"errors"
 	"fmt"
 	"slices"
 	"strconv"
@@ -46,7 +47,13 @@ func (m *Model) single() string { return m.s.v.Selected }
 func (m *Model) run(what string, stmts ...string) bool {
 	steps, err := m.s.exec(stmts...)
 	if err != nil {
-		m.note(true, what+": "+errText(err))
+		var ro *readOnlyError
+		switch {
+		case errors.As(err, &ro), what == "":
+			m.note(true, errText(err))
+		default:
+			m.note(true, strings.TrimSuffix(what, ":")+": "+errText(err))
+		}
 		return false
 	}
 	// the names the statements define (not those re-evaluated because
@@ -109,7 +116,7 @@ func (m *Model) newName(expr string) (string, error) {
 // define runs "NAME = expr" with a name the worksheet chooses.
 func (m *Model) define(what, expr string) {
 	if m.s.readOnly {
-		m.note(true, errReadOnly.Error())
+		m.note(true, m.s.errReadOnly().Error())
 		return
 	}
 	name, err := m.newName(expr)
@@ -405,7 +412,7 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 			m.trail.back = 0
 			m.note(false, fmt.Sprintf("undone (%d more to undo, U redoes)", len(m.s.undo)))
 		} else if m.s.readOnly {
-			m.note(true, errReadOnly.Error())
+			m.note(true, m.s.errReadOnly().Error())
 		} else {
 			m.note(false, "nothing to undo")
 		}

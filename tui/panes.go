@@ -314,7 +314,13 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 		if !ok {
 			continue
 		}
-		items = append(items, sketch.Item{Label: n, V: q.V, Unit: calc.UnitSymbol(q.Dim, q.Kind, m.opt.ASCII)})
+		kind := q.Kind
+		if q.Dim == calc.DimPower {
+			// W, var and VA are one dimension: P, jQ and S share a scale
+			// so that they draw as the power triangle they are
+			kind = calc.KindApparent
+		}
+		items = append(items, sketch.Item{Label: n, V: sketchValue(q), Unit: calc.UnitSymbol(q.Dim, kind, m.opt.ASCII)})
 	}
 	// one complex power on its own is drawn as its power triangle
 	if len(names) == 1 {
@@ -333,6 +339,17 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 	}
 	p.key, p.lines = k, out
 	return out
+}
+
+// sketchValue is where a quantity is drawn in the complex plane. A
+// reactive power kept as a real number of var is the imaginary part of
+// S = P + jQ, so it is drawn as j·Q; an active power stays on the real
+// axis, where P lies.
+func sketchValue(q calc.Quantity) complex128 {
+	if q.Dim == calc.DimPower && q.Kind == calc.KindReactive && imag(q.V) == 0 {
+		return complex(0, real(q.V))
+	}
+	return q.V
 }
 
 // entryLine is the line where statements are typed, with live feedback:
@@ -388,29 +405,13 @@ func (m *Model) entryView() string {
 // feedbackView is the line under the entry line: the live parse error
 // with a caret under its place, or the outcome of the last action.
 func (m *Model) feedbackView() string {
-	if m.mode == modeLine && m.line.err != nil {
-		e := m.line.err
-		p := m.promptText()
-		start := m.line.f.window(m.width - ansi.StringWidth(p))
-		col := ansi.StringWidth(p)
-		text := m.line.f.text
-		for i := start; i < e.Col-1 && i < len(text); i++ {
-			col += ansi.StringWidth(string(text[i]))
-		}
-		if e.Col-1 > len(text) {
-			col++
-		}
-		n := max(1, min(e.Len, 20))
-		marks := m.th.g.caret + strings.Repeat("~", n-1)
-		msg := "error: " + m.tr(e.Msg)
-		if col+n+1+ansi.StringWidth(msg) <= m.width {
+	if col, marks, msg, ok := m.caret(); ok {
+		// the caret stays under its column; the message follows it when
+		// it fits, else it takes the hint line below in full
+		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) <= m.width {
 			return strings.Repeat(" ", col) + m.th.err.Render(marks+" "+msg)
 		}
-		room := col - 1
-		if room > 12 {
-			return m.th.err.Render(pad(fit(msg, room), room) + " " + marks)
-		}
-		return m.th.err.Render(strings.Repeat(" ", col) + marks + " " + msg)
+		return strings.Repeat(" ", col) + m.th.err.Render(marks)
 	}
 	if m.mode == modePrompt && m.ask != nil {
 		return m.th.dim.Render(m.tr(m.ask.title))
@@ -419,13 +420,45 @@ func (m *Model) feedbackView() string {
 		return ""
 	}
 	if m.msgErr {
+		if strings.HasPrefix(m.msg, "read-only:") {
+			// a refusal, not a fault: it says why in its own words
+			return m.th.err.Render(m.tr(m.msg))
+		}
 		return m.th.err.Render("error: " + m.tr(m.msg))
 	}
 	return m.tr(m.msg)
 }
 
+// caret places the live parse error under the entry line: the column
+// of the caret (in cells, on the screen), the marks and the message.
+func (m *Model) caret() (col int, marks, msg string, ok bool) {
+	if m.mode != modeLine || m.line.err == nil {
+		return 0, "", "", false
+	}
+	e := m.line.err
+	p := m.promptText()
+	start := m.line.f.window(m.width - ansi.StringWidth(p))
+	col = ansi.StringWidth(p)
+	text := m.line.f.text
+	for i := start; i < e.Col-1 && i < len(text); i++ {
+		col += ansi.StringWidth(string(text[i]))
+	}
+	if e.Col-1 > len(text) {
+		col++
+	}
+	n := max(1, min(e.Len, 20))
+	col = max(0, min(col, m.width-1))
+	n = min(n, m.width-col)
+	marks = m.th.g.caret + strings.Repeat("~", n-1)
+	return col, marks, "error: " + m.tr(e.Msg), true
+}
+
 // hintView is one line of the keys most likely wanted next.
 func (m *Model) hintView() string {
+	if col, marks, msg, ok := m.caret(); ok && col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
+		// the message did not fit beside its caret: it has this line
+		return m.th.err.Render(msg)
+	}
 	k := func(key, what string) string { return m.th.key.Render(key) + " " + what }
 	var parts []string
 	switch m.mode {

@@ -62,6 +62,7 @@ type session struct {
 	path      string // session file; "" keeps nothing on disk
 	worksheet string // worksheet file opened, the default target of a save
 	readOnly  bool
+	holder    int   // process holding the session when read-only, if known
 	saveErr   error // last failure to save, shown until a save succeeds
 }
 
@@ -171,13 +172,23 @@ func (s *session) checkpoint() {
 	s.redo = nil
 }
 
-// errReadOnly refuses a change in a read-only session.
-var errReadOnly = errors.New("read-only session: changes are not made (another argand holds this session)")
+// readOnlyError refuses a change in a read-only session.
+type readOnlyError struct{ pid int }
+
+func (e *readOnlyError) Error() string {
+	who := "another argand"
+	if e.pid > 0 {
+		who = fmt.Sprintf("another argand (pid %d)", e.pid)
+	}
+	return "read-only: this session is open in " + who + "; changes are not made or saved"
+}
+
+func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder} }
 
 // exec runs statements as one change: all of them or none.
 func (s *session) exec(stmts ...string) ([]calc.Step, error) {
 	if s.readOnly {
-		return nil, errReadOnly
+		return nil, s.errReadOnly()
 	}
 	before := snapshot{sh: s.sh.Clone(), v: s.v.clone()}
 	var steps []calc.Step
@@ -199,7 +210,7 @@ func (s *session) exec(stmts ...string) ([]calc.Step, error) {
 // change applies a change of the view alone as one undoable step.
 func (s *session) change(f func(v *view)) error {
 	if s.readOnly {
-		return errReadOnly
+		return s.errReadOnly()
 	}
 	s.checkpoint()
 	f(&s.v)
