@@ -86,7 +86,7 @@ func funcs() []calc.Func {
 		{
 			Name: "pfc", Args: "(P, pf1, pf2, V, single|three[, lagging|leading])", Min: 5, Max: 6,
 			Words:   []string{"single", "three", "lagging", "leading"},
-			Doc:     "capacitors to raise a lagging load's power factor pf1 to pf2 at the working frequency; .qc .c .cy .cdelta .i1 .i2",
+			Doc:     "capacitors to raise a lagging (inductive) load's power factor pf1 to pf2 at the working frequency; the optional word is the sense of the target pf2; for a load given as complex S (leading or lagging) use pfcload; .qc .c .cy .cdelta .i1 .i2",
 			Formula: "Q_c = P·(tan φ₁ − tan φ₂); C = Q_c/(ω·V²); C_Y = Q_c/(ω·V_L²); C_Δ = Q_c/(3·ω·V_L²)",
 			Call:    callPFC,
 		},
