@@ -4,6 +4,7 @@ import (
 	"strings"
 	"testing"
 
+	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 )
 
@@ -84,5 +85,29 @@ func TestTrailWrapsCaution(t *testing.T) {
 	press(m, "esc")
 	if m.mode != modeRows {
 		t.Errorf("esc: mode %s", m.mode)
+	}
+}
+
+// A long live error keeps its caret under the column of the error; the
+// message moves to the line below when it does not fit beside the caret.
+func TestCaretStaysUnderError(t *testing.T) {
+	for _, width := range []int{60, 80, 120} {
+		m := newModel(t, Options{})
+		m.Update(tea.WindowSizeMsg{Width: width, Height: 24})
+		press(m, "tab")
+		src := "Zx = 1 Ω + 2 Ω + 3 Ω + 4 Ω + 5 Ω + 6 Ω + 7 Ω + 8 Ω + 9 Ω + 5 V"
+		for _, r := range src {
+			m.Update(keyMsg(string(r)))
+		}
+		lines := strings.Split(m.View(), "\n")
+		entry, fb, hint := lines[len(lines)-3], lines[len(lines)-2], lines[len(lines)-1]
+		col := ansi.StringWidth(fb[:strings.Index(fb, "^")])
+		under := []rune(ansi.Strip(entry))
+		if col >= len(under) || under[col] != '+' {
+			t.Errorf("width %d: caret at cell %d is not under the last +:\n%s\n%s", width, col, entry, fb)
+		}
+		if !strings.Contains(fb+hint, "error: cannot combine") {
+			t.Errorf("width %d: message not shown:\n%s\n%s", width, fb, hint)
+		}
 	}
 }
