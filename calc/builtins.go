@@ -211,7 +211,7 @@ func InductorZ(l complex128, f float64) (Quantity, error) {
 // practice). A zero capacitance is an open circuit, reported as such.
 func CapacitorZ(c complex128, f float64) (Quantity, error) {
 	if c == 0 {
-		return Quantity{}, ErrOpenCircuit
+		return Quantity{}, openCircuit("a capacitance of 0 F is an open circuit: its impedance is infinite")
 	}
 	w := 2 * math.Pi * f
 	return Quantity{V: 1 / (complex(0, w) * c), Dim: DimImpedance}.Check("capacitor impedance")

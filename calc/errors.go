@@ -17,8 +17,18 @@ type DimError struct {
 }
 
 func (e *DimError) Error() string {
+	if e.Op == "," {
+		return fmt.Sprintf("cannot combine %s and %s: the units differ", DimName(e.A, false), DimName(e.B, false))
+	}
 	return fmt.Sprintf("cannot combine %s %s %s: the units differ", DimName(e.A, false), e.Op, DimName(e.B, false))
 }
+
+// openCircuit is an open circuit with a message of its own, such as a
+// 0 F capacitor; errors.Is(err, ErrOpenCircuit) holds for it.
+type openCircuit string
+
+func (e openCircuit) Error() string        { return string(e) }
+func (e openCircuit) Is(target error) bool { return target == ErrOpenCircuit }
 
 // CycleError reports a product of a frequency in Hz with a quantity that
 // would otherwise give an impedance, admittance or plain number.

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"unicode/utf8"
 )
 
@@ -265,7 +266,11 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		if errors.As(err, &le) {
 			return Result{}, le
 		}
-		e := nameErr("%s: %v", c.Fun, err)
+		msg := err.Error()
+		if !strings.HasPrefix(msg, c.Fun+" ") && !strings.HasPrefix(msg, c.Fun+":") {
+			msg = c.Fun + ": " + msg
+		}
+		e := nameErr("%s", msg)
 		e.Err = err
 		return Result{}, e
 	}

@@ -120,6 +120,7 @@ func (p *Parser) ExpectEnd() {
 		return
 	}
 	t := p.tok
+	t.Text = p.src[t.Off:t.End] // as typed: j4 may have been written 4j
 	switch {
 	case t.Tok == TokOp && t.Text == ")":
 		p.Failf(t, "unbalanced parentheses: ')' without a matching '('")
@@ -127,7 +128,7 @@ func (p *Parser) ExpectEnd() {
 		p.Failf(t, "unit %q must follow a number directly (as in 10 %s)", t.Text, t.Text)
 	case t.Tok == TokIdent && prefixes[t.Text] != 0:
 		p.Failf(t, "prefix %q needs a unit right after it (as in 10 %sΩ)", t.Text, t.Text)
-	case t.Tok == TokIdent || t.Tok == TokNumber || t.Tok == TokImag:
+	case t.Tok == TokIdent || t.Tok == TokNumber || t.Tok == TokImag || t.Tok == TokRect:
 		p.Failf(t, "unexpected %q: missing operator? (write * to multiply)", t.Text)
 	default:
 		p.Failf(t, "unexpected %q", t.Text)
@@ -381,7 +382,7 @@ func (p *Parser) primary() Expr {
 		p.next()
 		return p.bad(t)
 	}
-	p.Failf(t, "unexpected %q: an operand is missing", t.Text)
+	p.Failf(t, "unexpected %q: an operand is missing", p.src[t.Off:t.End])
 	p.next()
 	return p.bad(t)
 }

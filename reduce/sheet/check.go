@@ -237,7 +237,7 @@ func (s *Sheet) checkReading(p *calc.Parser, lhs calc.Expr) error {
 		_, _, col := readE.Span()
 		return lineErr(s.line, col, width(p, readE), "%v", err2)
 	}
-	s.record(rr.Steps...)
+	s.recordPart(p.Source(), rr.Steps)
 	st := ov.Step
 	st.Source = p.Source()
 	if st.Kind == "" {

@@ -158,7 +158,7 @@ func (s *Sheet) solveCompact(nw *network, reason string) error {
 	if len(steps) > 0 {
 		steps[0].Notes = append(steps[0].Notes, reason)
 	}
-	s.record(steps...)
+	s.recordPart(nw.src, steps)
 	var names []string
 	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }
 	set(nw.name+".z", red.Z)

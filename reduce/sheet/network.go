@@ -339,13 +339,23 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 	if err != nil {
 		return lineErr(s.line, netTok.Col, len(netTok.Text), "%v", err)
 	}
+	if nw.compact != nil {
+		p.Failf(netTok, "%s is a compact series-parallel network and has no named nodes: write it as a node block (network %s reference NODE … end) to take a Thevenin equivalent", nw.name, nw.name)
+		return p.Err()
+	}
 	known := map[string]bool{}
+	var nodes []string
 	for _, e := range net.Elements {
-		known[e.From], known[e.To] = true, true
+		for _, n := range []string{e.From, e.To} {
+			if !known[n] {
+				known[n] = true
+				nodes = append(nodes, n)
+			}
+		}
 	}
 	for _, t := range []calc.Item{aTok, bTok} {
 		if !known[t.Text] {
-			p.Failf(t, "network %s has no node %q", nw.name, t.Text)
+			p.Failf(t, "network %s has no node %q (its nodes: %s)", nw.name, t.Text, strings.Join(nodes, ", "))
 			return p.Err()
 		}
 	}
@@ -365,7 +375,7 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 		if nerr != nil {
 			return lineErr(s.line, 1, 8, "%v", err)
 		}
-		s.record(nsteps...)
+		s.recordPart(p.Source(), nsteps)
 		d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: deps}
 		d.recalc = func() (calc.Quantity, []calc.Operand, error) {
 			net, err := s.build(nw)
@@ -382,7 +392,7 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 		s.record(calc.Step{Kind: "norton", Source: p.Source(), Rule: "Norton equivalent only: " + err.Error(), Results: ex})
 		return nil
 	}
-	s.record(steps...)
+	s.recordPart(p.Source(), steps)
 	extras := func(vth, zth complex128) []calc.Operand {
 		extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
 		if zth != 0 {

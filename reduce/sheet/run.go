@@ -3,7 +3,6 @@ package sheet
 import (
 	"bufio"
 	"errors"
-	"fmt"
 	"io"
 
 	"argand/calc"
@@ -100,5 +99,3 @@ func (s *Sheet) OpenNetwork() string {
 	}
 	return s.open.name
 }
-
-var _ = fmt.Sprint

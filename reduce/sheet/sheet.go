@@ -224,7 +224,7 @@ func (s *Sheet) Reserved(name string) string {
 func (s *Sheet) validName(p *calc.Parser, t calc.Item) bool {
 	if t.Tok != calc.TokIdent {
 		if t.Tok == calc.TokImag {
-			p.Failf(t, "%q reads as an imaginary number, not a name", t.Text)
+			p.Failf(t, "%q reads as an imaginary number, not a name", p.Source()[t.Off:t.End])
 		} else {
 			p.Failf(t, "expected a name, found %q", t.Text)
 		}
@@ -247,6 +247,18 @@ func lineErr(line, col, n int, format string, a ...any) *calc.Error {
 		n = 1
 	}
 	return &calc.Error{Line: line, Col: col, Len: n, Msg: fmt.Sprintf(format, a...)}
+}
+
+// recordPart records the steps of a part of a statement's work (a
+// function's own steps), headed by the statement as typed so that every
+// step names the line it came from.
+func (s *Sheet) recordPart(src string, steps []calc.Step) {
+	for i := range steps {
+		if steps[i].Source == "" {
+			steps[i].Source = src
+		}
+	}
+	s.record(steps...)
 }
 
 // record appends steps to the trail, stamping line and basis. A note

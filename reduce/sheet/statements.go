@@ -496,7 +496,7 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 		st.Kind = "eval"
 	}
 	st.Results = append([]calc.Operand{{Name: name, Value: r.Value}}, extras...)
-	s.record(r.Steps...)
+	s.recordPart(p.Source(), r.Steps)
 	s.record(st)
 	if existed {
 		if err := s.reevaluate(map[string]bool{name: true}, name+" redefined"); err != nil {
@@ -682,10 +682,10 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 	pos, end, col := e.Span()
 	n := utf8.RuneCountInString(p.Source()[pos:end])
 	if r.Value.Dim != want[kind] {
-		return lineErr(s.line, col, n, "a %s takes a value in %s, got %s", kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false))
+		return lineErr(s.line, col, n, "%s %s takes a value in %s, got %s", article(kind.String()), kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false))
 	}
 	if (kind == reduce.Resistor || kind == reduce.Inductor || kind == reduce.Capacitor) && !r.Value.IsReal() {
-		return lineErr(s.line, col, n, "a %s takes a real value; use impedance for a complex one", kind)
+		return lineErr(s.line, col, n, "%s %s takes a real value; use impedance for a complex one", article(kind.String()), kind)
 	}
 	el := &element{kind: kind, raw: r.Value, from: from, to: to}
 	if net != nil {
@@ -788,4 +788,12 @@ func nodeName(p *calc.Parser) string {
 		p.Failf(t, "expected a node name, found %q", t.Text)
 	}
 	return ""
+}
+
+// article returns "an" before a vowel sound and "a" otherwise.
+func article(word string) string {
+	if word != "" && strings.ContainsRune("aeiou", rune(word[0])) {
+		return "an"
+	}
+	return "a"
 }

@@ -330,7 +330,7 @@ func (s *Sheet) stmtSpread(p *calc.Parser) error {
 		// the range's own last step is the summary: head it with the statement
 		st = rr.Steps[n-1]
 		st.Kind, st.Source = "spread", p.Source()
-		s.record(rr.Steps[:n-1]...)
+		s.recordPart(p.Source(), rr.Steps[:n-1])
 	}
 	if name != "" {
 		d := &def{name: name, src: p.Source(), line: s.line, value: rr.Nominal, deps: map[string]bool{}}

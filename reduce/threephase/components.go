@@ -36,7 +36,7 @@ func ToSequence(xa, xb, xc calc.Quantity) ([3]calc.Quantity, []calc.Step, error)
 		Formula: "X0 = (Xa + Xb + Xc)/3;  X1 = (Xa + a·Xb + a²·Xc)/3;  X2 = (Xa + a²·Xb + a·Xc)/3",
 		Inputs:  []calc.Operand{op("Xa", xa), op("Xb", xb), op("Xc", xc)},
 		// the main result (positive sequence) comes first
-		Results: []calc.Operand{op("X1 (positive)", r[1]), op("X0 (zero)", r[0]), op("X2 (negative)", r[2])},
+		Results: []calc.Operand{op("X0 (zero)", r[0]), op("X1 (positive)", r[1]), op("X2 (negative)", r[2])},
 		Notes:   []string{Caution},
 	}
 	return r, []calc.Step{st}, nil
