@@ -3,7 +3,6 @@ package cli
 import (
 	"fmt"
 	"io"
-	"sort"
 	"strings"
 
 	"argand/calc"
@@ -21,11 +20,11 @@ touching. Verify every result by measurement before relying on it.`
 const usage = `argand: AC circuit work with phasors, step by step.
 
 usage:
-  argand                 open the app (last session, or the example on first start)
+  argand                 open the app (last session, or the example at first)
   argand FILE            open a worksheet in the app
   argand eval EXPR...    evaluate each argument; print every step
-  argand run FILE        run a worksheet (- for standard input); print every step
-  argand help [TOPIC]    this help; topics: language, functions, networks, safety
+  argand run FILE        run a worksheet (- for standard input), every step
+  argand help [TOPIC]    topics: language, functions, networks, safety
   argand --version
 
 flags:
@@ -42,7 +41,8 @@ const language = `worksheet language (one statement a line, # starts a comment)
 
 numbers and units
   4.7 kΩ   4.7 kohm   10 mH   100 nF   230 V   2.5 A   1.2 kW   300 var   5 kVA
-  prefixes f p n µ (or u) m k M G T; units Ω ohm S H F V A W var VA J C Hz s m rad deg ° %
+  prefixes f p n µ (or u) m k M G T
+  units Ω ohm S H F V A W var VA J C Hz s m rad deg ° % hp
   A word right after a number is its unit. An exact unit wins over a prefix
   reading: 10 m is ten metres, 1 mS a millisiemens, 1 ms a millisecond.
   Units and prefixed units are reserved: no quantity can be named S, V or mS.
@@ -50,7 +50,7 @@ complex values
   3+j4 Ω      rectangular; the unit applies to both parts
   3-j4 kΩ     (and 3+4j, 3+i4 are the same forms); written without spaces
               it is one number; after - * / ^ write it in parentheses
-  230∠-30° V  polar; @ is the ASCII stand-in: 230@-30 V needs no shell quoting
+  230∠-30° V  polar; @ is the ASCII stand-in (230@-30 V needs no quoting)
   a bare angle is in degrees (or radians after: angles rad)
 operators, loosest first
   + -   then ||  (parallel: a + b || c is a + (b || c))   then * / · × ÷
@@ -59,7 +59,7 @@ constants: pi (π), e, j; read-only names f (working Hz) and w (ω, rad/s)
 statements
   NAME = EXPR            define or redefine a named quantity
   EXPR                   evaluate; the result gets a name such as Z3 or V2
-  frequency 60 Hz        working frequency (or rad/s); re-evaluates what depends on it
+  frequency 60 Hz        working frequency (or rad/s); what depends on it follows
   basis rms | peak       phasor basis (S = V·I* for RMS, ½·V·I* for peak)
   angles deg | rad       angle unit shown and read
   digits N               significant figures shown
@@ -101,7 +101,7 @@ equivalents
   thevenin T = bench between a and gnd      # T, T.vth, T.zth, T.in
 
 Δ–Y of a triangle (named in order around it), to step a bridge
-  deltay bench2 = bench triangle R1 R2 R3   # a new network with the Y arms Y_node
+  deltay bench2 = bench triangle R1 R2 R3   # new network, Y arms Y_node
 `
 
 // Help prints help on a topic.
@@ -129,16 +129,39 @@ func Help(args []string, w, ew io.Writer, o Options) int {
 	return ExitOK
 }
 
-// FunctionList lists every function with its arguments and what it does.
+// FunctionList lists every function with its arguments and what it does,
+// wrapped to 80 columns for a terminal of that width.
 func FunctionList() string {
 	var b strings.Builder
 	b.WriteString("functions\n")
-	fs := sheet.Functions()
-	sort.SliceStable(fs, func(i, j int) bool { return false })
-	for _, f := range fs {
-		fmt.Fprintf(&b, "  %-14s %s\n", f.Name+f.Args, f.Doc)
+	for _, f := range sheet.Functions() {
+		b.WriteString("  " + f.Name + f.Args + "\n")
+		for _, l := range wrap(f.Doc, 80-6) {
+			b.WriteString("      " + l + "\n")
+		}
 	}
 	return b.String()
+}
+
+// wrap breaks text into lines of at most width characters at spaces.
+func wrap(text string, width int) []string {
+	var lines []string
+	line := ""
+	for _, w := range strings.Fields(text) {
+		switch {
+		case line == "":
+			line = w
+		case len([]rune(line))+1+len([]rune(w)) <= width:
+			line += " " + w
+		default:
+			lines = append(lines, line)
+			line = w
+		}
+	}
+	if line != "" {
+		lines = append(lines, line)
+	}
+	return lines
 }
 
 // UTF8Locale reports whether the locale variables ask for UTF-8. The first
