@@ -59,7 +59,7 @@ constants: pi (π), e, j; read-only names f (working Hz) and w (ω, rad/s)
 statements
   NAME = EXPR            define or redefine a named quantity
   EXPR                   evaluate; the result gets a name such as Z3 or V2
-  frequency 60 Hz        working frequency (or rad/s); what depends on it follows
+  frequency 60 Hz        working frequency (or rad/s); dependent values follow
   basis rms | peak       phasor basis (S = V·I* for RMS, ½·V·I* for peak)
   angles deg | rad       angle unit shown and read
   digits N               significant figures shown
