@@ -94,7 +94,7 @@ func New(opt Options) *Model {
 	if opt.Out == nil {
 		opt.Out = io.Discard
 	}
-	m := &Model{opt: opt, keys: DefaultKeyMap(), help: help.New(), th: newTheme(opt), s: newSession(), width: 80, height: 24}
+	m := &Model{opt: opt, keys: DefaultKeyMap(), help: help.New(), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
 	m.s.v.PolarFirst = opt.PolarFirst
 	m.start()
 	return m
@@ -226,7 +226,7 @@ func (m *Model) chooseLocked(readOnly bool) {
 		m.s.holder = m.lockPID
 		data, err := store.Load(m.lockPath)
 		if err == nil {
-			if sh, f, err := decode(data); err == nil {
+			if sh, f, err := decode(data, m.s.ascii); err == nil {
 				m.s.sh, m.s.v, m.s.worksheet = sh, f.View, f.Worksheet
 				m.s.tidy()
 				m.note(false, "read-only: the session of the other argand; nothing you do here is kept")

@@ -551,7 +551,7 @@ func TestExportAndClipboard(t *testing.T) {
 	}
 	// the saved worksheet replays to the same values
 	b, _ := os.ReadFile(filepath.Join(dir, "s.argand"))
-	sh, err := replay(strings.Split(strings.TrimSpace(string(b)), "\n"))
+	sh, err := replay(strings.Split(strings.TrimSpace(string(b)), "\n"), false)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -62,18 +62,27 @@ type session struct {
 	path      string // session file; "" keeps nothing on disk
 	worksheet string // worksheet file opened, the default target of a save
 	readOnly  bool
+	ascii     bool  // sheets are made in ASCII mode
 	holder    int   // process holding the session when read-only, if known
 	saveErr   error // last failure to save, shown until a save succeeds
 }
 
-func newSession() *session {
-	return &session{sh: sheet.New()}
+func newSession(ascii bool) *session {
+	return &session{sh: newSheet(ascii), ascii: ascii}
+}
+
+// newSheet returns a fresh worksheet. In ASCII mode its format says so,
+// so that text the worksheet draws itself (a sweep's plot) is ASCII too.
+func newSheet(ascii bool) *sheet.Sheet {
+	sh := sheet.New()
+	sh.Context().Format.ASCII = ascii
+	return sh
 }
 
 // replay runs statements on a fresh sheet, stopping at the first that
 // fails.
-func replay(stmts []string) (*sheet.Sheet, error) {
-	sh := sheet.New()
+func replay(stmts []string, ascii bool) (*sheet.Sheet, error) {
+	sh := newSheet(ascii)
 	for i, st := range stmts {
 		if _, err := sh.Exec(st); err != nil {
 			return sh, fmt.Errorf("statement %d (%q): %v", i+1, short(st, 40), err)
@@ -91,7 +100,7 @@ func short(s string, n int) string {
 }
 
 // decode reads a session file and replays it.
-func decode(data []byte) (*sheet.Sheet, file, error) {
+func decode(data []byte, ascii bool) (*sheet.Sheet, file, error) {
 	var f file
 	if err := json.Unmarshal(data, &f); err != nil {
 		return nil, f, fmt.Errorf("not a session file: %v", err)
@@ -99,7 +108,7 @@ func decode(data []byte) (*sheet.Sheet, file, error) {
 	if f.Version != sessionVersion {
 		return nil, f, fmt.Errorf("session file version %d, expected %d", f.Version, sessionVersion)
 	}
-	sh, err := replay(f.Statements)
+	sh, err := replay(f.Statements, ascii)
 	if err != nil {
 		return nil, f, err
 	}
@@ -131,7 +140,7 @@ func (s *session) loadFile(path string) (ok bool, note string) {
 	var f file
 	_, err := store.LoadChecked(path, func(b []byte) error {
 		var err error
-		sh, f, err = decode(b)
+		sh, f, err = decode(b, s.ascii)
 		return err
 	})
 	if err != nil {
@@ -152,7 +161,7 @@ func (s *session) loadFile(path string) (ok bool, note string) {
 // loadWorksheet runs a worksheet text into a fresh sheet. Lines up to the
 // first bad one are kept; the error names the bad line.
 func (s *session) loadWorksheet(text string) error {
-	sh := sheet.New()
+	sh := newSheet(s.ascii)
 	sum, err := sh.Run(strings.NewReader(text), nil)
 	s.sh = sh
 	s.v = view{}

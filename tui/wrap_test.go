@@ -111,3 +111,31 @@ func TestCaretStaysUnderError(t *testing.T) {
 		}
 	}
 }
+
+// In ASCII mode the sheets the app makes draw their own text (a sweep's
+// plot) in ASCII, so the plot keeps its shape rather than showing '?'.
+func TestASCIISweepPlot(t *testing.T) {
+	m := newModel(t, Options{ASCII: true})
+	typeLine(t, m, "sweep 1/(j*w*1 uF) from 10 Hz to 10 kHz")
+	if !m.s.sh.Context().Format.ASCII {
+		t.Fatal("sheet format not in ASCII mode")
+	}
+	m.Update(tea.WindowSizeMsg{Width: 120, Height: 40})
+	press(m, "T")
+	m.View()
+	pre := 0
+	for _, l := range m.full.lines {
+		for _, r := range l.text {
+			if r >= 0x80 {
+				t.Errorf("not ASCII: %q", l.text)
+				break
+			}
+		}
+		if l.pre {
+			pre++
+		}
+	}
+	if pre < 5 {
+		t.Errorf("no plot in the trail (%d plot lines)", pre)
+	}
+}

@@ -102,6 +102,9 @@ func NewSheet(o Options) (*sheet.Sheet, error) {
 	if o.Digits != 0 {
 		s.Context().Format.Digits = o.Digits
 	}
+	// text the worksheet draws itself (a sweep's plot) is drawn in ASCII
+	// from the start, not transliterated afterwards out of alignment
+	s.Context().Format.ASCII = o.ASCII
 	return s, nil
 }
 
