@@ -225,6 +225,9 @@ func (s *Sheet) solve(nw *network, reason string) error {
 			steps[i].Source = "network " + nw.name
 		}
 	}
+	if n := len(steps); n > 0 {
+		steps[n-1].Notes = append(steps[n-1].Notes, s.sourceNotes(sol)...)
+	}
 	if len(steps) > 0 {
 		steps[0].Notes = append(steps[0].Notes, reason)
 	}
@@ -422,4 +425,30 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), extras(vth, zth))...)
 	s.record(st)
 	return nil
+}
+
+// sourceNotes says for each source whether it delivers or takes in power:
+// under the passive sign convention a source that delivers has P < 0
+// (IEEE Std 1459-2010 power, IEC 60375 reference directions).
+func (s *Sheet) sourceNotes(sol *nodal.Solution) []string {
+	f := s.ctx.Format
+	var out []string
+	for _, b := range sol.Branches {
+		if !b.Kind.IsSource() {
+			continue
+		}
+		p, q := real(b.S), imag(b.S)
+		switch {
+		case p < 0:
+			out = append(out, fmt.Sprintf("%s delivering %s and %s (P < 0 by the passive sign convention)", b.Name,
+				f.Mag(-p, calc.DimPower, calc.KindActive), f.Mag(-q, calc.DimPower, calc.KindReactive)))
+		case p > 0:
+			out = append(out, fmt.Sprintf("%s taking in %s and %s (P > 0: it is being driven by the rest of the network)", b.Name,
+				f.Mag(p, calc.DimPower, calc.KindActive), f.Mag(q, calc.DimPower, calc.KindReactive)))
+		case q != 0:
+			out = append(out, fmt.Sprintf("%s exchanging reactive power only: Q = %s, no active power", b.Name,
+				f.Mag(q, calc.DimPower, calc.KindReactive)))
+		}
+	}
+	return out
 }
