@@ -8,7 +8,11 @@ import (
 )
 
 // Example data: a workshop load of 100 kW at 0.75 lagging on a 400 V,
-// 50 Hz three-phase supply, corrected to 0.95 lagging.
+// 50 Hz three-phase supply, corrected to 0.95 lagging. By hand (common
+// practice): Q_c = 100 kW·(tan acos 0.75 − tan acos 0.95) = 100 kW·(0.8819 −
+// 0.3287) = 55.32 kvar; C_Y = Q_c/(ω·V_L²) = 1.101 mF; C_Δ = C_Y/3;
+// I = S/(√3·V_L) = 133.3 kVA/692.8 V = 192.5 A before, 105.3 kVA/692.8 V
+// = 151.9 A after.
 func ExampleCorrect() {
 	load, _, err := power.FromPF(calc.Real(100e3, calc.DimPower), 0.75, power.Lagging)
 	if err != nil {
@@ -34,7 +38,9 @@ func ExampleCorrect() {
 	// PF: 0.75 lagging → 0.95 lagging
 }
 
-// Example data: the power of an element from its phasors.
+// Example data: the power of an element from its phasors; by hand S =
+// V·I* = 230·(8 + j6) = 1840 + j1380 VA, PF 0.8 lagging (IEEE Std
+// 1459-2010 definitions).
 func ExampleFromPhasors() {
 	p, _, err := power.FromPhasors(calc.Real(230, calc.DimVoltage), calc.Q(8-6i, calc.DimCurrent), calc.RMS)
 	if err != nil {
