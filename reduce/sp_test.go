@@ -275,10 +275,8 @@ func checkSteps(t *testing.T, red *reduce.Reduction) {
 }
 
 func TestReduceOrderAndNames(t *testing.T) {
-	tree, err := reduce.ParseSP("R1 + (L1 || (C1 + R2))")
-	if err != nil {
-		t.Fatal(err)
-	}
+	// the tree the worksheet builds from R1 + (L1 || (C1 + R2))
+	tree := reduce.SeriesOf(reduce.Leaf("R1"), reduce.ParallelOf(reduce.Leaf("L1"), reduce.SeriesOf(reduce.Leaf("C1"), reduce.Leaf("R2"))))
 	if got := tree.String(); got != "R1 + (L1 || (C1 + R2))" {
 		t.Errorf("String: %q", got)
 	}
@@ -500,35 +498,6 @@ func TestNetworkErrors(t *testing.T) {
 		_, err := reduce.ReduceNetwork(&reduce.Network{Reference: "0", Elements: tc.els}, calc.RMS)
 		if err == nil || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("%s: %v, want %q", tc.name, err, tc.want)
-		}
-	}
-}
-
-func TestParseSP(t *testing.T) {
-	tests := []struct{ in, want, err string }{
-		{"R1", "R1", ""},
-		{"R1 + R2 + R3", "R1 + R2 + R3", ""},
-		{"R1 || R2 + R3", "(R1 || R2) + R3", ""},
-		{"R1 ‖ (R2 + R3)", "R1 || (R2 + R3)", ""},
-		{"((R1))", "R1", ""},
-		{"R1 +", "", "missing"},
-		{"(R1 + R2", "", "no matching )"},
-		{"R1 R2", "", "unexpected"},
-		{"R1 + R1", "", "more than once"},
-		{"", "", "missing"},
-		{strings.Repeat("(", reduce.MaxSPDepth+2) + "R1" + strings.Repeat(")", reduce.MaxSPDepth+2), "", "nested"},
-	}
-	for _, tc := range tests {
-		n, err := reduce.ParseSP(tc.in)
-		switch {
-		case tc.err != "":
-			if err == nil || !strings.Contains(err.Error(), tc.err) {
-				t.Errorf("%q: %v, want %q", tc.in, err, tc.err)
-			}
-		case err != nil:
-			t.Errorf("%q: %v", tc.in, err)
-		case n.String() != tc.want:
-			t.Errorf("%q: %q, want %q", tc.in, n.String(), tc.want)
 		}
 	}
 }
