@@ -45,6 +45,14 @@ func (m *Model) single() string { return m.s.v.Selected }
 
 // run executes statements as one change and reports the outcome.
 func (m *Model) run(what string, stmts ...string) bool {
+	_, err := m.apply(what, stmts...)
+	return err == nil
+}
+
+// apply executes statements as one change, brings the names they define
+// to the top of the table and notes the outcome. It returns the steps, or
+// the error also noted.
+func (m *Model) apply(what string, stmts ...string) ([]calc.Step, error) {
 	steps, err := m.s.exec(stmts...)
 	if err != nil {
 		var ro *readOnlyError
@@ -54,7 +62,7 @@ func (m *Model) run(what string, stmts ...string) bool {
 		default:
 			m.note(true, strings.TrimSuffix(what, ":")+": "+errText(err))
 		}
-		return false
+		return nil, err
 	}
 	// the names the statements define (not those re-evaluated because
 	// they depend on them) come to the top: the newest row is the top row
@@ -88,7 +96,7 @@ func (m *Model) run(what string, stmts ...string) bool {
 	}
 	m.trail.back = 0
 	m.note(false, strings.TrimSpace(what+"  "+res))
-	return true
+	return steps, nil
 }
 
 func errText(err error) string {

@@ -159,16 +159,19 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 	switch {
 	case !tty:
 		return cli.Batch(file, in, out, errw, f.opt)
-	case f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "":
-		return cli.Plain(file, in, out, errw, f.opt)
 	}
-	return tui.Run(tui.Options{
+	opt := tui.Options{
 		ASCII:      f.opt.ASCII,
 		Color:      tui.ColorWanted(os.Getenv),
 		PolarFirst: f.opt.PolarFirst,
 		Digits:     f.opt.Digits,
 		File:       file,
-	}, in, out, errw)
+	}
+	if f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "" {
+		// the line mode works on the same session as the app
+		return tui.Plain(opt, in, out)
+	}
+	return tui.Run(opt, in, out, errw)
 }
 
 // cleanErr shortens an *os.PathError to what a person needs.

@@ -1,0 +1,193 @@
+package tui
+
+import (
+	"bufio"
+	"errors"
+	"fmt"
+	"io"
+	"path/filepath"
+	"strings"
+
+	"argand/calc"
+	"argand/reduce/sheet"
+	"argand/tui/cli"
+	"argand/tui/store"
+)
+
+// plainCommands are the words of the line mode besides statements.
+const plainCommands = "help, list, trail, undo, redo, save FILE, quit"
+
+// Plain is the line mode, for terminals that cannot address the screen
+// (TERM=dumb, or --plain): a prompt, then each statement's steps or its
+// error as lines. It works on the same session as the app: the same file
+// and lock, restored on start (the built-in example on first start) and
+// saved after every change, so that the app and the line mode take up
+// each other's work. Besides statements it reads the words of
+// plainCommands. It returns the exit code for the command line.
+func Plain(opt Options, in io.Reader, w io.Writer) int {
+	m := New(opt)
+	defer m.Close()
+	br := bufio.NewReader(in)
+	p := &cli.Printer{W: w, Err: w, O: cli.Options{ASCII: opt.ASCII}}
+	say := func(s string) { fmt.Fprintln(w, m.tr(s)) }
+	if m.mode == modeLocked {
+		if !m.plainLocked(br, say) {
+			return cli.ExitOK
+		}
+	}
+	say("argand line mode: type a statement, or " + plainCommands + ".")
+	if m.msg != "" {
+		if m.msgErr && !strings.HasPrefix(m.msg, "read-only:") {
+			say("error: " + m.msg)
+		} else {
+			say(m.msg)
+		}
+	}
+	m.plainWhere(say)
+	for {
+		prompt := "> "
+		if n := m.s.sh.OpenNetwork(); n != "" {
+			prompt = n + "> "
+		}
+		fmt.Fprint(w, m.tr(prompt))
+		line, n, err := sheet.ReadLine(br)
+		if err != nil {
+			fmt.Fprintln(w)
+			return cli.ExitOK
+		}
+		if n > calc.MaxLine {
+			say(fmt.Sprintf("error: line too long: %d bytes (the limit is %d)", n, calc.MaxLine))
+			continue
+		}
+		cmd := strings.TrimSpace(line)
+		word, arg, _ := strings.Cut(cmd, " ")
+		switch word {
+		case "":
+			continue
+		case "quit", "exit":
+			return cli.ExitOK
+		case "help":
+			cli.Help(nil, w, w, p.O)
+			say("line mode: " + plainCommands + "; the session is saved after every change.")
+			continue
+		case "list":
+			m.plainList(say)
+			continue
+		case "trail":
+			fmt.Fprint(w, m.trailText())
+			continue
+		case "undo", "redo":
+			if arg != "" {
+				break
+			}
+			switch {
+			case m.s.readOnly:
+				say(m.s.errReadOnly().Error())
+			case word == "undo" && m.s.doUndo():
+				say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(m.s.undo)))
+			case word == "redo" && m.s.doRedo():
+				say("redone")
+			default:
+				say("nothing to " + word)
+			}
+			m.plainSaveErr(say)
+			continue
+		case "save":
+			name := strings.TrimSpace(arg)
+			if name == "" {
+				say("save needs a file name: save FILE")
+				continue
+			}
+			if err := store.Save(name, []byte(m.worksheetText())); err != nil {
+				say("error: could not write " + name + ": " + err.Error())
+				continue
+			}
+			abs, _ := filepath.Abs(name)
+			say("saved " + abs + " (argand run " + name + " replays it)")
+			continue
+		}
+		steps, err := m.apply("", line)
+		if err != nil {
+			var e *calc.Error
+			var ro *readOnlyError
+			switch {
+			case errors.As(err, &ro):
+				say(ro.Error())
+			case errors.As(err, &e):
+				p.Error(e, line, "")
+			default:
+				say("error: " + err.Error())
+			}
+			continue
+		}
+		f := m.format()
+		for i := range steps {
+			fmt.Fprint(w, steps[i].Text(f, m.s.v.PolarFirst))
+		}
+		m.plainSaveErr(say)
+	}
+}
+
+// plainLocked asks what to do with a session held by another argand. It
+// reports false when the user chose to quit.
+func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
+	who := "another argand"
+	if m.lockPID > 0 {
+		who = fmt.Sprintf("another argand (pid %d)", m.lockPID)
+	}
+	say("argand: this session is in use: " + who + " has it open, perhaps in another login.")
+	say("Two programs saving one session would overwrite each other's work.")
+	say("  r  open it read-only: look, nothing is kept")
+	say("  s  start a separate session (kept in its own file)")
+	say("  q  quit")
+	for {
+		say("r, s or q?")
+		line, _, err := sheet.ReadLine(br)
+		if err != nil {
+			return false
+		}
+		switch strings.TrimSpace(line) {
+		case "r":
+			m.chooseLocked(true)
+			return true
+		case "s":
+			m.chooseLocked(false)
+			return true
+		case "q", "quit", "exit":
+			return false
+		}
+	}
+}
+
+// plainWhere says where the session is kept.
+func (m *Model) plainWhere(say func(string)) {
+	switch {
+	case m.s.readOnly:
+		say("read-only: this session is open in another argand; nothing you do here is saved")
+	case m.s.path == "":
+		say("the session is not saved (no place to keep it); save FILE keeps a worksheet")
+	default:
+		say("the session is saved after every change, in " + m.s.path)
+	}
+}
+
+// plainSaveErr reports a failed save of the session.
+func (m *Model) plainSaveErr(say func(string)) {
+	if m.s.saveErr != nil {
+		say("error: the session could not be saved: " + m.s.saveErr.Error())
+	}
+}
+
+// plainList prints the rows, newest first, in both forms.
+func (m *Model) plainList(say func(string)) {
+	rows := m.s.rows()
+	if len(rows) == 0 {
+		say("no entries yet")
+		return
+	}
+	f := m.format()
+	for _, n := range rows {
+		q, _ := m.s.sh.Lookup(n)
+		say(fmt.Sprintf("  %-10s %s", n, f.Both(q, m.s.v.PolarFirst)))
+	}
+}

@@ -1,0 +1,122 @@
+package tui
+
+import (
+	"bytes"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"argand/tui/cli"
+)
+
+// plainRun runs the line mode on input with the state directory taken
+// from XDG_STATE_HOME, as on the command line, and returns its output.
+func plainRun(t *testing.T, input string) string {
+	t.Helper()
+	var out bytes.Buffer
+	if code := Plain(Options{Getenv: func(string) string { return "" }}, strings.NewReader(input), &out); code != 0 {
+		t.Fatalf("exit %d:\n%s", code, out.String())
+	}
+	return out.String()
+}
+
+// listed returns the names the list command printed.
+func listed(out, after string) []string {
+	_, rest, _ := strings.Cut(out, after)
+	var names []string
+	for _, l := range strings.Split(rest, "\n") {
+		l = strings.TrimPrefix(l, "> ")
+		if !strings.HasPrefix(l, "  ") {
+			if len(names) > 0 {
+				break
+			}
+			continue
+		}
+		names = append(names, strings.Fields(l)[0])
+	}
+	return names
+}
+
+func TestPlainKeepsTheSession(t *testing.T) {
+	state := t.TempDir()
+	t.Setenv("XDG_STATE_HOME", state)
+	session := filepath.Join(state, "argand", "session.json")
+
+	// first start: the built-in example, and where the session is kept
+	out := plainRun(t, "list\nZq = 3+j4 Ω\nZr = Zq || 10 Ω\nquit\n")
+	for _, want := range []string{"first start", "example", "saved after every change, in " + session, "Zload", "→ Zr = "} {
+		if !strings.Contains(out, want) {
+			t.Errorf("first run lacks %q:\n%s", want, out)
+		}
+	}
+	if _, err := os.Stat(session); err != nil {
+		t.Fatalf("no session file: %v", err)
+	}
+
+	// restart: restored, newest first; an undo is kept too
+	out = plainRun(t, "list\nZs = 1 Ω\nundo\nlist\nquit\n")
+	if !strings.Contains(out, "session restored") {
+		t.Errorf("second run not restored:\n%s", out)
+	}
+	if got := listed(out, "session"); len(got) < 2 || got[0] != "Zr" || got[1] != "Zq" {
+		t.Errorf("restored rows start %v, want Zr Zq", got)
+	}
+	_, afterUndo, _ := strings.Cut(out, "undone")
+	if got := listed(afterUndo, "\n"); len(got) == 0 || got[0] != "Zr" {
+		t.Errorf("after undo rows start %v, want Zr", got)
+	}
+
+	// a third start finds the undo, and save FILE writes a worksheet
+	// that argand run replays to the same values
+	ws := filepath.Join(t.TempDir(), "job.argand")
+	out = plainRun(t, "list\nsave "+ws+"\n")
+	if got := listed(out, "session"); len(got) == 0 || got[0] != "Zr" || strings.Contains(out, "Zs") {
+		t.Errorf("third run rows start %v, want Zr and no Zs", got)
+	}
+	if !strings.Contains(out, "saved "+ws) {
+		t.Errorf("save not reported:\n%s", out)
+	}
+	f, err := os.Open(ws)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	var run, errb bytes.Buffer
+	if code := cli.Run(f, ws, &run, &errb, cli.Options{}); code != cli.ExitOK {
+		t.Fatalf("argand run on the saved worksheet: exit %d\n%s", code, errb.String())
+	}
+	if !strings.Contains(run.String(), "→ Zr = 2.973 + j2.162 Ω = 3.676 Ω ∠36.03°") || strings.Contains(run.String(), "Zs") {
+		t.Errorf("saved worksheet replays to:\n%s", run.String())
+	}
+}
+
+func TestPlainErrorsAndLock(t *testing.T) {
+	state := t.TempDir()
+	t.Setenv("XDG_STATE_HOME", state)
+	out := plainRun(t, "Zb = 3 Ω + 5 V\n")
+	if !strings.Contains(out, "error: ") || !strings.Contains(out, "^") {
+		t.Errorf("no located error:\n%s", out)
+	}
+
+	// a second instance while the app holds the session is asked
+	held := New(Options{Getenv: func(string) string { return "" }})
+	defer held.Close()
+	out = plainRun(t, "r\nZz = 1 Ω\nundo\nquit\n")
+	if !strings.Contains(out, "in use") || !strings.Contains(out, "read-only: this session is open in another argand (pid ") {
+		t.Errorf("read-only choice:\n%s", out)
+	}
+	if strings.Contains(out, "→ Zz") {
+		t.Errorf("read-only session took a change:\n%s", out)
+	}
+	out = plainRun(t, "s\nZsep = 2 Ω\nquit\n")
+	if !strings.Contains(out, "→ Zsep") || !strings.Contains(out, "session-2.json") {
+		t.Errorf("separate session:\n%s", out)
+	}
+	out = plainRun(t, "q\n")
+	if strings.Contains(out, "line mode:") {
+		t.Errorf("q did not quit:\n%s", out)
+	}
+	_ = io.Discard
+}
