@@ -169,6 +169,13 @@ func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 		m.quitting = true
 		return tea.Quit
 	default:
+		if k.Type == tea.KeyRunes && k.Alt && !k.Paste {
+			// esc and a key arriving together (a slow link) read as
+			// alt+key: leave the line, then act on the key
+			m.mode = modeRows
+			k.Alt = false
+			return m.rowsKey(k)
+		}
 		if k.Type == tea.KeyRunes || k.Type == tea.KeySpace {
 			rs := keyRunes(k)
 			if k.Paste && strings.ContainsAny(string(rs), "\n\r") {

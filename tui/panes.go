@@ -138,8 +138,14 @@ func (t *tableView) view(m *Model, w, h int) []string {
 				mark = m.th.g.mark + "+"
 			}
 		}
-		line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  " + c.eq
-		line = fit(line, w)
+		line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  "
+		eq := c.eq
+		if _, lc, ok := strings.Cut(eq, " + "); ok && ansi.StringWidth(line+eq) > w {
+			// R is the real part, already in the rectangular form: the
+			// L or C alone, whole, says more than both cut
+			eq = lc
+		}
+		line = fit(line+eq, w)
 		switch {
 		case name == m.s.v.Selected:
 			line = m.th.sel.Render(pad(line, w))
@@ -268,7 +274,7 @@ func (t *trailView) view(m *Model, w, h int) []string {
 	t.build(m, w)
 	t.back = max(0, min(t.back, len(t.lines)-1))
 	n := len(m.s.sh.Steps())
-	info := fmt.Sprintf("%d steps", n)
+	info := fmt.Sprintf("%d steps, T in full", n)
 	if t.back > 0 {
 		info = fmt.Sprintf("%d lines back (L: latest)", t.back)
 	}
@@ -471,11 +477,37 @@ func (m *Model) hintView() string {
 	case modeExport:
 		parts = []string{k("m", "Markdown"), k("t", "text"), k("w", "worksheet"), k("esc", "cancel")}
 	default:
-		parts = append(parts, k("?", "help"), k("tab", "type"), k("space", "mark"))
-		if ops := m.operands(2); len(ops) == 2 {
-			parts = append(parts, "on "+ops[0]+", "+ops[1]+":", k("p s + - * /", ""), k("v c t", "roles"))
+		// every key shown whole: the most wanted always, the others in
+		// order of use while the line has room, each in its place
+		type hint struct {
+			text string
+			must bool
 		}
-		parts = append(parts, k("u", "undo"), k("N", "networks"), k("x", "export"), k("q", "quit"))
+		hs := []hint{{k("?", "help"), true}, {k("tab", "type"), false}, {k("space", "mark"), false}}
+		if ops := m.operands(2); len(ops) == 2 {
+			hs = append(hs, hint{"on " + ops[0] + ", " + ops[1] + ": " + m.th.key.Render("p s + - * /"), true}, hint{k("v c t", "roles"), false})
+		}
+		hs = append(hs, hint{k("u", "undo"), true}, hint{k("q", "quit"), true},
+			hint{k("T", "trail in full"), false}, hint{k("N", "networks"), false}, hint{k("x", "export"), false})
+		take := make([]bool, len(hs))
+		used := -2
+		for pass := 0; pass < 2; pass++ {
+			for i, h := range hs {
+				if take[i] || h.must != (pass == 0) {
+					continue
+				}
+				w := ansi.StringWidth(m.tr(h.text)) + 2
+				if pass == 0 || used+w <= m.width {
+					take[i] = true
+					used += w
+				}
+			}
+		}
+		for i, h := range hs {
+			if take[i] {
+				parts = append(parts, h.text)
+			}
+		}
 	}
 	return m.tr(strings.Join(parts, "  "))
 }

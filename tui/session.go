@@ -189,7 +189,7 @@ func (e *readOnlyError) Error() string {
 	if e.pid > 0 {
 		who = fmt.Sprintf("another argand (pid %d)", e.pid)
 	}
-	return "read-only: this session is open in " + who + "; changes are not made or saved"
+	return "read-only: this session is open in " + who + "; nothing is saved"
 }
 
 func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder} }

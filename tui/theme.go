@@ -102,7 +102,7 @@ func pad(s string, width int) string {
 
 // asciiReplacer spells the app's own symbols in ASCII; calc.ASCIIText
 // does the rest.
-var asciiReplacer = strings.NewReplacer("›", ">", "↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
+var asciiReplacer = strings.NewReplacer("↑↓", "up/down", "→←", "right/left", "›", ">", "↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
 	"…", "~", "…", "~", "×", "x", "├", "+", "└", "+")
 
 // tr writes text for the screen: in ASCII mode every symbol argand uses is
