@@ -202,7 +202,7 @@ func (m *Model) fresh() {
 		}
 	} else {
 		m.s.loadWorksheet(cli.Example)
-		m.note(false, "first start: the built-in example worksheet (example data, an invented scenario). ? for help")
+		m.note(false, "first start: the built-in example worksheet (invented example data). ? for help")
 	}
 	m.s.v.PolarFirst = pf
 	if m.opt.Digits > 0 && m.s.sh.Settings().Digits != m.opt.Digits {

@@ -282,7 +282,13 @@ func (m *Model) netPane(w, h int) []string {
 		}
 	}
 	hot := n.hot(n.step)
-	head := fmt.Sprintf("   %-7s %-9s %-8s %-14s %-18s %-18s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
+	// below 100 columns the kind gives way, so that voltage and current
+	// keep their angles (the value's unit tells the kind)
+	wide := w >= 100
+	head := fmt.Sprintf("   %-7s %-8s %-14s %-18s %-18s %s", "element", "nodes", "value", "voltage", "current", "power")
+	if wide {
+		head = fmt.Sprintf("   %-7s %-9s %-8s %-14s %-18s %-18s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
+	}
 	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
 	// leave room for the reduction step below the element table
 	listH := max(3, min(len(n.net.Elements), h-2-8))
@@ -313,7 +319,11 @@ func (m *Model) netPane(w, h int) []string {
 			}
 			return "-"
 		}
-		line := sel + hi + pad(e.Name, 7) + " " + pad(kindWord(e.Kind), 9) + " " + pad(e.From+m.th.g.arrow+e.To, 8) + " " +
+		kw := ""
+		if wide {
+			kw = pad(kindWord(e.Kind), 9) + " "
+		}
+		line := sel + hi + pad(e.Name, 7) + " " + kw + pad(e.From+m.th.g.arrow+e.To, 8) + " " +
 			pad(m.tr(val), 14) + " " + pad(get("v"), 18) + " " + pad(get("i"), 18) + " " + get("s")
 		line = fit(m.tr(line), w)
 		switch {

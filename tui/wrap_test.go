@@ -139,3 +139,18 @@ func TestASCIISweepPlot(t *testing.T) {
 		t.Errorf("no plot in the trail (%d plot lines)", pre)
 	}
 }
+
+// Over a slow link esc and the next key can arrive in one read, as
+// alt+key: in the entry line that leaves the line and acts on the key
+// instead of typing it.
+func TestAltKeyLeavesLine(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	for _, r := range "Zw = 2 Ω" {
+		m.Update(keyMsg(string(r)))
+	}
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("?"), Alt: true})
+	if m.mode != modeHelp || m.line.f.String() != "Zw = 2 Ω" {
+		t.Errorf("alt+? in the line: mode %s, line %q", m.mode, m.line.f.String())
+	}
+}
