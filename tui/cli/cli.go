@@ -118,6 +118,11 @@ func Eval(args []string, w, ew io.Writer, o Options) int {
 		return ExitBadInput
 	}
 	for i, a := range args {
+		if strings.TrimSpace(a) == "" {
+			// a blank argument is a slip (an unset shell variable, say)
+			p.Error(&calc.Error{Line: i + 1, Col: 1, Len: 1, Msg: "empty input: nothing to evaluate"}, a, "argument")
+			return ExitBadInput
+		}
 		steps, err := s.ExecLine(a, i+1)
 		if err != nil {
 			e, ok := err.(*calc.Error)
