@@ -102,7 +102,7 @@ func DefaultKeyMap() KeyMap {
 		YDelta:    kb([]string{"W"}, "W", "Y → Δ: three star arms to Δ sides"),
 		Rename:    kb([]string{"R"}, "R", "rename the selected row"),
 		Copy:      kb([]string{"C"}, "C", "copy the selected row under a new name"),
-		Delete:    kb([]string{"d", "delete"}, "d/del", "put the selected row away (undo brings it back)"),
+		Delete:    kb([]string{"d", "delete"}, "d/del", "delete the row (put away if others use it)"),
 		Raise:     kb([]string{"K", "shift+up"}, "K/shift+↑", "move the selected row up"),
 		Lower:     kb([]string{"J", "shift+down"}, "J/shift+↓", "move the selected row down"),
 		Freq:      kb([]string{"f"}, "f", "set the working frequency"),
