@@ -1,8 +1,9 @@
 package tui
 
 import (
+	"argand/tui/internal/golden"
+
 	"bytes"
-	"flag"
 	"math/cmplx"
 	"os"
 	"path/filepath"
@@ -16,8 +17,6 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
 )
-
-var update = flag.Bool("update", false, "rewrite the golden views in testdata")
 
 func TestMain(m *testing.M) {
 	// Plain text views: goldens must not depend on the terminal running
@@ -604,20 +603,7 @@ func TestGolden(t *testing.T) {
 			m.Update(tea.WindowSizeMsg{Width: c.w, Height: c.h})
 			press(m, c.keys...)
 			got := m.View()
-			path := filepath.Join("testdata", c.name+".golden")
-			if *update {
-				if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, err := os.ReadFile(path)
-			if err != nil {
-				t.Fatalf("%v (run go test ./tui -run TestGolden -update)", err)
-			}
-			if got != string(want) {
-				t.Errorf("view differs from %s:\n%s", path, got)
-			}
+			golden.Check(t, filepath.Join("testdata", c.name+".golden"), got)
 		})
 	}
 }

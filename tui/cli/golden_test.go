@@ -1,16 +1,15 @@
 package cli
 
 import (
+	"argand/tui/internal/golden"
+
 	"bytes"
-	"flag"
 	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 )
-
-var update = flag.Bool("update", false, "rewrite golden files")
 
 // The worksheets live in the repository's testdata; their data are
 // invented examples, labelled as such in each file.
@@ -38,20 +37,7 @@ func runOutput(code int, out, errb string) string {
 
 func checkGolden(t *testing.T, file, got string) {
 	t.Helper()
-	path := filepath.Join(goldenDir, file)
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run go test ./tui/cli -update to create it)", err)
-	}
-	if got != string(want) {
-		t.Errorf("%s differs from the golden file (go test ./tui/cli -update rewrites it)\n--- got\n%s\n--- want\n%s", file, got, want)
-	}
+	golden.Check(t, filepath.Join(goldenDir, file), got)
 }
 
 func TestGoldenRun(t *testing.T) {

@@ -1,10 +1,10 @@
 package sketch
 
 import (
-	"flag"
+	"argand/tui/internal/golden"
+
 	"math"
 	"math/cmplx"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -12,8 +12,6 @@ import (
 	"github.com/mattn/go-runewidth"
 	"pgregory.net/rapid"
 )
-
-var update = flag.Bool("update", false, "rewrite the golden files in testdata")
 
 // Example data (invented): a supply voltage, a load current lagging it and
 // two impedances.
@@ -24,23 +22,9 @@ var example = []Item{
 	{"Z₂", complex(-3, 4), "Ω"},
 }
 
-func golden(t *testing.T, name string, lines []string) {
+func checkGolden(t *testing.T, name string, lines []string) {
 	t.Helper()
-	got := strings.Join(lines, "\n") + "\n"
-	path := filepath.Join("testdata", name+".golden")
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create)", err)
-	}
-	if got != string(want) {
-		t.Errorf("%s differs from the golden file:\n--- got ---\n%s--- want ---\n%s", name, got, want)
-	}
+	golden.Check(t, filepath.Join("testdata", name+".golden"), strings.Join(lines, "\n")+"\n")
 }
 
 func TestGolden(t *testing.T) {
@@ -68,7 +52,7 @@ func TestGolden(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			golden(t, tt.name, Render(tt.items, tt.w, tt.h, tt.opt))
+			checkGolden(t, tt.name, Render(tt.items, tt.w, tt.h, tt.opt))
 		})
 	}
 	tri := []struct {
@@ -86,7 +70,7 @@ func TestGolden(t *testing.T) {
 	}
 	for _, tt := range tri {
 		t.Run(tt.name, func(t *testing.T) {
-			golden(t, tt.name, Triangle(tt.p, tt.q, tt.w, tt.h, tt.opt))
+			checkGolden(t, tt.name, Triangle(tt.p, tt.q, tt.w, tt.h, tt.opt))
 		})
 	}
 }
