@@ -164,6 +164,18 @@ func (f Format) Rect(q Quantity) string {
 	re, im := cleanParts(q.V)
 	m := cmplx.Abs(q.V)
 	exp3, dec, unit, expo := f.scaled(m, q.Dim, q.Kind)
+	// the smaller part keeps its own figures, up to three more decimals,
+	// so 10 Ω − j31.83 kΩ reads 0.01000 − j31.83 kΩ rather than 0.01
+	partDec := func(x float64) int {
+		if x == 0 {
+			return dec
+		}
+		d := f.digits() - 1 - (decExp(math.Abs(x), f.digits()) - exp3)
+		if d > dec+3 {
+			return dec // too small to show its figures: it reads as 0
+		}
+		return max(d, dec)
+	}
 	var b strings.Builder
 	switch {
 	case im == 0:
@@ -176,8 +188,8 @@ func (f Format) Rect(q Quantity) string {
 			b.WriteString("j" + s + expo)
 		}
 	default:
-		b.WriteString(fixed(re, exp3, dec) + expo)
-		s := fixed(im, exp3, dec)
+		b.WriteString(fixed(re, exp3, partDec(re)) + expo)
+		s := fixed(im, exp3, partDec(im))
 		if strings.HasPrefix(s, "-") {
 			b.WriteString(" - j" + s[1:] + expo)
 		} else {
