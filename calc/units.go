@@ -48,6 +48,9 @@ var units = map[string]unitDef{
 	"deg":     {math.Pi / 180, Dimensionless, KindAngle, false},
 	"°":       {math.Pi / 180, Dimensionless, KindAngle, false},
 	"%":       {0.01, Dimensionless, KindPlain, false},
+	// a count of cycles, as f·t gives: 50 Hz × 20 ms = 1 cycle
+	"cycle":  {1, Dim{BaseCycle: 1}, KindPlain, true},
+	"cycles": {1, Dim{BaseCycle: 1}, KindPlain, false},
 	// mechanical horsepower, 550 ft·lbf/s = 745.699 871 582 270 22 W
 	// (NIST SP 811, appendix B.8, from memory)
 	"hp": {745.69987158227022, DimPower, KindActive, false},
