@@ -228,6 +228,12 @@ func (s *Sheet) checkReading(p *calc.Parser, lhs calc.Expr) error {
 		}
 		acc.Resolution = real(r.Value.V)
 	}
+	if s.dry {
+		if _, err := s.eval(p, lhs); err != nil {
+			return err
+		}
+		return nil
+	}
 	rr, err := s.spreadOf(p, lhs)
 	if err != nil {
 		return err

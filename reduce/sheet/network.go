@@ -296,7 +296,14 @@ func (s *Sheet) resolveNets(changed map[string]bool) (bool, error) {
 		}
 		sort.Strings(why)
 		if err := s.solve(nw, "re-solved because "+strings.Join(why, ", ")+" changed"); err != nil {
-			return false, fmt.Errorf("network %s: %v", n, err)
+			if s.lenient != nil {
+				// its results are unusable here; what reads them fails
+				for _, r := range nw.results {
+					s.lenient[r] = fmt.Errorf("network %s: %w", n, err)
+				}
+				continue
+			}
+			return false, fmt.Errorf("network %s: %w", n, err)
 		}
 		for _, r := range nw.results {
 			if d := s.byName[r]; d != nil && d.value.V != old[r].V {

@@ -75,6 +75,9 @@ type Sheet struct {
 	fail   int
 	sweeps []*SweepResult
 	tols   map[string]float64 // relative tolerance of a named value
+	// dry, when set, checks statements without the long computations
+	// (sweeps, tolerance ranges): Validate runs on every keystroke.
+	dry bool
 	// lenient, when set, collects the definitions that fail to re-evaluate
 	// instead of failing the propagation (used at sweep points).
 	lenient map[string]error

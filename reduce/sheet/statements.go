@@ -43,6 +43,7 @@ func (s *Sheet) Validate(src string) *calc.Error {
 	}
 	c := s.Clone()
 	c.line = 0
+	c.dry = true
 	if err := c.exec(src, 1); err != nil {
 		if le, ok := err.(*calc.Error); ok {
 			return le

@@ -28,7 +28,14 @@ func (s *Sheet) Sweeps() []*SweepResult { return s.sweeps }
 // expression; one it does read passes its error on, with the cause kept
 // (errors.Is(err, calc.ErrOpenCircuit)) so that a sweep can mark the point.
 func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity, error) {
-	c := s.Clone()
+	return s.Clone().evalAt(src, e, hz)
+}
+
+// evalAt sets the frequency of a copy of the worksheet (c must be a clone),
+// re-evaluates what depends on it and evaluates e. A sweep reuses one copy
+// for all its points: each point re-evaluates everything that depends on
+// the frequency, so no value of the previous point survives.
+func (c *Sheet) evalAt(src string, e calc.Expr, hz float64) (calc.Quantity, error) {
 	c.ctx.Freq = hz
 	c.lenient = map[string]error{}
 	if _, err := c.propagate(map[string]bool{"f": true, "w": true, "ω": true}, ""); err != nil {
@@ -39,7 +46,7 @@ func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity,
 			return calc.Quantity{}, err
 		}
 	}
-	ev := c.evaluator(src, s.line)
+	ev := c.evaluator(src, c.line)
 	r, err := ev.Eval(e)
 	if err != nil {
 		return calc.Quantity{}, errPlain(err)
@@ -160,8 +167,16 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		_, _, col := f1E.Span()
 		return lineErr(s.line, col, width(p, f1E), "%v", err)
 	}
+	if s.dry {
+		// the value at the working frequency stands for the sweep
+		if _, err := s.eval(p, e); err != nil {
+			return err
+		}
+		return nil
+	}
 	src := p.Source()
-	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) { return s.AtFrequency(src, e, hz) })
+	c := s.Clone()
+	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) { return c.evalAt(src, e, hz) })
 	if err != nil {
 		_, _, col := e.Span()
 		return lineErr(s.line, col, width(p, e), "%v", err)
@@ -229,8 +244,16 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		names = append(names, n)
 	}
 	src := p.Source()
+	// one copy serves every sample: each sample sets every toleranced
+	// value and re-evaluates all that depends on them
+	c := s.Clone()
+	for _, n := range names {
+		if d := c.byName[n]; d.elem == nil {
+			d.expr = nil // held at the sampled value
+		}
+	}
 	rr, err := site.Range(params, func(vals []calc.Quantity) (calc.Quantity, error) {
-		c := s.Clone()
+		c.lenient = map[string]error{}
 		changed := map[string]bool{}
 		for i, n := range names {
 			d := c.byName[n]
@@ -243,12 +266,16 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 				d.value = z
 			} else {
 				d.value = vals[i]
-				d.expr = nil // held at the sampled value
 			}
 			changed[n] = true
 		}
 		if _, err := c.propagate(changed, ""); err != nil {
 			return calc.Quantity{}, err
+		}
+		for name := range depsOf(e) {
+			if err := c.brokenUnder(name, 0); err != nil {
+				return calc.Quantity{}, err
+			}
 		}
 		r, err := c.evaluator(src, s.line).Eval(e)
 		if err != nil {
@@ -319,6 +346,10 @@ func (s *Sheet) stmtSpread(p *calc.Parser) error {
 	e := p.Expr()
 	p.ExpectEnd()
 	if err := p.Err(); err != nil {
+		return err
+	}
+	if s.dry {
+		_, err := s.eval(p, e)
 		return err
 	}
 	rr, err := s.spreadOf(p, e)
