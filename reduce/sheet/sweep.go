@@ -2,6 +2,7 @@ package sheet
 
 import (
 	"fmt"
+	"math/cmplx"
 	"strconv"
 
 	"argand/calc"
@@ -286,6 +287,20 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 	if err != nil {
 		_, _, col := e.Span()
 		return site.RangeResult{}, lineErr(s.line, col, width(p, e), "%v", err)
+	}
+	// a pole inside the box (a parallel resonance, an open circuit) makes
+	// the sampled maximum meaningless: say so rather than quote it as a range
+	nom := cmplx.Abs(rr.Nominal.V)
+	var warn string
+	switch {
+	case rr.Failed > 0:
+		warn = fmt.Sprintf("%d of %d samples failed (an open circuit or a short inside the tolerance box): the value is unbounded there and the range above is not a bound", rr.Failed, rr.Evaluations)
+	case nom > 0 && real(rr.MagMax.V) > 1e6*nom:
+		warn = "the maximum is over a million times the nominal value: a resonance (pole) lies inside the tolerance box, the value is unbounded there and mag_max is not a bound"
+	}
+	if warn != "" && len(rr.Steps) > 0 {
+		last := &rr.Steps[len(rr.Steps)-1]
+		last.Notes = append(last.Notes, warn)
 	}
 	return rr, nil
 }
