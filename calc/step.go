@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"math"
 	"math/cmplx"
 	"strconv"
 	"strings"
@@ -226,25 +227,28 @@ func JSONValue(name string, q Quantity, basis Basis) string {
 }
 
 func writeValueFields(b *strings.Builder, q Quantity, re, im float64, basis Basis) {
+	deg, unit := Deg(q.V), UnitSymbol(q.Dim, q.Kind, false)
+	if q.Kind == KindAngle && q.Dim.IsDimensionless() && q.IsReal() {
+		// an angle value: re holds it in radians, deg in degrees (not the
+		// 0° or 180° that a positive or negative real number would have)
+		deg, unit = real(q.V)*180/math.Pi, "rad"
+	}
 	b.WriteString(`,"re":` + jsonNum(re))
 	b.WriteString(`,"im":` + jsonNum(im))
 	b.WriteString(`,"mag":` + jsonNum(cmplx.Abs(q.V)))
-	b.WriteString(`,"deg":` + jsonNum(Deg(q.V)))
-	b.WriteString(`,"unit":` + jsonString(UnitSymbol(q.Dim, q.Kind, false)))
+	b.WriteString(`,"deg":` + jsonNum(deg))
+	b.WriteString(`,"unit":` + jsonString(unit))
 	b.WriteString(`,"basis":` + jsonString(basis.String()))
 }
 
 func jsonValueNoName(q Quantity, basis Basis) string {
 	re, im := cleanParts(q.V)
 	var b strings.Builder
-	b.WriteString(`{"re":` + jsonNum(re))
-	b.WriteString(`,"im":` + jsonNum(im))
-	b.WriteString(`,"mag":` + jsonNum(cmplx.Abs(q.V)))
-	b.WriteString(`,"deg":` + jsonNum(Deg(q.V)))
-	b.WriteString(`,"unit":` + jsonString(UnitSymbol(q.Dim, q.Kind, false)))
-	b.WriteString(`,"basis":` + jsonString(basis.String()))
+	b.WriteByte('{')
+	writeValueFields(&b, q, re, im, basis)
 	b.WriteByte('}')
-	return b.String()
+	out := b.String()
+	return "{" + out[2:] // drop the comma before the first field
 }
 
 // JSON writes the step as one JSON object on one line. A step with a main
