@@ -1,6 +1,8 @@
 package threephase
 
 import (
+	"math/cmplx"
+
 	"fmt"
 
 	"argand/calc"
@@ -27,6 +29,14 @@ func ToSequence(xa, xb, xc calc.Quantity) ([3]calc.Quantity, []calc.Step, error)
 	r[0] = calc.Q((a+b+c)/3, d)
 	r[1] = calc.Q((a+opA*b+opA2*c)/3, d)
 	r[2] = calc.Q((a+opA2*b+opA*c)/3, d)
+	// a component that cancels to rounding is 0: the zero and negative
+	// sequences of a balanced set are nothing, not femtovolts
+	scale := cmplx.Abs(a) + cmplx.Abs(b) + cmplx.Abs(c)
+	for k := range r {
+		if cmplx.Abs(r[k].V) <= 8*2.220446049250313e-16*scale {
+			r[k].V = 0
+		}
+	}
 	if err := checkAll("symmetrical components", r[:]...); err != nil {
 		return [3]calc.Quantity{}, nil, err
 	}
@@ -35,7 +45,6 @@ func ToSequence(xa, xb, xc calc.Quantity) ([3]calc.Quantity, []calc.Step, error)
 		Rule:    "phase to symmetrical components (Fortescue), a = 1∠120°, positive sequence = ABC rotation",
 		Formula: "X0 = (Xa + Xb + Xc)/3;  X1 = (Xa + a·Xb + a²·Xc)/3;  X2 = (Xa + a²·Xb + a·Xc)/3",
 		Inputs:  []calc.Operand{op("Xa", xa), op("Xb", xb), op("Xc", xc)},
-		// the main result (positive sequence) comes first
 		Results: []calc.Operand{op("X0 (zero)", r[0]), op("X1 (positive)", r[1]), op("X2 (negative)", r[2])},
 		Notes:   []string{Caution},
 	}
