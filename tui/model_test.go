@@ -650,3 +650,19 @@ func TestSketchPowerKinds(t *testing.T) {
 		t.Errorf("Qx (line %d) is not drawn above the real axis (line %d):\n%s", q, re, v)
 	}
 }
+
+// TestFirstStartLocked: the session is locked from the very first start,
+// when the state directory does not exist yet, so that a second instance
+// is asked what to do rather than sharing the file.
+func TestFirstStartLocked(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "state", "argand")
+	first := newModel(t, Options{Dir: dir})
+	if first.lock == nil || first.mode == modeLocked {
+		t.Fatalf("first start holds no lock: %q", first.msg)
+	}
+	typeLine(t, first, "Zfirst = 1 Ω")
+	second := newModel(t, Options{Dir: dir})
+	if second.mode != modeLocked {
+		t.Errorf("second instance not asked; it says %q", second.msg)
+	}
+}

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"bytes"
+	"errors"
 	"io"
 	"os"
 	"path/filepath"
@@ -9,6 +10,7 @@ import (
 	"testing"
 
 	"argand/tui/cli"
+	"argand/tui/store"
 )
 
 // plainRun runs the line mode on input with the state directory taken
@@ -119,4 +121,40 @@ func TestPlainErrorsAndLock(t *testing.T) {
 		t.Errorf("q did not quit:\n%s", out)
 	}
 	_ = io.Discard
+}
+
+// lockProbe is line-mode input that, on the first read, tries to lock the
+// session the line mode should be holding.
+type lockProbe struct {
+	path string
+	err  error
+	in   io.Reader
+	done bool
+}
+
+func (p *lockProbe) Read(b []byte) (int, error) {
+	if !p.done {
+		p.done = true
+		lk, err := store.Lock(p.path)
+		if err == nil {
+			lk.Unlock()
+		}
+		p.err = err
+	}
+	return p.in.Read(b)
+}
+
+// TestPlainFirstStartLocked: the line mode locks the session on the very
+// first start, with a state directory that does not exist yet.
+func TestPlainFirstStartLocked(t *testing.T) {
+	state := filepath.Join(t.TempDir(), "fresh")
+	t.Setenv("XDG_STATE_HOME", state)
+	probe := &lockProbe{path: filepath.Join(state, "argand", "session.json"), in: strings.NewReader("Zp = 1 Ω\nquit\n")}
+	var out bytes.Buffer
+	if code := Plain(Options{Getenv: func(string) string { return "" }}, probe, &out); code != 0 {
+		t.Fatalf("exit %d:\n%s", code, out.String())
+	}
+	if !errors.Is(probe.err, store.ErrLocked) {
+		t.Errorf("while the line mode ran, Lock gave %v, want ErrLocked\n%s", probe.err, out.String())
+	}
 }

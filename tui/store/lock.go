@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 )
@@ -33,8 +34,10 @@ type FileLock struct {
 }
 
 // Lock takes an exclusive, non-blocking lock on path + ".lock", creating it
-// if needed, and writes this process's ID into it. If the lock is held
-// elsewhere it returns a *LockedError (errors.Is(err, ErrLocked)) naming
+// (and its directory, as Save would) if needed, and writes this process's
+// ID into it. The directory is made here so that the very first start,
+// before any session was saved, is locked like every later one. If the
+// lock is held elsewhere it returns a *LockedError (errors.Is(err, ErrLocked)) naming
 // the holder's PID, so the app can offer a read-only view or a separate
 // session.
 //
@@ -45,6 +48,9 @@ type FileLock struct {
 // a new one. flock is advisory and may not work on network file systems.
 func Lock(path string) (*FileLock, error) {
 	name := path + ".lock"
+	if err := os.MkdirAll(filepath.Dir(name), 0o700); err != nil {
+		return nil, fmt.Errorf("lock %s: %w", name, err)
+	}
 	f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE, 0o600)
 	if err != nil {
 		return nil, fmt.Errorf("lock %s: %w", name, err)

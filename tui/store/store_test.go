@@ -306,6 +306,20 @@ func TestLockSameProcess(t *testing.T) {
 	b.Unlock()
 }
 
+// TestLockNewDir locks a session whose directory does not exist yet, as on
+// the very first start with an empty state directory.
+func TestLockNewDir(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "state", "argand", "session.json")
+	a, err := Lock(path)
+	if err != nil {
+		t.Fatalf("Lock in a new directory: %v", err)
+	}
+	defer a.Unlock()
+	if _, err := Lock(path); !errors.Is(err, ErrLocked) {
+		t.Errorf("second Lock: err = %v, want ErrLocked", err)
+	}
+}
+
 func TestLockOtherProcess(t *testing.T) {
 	if testing.Short() {
 		t.Skip("starts a child process")
