@@ -44,6 +44,9 @@ type CheckOutcome struct {
 	RelMag    float64  // |Got|/|Want| − 1, or 0 when Want is 0
 	DegDiff   float64  // angle of Got minus angle of Want, in (−180, 180]
 	Tolerance string   // the tolerance as written, for the report
+	// MagOnly marks a comparison of magnitudes alone (a meter reading
+	// against a range): no angle is compared or reported.
+	MagOnly bool
 }
 
 // Step is one recorded piece of work: the statement as typed, the rule
@@ -164,8 +167,16 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		if !c.Pass {
 			verdict = "FAIL"
 		}
-		b.WriteString("    " + verdict + ": got " + f.Both(c.Got, polarFirst) + ", expected " + f.Both(c.Want, polarFirst) + "\n")
-		b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + sigFixed(c.RelMag*100, 3) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
+		if c.MagOnly {
+			b.WriteString("    " + verdict + ": read " + f.Mag(cmplx.Abs(c.Got.V), c.Got.Dim, c.Got.Kind) + ", nominal " + f.Mag(cmplx.Abs(c.Want.V), c.Want.Dim, c.Want.Kind) + "\n")
+		} else {
+			b.WriteString("    " + verdict + ": got " + f.Both(c.Got, polarFirst) + ", expected " + f.Both(c.Want, polarFirst) + "\n")
+		}
+		if c.MagOnly {
+			b.WriteString("      outside the range by " + f.Mag(real(c.Diff.V), c.Diff.Dim, c.Diff.Kind) + "; " + sigFixed(c.RelMag*100, 3) + " % from the nominal magnitude; " + tr(c.Tolerance) + "\n")
+		} else {
+			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + sigFixed(c.RelMag*100, 3) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
+		}
 	}
 	for _, n := range s.Notes {
 		// a note of several lines (a plot) keeps its shape, indented

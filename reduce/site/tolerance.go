@@ -567,7 +567,7 @@ func CheckReading(reading calc.Quantity, acc Accuracy, r RangeResult) (Overlap, 
 		if lo > rmax {
 			side = "above"
 		}
-		verdict = "the reading band lies " + side + " the range the parts allow, missing by " + sig(gap) + " (" + sig(o.MissPct) + " % of the nearer limit)"
+		verdict = "the reading band lies " + side + " the range the parts allow, missing by " + calc.Format{}.Mag(gap, reading.Dim, k) + " (" + sig(o.MissPct) + " % of the nearer limit)"
 	}
 	o.Step = calc.Step{
 		Kind:    "tolerance",
