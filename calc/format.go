@@ -307,3 +307,13 @@ func phasorDim(d Dim) bool {
 	}
 	return false
 }
+
+// Short formats q in one form for a table: polar for a phasor, the plain
+// signed number for a real quantity that is not one (P in W, Q in var, a
+// count), so that a leading load's −3 kvar is not shown as 3 kvar ∠180°.
+func (f Format) Short(q Quantity) string {
+	if q.IsReal() && (q.Kind == KindActive || q.Kind == KindReactive || !phasorDim(q.Dim) || q.Kind == KindAngle) {
+		return f.Rect(q)
+	}
+	return f.Polar(q)
+}

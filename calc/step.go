@@ -158,7 +158,7 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 			b.WriteString(":")
 		}
 		for _, v := range r.Values {
-			b.WriteString("  " + v.Name + " = " + f.Polar(v.Value))
+			b.WriteString("  " + v.Name + " = " + f.Short(v.Value))
 		}
 		b.WriteString("\n")
 	}
