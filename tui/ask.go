@@ -128,9 +128,12 @@ func keyRunes(k tea.KeyMsg) []rune {
 func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 	km := m.keys
 	l := &m.line
+	before := l.f.String()
+	ran := false // the line ran: its outcome is the message now
 	switch {
 	case key.Matches(k, km.Run):
 		m.submit()
+		ran = true
 	case key.Matches(k, km.Leave):
 		m.mode = modeRows
 	case key.Matches(k, km.Left):
@@ -180,10 +183,16 @@ func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 			rs := keyRunes(k)
 			if k.Paste && strings.ContainsAny(string(rs), "\n\r") {
 				m.pasteLines(string(rs))
+				ran = true
 				break
 			}
 			l.f.insert(rs)
 		}
+	}
+	if !ran && l.f.String() != before {
+		// the outcome shown was of an earlier line: an error left under
+		// a new statement would read as that statement's
+		m.note(false, "")
 	}
 	l.validate(m)
 	return nil
@@ -201,9 +210,7 @@ func (m *Model) submit() {
 		l.history = append(l.history, src)
 		l.hpos = len(l.history)
 		l.f.clear()
-		if m.s.sh.OpenNetwork() == "" {
-			m.note(false, m.msg)
-		} else {
+		if m.s.sh.OpenNetwork() != "" {
 			m.note(false, "network block open: type its elements, then end")
 		}
 	}
@@ -286,7 +293,7 @@ func (m *Model) copyCmd(what, text string) tea.Cmd {
 		return nil
 	}
 	w := m.opt.Out
-	m.note(false, "copying "+what+"…")
+	m.note(false, "sending "+what+" to the terminal clipboard…")
 	return func() tea.Msg {
 		_, err := w.Write([]byte(seq))
 		return copiedMsg{what: what, err: err}

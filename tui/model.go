@@ -78,6 +78,9 @@ type Model struct {
 
 	msg    string // last outcome, shown under the entry line
 	msgErr bool
+	// caution of the last statement's steps, shown on one line in place
+	// of the outcome so that it is seen without scrolling the trail
+	caution string
 
 	lockPath string // session held by another process
 	lockPID  int
@@ -259,6 +262,7 @@ func (m *Model) chooseLocked(readOnly bool) {
 func (m *Model) note(isErr bool, s string) {
 	m.msg = s
 	m.msgErr = isErr
+	m.caution = ""
 }
 
 // Init implements tea.Model.
@@ -274,7 +278,9 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		if msg.err != nil {
 			m.note(true, "copy failed: "+msg.err.Error())
 		} else {
-			m.note(false, "copied "+msg.what+" to the clipboard (OSC 52; your terminal must allow it)")
+			// the terminal gives no answer: say what was done, not that
+			// it worked
+			m.note(false, "sent "+msg.what+" to the terminal clipboard (OSC 52)")
 		}
 		return m, nil
 	case tea.KeyMsg:

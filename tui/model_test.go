@@ -11,6 +11,8 @@ import (
 	"testing"
 
 	"argand/calc"
+	"argand/reduce/power"
+	"argand/reduce/site"
 	"argand/tui/store"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -411,15 +413,21 @@ func TestRestoreAndCorrupt(t *testing.T) {
 		t.Fatal(err)
 	}
 	m3 := newModel(t, Options{Dir: dir})
-	if !m3.msgErr || !strings.Contains(m3.msg, "moved to") {
-		t.Errorf("corrupt file: message %q", m3.msg)
-	}
 	if _, ok := m3.s.sh.Lookup("R1"); !ok {
 		t.Errorf("app did not start afresh from the worksheet")
 	}
 	moved, _ := filepath.Glob(path + ".corrupt-*")
 	if len(moved) != 1 {
-		t.Errorf("corrupt file not kept aside: %v", moved)
+		t.Fatalf("corrupt file not kept aside: %v", moved)
+	}
+	// where the file went is on the screen whole at 80 columns, though
+	// the name of a worksheet's session is long
+	name := filepath.Base(moved[0])
+	if !m3.msgErr || !strings.Contains(m3.msg, "kept as "+name) {
+		t.Errorf("corrupt file: message %q", m3.msg)
+	}
+	if v := m3.View(); !strings.Contains(v, name) {
+		t.Errorf("%s not shown:\n%s", name, v)
 	}
 }
 
@@ -565,7 +573,7 @@ func TestExportAndClipboard(t *testing.T) {
 		t.Fatal("no clipboard command")
 	}
 	m.Update(cmd())
-	if !strings.HasPrefix(out.String(), "\x1b]52;c;") || !strings.Contains(m.msg, "copied") {
+	if !strings.HasPrefix(out.String(), "\x1b]52;c;") || !strings.Contains(m.msg, "sent "+m.s.v.Selected+" to the terminal clipboard (OSC 52)") {
 		t.Errorf("OSC 52 not written: %q, %q", out.String(), m.msg)
 	}
 }
@@ -664,5 +672,102 @@ func TestFirstStartLocked(t *testing.T) {
 	second := newModel(t, Options{Dir: dir})
 	if second.mode != modeLocked {
 		t.Errorf("second instance not asked; it says %q", second.msg)
+	}
+}
+
+// TestOutcomeFollowsTheLine: an error stays only while the line that
+// caused it is unchanged; editing the line clears it.
+func TestOutcomeFollowsTheLine(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	for _, r := range "bad = fromvip(230 V, 4 A, 990 W, lagging)" {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if !m.msgErr {
+		t.Fatalf("no error for inconsistent V, I, P: %q", m.msg)
+	}
+	press(m, "ctrl+u")
+	for _, r := range "Zok = 5 Ω" {
+		m.Update(keyMsg(string(r)))
+	}
+	if fb := m.feedbackView(); strings.Contains(fb, "error") || m.msgErr {
+		t.Errorf("stale error under a new line: %q", fb)
+	}
+	press(m, "enter")
+	if m.msgErr || !strings.Contains(m.feedbackView(), "Zok") {
+		t.Errorf("outcome of the new line: %q", m.feedbackView())
+	}
+}
+
+// TestCautionShown: a statement whose steps carry a caution shows it on
+// the feedback line at 80×24, whole or cut with the way to read it.
+func TestCautionShown(t *testing.T) {
+	tests := []struct {
+		stmt, want string
+	}{
+		// power-factor correction carries the capacitor caution
+		{"Qc = pfc(10 kW, 0.7, 0.95, 400 V, three)", "caution: Capacitor banks"},
+		// a plain impedance carries none
+		{"Zplain = 5 Ω", ""},
+	}
+	for _, tt := range tests {
+		m := newModel(t, Options{})
+		typeLine(t, m, tt.stmt)
+		fb := m.feedbackView()
+		if tt.want == "" {
+			if strings.Contains(fb, "caution") {
+				t.Errorf("%s: caution shown: %q", tt.stmt, fb)
+			}
+			continue
+		}
+		if !strings.HasPrefix(fb, tt.want) || !strings.HasSuffix(fb, cautionSuffix) || lipgloss.Width(fb) > m.width {
+			t.Errorf("%s: feedback %q", tt.stmt, fb)
+		}
+		if !strings.Contains(m.View(), cautionSuffix) {
+			t.Errorf("%s: caution not on the screen", tt.stmt)
+		}
+		// the next action's outcome takes its place
+		press(m, "o")
+		if strings.Contains(m.feedbackView(), "caution") {
+			t.Errorf("%s: caution outlived the next action", tt.stmt)
+		}
+	}
+}
+
+// TestCautionOf picks the particular caution before the general one.
+func TestCautionOf(t *testing.T) {
+	tests := []struct {
+		notes []string
+		want  string
+	}{
+		{nil, ""},
+		{[]string{"largest KCL residual is small"}, ""},
+		{[]string{power.Caution}, power.Caution},
+		{[]string{power.Caution, site.CableCaution}, site.CableCaution},
+		{[]string{"Work here needs a qualified person."}, "Work here needs a qualified person."},
+	}
+	for _, tt := range tests {
+		if got := cautionOf([]calc.Step{{Notes: tt.notes}}); got != tt.want {
+			t.Errorf("cautionOf(%q) = %q, want %q", tt.notes, got, tt.want)
+		}
+	}
+}
+
+// TestPasteInRows: a paste while the table has the keyboard goes to the
+// entry line.
+func TestPasteInRows(t *testing.T) {
+	m := newModel(t, Options{})
+	if m.mode != modeRows {
+		t.Fatalf("mode %v", m.mode)
+	}
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("Zpaste = 4 Ω"), Paste: true})
+	if m.mode != modeLine || m.line.f.String() != "Zpaste = 4 Ω" {
+		t.Errorf("paste in rows: mode %v, line %q", m.mode, m.line.f.String())
+	}
+	press(m, "esc")
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("Zp2 = 2 Ω\n"), Paste: true})
+	if _, ok := m.s.sh.Lookup("Zp2"); !ok {
+		t.Errorf("pasted lines in rows not run: %q", m.msg)
 	}
 }

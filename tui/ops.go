@@ -8,6 +8,9 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/reduce/power"
+	"argand/reduce/site"
+	"argand/reduce/threephase"
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
@@ -96,7 +99,48 @@ func (m *Model) apply(what string, stmts ...string) ([]calc.Step, error) {
 	}
 	m.trail.back = 0
 	m.note(false, strings.TrimSpace(what+"  "+res))
+	m.caution = cautionOf(steps)
 	return steps, nil
+}
+
+// cautions are the safety notes the worksheet's operations attach to
+// results that concern mains, capacitor banks, cables and faults.
+var cautions = []string{power.CapacitorCaution, site.CableCaution, site.FaultCaution,
+	power.Caution, threephase.Caution, site.Caution, safetyText}
+
+// isCaution reports whether a step's note is a safety caution: one of
+// cautions, or a note in their words (a caution of an operation added
+// later).
+func isCaution(n string) bool {
+	if slices.Contains(cautions, n) {
+		return true
+	}
+	for _, w := range []string{"qualified", "lethal", "local codes", "local electrical codes", "wiring rules"} {
+		if strings.Contains(n, w) {
+			return true
+		}
+	}
+	return false
+}
+
+// cautionOf returns the caution the steps carry, the one particular to
+// the work (capacitors, cables, faults) before the general one, or "".
+func cautionOf(steps []calc.Step) string {
+	general := ""
+	for _, st := range steps {
+		for _, n := range st.Notes {
+			if !isCaution(n) {
+				continue
+			}
+			if n != power.Caution && n != threephase.Caution && n != site.Caution && n != safetyText {
+				return strings.Join(strings.Fields(n), " ")
+			}
+			if general == "" {
+				general = strings.Join(strings.Fields(n), " ")
+			}
+		}
+	}
+	return general
 }
 
 func errText(err error) string {
@@ -460,6 +504,11 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 		m.quitting = true
 		return tea.Quit
 	default:
+		if k.Paste {
+			// a paste is text for the entry line, wherever the keyboard was
+			m.mode = modeLine
+			return m.lineKey(k)
+		}
 		if k.Type == tea.KeyRunes && !k.Alt {
 			// typing starts a statement: the first character goes to the line
 			if rs := k.Runes; len(rs) > 0 && startsStatement(rs[0]) {

@@ -422,17 +422,43 @@ func (m *Model) feedbackView() string {
 	if m.mode == modePrompt && m.ask != nil {
 		return m.th.dim.Render(m.tr(m.ask.title))
 	}
-	if m.msg == "" {
+	if m.caution != "" && !m.msgErr {
+		return m.th.err.Render(m.cautionLine())
+	}
+	ls := m.msgLines()
+	if len(ls) == 0 {
 		return ""
 	}
 	if m.msgErr {
-		if strings.HasPrefix(m.msg, "read-only:") {
-			// a refusal, not a fault: it says why in its own words
-			return m.th.err.Render(m.tr(m.msg))
-		}
-		return m.th.err.Render("error: " + m.tr(m.msg))
+		return m.th.err.Render(ls[0])
 	}
-	return m.tr(m.msg)
+	return ls[0]
+}
+
+// msgLines is the outcome of the last action as text, wrapped to the
+// width: a message too long for the feedback line goes on in the hint
+// line, so that its end (where a file went, what to do) is not cut off.
+func (m *Model) msgLines() []string {
+	if m.msg == "" {
+		return nil
+	}
+	s := m.tr(m.msg)
+	// a read-only refusal is not a fault: it says why in its own words
+	if m.msgErr && !strings.HasPrefix(m.msg, "read-only:") {
+		s = "error: " + s
+	}
+	return wrapLine(s, m.width, 0)
+}
+
+// cautionSuffix tells where a caution cut to one line is read in full.
+const cautionSuffix = " (T shows it in full)"
+
+// cautionLine is the caution of the last statement on one line, cut to
+// the width with the way to read it in full always shown.
+func (m *Model) cautionLine() string {
+	head := "caution: "
+	room := m.width - ansi.StringWidth(head) - ansi.StringWidth(cautionSuffix)
+	return head + ansi.Truncate(m.tr(m.caution), max(1, room), "…") + cautionSuffix
 }
 
 // caret places the live parse error under the entry line: the column
@@ -461,9 +487,19 @@ func (m *Model) caret() (col int, marks, msg string, ok bool) {
 
 // hintView is one line of the keys most likely wanted next.
 func (m *Model) hintView() string {
-	if col, marks, msg, ok := m.caret(); ok && col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
-		// the message did not fit beside its caret: it has this line
-		return m.th.err.Render(msg)
+	if col, marks, msg, ok := m.caret(); ok {
+		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
+			// the message did not fit beside its caret: it has this line
+			return m.th.err.Render(msg)
+		}
+	} else if m.mode != modePrompt && (m.caution == "" || m.msgErr) {
+		if ls := m.msgLines(); len(ls) > 1 {
+			// the rest of a long outcome has this line
+			if m.msgErr {
+				return m.th.err.Render(ls[1])
+			}
+			return ls[1]
+		}
 	}
 	k := func(key, what string) string { return m.th.key.Render(key) + " " + what }
 	var parts []string

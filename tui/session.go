@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 
@@ -146,7 +147,9 @@ func (s *session) loadFile(path string) (ok bool, note string) {
 	if err != nil {
 		var ce *store.CorruptError
 		if errors.As(err, &ce) {
-			return false, fmt.Sprintf("the session file could not be used (%v); it was moved to %s and a fresh session started", ce.Err, ce.MovedTo)
+			// the name it was kept under comes first, so that it is read
+			// whole on a narrow screen; the reason may be long
+			return false, fmt.Sprintf("session file unusable, kept as %s; a fresh session started (%v)", filepath.Base(ce.MovedTo), ce.Err)
 		}
 		if errors.Is(err, os.ErrNotExist) {
 			return false, ""

@@ -4,8 +4,9 @@
 //
 // The sequence is ESC ] 52 ; c ; base64(text) BEL, as described in the
 // XTerm Control Sequences document. Terminal multiplexers swallow unknown
-// sequences, so inside tmux the sequence is wrapped in tmux's DCS
-// passthrough and inside GNU screen in DCS chunks screen passes on.
+// sequences, so inside tmux the sequence is sent bare (for tmux's own
+// clipboard) and again wrapped in tmux's DCS passthrough, and inside GNU
+// screen in DCS chunks screen passes on.
 package clip
 
 import (
@@ -88,9 +89,23 @@ func Wrap(seq string, m Mux) string {
 // Sequence returns the bytes to write to the terminal to copy text: the
 // OSC 52 sequence wrapped for the multiplexer that getenv indicates. Text
 // longer than MaxBytes is refused with an error wrapping ErrTooLarge.
+//
+// Inside tmux it is both sequences, see ForTmux.
 func Sequence(text string, getenv func(string) string) (string, error) {
 	if len(text) > MaxBytes {
 		return "", fmt.Errorf("%w: %d bytes, at most %d", ErrTooLarge, len(text), MaxBytes)
 	}
-	return Wrap(OSC52(text), Detect(getenv)), nil
+	seq := OSC52(text)
+	mux := Detect(getenv)
+	if mux == Tmux {
+		return ForTmux(seq), nil
+	}
+	return Wrap(seq, mux), nil
 }
+
+// ForTmux returns seq for tmux twice: bare, which tmux itself takes when
+// its set-clipboard option is on (and passes on to the outer terminal),
+// then in DCS passthrough, which tmux forwards only when allow-passthrough
+// is on. tmux drops whichever its options refuse; when both pass, the
+// clipboard is set twice to the same text.
+func ForTmux(seq string) string { return seq + Wrap(seq, Tmux) }

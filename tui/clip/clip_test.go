@@ -60,7 +60,9 @@ func TestSequence(t *testing.T) {
 		want string
 	}{
 		{map[string]string{"TERM": "xterm"}, "foobar", "\x1b]52;c;Zm9vYmFy\a"},
-		{map[string]string{"TMUX": "x"}, "foobar", "\x1bPtmux;\x1b\x1b]52;c;Zm9vYmFy\a\x1b\\"},
+		// tmux: bare for set-clipboard, then passthrough (tmux manual
+		// page, options set-clipboard and allow-passthrough; from memory)
+		{map[string]string{"TMUX": "x"}, "foobar", "\x1b]52;c;Zm9vYmFy\a\x1bPtmux;\x1b\x1b]52;c;Zm9vYmFy\a\x1b\\"},
 		{map[string]string{"TERM": "screen"}, "foobar", "\x1bP\x1b]52;c;Zm9vYmFy\a\x1b\\"},
 	}
 	for _, tt := range tests {
