@@ -131,7 +131,7 @@ func TestDerivedDimensions(t *testing.T) {
 	}
 }
 
-// TestReactance checks the element impedances against the textbook
+// TestReactance checks the element impedances against the standard
 // formulas X_L = ωL, X_C = −1/(ωC), ω = 2πf (common practice).
 func TestReactance(t *testing.T) {
 	env := newTestEnv()

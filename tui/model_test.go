@@ -105,7 +105,7 @@ func near(a, b complex128) bool {
 
 func TestOperations(t *testing.T) {
 	za, zb := complex(3, 4), complex(10, 0)
-	// Reference values are the textbook formulas (common practice):
+	// Reference values are the standard circuit formulas (common practice):
 	// series Z = Z1 + Z2, parallel product over sum, divider V·Zk/ΣZ,
 	// current divider I·Zother/ΣZ for two branches, Thevenin V·Z2/(Z1+Z2).
 	tests := []struct {

@@ -18,8 +18,8 @@ func Run(opt Options, in io.Reader, out io.Writer, errw io.Writer) int {
 		opt.Getenv = os.Getenv
 	}
 	// Colour comes from the environment alone, never from a query of the
-	// terminal. NO_COLOR keeps bold and reverse video, which carry no
-	// colour; TERM=vt100 and friends get the same.
+	// terminal. Without colour (NO_COLOR, or a terminal such as vt100) the
+	// styles keep bold and reverse video only; TERM=dumb gets no styling.
 	switch {
 	case !opt.Color:
 		lipgloss.SetColorProfile(termenv.Ascii)
