@@ -42,13 +42,6 @@ func needDim(name string, a Quantity, d Dim, what string) error {
 	return nil
 }
 
-func needPositiveReal(name string, a Quantity) error {
-	if !a.IsReal() || real(a.V) <= 0 {
-		return fmt.Errorf("%s needs a positive real value", name)
-	}
-	return nil
-}
-
 // builtins are the functions every worksheet has. The impedance functions
 // use X_L = ωL and X_C = −1/(ωC) with ω = 2π·f (common practice).
 var builtins = [...]Func{

@@ -240,7 +240,7 @@ func cycleMix(a, b Dim, op string) error {
 		return nil
 	}
 	// a product with the cycle that lands on an electrical dimension
-	var c Dim = r
+	c := r
 	c[BaseCycle] = 0
 	switch c {
 	case DimImpedance, DimAdmittance:

@@ -133,7 +133,7 @@ func fileKey(abs string) string {
 		h ^= uint32(abs[i])
 		h *= 16777619
 	}
-	base := []rune(filepath.Base(abs))
+	base := filepath.Base(abs)
 	var b strings.Builder
 	for _, r := range base {
 		if r < 0x80 && (r == '-' || r == '_' || r == '.' || r >= '0' && r <= '9' || r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z') {

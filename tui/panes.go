@@ -202,12 +202,11 @@ type trailView struct {
 }
 
 type trailKey struct {
-	sh     *sheet.Sheet
-	n      int
-	f      calc.Format
-	polar  bool
-	digits int
-	width  int
+	sh    *sheet.Sheet
+	n     int
+	f     calc.Format
+	polar bool
+	width int
 }
 
 type trailLine struct {

@@ -238,26 +238,19 @@ func (s *session) touch(f func(v *view)) {
 	s.save()
 }
 
-func (s *session) doUndo() bool {
-	if len(s.undo) == 0 || s.readOnly {
-		return false
-	}
-	s.redo = append(s.redo, snapshot{sh: s.sh, v: s.v})
-	last := s.undo[len(s.undo)-1]
-	s.undo = s.undo[:len(s.undo)-1]
-	s.sh, s.v = last.sh.Clone(), last.v.clone()
-	s.tidy()
-	s.save()
-	return true
-}
+func (s *session) doUndo() bool { return s.travel(&s.undo, &s.redo) }
 
-func (s *session) doRedo() bool {
-	if len(s.redo) == 0 || s.readOnly {
+func (s *session) doRedo() bool { return s.travel(&s.redo, &s.undo) }
+
+// travel restores the latest snapshot of from, keeping the present state
+// in to: undo and redo are the same move in opposite directions.
+func (s *session) travel(from, to *[]snapshot) bool {
+	if len(*from) == 0 || s.readOnly {
 		return false
 	}
-	s.undo = append(s.undo, snapshot{sh: s.sh, v: s.v})
-	last := s.redo[len(s.redo)-1]
-	s.redo = s.redo[:len(s.redo)-1]
+	*to = append(*to, snapshot{sh: s.sh, v: s.v})
+	last := (*from)[len(*from)-1]
+	*from = (*from)[:len(*from)-1]
 	s.sh, s.v = last.sh.Clone(), last.v.clone()
 	s.tidy()
 	s.save()

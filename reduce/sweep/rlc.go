@@ -40,11 +40,7 @@ func check(what string, qs ...calc.Quantity) error {
 // capacitance C, f0 = 1/(2π·√(L·C)), and ω0 = 2π·f0 = 1/√(L·C): the
 // frequency at which their reactances are equal.
 func Resonance(l, c calc.Quantity) (f0, w0 calc.Quantity, steps []calc.Step, err error) {
-	lv, err := positive(l, calc.DimInductance, "L")
-	if err != nil {
-		return f0, w0, nil, err
-	}
-	cv, err := positive(c, calc.DimCapacitance, "C")
+	lv, cv, err := lc(l, c)
 	if err != nil {
 		return f0, w0, nil, err
 	}
@@ -71,11 +67,7 @@ func SeriesQ(r, l, c calc.Quantity) (calc.Quantity, []calc.Step, error) {
 	if err != nil {
 		return calc.Quantity{}, nil, fmt.Errorf("%w (a lossless series circuit has unbounded Q)", err)
 	}
-	lv, err := positive(l, calc.DimInductance, "L")
-	if err != nil {
-		return calc.Quantity{}, nil, err
-	}
-	cv, err := positive(c, calc.DimCapacitance, "C")
+	lv, cv, err := lc(l, c)
 	if err != nil {
 		return calc.Quantity{}, nil, err
 	}
@@ -100,11 +92,7 @@ func ParallelQ(r, l, c calc.Quantity) (calc.Quantity, []calc.Step, error) {
 	if err != nil {
 		return calc.Quantity{}, nil, err
 	}
-	lv, err := positive(l, calc.DimInductance, "L")
-	if err != nil {
-		return calc.Quantity{}, nil, err
-	}
-	cv, err := positive(c, calc.DimCapacitance, "C")
+	lv, cv, err := lc(l, c)
 	if err != nil {
 		return calc.Quantity{}, nil, err
 	}
@@ -181,11 +169,7 @@ type Tank struct {
 // frequency gives unity power factor, and the step says so.
 func SolveTank(l, r, c calc.Quantity) (Tank, []calc.Step, error) {
 	var t Tank
-	lv, err := positive(l, calc.DimInductance, "L")
-	if err != nil {
-		return t, nil, err
-	}
-	cv, err := positive(c, calc.DimCapacitance, "C")
+	lv, cv, err := lc(l, c)
 	if err != nil {
 		return t, nil, err
 	}
@@ -291,4 +275,15 @@ func Gain(h calc.Quantity) (calc.Quantity, []calc.Step, error) {
 		Results: []calc.Operand{op("gain (dB)", g)},
 	}
 	return g, []calc.Step{st}, nil
+}
+
+// lc returns the values of a positive inductance and capacitance.
+func lc(l, c calc.Quantity) (lv, cv float64, err error) {
+	if lv, err = positive(l, calc.DimInductance, "L"); err != nil {
+		return 0, 0, err
+	}
+	if cv, err = positive(c, calc.DimCapacitance, "C"); err != nil {
+		return 0, 0, err
+	}
+	return lv, cv, nil
 }
