@@ -3,6 +3,8 @@ package calc
 import (
 	"errors"
 	"fmt"
+	"strings"
+	"unicode/utf8"
 )
 
 // ErrOpenCircuit reports a parallel combination whose admittances cancel:
@@ -71,34 +73,55 @@ func (e *Error) Error() string {
 }
 
 // Caret returns the source line and a caret line under the error's place,
-// for a person to read: the line as given, then spaces and ^ marks.
+// for a person to read: the line as Printable shows it, then spaces and ^
+// marks. Each character escaped by Printable takes as many columns as its
+// escape, so the caret stays under the character it marks; any other
+// character takes one column. A line feed inside the line is escaped too,
+// so that the caret follows the one line it marks.
 func Caret(src string, e *Error) string {
-	runes := []rune(src)
+	// the shown form of each character, as Col counts them (an invalid
+	// byte is one character)
+	var cells []string
+	for i := 0; i < len(src); {
+		r, n := utf8.DecodeRuneInString(src[i:])
+		c := src[i : i+n]
+		switch {
+		case r == '\n':
+			c = `\x0a`
+		default:
+			if esc := escapeOf(r, n, src[i]); esc != "" {
+				c = esc
+			}
+		}
+		cells = append(cells, c)
+		i += n
+	}
 	col := e.Col
 	if col < 1 {
 		col = 1
 	}
-	if col > len(runes)+1 {
-		col = len(runes) + 1
+	if col > len(cells)+1 {
+		col = len(cells) + 1
 	}
 	n := e.Len
 	if n < 1 {
 		n = 1
 	}
-	if col-1+n > len(runes)+1 {
-		n = len(runes) + 1 - (col - 1)
+	if col-1+n > len(cells)+1 {
+		n = len(cells) + 1 - (col - 1)
 	}
-	pad := make([]rune, 0, col-1)
-	for i := 0; i < col-1 && i < len(runes); i++ {
-		if runes[i] == '\t' {
-			pad = append(pad, '\t')
-		} else {
-			pad = append(pad, ' ')
+	// width in columns of the characters [from, to); the end of the line
+	// counts one, for a caret after the last character
+	width := func(from, to int) int {
+		w := 0
+		for i := from; i < to; i++ {
+			if i >= len(cells) || len(cells[i]) == 1 || cells[i][0] != '\\' {
+				w++
+				continue
+			}
+			w += len(cells[i])
 		}
+		return w
 	}
-	marks := ""
-	for i := 0; i < n; i++ {
-		marks += "^"
-	}
-	return src + "\n" + string(pad) + marks
+	return strings.Join(cells, "") + "\n" + strings.Repeat(" ", width(0, col-1)) + strings.Repeat("^", width(col-1, col-1+n))
 }

@@ -118,7 +118,11 @@ func ASCIIOnly(s string) string {
 // in both forms.
 func (s *Step) Text(f Format, polarFirst bool) string {
 	var b strings.Builder
+	// text from input is made printable before the ASCII spelling, so
+	// that a control or bidirectional character shows as its escape, not
+	// as '?'
 	tr := func(x string) string {
+		x = Printable(x)
 		if f.ASCII {
 			return ASCIIText(x)
 		}
@@ -183,7 +187,7 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		n = strings.TrimRight(n, "\n")
 		b.WriteString("    note: " + strings.ReplaceAll(tr(n), "\n", "\n      ") + "\n")
 	}
-	out := b.String()
+	out := Printable(b.String())
 	if f.ASCII {
 		out = strings.ReplaceAll(out, "→", "->")
 	}
@@ -213,10 +217,10 @@ func jsonString(s string) string {
 			b.WriteString(`\n`)
 		case r == '\t':
 			b.WriteString(`\t`)
-		case r < 0x20 || r == 0x7f:
-			b.WriteString(`\u00`)
-			b.WriteByte("0123456789abcdef"[r>>4])
-			b.WriteByte("0123456789abcdef"[r&15])
+		case r < 0x20 || r == 0x7f || Printable(string(r)) != string(r):
+			// C1 controls, bidirectional formatting characters and the
+			// line separators too: JSON on a terminal is still text
+			b.WriteString(hexEscape(`\u`, uint32(r), 4))
 		default:
 			b.WriteRune(r)
 		}

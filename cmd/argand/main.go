@@ -24,6 +24,7 @@ import (
 	"strconv"
 	"strings"
 
+	"argand/calc"
 	"argand/tui"
 	"argand/tui/cli"
 
@@ -103,7 +104,7 @@ func main() {
 func run(argv []string, in io.Reader, out, errw io.Writer) int {
 	f, err := parse(argv)
 	if err != nil {
-		fmt.Fprintln(errw, "argand:", err)
+		fmt.Fprintln(errw, "argand:", calc.Printable(err.Error()))
 		return cli.ExitBadInput
 	}
 	if !f.opt.ASCII && !cli.UTF8Locale(os.Getenv) {
@@ -136,7 +137,7 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		}
 		file, err := os.Open(f.args[1])
 		if err != nil {
-			fmt.Fprintln(errw, "argand:", cleanErr(err))
+			fmt.Fprintln(errw, "argand:", calc.Printable(cleanErr(err)))
 			return cli.ExitBadInput
 		}
 		defer file.Close()

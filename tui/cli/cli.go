@@ -63,9 +63,9 @@ func (p *Printer) Error(e *calc.Error, src, file string) {
 	}
 	where := fmt.Sprintf("line %d, col %d", e.Line, e.Col)
 	if file != "" {
-		where = fmt.Sprintf("%s:%d:%d", file, e.Line, e.Col)
+		where = fmt.Sprintf("%s:%d:%d", calc.Printable(file), e.Line, e.Col)
 	}
-	msg := e.Msg
+	msg := calc.Printable(e.Msg)
 	if p.O.ASCII {
 		msg = calc.ASCIIText(msg)
 	}
@@ -158,7 +158,7 @@ func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
 	sum, err := s.Run(r, func(steps []calc.Step) { p.Steps(s, steps) })
 	if err != nil {
 		bw.Flush()
-		fmt.Fprintf(ew, "error: %s: %v\n", file, err)
+		fmt.Fprintf(ew, "error: %s: %s\n", calc.Printable(file), calc.Printable(err.Error()))
 		return ExitBadInput
 	}
 	if sum.Err != nil {

@@ -5,6 +5,8 @@ import (
 	"io"
 	"os"
 	"strings"
+
+	"argand/calc"
 )
 
 // Batch runs a worksheet file, or the built-in example when file is "",
@@ -18,7 +20,7 @@ func Batch(file string, in io.Reader, w, ew io.Writer, o Options) int {
 	}
 	f, err := os.Open(file)
 	if err != nil {
-		fmt.Fprintln(ew, "argand:", err)
+		fmt.Fprintln(ew, "argand:", calc.Printable(err.Error()))
 		return ExitBadInput
 	}
 	defer f.Close()
