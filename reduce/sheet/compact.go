@@ -65,7 +65,7 @@ func (s *Sheet) compactNetwork(p *calc.Parser, name string) error {
 // element names.
 func (s *Sheet) spTree(p *calc.Parser, e calc.Expr, depth int) (*reduce.SPNode, error) {
 	if depth > calc.MaxDepth {
-		return nil, lineErr(s.line, 1, 1, "series-parallel form nested too deeply")
+		return nil, lineErr(s.line, 1, 1, "series-parallel form nested too deeply (more than %d levels of parentheses or alternating + and ||)", calc.MaxDepth)
 	}
 	_, _, col := e.Span()
 	switch n := e.(type) {
@@ -84,24 +84,34 @@ func (s *Sheet) spTree(p *calc.Parser, e calc.Expr, depth int) (*reduce.SPNode, 
 		if n.Op != "+" && n.Op != "||" {
 			return nil, lineErr(s.line, n.OpCol, 1, "a compact network uses only + (series) and || (parallel), not %s", n.Op)
 		}
-		a, err := s.spTree(p, n.X, depth+1)
-		if err != nil {
-			return nil, err
+		// a chain of one operator (R1 + R2 + … + R250) is one level, not
+		// one per element: walk its left spine in a loop, so that only
+		// real nesting (parentheses, a change of operator) counts
+		var operands []calc.Expr
+		x := calc.Expr(n)
+		for {
+			b, ok := x.(*calc.Binary)
+			if !ok || b.Op != n.Op {
+				break
+			}
+			operands = append(operands, b.Y)
+			x = b.X
 		}
-		b, err := s.spTree(p, n.Y, depth+1)
-		if err != nil {
-			return nil, err
-		}
+		operands = append(operands, x)
 		kind := reduce.SPSeries
 		if n.Op == "||" {
 			kind = reduce.SPParallel
 		}
 		var parts []*reduce.SPNode
-		for _, x := range []*reduce.SPNode{a, b} {
-			if x.Kind == kind {
-				parts = append(parts, x.Parts...)
+		for i := len(operands) - 1; i >= 0; i-- {
+			t, err := s.spTree(p, operands[i], depth+1)
+			if err != nil {
+				return nil, err
+			}
+			if t.Kind == kind {
+				parts = append(parts, t.Parts...)
 			} else {
-				parts = append(parts, x)
+				parts = append(parts, t)
 			}
 		}
 		if kind == reduce.SPSeries {

@@ -82,13 +82,24 @@ func (s *Sheet) brokenUnder(name string, depth int) error {
 }
 
 // errPlain turns an evaluation error at a sweep point into a plain error
-// that keeps its cause.
+// that keeps its cause. The message already says the cause in words, so
+// it is not repeated.
 func errPlain(err *calc.Error) error {
 	if err.Err != nil {
-		return fmt.Errorf("%s: %w", err.Msg, err.Err)
+		return &pointError{msg: err.Msg, err: err.Err}
 	}
 	return err
 }
+
+// pointError is an evaluation error at one sweep point: its message, and
+// its cause for errors.Is.
+type pointError struct {
+	msg string
+	err error
+}
+
+func (e *pointError) Error() string { return e.msg }
+func (e *pointError) Unwrap() error { return e.err }
 
 // stmtSweep runs: sweep EXPR from F1 to F2 [points N] [log|linear] [db].
 func (s *Sheet) stmtSweep(p *calc.Parser) error {
