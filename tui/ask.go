@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"argand/calc"
 	"argand/tui/cli"
 	"argand/tui/clip"
 	"argand/tui/store"
@@ -111,7 +112,9 @@ func (m *Model) askKey(k tea.KeyMsg) tea.Cmd {
 		return tea.Quit
 	default:
 		if k.Type == tea.KeyRunes || k.Type == tea.KeySpace {
-			q.f.insert(keyRunes(k))
+			if _, err := q.f.insert(keyRunes(k)); err != nil {
+				m.note(true, err.Error())
+			}
 		}
 	}
 	return nil
@@ -186,7 +189,11 @@ func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 				ran = true
 				break
 			}
-			l.f.insert(rs)
+			if _, err := l.f.insert(rs); err != nil {
+				// the refusal is the outcome of this key: kept below
+				m.note(true, err.Error())
+				ran = true
+			}
 		}
 	}
 	if !ran && l.f.String() != before {
@@ -284,6 +291,8 @@ type copiedMsg struct {
 // copyCmd writes the OSC 52 request for text to the terminal, outside the
 // renderer (bubbletea has no way to pass an escape sequence through).
 func (m *Model) copyCmd(what, text string) tea.Cmd {
+	// what is pasted later must not act on a terminal either
+	text = calc.Printable(text)
 	if m.opt.ASCII {
 		text = m.tr(text)
 	}

@@ -1,14 +1,18 @@
 package tui
 
 import (
+	"fmt"
 	"strings"
+
+	"argand/calc"
 
 	"github.com/charmbracelet/x/ansi"
 )
 
-// maxField bounds the text of one field, in runes: a statement longer
-// than the worksheet's line limit could never run anyway.
-const maxField = 8192
+// maxField bounds the text of one field, in bytes: the worksheet's line
+// limit, so that the field holds any statement the worksheet can run and
+// nothing that it must refuse.
+const maxField = calc.MaxLine
 
 // field is a one-line text editor: the entry line and the answers to
 // questions both use it. It keeps no terminal state and never blinks, so
@@ -20,17 +24,24 @@ type field struct {
 
 func (f *field) String() string { return string(f.text) }
 
+// set replaces the text whole; it is never cut.
 func (f *field) set(s string) {
 	f.text = []rune(s)
-	if len(f.text) > maxField {
-		f.text = f.text[:maxField]
-	}
 	f.pos = len(f.text)
+}
+
+// tooLongError refuses an insert that would make the text longer than
+// maxField: nothing of it is inserted, so nothing is cut silently.
+type tooLongError struct{ size int }
+
+func (e *tooLongError) Error() string {
+	return fmt.Sprintf("not inserted: the line would be %d bytes, and a statement holds at most %d; the line is as it was", e.size, maxField)
 }
 
 // insert puts runes at the cursor. Control characters are dropped and
 // line breaks become spaces; the caller deals with pasted lines before.
-func (f *field) insert(rs []rune) bool {
+// Text that would pass maxField is refused whole, with a *tooLongError.
+func (f *field) insert(rs []rune) (bool, error) {
 	clean := make([]rune, 0, len(rs))
 	for _, r := range rs {
 		switch {
@@ -41,15 +52,27 @@ func (f *field) insert(rs []rune) bool {
 			clean = append(clean, r)
 		}
 	}
-	if room := maxField - len(f.text); len(clean) > room {
-		clean = clean[:max(room, 0)]
-	}
 	if len(clean) == 0 {
-		return false
+		return false, nil
+	}
+	if n := len(string(f.text)) + len(string(clean)); n > maxField {
+		return false, &tooLongError{size: n}
 	}
 	f.text = append(f.text[:f.pos], append(clean, f.text[f.pos:]...)...)
 	f.pos += len(clean)
-	return true
+	return true, nil
+}
+
+// cell is a character as the field draws it: a character a terminal
+// would act on (a bidirectional override, say) as its visible escape.
+func cell(r rune) string { return calc.PrintableRune(r) }
+
+// cellWidth is the width of a character as the field draws it.
+func cellWidth(r rune) int {
+	if r >= 0x20 && r < 0x7f {
+		return 1
+	}
+	return ansi.StringWidth(cell(r))
 }
 
 func (f *field) left() bool {
@@ -115,7 +138,7 @@ func (f *field) window(width int) (start int) {
 	w := 0
 	start = f.pos
 	for start > 0 {
-		rw := ansi.StringWidth(string(f.text[start-1]))
+		rw := cellWidth(f.text[start-1])
 		if w+rw > width-1 {
 			break
 		}
@@ -123,10 +146,14 @@ func (f *field) window(width int) (start int) {
 		start--
 	}
 	// show as much before the cursor as fits, but start at 0 when all fits
-	if ansi.StringWidth(string(f.text)) < width {
-		return 0
+	total := 0
+	for _, r := range f.text {
+		total += cellWidth(r)
+		if total >= width {
+			return start
+		}
 	}
-	return start
+	return 0
 }
 
 // render draws the field in width cells with the cursor shown by cursor
@@ -139,7 +166,7 @@ func (f *field) render(width int, cursor func(string) string) (string, int) {
 	for i := start; i <= len(f.text); i++ {
 		ch := " "
 		if i < len(f.text) {
-			ch = string(f.text[i])
+			ch = cell(f.text[i])
 		}
 		cw := ansi.StringWidth(ch)
 		if w+cw > width {

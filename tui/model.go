@@ -373,7 +373,7 @@ func (m *Model) finish(lines []string) string {
 		if i > 0 {
 			b.WriteByte('\n')
 		}
-		b.WriteString(fit(l, m.width))
+		b.WriteString(fit(screenSafe(l), m.width))
 	}
 	for i := len(lines); i < m.height; i++ {
 		b.WriteByte('\n')

@@ -352,12 +352,32 @@ func TestLiveFeedback(t *testing.T) {
 func TestPaste(t *testing.T) {
 	m := newModel(t, Options{})
 	press(m, "tab")
-	long := strings.Repeat("1+", 20000) + "1"
+	// a statement of 10 000 characters, longer than the field's bound
+	// once was, is kept whole and runs whole: 5000 ones
+	long := "pz = " + strings.Repeat("1+", 4997) + "1"
 	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(long), Paste: true})
-	if n := len(m.line.f.text); n != maxField {
-		t.Errorf("long paste kept %d runes, want the bound %d", n, maxField)
+	if got := m.line.f.String(); got != long {
+		t.Fatalf("paste of %d bytes kept %d", len(long), len(got))
 	}
-	_ = m.View()
+	press(m, "enter")
+	if got := value(t, m, "pz"); got != 4998 {
+		t.Errorf("pz = %v, want 4998", got)
+	}
+	// past the worksheet's line limit: refused whole, said so, and the
+	// text already in the line is kept
+	press(m, "tab")
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("kept = 1"), Paste: true})
+	huge := strings.Repeat("1+", calc.MaxLine/2) + "1"
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(huge), Paste: true})
+	if got := m.line.f.String(); got != "kept = 1" {
+		t.Errorf("over-long paste changed the line to %d bytes", len(got))
+	}
+	if !m.msgErr || !strings.Contains(m.msg, "at most 65536") {
+		t.Errorf("over-long paste: message %q", m.msg)
+	}
+	if v := m.View(); !strings.Contains(v, "not inserted") {
+		t.Errorf("over-long paste: no message on screen:\n%s", v)
+	}
 	press(m, "ctrl+u")
 	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("Zp = 5 Ω\nZq = Zp * 2\n"), Paste: true})
 	if got := value(t, m, "Zq"); got != 10 {

@@ -271,7 +271,7 @@ func (m *Model) netPane(w, h int) []string {
 		}
 	}
 	info := fmt.Sprintf("%s, reference %s, nodes %s", kind, n.net.Reference, strings.Join(n.nodes, " "))
-	out = append(out, m.th.section("network "+n.name, m.tr(info), w))
+	out = append(out, m.th.section(m.tr("network "+n.name), m.tr(info), w))
 	within := map[string]string{}
 	var cur *reduce.Merge
 	if n.red != nil && n.step > 0 {

@@ -676,7 +676,8 @@ func (m *Model) trailMarkdown() string {
 		b.WriteString("\n")
 	}
 	b.WriteString("---\n\n" + strings.ReplaceAll(safetyText, "\n", " ") + "\n")
-	return b.String()
+	// a Markdown file is read on a terminal too
+	return calc.Printable(b.String())
 }
 
 // worksheetText is the session as a worksheet: the accepted statements,

@@ -51,7 +51,7 @@ func (m *Model) statusView() string {
 		flags = append(flags, "NOT SAVED")
 	}
 	if n := m.s.sh.OpenNetwork(); n != "" {
-		flags = append(flags, "writing network "+n)
+		flags = append(flags, m.tr("writing network "+n))
 	}
 	if len(flags) > 0 {
 		s += m.th.err.Render("["+strings.Join(flags, ", ")+"]") + "  "
@@ -419,6 +419,10 @@ func (m *Model) feedbackView() string {
 		return strings.Repeat(" ", col) + m.th.err.Render(marks)
 	}
 	if m.mode == modePrompt && m.ask != nil {
+		if m.msgErr && m.msg != "" {
+			// a refused answer says why in place of the title
+			return m.th.err.Render(fit("error: "+m.tr(m.msg), m.width))
+		}
 		return m.th.dim.Render(m.tr(m.ask.title))
 	}
 	if m.caution != "" && !m.msgErr {
@@ -472,7 +476,7 @@ func (m *Model) caret() (col int, marks, msg string, ok bool) {
 	col = ansi.StringWidth(p)
 	text := m.line.f.text
 	for i := start; i < e.Col-1 && i < len(text); i++ {
-		col += ansi.StringWidth(string(text[i]))
+		col += cellWidth(text[i])
 	}
 	if e.Col-1 > len(text) {
 		col++
@@ -500,7 +504,9 @@ func (m *Model) hintView() string {
 			return ls[1]
 		}
 	}
-	k := func(key, what string) string { return m.th.key.Render(key) + " " + what }
+	// tr goes on the plain pieces, before styling: styled text holds
+	// escape sequences of its own
+	k := func(key, what string) string { return m.th.key.Render(m.tr(key)) + " " + m.tr(what) }
 	var parts []string
 	switch m.mode {
 	case modeLine:
@@ -520,7 +526,7 @@ func (m *Model) hintView() string {
 		}
 		hs := []hint{{k("?", "help"), true}, {k("tab", "type"), false}, {k("space", "mark"), false}}
 		if ops := m.operands(2); len(ops) == 2 {
-			hs = append(hs, hint{"on " + ops[0] + ", " + ops[1] + ": " + m.th.key.Render("p s + - * /"), true}, hint{k("v c t", "roles"), false})
+			hs = append(hs, hint{m.tr("on "+ops[0]+", "+ops[1]+": ") + m.th.key.Render("p s + - * /"), true}, hint{k("v c t", "roles"), false})
 		}
 		hs = append(hs, hint{k("u", "undo"), true}, hint{k("q", "quit"), true},
 			hint{k("T", "trail in full"), false}, hint{k("N", "networks"), false}, hint{k("x", "export"), false})
@@ -531,7 +537,7 @@ func (m *Model) hintView() string {
 				if take[i] || h.must != (pass == 0) {
 					continue
 				}
-				w := ansi.StringWidth(m.tr(h.text)) + 2
+				w := ansi.StringWidth(h.text) + 2
 				if pass == 0 || used+w <= m.width {
 					take[i] = true
 					used += w
@@ -544,5 +550,5 @@ func (m *Model) hintView() string {
 			}
 		}
 	}
-	return m.tr(strings.Join(parts, "  "))
+	return strings.Join(parts, "  ")
 }

@@ -105,13 +105,66 @@ func pad(s string, width int) string {
 var asciiReplacer = strings.NewReplacer("↑↓", "up/down", "→←", "right/left", "›", ">", "↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
 	"…", "~", "…", "~", "×", "x", "├", "+", "└", "+")
 
-// tr writes text for the screen: in ASCII mode every symbol argand uses is
-// spelled in ASCII before widths are measured.
+// tr writes text for the screen: characters a terminal would act on are
+// shown as their escapes (calc.Printable), and in ASCII mode every symbol
+// argand uses is spelled in ASCII, before widths are measured. It takes
+// plain text only: styled text holds escape sequences of its own.
 func (m *Model) tr(s string) string {
+	s = calc.Printable(s)
 	if !m.opt.ASCII {
 		return s
 	}
 	return calc.ASCIIText(asciiReplacer.Replace(s))
+}
+
+// screenSafe is the last guard before the screen: the style sequences
+// (SGR, ESC [ … m) that the app's own styles write are kept, and any other
+// control character, which could only have come from input that missed
+// tr, is shown as its escape. Lines are kept.
+func screenSafe(s string) string {
+	var b strings.Builder
+	clean := true
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= 0x20 && c != 0x7f || c == '\n' {
+			continue
+		}
+		if c == 0x1b && i+1 < len(s) && s[i+1] == '[' {
+			j := i + 2
+			for j < len(s) && (s[j] >= '0' && s[j] <= '9' || s[j] == ';' || s[j] == ':') {
+				j++
+			}
+			if j < len(s) && s[j] == 'm' {
+				i = j
+				continue
+			}
+		}
+		clean = false
+		break
+	}
+	if clean && calc.Printable(s) == s {
+		return s
+	}
+	for i := 0; i < len(s); {
+		if s[i] == 0x1b && i+1 < len(s) && s[i+1] == '[' {
+			j := i + 2
+			for j < len(s) && (s[j] >= '0' && s[j] <= '9' || s[j] == ';' || s[j] == ':') {
+				j++
+			}
+			if j < len(s) && s[j] == 'm' {
+				b.WriteString(s[i : j+1])
+				i = j + 1
+				continue
+			}
+		}
+		k := i + 1
+		for k < len(s) && s[k] != 0x1b {
+			k++
+		}
+		b.WriteString(calc.Printable(s[i:k]))
+		i = k
+	}
+	return b.String()
 }
 
 // lockedBy reports whether err says the session is held elsewhere, and
