@@ -354,23 +354,43 @@ func (m *Model) helpView() []string {
 	return out
 }
 
-func (m *Model) lockedView() []string {
+// lockedText is the question asked when the session is held by another
+// argand or cannot be locked at all: a title and the lines that explain
+// it, the same in the app and in the line mode.
+func (m *Model) lockedText() (title string, why []string) {
+	if m.lockErr != nil {
+		return "the session could not be locked", []string{
+			"The lock that keeps two argands from saving one session failed:",
+			m.lockErr.Error(),
+			"Without it another argand could save over this one's work.",
+		}
+	}
 	who := "another argand"
 	if m.lockPID > 0 {
 		who = fmt.Sprintf("another argand (process %d)", m.lockPID)
 	}
-	return []string{
-		m.th.label.Render("argand: this session is in use"),
-		"",
-		m.tr(who + " has the session open, perhaps in another login."),
+	return "this session is in use", []string{
+		who + " has the session open, perhaps in another login.",
 		"Two programs saving one session would overwrite each other's work.",
-		"",
+	}
+}
+
+func (m *Model) lockedView() []string {
+	title, why := m.lockedText()
+	out := []string{m.th.label.Render(m.tr("argand: " + title)), ""}
+	for _, l := range why {
+		out = append(out, wrapLine(m.tr(l), m.width, 2)...)
+	}
+	out = append(out, "",
 		"  r  open it read-only: look, nothing is kept",
 		"  s  start a separate session (kept in its own file)",
 		"  q  quit",
 		"",
-		m.th.dim.Render(m.tr("session file: " + m.lockPath)),
+	)
+	for _, l := range wrapLine(m.tr("session file: "+m.lockPath), m.width, 2) {
+		out = append(out, m.th.dim.Render(l))
 	}
+	return out
 }
 
 // descCol is the cell where the description of a help line starts: after

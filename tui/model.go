@@ -18,6 +18,7 @@
 package tui
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -25,6 +26,7 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/reduce/sheet"
 	"argand/tui/cli"
 	"argand/tui/store"
 
@@ -82,8 +84,9 @@ type Model struct {
 	// of the outcome so that it is seen without scrolling the trail
 	caution string
 
-	lockPath string // session held by another process
+	lockPath string // session held by another process, or not lockable
 	lockPID  int
+	lockErr  error // why the lock could not be taken, when no one holds it
 	quitting bool
 }
 
@@ -155,13 +158,17 @@ func (m *Model) start() {
 	}
 	lk, err := store.Lock(path)
 	if err != nil {
+		// never two writers: a session that is held elsewhere, or that
+		// cannot be locked at all, is not saved to; the user chooses a
+		// read-only view or a separate session
+		m.mode = modeLocked
+		m.lockPath = path
 		if pid, locked := lockedBy(err); locked {
-			m.mode = modeLocked
-			m.lockPath = path
 			m.lockPID = pid
-			return
+		} else {
+			m.lockErr = err
 		}
-		m.note(true, "could not lock the session ("+err.Error()+"); saving anyway")
+		return
 	}
 	m.lock = lk
 	m.s.path = path
@@ -169,21 +176,36 @@ func (m *Model) start() {
 }
 
 // restore loads the session file, or starts afresh when there is none.
+// What taking the lock changed (a directory made private) is added to the
+// outcome, never replaced by it.
 func (m *Model) restore() {
-	ok, note := m.s.loadFile(m.s.path)
-	if ok {
+	ok, note, unreadable := m.s.loadFile(m.s.path)
+	switch {
+	case unreadable:
+		// the file may be fine, only out of reach: keep it as it is, and
+		// save nothing over it
+		m.s.readOnly = true
+		m.s.roWhy = "the session file cannot be read"
+		m.lock.Unlock()
+		m.lock = nil
+		m.fresh()
+		m.note(true, "read-only: "+note+"; showing a fresh worksheet, nothing is saved")
+	case ok:
 		if m.opt.File != "" {
 			m.note(false, "restored your session on "+m.opt.File+" (the file itself is unchanged until you save with x w)")
 		} else {
 			m.note(false, fmt.Sprintf("session restored: %d rows, %d steps", len(m.s.rows()), len(m.s.sh.Steps())))
 		}
-		return
+	default:
+		m.fresh()
+		if note != "" {
+			m.note(true, note)
+		}
+		m.s.save()
 	}
-	m.fresh()
-	if note != "" {
-		m.note(true, note)
+	if notes := m.lock.Notes(); len(notes) > 0 {
+		m.msg += "; " + strings.Join(notes, "; ")
 	}
-	m.s.save()
 }
 
 // fresh opens the worksheet file or the built-in example.
@@ -227,17 +249,28 @@ func (m *Model) chooseLocked(readOnly bool) {
 		m.s.path = m.lockPath
 		m.s.readOnly = true
 		m.s.holder = m.lockPID
+		whose := "the session of the other argand"
+		if m.lockErr != nil {
+			m.s.roWhy = "the session could not be locked"
+			whose = "the session, not locked"
+		}
 		data, err := store.Load(m.lockPath)
 		if err == nil {
-			if sh, f, err := decode(data, m.s.ascii); err == nil {
+			var sh *sheet.Sheet
+			var f file
+			if sh, f, err = decode(data, m.s.ascii); err == nil {
 				m.s.sh, m.s.v, m.s.worksheet = sh, f.View, f.Worksheet
 				m.s.tidy()
-				m.note(false, "read-only: the session of the other argand; nothing you do here is kept")
+				m.note(false, "read-only: "+whose+"; nothing you do here is kept")
 				return
 			}
 		}
 		m.fresh()
-		m.note(true, "read-only, but the session file could not be read; showing a fresh worksheet")
+		if errors.Is(err, os.ErrNotExist) {
+			m.note(false, "read-only: no session saved yet; a fresh worksheet, nothing you do here is kept")
+			return
+		}
+		m.note(true, "read-only, but the session file could not be read ("+err.Error()+"); showing a fresh worksheet")
 		return
 	}
 	for n := 2; n < 100; n++ {

@@ -131,12 +131,12 @@ func Plain(opt Options, in io.Reader, w io.Writer) int {
 // plainLocked asks what to do with a session held by another argand. It
 // reports false when the user chose to quit.
 func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
-	who := "another argand"
-	if m.lockPID > 0 {
-		who = fmt.Sprintf("another argand (pid %d)", m.lockPID)
+	title, why := m.lockedText()
+	say("argand: " + title)
+	for _, l := range why {
+		say(l)
 	}
-	say("argand: this session is in use: " + who + " has it open, perhaps in another login.")
-	say("Two programs saving one session would overwrite each other's work.")
+	say("session file: " + m.lockPath)
 	say("  r  open it read-only: look, nothing is kept")
 	say("  s  start a separate session (kept in its own file)")
 	say("  q  quit")
@@ -163,7 +163,7 @@ func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
 func (m *Model) plainWhere(say func(string)) {
 	switch {
 	case m.s.readOnly:
-		say("read-only: this session is open in another argand; nothing you do here is saved")
+		say(m.s.errReadOnly().Error())
 	case m.s.path == "":
 		say("the session is not saved (no place to keep it); save FILE keeps a worksheet")
 	default:

@@ -64,7 +64,8 @@ type session struct {
 	worksheet string // worksheet file opened, the default target of a save
 	readOnly  bool
 	ascii     bool  // sheets are made in ASCII mode
-	holder    int   // process holding the session when read-only, if known
+	holder    int    // process holding the session when read-only, if known
+	roWhy     string // why the session is read-only when no one else holds it
 	saveErr   error // last failure to save, shown until a save succeeds
 }
 
@@ -135,8 +136,10 @@ func (s *session) save() {
 }
 
 // loadFile restores a session from path. A missing file is not an error
-// (ok is false); a corrupt one is moved aside and reported in note.
-func (s *session) loadFile(path string) (ok bool, note string) {
+// (ok is false); a corrupt one is moved aside and reported in note. A file
+// that exists but cannot be read is left alone: unreadable is set and note
+// names the file and the reason, and the caller must not save over it.
+func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) {
 	var sh *sheet.Sheet
 	var f file
 	_, err := store.LoadChecked(path, func(b []byte) error {
@@ -149,16 +152,16 @@ func (s *session) loadFile(path string) (ok bool, note string) {
 		if errors.As(err, &ce) {
 			// the name it was kept under comes first, so that it is read
 			// whole on a narrow screen; the reason may be long
-			return false, fmt.Sprintf("session file unusable, kept as %s; a fresh session started (%v)", filepath.Base(ce.MovedTo), ce.Err)
+			return false, fmt.Sprintf("session file unusable, kept as %s; a fresh session started (%v)", filepath.Base(ce.MovedTo), ce.Err), false
 		}
 		if errors.Is(err, os.ErrNotExist) {
-			return false, ""
+			return false, "", false
 		}
-		return false, fmt.Sprintf("could not read the session: %v", err)
+		return false, fmt.Sprintf("the session file %v", err), true
 	}
 	s.sh, s.v, s.worksheet = sh, f.View, f.Worksheet
 	s.tidy()
-	return true, ""
+	return true, "", false
 }
 
 // loadWorksheet runs a worksheet text into a fresh sheet. Lines up to the
@@ -185,9 +188,15 @@ func (s *session) checkpoint() {
 }
 
 // readOnlyError refuses a change in a read-only session.
-type readOnlyError struct{ pid int }
+type readOnlyError struct {
+	pid int
+	why string // the reason when no other argand holds the session
+}
 
 func (e *readOnlyError) Error() string {
+	if e.why != "" {
+		return "read-only: " + e.why + "; nothing is saved"
+	}
 	who := "another argand"
 	if e.pid > 0 {
 		who = fmt.Sprintf("another argand (pid %d)", e.pid)
@@ -195,7 +204,7 @@ func (e *readOnlyError) Error() string {
 	return "read-only: this session is open in " + who + "; nothing is saved"
 }
 
-func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder} }
+func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder, why: s.roWhy} }
 
 // exec runs statements as one change: all of them or none.
 func (s *session) exec(stmts ...string) ([]calc.Step, error) {

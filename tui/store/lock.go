@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+	"time"
 )
 
 // ErrLocked is wrapped by the *LockedError that Lock returns when another
@@ -30,8 +31,23 @@ func (e *LockedError) Unwrap() error { return ErrLocked }
 
 // FileLock is a held session lock.
 type FileLock struct {
-	f *os.File
+	f     *os.File
+	notes []string
 }
+
+// Notes returns what taking the lock changed that the user should know:
+// a state directory made private, leftover temporary files removed.
+func (l *FileLock) Notes() []string {
+	if l == nil {
+		return nil
+	}
+	return l.notes
+}
+
+// StaleAge is how old a leftover temporary file of a save must be before
+// Lock removes it: a save writes its file in well under a second, so one
+// older than this belongs to a run that was killed.
+const StaleAge = time.Minute
 
 // Lock takes an exclusive, non-blocking lock on path + ".lock", creating it
 // (and its directory, as Save would) if needed, and writes this process's
@@ -46,14 +62,33 @@ type FileLock struct {
 // within one process exclude each other. The lock file is never removed:
 // removing it would let one process lock the old file while another locks
 // a new one. flock is advisory and may not work on network file systems.
+//
+// The directory is prepared by PrepareDir (private, this user's), and the
+// lock file is opened without following a symbolic link and must be this
+// user's regular file, so that a link planted in its place cannot have
+// another file truncated. Once the lock is held, temporary files of saves
+// older than StaleAge, left by a run that was killed, are removed; Notes
+// says what was done.
 func Lock(path string) (*FileLock, error) {
 	name := path + ".lock"
-	if err := os.MkdirAll(filepath.Dir(name), 0o700); err != nil {
-		return nil, fmt.Errorf("lock %s: %w", name, err)
-	}
-	f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE, 0o600)
+	note, err := PrepareDir(filepath.Dir(name))
 	if err != nil {
 		return nil, fmt.Errorf("lock %s: %w", name, err)
+	}
+	f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|noFollow|nonBlock, 0o600)
+	if err != nil {
+		if isLoop(err) {
+			return nil, fmt.Errorf("lock: %w", &UnsafeError{Path: name, Why: "is a symbolic link; argand does not follow links in its state directory"})
+		}
+		return nil, fmt.Errorf("lock %s: %w", name, err)
+	}
+	fi, err := f.Stat()
+	if err == nil {
+		err = checkOwn(name, fi, false)
+	}
+	if err != nil {
+		f.Close()
+		return nil, fmt.Errorf("lock: %w", err)
 	}
 	held, err := tryLock(f)
 	if err != nil {
@@ -78,7 +113,48 @@ func Lock(path string) (*FileLock, error) {
 		f.Close()
 		return nil, fmt.Errorf("lock %s: %w", name, err)
 	}
-	return &FileLock{f: f}, nil
+	lk := &FileLock{f: f}
+	if note != "" {
+		lk.notes = append(lk.notes, note)
+	}
+	if n := removeStale(path, StaleAge, time.Now()); n > 0 {
+		lk.notes = append(lk.notes, fmt.Sprintf("removed %d temporary file(s) left by an interrupted save", n))
+	}
+	return lk, nil
+}
+
+// removeStale removes the temporary files of saves of path (tempPattern)
+// last changed more than age before now; it is called only while the
+// lock is held, so no save of this session can be under way. Only this
+// user's regular files are touched. It returns how many were removed.
+func removeStale(path string, age time.Duration, now time.Time) int {
+	// read the directory rather than glob it: the path may hold a glob's
+	// special characters
+	dir := filepath.Dir(path)
+	ents, err := os.ReadDir(dir)
+	if err != nil {
+		return 0
+	}
+	pat := tempPattern(path)
+	prefix := pat[:len(pat)-1]
+	n := 0
+	for _, e := range ents {
+		if !strings.HasPrefix(e.Name(), prefix) || len(e.Name()) == len(prefix) {
+			continue
+		}
+		name := filepath.Join(dir, e.Name())
+		fi, err := os.Lstat(name)
+		if err != nil || !fi.Mode().IsRegular() || now.Sub(fi.ModTime()) <= age {
+			continue
+		}
+		if uid, ok := ownerOf(fi); ok && uid != me() {
+			continue
+		}
+		if os.Remove(name) == nil {
+			n++
+		}
+	}
+	return n
 }
 
 // readPID reads the holder's process ID; 0 when it cannot be read, as

@@ -1,7 +1,10 @@
 // Package store keeps the app's session on disk so that nothing is lost:
-// every save replaces the file atomically, a file that cannot be read back
-// is moved aside instead of blocking start-up, and a lock keeps a second
-// instance from overwriting the first.
+// every save replaces the file atomically, a file whose content is damaged
+// is moved aside instead of blocking start-up, a file that cannot be read
+// (permissions) is reported and left alone, and a lock keeps a second
+// instance from overwriting the first. The state directory is private
+// (0700), files in it are opened without following symbolic links, and a
+// directory or file that belongs to another user is refused.
 package store
 
 import (
@@ -9,10 +12,17 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strconv"
+	"syscall"
 	"time"
 )
+
+// isLoop reports the error of an O_NOFOLLOW open of a symbolic link.
+// Linux and most systems say ELOOP; FreeBSD says EMLINK.
+func isLoop(err error) bool { return errors.Is(err, syscall.ELOOP) || errors.Is(err, syscall.EMLINK) }
 
 // MaxSize bounds the size of a session file Load accepts. Sessions are
 // text worksheets of a few kilobytes; a file far larger is not one of ours.
@@ -64,10 +74,28 @@ func Save(path string, data []byte) error {
 	return nil
 }
 
+// createTemp creates a new file beside path named by tempPattern, mode
+// 0600. O_EXCL with O_NOFOLLOW: a name already taken, by a file or a
+// symbolic link, is never opened, so a link planted under a guessed name
+// cannot redirect the write.
+func createTemp(path string) (*os.File, error) {
+	dir, pat := filepath.Dir(path), tempPattern(path)
+	prefix := pat[:len(pat)-1]
+	for range 100 {
+		name := filepath.Join(dir, prefix+strconv.FormatUint(rand.Uint64(), 36))
+		f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL|noFollow, 0o600)
+		if errors.Is(err, fs.ErrExist) {
+			continue
+		}
+		return f, err
+	}
+	return nil, fmt.Errorf("no free temporary name in %s", dir)
+}
+
 // writeTemp writes data to a new synced temporary file beside path and
 // returns its name; on error nothing is left behind.
 func writeTemp(path string, data []byte) (string, error) {
-	f, err := os.CreateTemp(filepath.Dir(path), tempPattern(path))
+	f, err := createTemp(path)
 	if err != nil {
 		return "", err
 	}
@@ -101,25 +129,91 @@ func syncDir(dir string) error {
 	return err
 }
 
-// Load reads the file at path, refusing one larger than MaxSize. A missing
-// file gives an error for which errors.Is(err, fs.ErrNotExist) holds.
+// errTooLarge marks a file too large to be a session: damaged content.
+var errTooLarge = fmt.Errorf("file larger than %d bytes", MaxSize)
+
+// Load reads the session file at path, refusing one larger than MaxSize.
+// A missing file gives an error for which errors.Is(err, fs.ErrNotExist)
+// holds. A symbolic link, anything but a regular file, and a file that
+// belongs to another user give an *UnsafeError.
 func Load(path string) ([]byte, error) {
-	f, err := os.Open(path)
+	f, err := os.OpenFile(path, os.O_RDONLY|noFollow|nonBlock, 0)
 	if err != nil {
+		if isLoop(err) {
+			return nil, &UnsafeError{Path: path, Why: "is a symbolic link; argand does not follow links in its state directory"}
+		}
 		return nil, err
 	}
 	defer f.Close()
-	if fi, err := f.Stat(); err == nil && fi.Size() > MaxSize {
-		return nil, fmt.Errorf("load %s: file larger than %d bytes", path, MaxSize)
+	fi, err := f.Stat()
+	if err != nil {
+		return nil, fmt.Errorf("load %s: %w", path, err)
+	}
+	if err := checkOwn(path, fi, false); err != nil {
+		return nil, err
+	}
+	if fi.Size() > MaxSize {
+		return nil, fmt.Errorf("load %s: %w", path, errTooLarge)
 	}
 	data, err := io.ReadAll(io.LimitReader(f, MaxSize+1))
 	if err != nil {
 		return nil, fmt.Errorf("load %s: %w", path, err)
 	}
 	if len(data) > MaxSize {
-		return nil, fmt.Errorf("load %s: file larger than %d bytes", path, MaxSize)
+		return nil, fmt.Errorf("load %s: %w", path, errTooLarge)
 	}
 	return data, nil
+}
+
+// UnsafeError reports a state directory or file that argand refuses to
+// use: a symbolic link where a file belongs, something other than a
+// regular file or directory, or one that belongs to another user (who
+// could then read the session or change it under the user's name).
+type UnsafeError struct {
+	Path string
+	Why  string
+}
+
+func (e *UnsafeError) Error() string { return e.Path + " " + e.Why }
+
+// checkOwn checks that fi, the file or directory (dir) at path, is one
+// argand may use: of the right type and owned by this user.
+func checkOwn(path string, fi fs.FileInfo, dir bool) error {
+	switch {
+	case dir && !fi.IsDir():
+		return &UnsafeError{Path: path, Why: "is not a directory"}
+	case !dir && !fi.Mode().IsRegular():
+		return &UnsafeError{Path: path, Why: "is not a regular file"}
+	}
+	if uid, ok := ownerOf(fi); ok && uid != me() {
+		return &UnsafeError{Path: path, Why: fmt.Sprintf("belongs to another user (uid %d, not %d); argand will not use it", uid, me())}
+	}
+	return nil
+}
+
+// PrepareDir makes the state directory dir, mode 0700, when it is missing,
+// and checks it: a directory (a symbolic link to one is followed, as a
+// user may keep state elsewhere, and its target is checked), owned by this
+// user. A directory that others may write to is tightened to 0700, and
+// the note returned says so.
+func PrepareDir(dir string) (note string, err error) {
+	if err := os.MkdirAll(dir, 0o700); err != nil {
+		return "", err
+	}
+	fi, err := os.Stat(dir)
+	if err != nil {
+		return "", err
+	}
+	if err := checkOwn(dir, fi, true); err != nil {
+		return "", err
+	}
+	if fi.Mode().Perm()&0o022 != 0 {
+		if err := os.Chmod(dir, 0o700); err != nil {
+			return "", fmt.Errorf("%s can be written by other users and could not be made private: %w", dir, err)
+		}
+		return fmt.Sprintf("the state directory %s could be written by other users (mode %04o); it is now private (0700)", dir, fi.Mode().Perm()), nil
+	}
+	return "", nil
 }
 
 // MoveAside renames the file at path to path + ".corrupt-" + a UTC time
@@ -163,14 +257,42 @@ func (e *CorruptError) Error() string {
 
 func (e *CorruptError) Unwrap() error { return e.Err }
 
-// LoadChecked loads path and passes the content to check. Content that
-// check refuses, or that cannot be read, is moved aside and a
+// UnreadableError reports a session file that exists but cannot be read:
+// no permission, not a regular file, a link, another user's, or a failing
+// disk. The file is left where it is, untouched.
+type UnreadableError struct {
+	Path string
+	Err  error
+}
+
+func (e *UnreadableError) Error() string {
+	var ue *UnsafeError
+	if errors.As(e.Err, &ue) {
+		return ue.Error()
+	}
+	var pe *fs.PathError
+	if errors.As(e.Err, &pe) {
+		return fmt.Sprintf("%s cannot be read: %v", e.Path, pe.Err)
+	}
+	return fmt.Sprintf("%s cannot be read: %v", e.Path, e.Err)
+}
+
+func (e *UnreadableError) Unwrap() error { return e.Err }
+
+// LoadChecked loads path and passes the content to check. Damaged content
+// (refused by check, or too large to be a session) is moved aside and a
 // *CorruptError is returned, so the caller can tell the user and start
-// with an empty session. A missing file is returned as Load returns it.
+// with an empty session. A file that cannot be read at all is left alone
+// and reported as an *UnreadableError: its content may be fine, and the
+// caller must not save over it. A missing file is returned as Load
+// returns it.
 func LoadChecked(path string, check func([]byte) error) ([]byte, error) {
 	data, err := Load(path)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, err
+	}
+	if err != nil && !errors.Is(err, errTooLarge) {
+		return nil, &UnreadableError{Path: path, Err: err}
 	}
 	if err == nil {
 		err = check(data)
