@@ -63,10 +63,10 @@ type session struct {
 	path      string // session file; "" keeps nothing on disk
 	worksheet string // worksheet file opened, the default target of a save
 	readOnly  bool
-	ascii     bool  // sheets are made in ASCII mode
+	ascii     bool   // sheets are made in ASCII mode
 	holder    int    // process holding the session when read-only, if known
 	roWhy     string // why the session is read-only when no one else holds it
-	saveErr   error // last failure to save, shown until a save succeeds
+	saveErr   error  // last failure to save, shown until a save succeeds
 }
 
 func newSession(ascii bool) *session {

@@ -201,3 +201,44 @@ func TestNoStallInSilentTerminal(t *testing.T) {
 	}
 	t.Logf("argand eval 1 in a silent pseudo-terminal: %v", d)
 }
+
+// TestInjection runs the built binary on worksheets that carry control
+// sequences, as argand run, argand FILE (no terminal) and argand eval, and
+// with them in a flag and a help topic: standard output and standard error
+// hold no control character but the line feed, and show each sequence as
+// its escape. The first case is the terminal clipboard write and screen
+// clear of a bad line's comment (OSC 52 and CSI 2J, ECMA-48).
+func TestInjection(t *testing.T) {
+	dir := t.TempDir()
+	seqs := []string{"\x1b]52;c;aGVsbG8=\x07\x1b[2J", "\u009b31m", "\u202e", "\r", "\x9b"}
+	for _, seq := range seqs {
+		file := filepath.Join(dir, "w.argand")
+		if err := os.WriteFile(file, []byte("x = 3\ny = 1/0 # "+seq+"\n"), 0o600); err != nil {
+			t.Fatal(err)
+		}
+		for _, args := range [][]string{
+			{"run", file}, {file}, {"--ascii", "run", file}, {"--json", "run", file},
+			{"eval", "z = 1 + " + seq}, {"--x" + seq}, {"help", seq}, {"run", file + seq},
+		} {
+			code, out, errs := argand(t, utf8Lang, "", args...)
+			if code != 2 {
+				t.Errorf("%q: exit %d, want 2", args, code)
+			}
+			for _, r := range out + errs {
+				if r < 0x20 && r != '\n' || r == 0x7f || r >= 0x80 && r < 0xa0 || r >= 0x202a && r <= 0x202e || r == 0xfffd {
+					t.Errorf("%q: control %U reaches the terminal:\n%q", args, r, out+errs)
+					break
+				}
+			}
+		}
+	}
+	// the example of the report, byte for byte
+	file := filepath.Join(dir, "w.argand")
+	if err := os.WriteFile(file, []byte("x = 3\ny = 1/0 # \033]52;c;aGVsbG8=\007\033[2J\n"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	_, _, errs := argand(t, utf8Lang, "", "run", file)
+	if !strings.Contains(errs, `\x1b]52;c;aGVsbG8=\x07\x1b[2J`) {
+		t.Errorf("the sequence is not shown escaped:\n%s", errs)
+	}
+}
