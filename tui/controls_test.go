@@ -7,7 +7,6 @@ import (
 	"strings"
 	"testing"
 
-	"argand/calc"
 	"argand/tui/internal/controls"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -71,8 +70,8 @@ func TestControlsOnScreen(t *testing.T) {
 			Plain(Options{Getenv: func(string) string { return "" }},
 				strings.NewReader("x = 3 # "+c.Text+"\nz = 1 + "+c.Text+"\nb = 1 \r+ 1\nlist\ntrail\nsave "+filepath.Join(dir, "s"+c.Text)+"\nquit\n"), &out)
 			check("line mode", out.String(), false)
-			if !strings.Contains(out.String(), calc.Printable(c.Text)) && !strings.Contains(c.Text, "\r") {
-				t.Errorf("line mode: the escape %q is not shown:\n%s", calc.Printable(c.Text), out.String())
+			if !strings.Contains(out.String(), controls.Escaped(c.Text)) && !strings.Contains(c.Text, "\r") {
+				t.Errorf("line mode: the escape %q is not shown:\n%s", controls.Escaped(c.Text), out.String())
 			}
 		})
 	}

@@ -5,7 +5,6 @@ import (
 	"strings"
 	"testing"
 
-	"argand/calc"
 	"argand/tui/internal/controls"
 )
 
@@ -18,7 +17,7 @@ import (
 func TestControlsNeverReachTheTerminal(t *testing.T) {
 	for _, c := range controls.Catalogue(t) {
 		t.Run(c.Name, func(t *testing.T) {
-			visible := calc.Printable(c.Text)
+			visible := controls.Escaped(c.Text)
 			worksheets := map[string]string{
 				"comment of a failing line": "x = 3\ny = 1/0 # " + c.Text + "\n",
 				"inside an expression":      "x = 3\nz = 1 + " + c.Text + " 2\n",

@@ -76,3 +76,30 @@ func Check(out string, sgr bool) error {
 	}
 	return nil
 }
+
+// Escaped is the visible form that the rules of argand's printable text
+// give text: written here again, apart from the code under test, so that
+// a test can say what the reader must see.
+func Escaped(s string) string {
+	var b strings.Builder
+	for i := 0; i < len(s); {
+		r, n := utf8.DecodeRuneInString(s[i:])
+		switch {
+		case r == utf8.RuneError && n == 1:
+			fmt.Fprintf(&b, `\x%02x`, s[i])
+		case r == '\t':
+			b.WriteByte(' ')
+		case r == '\n':
+			b.WriteByte('\n')
+		case r < 0x20 || r == 0x7f:
+			fmt.Fprintf(&b, `\x%02x`, r)
+		case r >= 0x80 && r <= 0x9f, r >= 0x202a && r <= 0x202e, r >= 0x2066 && r <= 0x2069,
+			r == 0x200e, r == 0x200f, r == 0x061c, r == 0x2028, r == 0x2029:
+			fmt.Fprintf(&b, `\u%04x`, r)
+		default:
+			b.WriteString(s[i : i+n])
+		}
+		i += n
+	}
+	return b.String()
+}
