@@ -3,6 +3,7 @@ package store
 import (
 	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -73,14 +74,14 @@ func Lock(path string) (*FileLock, error) {
 	name := path + ".lock"
 	note, err := PrepareDir(filepath.Dir(name))
 	if err != nil {
-		return nil, fmt.Errorf("lock %s: %w", name, err)
+		return nil, plainPathErr(err)
 	}
 	f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|noFollow|nonBlock, 0o600)
 	if err != nil {
 		if isLoop(err) {
-			return nil, fmt.Errorf("lock: %w", &UnsafeError{Path: name, Why: "is a symbolic link; argand does not follow links in its state directory"})
+			return nil, &UnsafeError{Path: name, Why: "is a symbolic link; argand does not follow links in its state directory"}
 		}
-		return nil, fmt.Errorf("lock %s: %w", name, err)
+		return nil, plainPathErr(err)
 	}
 	fi, err := f.Stat()
 	if err == nil {
@@ -88,7 +89,7 @@ func Lock(path string) (*FileLock, error) {
 	}
 	if err != nil {
 		f.Close()
-		return nil, fmt.Errorf("lock: %w", err)
+		return nil, plainPathErr(err)
 	}
 	held, err := tryLock(f)
 	if err != nil {
@@ -118,7 +119,7 @@ func Lock(path string) (*FileLock, error) {
 		lk.notes = append(lk.notes, note)
 	}
 	if n := removeStale(path, StaleAge, time.Now()); n > 0 {
-		lk.notes = append(lk.notes, fmt.Sprintf("removed %d temporary file(s) left by an interrupted save", n))
+		lk.notes = append(lk.notes, fmt.Sprintf("removed %d temporary file(s) of an interrupted save", n))
 	}
 	return lk, nil
 }
@@ -155,6 +156,17 @@ func removeStale(path string, age time.Duration, now time.Time) int {
 		}
 	}
 	return n
+}
+
+// plainPathErr writes a failed file operation as the path and what went
+// wrong ("…/session.json.lock: permission denied"), without the name of
+// the system call, keeping the cause for errors.Is.
+func plainPathErr(err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return fmt.Errorf("%s: %w", pe.Path, pe.Err)
+	}
+	return err
 }
 
 // readPID reads the holder's process ID; 0 when it cannot be read, as

@@ -200,7 +200,7 @@ func TestStaleTemps(t *testing.T) {
 			t.Errorf("%s removed: %v", filepath.Base(p), err)
 		}
 	}
-	if n := lk.Notes(); len(n) != 1 || !strings.Contains(n[0], "removed 2 temporary") {
+	if n := lk.Notes(); len(n) != 1 || !strings.Contains(n[0], "removed 2 temporary file(s) of an interrupted save") {
 		t.Errorf("lock notes %q", n)
 	}
 	// a second lock is refused and removes nothing: only the holder may

@@ -211,7 +211,8 @@ func PrepareDir(dir string) (note string, err error) {
 		if err := os.Chmod(dir, 0o700); err != nil {
 			return "", fmt.Errorf("%s can be written by other users and could not be made private: %w", dir, err)
 		}
-		return fmt.Sprintf("the state directory %s could be written by other users (mode %04o); it is now private (0700)", dir, fi.Mode().Perm()), nil
+		// short: it shares the start-up line with the session's own note
+		return fmt.Sprintf("state directory was writable by others (mode %04o): now private, 0700", fi.Mode().Perm()), nil
 	}
 	return "", nil
 }
