@@ -5,6 +5,8 @@ import (
 	"io"
 	"os"
 
+	"argand/calc"
+
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
@@ -36,7 +38,7 @@ func Run(opt Options, in io.Reader, out io.Writer, errw io.Writer) int {
 	defer m.Close()
 	p := tea.NewProgram(m, tea.WithInput(in), tea.WithOutput(out), tea.WithAltScreen())
 	if _, err := p.Run(); err != nil {
-		fmt.Fprintln(errw, "argand:", err)
+		fmt.Fprintln(errw, "argand:", calc.Printable(err.Error()))
 		return 2
 	}
 	return 0
