@@ -22,6 +22,10 @@ import (
 func Printable(s string) string {
 	i := 0
 	for i < len(s) {
+		if c := s[i]; c >= 0x20 && c < 0x7f {
+			i++ // printable ASCII, the usual case
+			continue
+		}
 		r, n := utf8.DecodeRuneInString(s[i:])
 		if escapeOf(r, n, s[i]) != "" {
 			break

@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"strconv"
 	"strings"
 	"testing"
 	"unicode/utf8"
@@ -68,4 +69,23 @@ func FuzzPrintable(f *testing.F) {
 			t.Fatalf("carets past the line: %q", c)
 		}
 	})
+}
+
+// BenchmarkPrintable: clean text takes the scan alone; text with controls
+// is rebuilt once. Both are linear in the length.
+func BenchmarkPrintable(b *testing.B) {
+	for _, n := range []int{64, 4096, MaxLine} {
+		rep := func(unit string) string { return strings.Repeat(unit, n/len(unit)+1)[:n] }
+		clean, dirty := rep("Z1 = 3+j4 Ω "), rep("x\x1b[2J\u202e ")
+		for _, c := range []struct {
+			name, s string
+		}{{"clean", clean}, {"controls", dirty}} {
+			b.Run(c.name+"-"+strconv.Itoa(n), func(b *testing.B) {
+				b.SetBytes(int64(len(c.s)))
+				for b.Loop() {
+					Printable(c.s)
+				}
+			})
+		}
+	}
 }
