@@ -76,3 +76,22 @@ func TestControlsOnScreen(t *testing.T) {
 		})
 	}
 }
+
+// TestEntryCaretUnderEscape: in the entry line a bidirectional override is
+// drawn as its escape, and the live error's marks stand under the whole
+// escape, not one cell of it.
+func TestEntryCaretUnderEscape(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("z = 1 + \u202e2"), Paste: true})
+	lines := strings.Split(m.View(), "\n")
+	entry, fb := lines[len(lines)-3], lines[len(lines)-2]
+	at := strings.Index(entry, `\u202e`)
+	if at < 0 {
+		t.Fatalf("escape not drawn: %q", entry)
+	}
+	col := len([]rune(entry[:at]))
+	if got := strings.Index(fb, "^~~~~~"); got != col {
+		t.Errorf("marks at %d, want 6 marks at %d:\n%s\n%s", got, col, entry, fb)
+	}
+}

@@ -481,7 +481,12 @@ func (m *Model) caret() (col int, marks, msg string, ok bool) {
 	if e.Col-1 > len(text) {
 		col++
 	}
-	n := max(1, min(e.Len, 20))
+	// the marks cover the marked characters as drawn: an escape is wider
+	n := 0
+	for i := max(e.Col-1, 0); i < e.Col-1+max(e.Len, 1) && i < len(text); i++ {
+		n += cellWidth(text[i])
+	}
+	n = max(1, min(n, 20))
 	col = max(0, min(col, m.width-1))
 	n = min(n, m.width-col)
 	marks = m.th.g.caret + strings.Repeat("~", n-1)
