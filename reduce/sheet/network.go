@@ -25,6 +25,26 @@ type network struct {
 	sol     *nodal.Solution
 	results []string  // names this network defined
 	tri     *triangle // a network derived by a Δ–Y conversion
+	// A working copy that evaluates samples keeps one built network and
+	// changes only its values: solver holds it, elemDefs the definitions
+	// its elements come from and resultDefs those its results go to, in
+	// the order of results. Clone drops them, so no copy shares them.
+	solver     *netSolver
+	elemDefs   []*def
+	resultDefs []*def
+}
+
+// netSolver solves one built network as its element values change. It is
+// the one place the worksheet asks for a nodal solution, so that a solver
+// which analyses a network's structure once and then refactorises for
+// each change of values can take its place.
+type netSolver struct {
+	net *reduce.Network
+}
+
+// solve solves the network at its present element values.
+func (v *netSolver) solve(basis calc.Basis) (*nodal.Solution, error) {
+	return nodal.Solve(v.net, basis)
 }
 
 // NetworkInfo describes a defined network for the app.
@@ -196,6 +216,9 @@ func (s *Sheet) solve(nw *network, reason string) error {
 	if nw.compact != nil {
 		return s.solveCompact(nw, reason)
 	}
+	if s.quiet && nw.tri == nil {
+		return s.solveAgain(nw)
+	}
 	net, err := s.build(nw)
 	if err != nil {
 		return err
@@ -206,11 +229,15 @@ func (s *Sheet) solve(nw *network, reason string) error {
 			return err
 		}
 	}
-	sol, err := nodal.Solve(net, s.ctx.Basis)
+	sol, err := (&netSolver{net: net}).solve(s.ctx.Basis)
 	if err != nil {
 		return err
 	}
 	nw.sol = sol
+	if s.quiet {
+		s.defineSolution(nw, sol)
+		return nil
+	}
 	sp, stepped := s.spSteps(net)
 	steps := append(pre, sp...)
 	for _, st := range sol.Steps(s.ctx.Format) {
@@ -233,6 +260,60 @@ func (s *Sheet) solve(nw *network, reason string) error {
 	}
 	s.record(steps...)
 	s.defineSolution(nw, sol)
+	return nil
+}
+
+// solveAgain solves a node network of a working copy at its present
+// element values without steps, reusing one built network: only the
+// values change from one sample to the next, and the results are written
+// to the definitions found at the first solution.
+func (s *Sheet) solveAgain(nw *network) error {
+	if nw.solver == nil {
+		net, err := s.build(nw)
+		if err != nil {
+			return err
+		}
+		nw.solver = &netSolver{net: net}
+		nw.elemDefs = make([]*def, len(nw.elems))
+		for i, name := range nw.elems {
+			nw.elemDefs[i] = s.byName[name]
+		}
+	} else {
+		for i, d := range nw.elemDefs {
+			e := &nw.solver.net.Elements[i]
+			e.Raw = d.elem.raw.V
+			if e.Kind.IsSource() {
+				e.Value = d.elem.raw.V
+			} else {
+				e.Z = d.value.V
+			}
+		}
+	}
+	sol, err := nw.solver.solve(s.ctx.Basis)
+	if err != nil {
+		return err
+	}
+	nw.sol = sol
+	want := 3*len(sol.Branches) + len(sol.Nodes)
+	if len(nw.resultDefs) != want {
+		s.defineSolution(nw, sol)
+		nw.resultDefs = make([]*def, len(nw.results))
+		for i, r := range nw.results {
+			nw.resultDefs[i] = s.byName[r]
+		}
+		return nil
+	}
+	k := 0
+	for _, b := range sol.Branches {
+		nw.resultDefs[k].value = calc.Q(b.V, calc.DimVoltage)
+		nw.resultDefs[k+1].value = calc.Q(b.I, calc.DimCurrent)
+		nw.resultDefs[k+2].value = calc.Quantity{V: b.S, Dim: calc.DimPower, Kind: calc.KindApparent}
+		k += 3
+	}
+	for _, n := range sol.Nodes {
+		nw.resultDefs[k].value = calc.Q(sol.Voltage[n], calc.DimVoltage)
+		k++
+	}
 	return nil
 }
 
@@ -267,35 +348,49 @@ func (s *Sheet) setResult(nw *network, name string, q calc.Quantity) string {
 	return name
 }
 
-// resolveNets re-solves the networks that use a changed name; it marks
-// their changed results and reports whether any changed.
-func (s *Sheet) resolveNets(changed map[string]bool) (bool, error) {
+// resolveNets re-solves the networks that read a name changed after their
+// last solution (when holds the tick of each change, and tick counts on);
+// it marks their changed results and reports whether any changed.
+func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *int) (bool, error) {
 	any := false
 	for _, n := range s.order {
 		nw := s.nets[n]
+		last, solved := when["net:"+n]
+		if !solved {
+			last = -1
+		}
 		hit := false
 		for k := range nw.deps {
-			if changed[k] {
+			if t, ok := when[k]; ok && t > last {
 				hit = true
 				break
 			}
 		}
-		if !hit || changed["net:"+n] {
+		if !hit {
 			continue
 		}
+		if err := s.stopped(); err != nil {
+			return false, err
+		}
 		changed["net:"+n] = true
-		old := map[string]calc.Quantity{}
-		for _, r := range nw.results {
-			old[r] = s.byName[r].value
+		when["net:"+n] = *tick
+		*tick++
+		old := make([]calc.Quantity, len(nw.results))
+		for i, r := range nw.results {
+			old[i] = s.byName[r].value
 		}
-		var why []string
-		for k := range nw.deps {
-			if changed[k] && k != "w" && k != "ω" {
-				why = append(why, k)
+		reason := ""
+		if !s.quiet {
+			var why []string
+			for k := range nw.deps {
+				if changed[k] && k != "w" && k != "ω" {
+					why = append(why, k)
+				}
 			}
+			sort.Strings(why)
+			reason = "re-solved because " + strings.Join(why, ", ") + " changed"
 		}
-		sort.Strings(why)
-		if err := s.solve(nw, "re-solved because "+strings.Join(why, ", ")+" changed"); err != nil {
+		if err := s.solve(nw, reason); err != nil {
 			if s.lenient != nil {
 				// its results are unusable here; what reads them fails
 				for _, r := range nw.results {
@@ -305,9 +400,11 @@ func (s *Sheet) resolveNets(changed map[string]bool) (bool, error) {
 			}
 			return false, fmt.Errorf("network %s: %w", n, err)
 		}
-		for _, r := range nw.results {
-			if d := s.byName[r]; d != nil && d.value.V != old[r].V {
+		for i, r := range nw.results {
+			if d := s.byName[r]; d != nil && (i >= len(old) || d.value.V != old[i].V) {
 				changed[r] = true
+				when[r] = *tick
+				*tick++
 				any = true
 			}
 		}

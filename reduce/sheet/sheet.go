@@ -56,7 +56,8 @@ type Settings struct {
 	Basis    calc.Basis
 	Radians  bool
 	Digits   int
-	Sequence int // 1 ABC, −1 ACB
+	Sequence int     // 1 ABC, −1 ACB
+	Budget   float64 // bound on a statement's estimated work, seconds
 }
 
 // Sheet is a worksheet being run.
@@ -84,6 +85,17 @@ type Sheet struct {
 	// autoNext is the next number to try for each letter of an automatic
 	// name, so naming stays linear in a long worksheet.
 	autoNext map[string]int
+	// noteSeen holds the notes already recorded by the statement being
+	// run, so a caution repeated by each part of one calculation is kept
+	// once without reading back over the trail.
+	noteSeen map[string]bool
+	// quiet marks a working copy that evaluates samples (sweep points,
+	// tolerance samples): networks are solved again without steps.
+	quiet bool
+	// job is the running statement's cancellation and progress, or nil.
+	job *Job
+	// budget is the bound on a statement's estimated work, in seconds.
+	budget float64
 }
 
 // New returns an empty worksheet at the default settings with every
@@ -95,6 +107,7 @@ func New() *Sheet {
 		funcs:  map[string]*calc.Func{},
 		nets:   map[string]*network{},
 		tols:   map[string]float64{},
+		budget: DefaultBudget,
 	}
 	for _, f := range allFuncs() {
 		f := f
@@ -105,7 +118,7 @@ func New() *Sheet {
 
 // Settings returns the current settings.
 func (s *Sheet) Settings() Settings {
-	return Settings{Freq: s.ctx.Freq, Basis: s.ctx.Basis, Radians: s.ctx.Format.Radians, Digits: s.ctx.Format.Digits, Sequence: s.ctx.Sequence}
+	return Settings{Freq: s.ctx.Freq, Basis: s.ctx.Basis, Radians: s.ctx.Format.Radians, Digits: s.ctx.Format.Digits, Sequence: s.ctx.Sequence, Budget: s.budget}
 }
 
 // Context returns the evaluation context (settings) in force.
@@ -193,7 +206,7 @@ var reservedWords = map[string]string{
 	"inductor": "a statement keyword", "capacitor": "a statement keyword", "impedance": "a statement keyword",
 	"thevenin": "a statement keyword", "sweep": "a statement keyword", "tolerance": "a statement keyword",
 	"spread": "a statement keyword", "deltay": "a statement keyword",
-	"forget": "a statement keyword", "rename": "a statement keyword",
+	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
 	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",
@@ -265,20 +278,21 @@ func (s *Sheet) recordPart(src string, steps []calc.Step) {
 }
 
 // record appends steps to the trail, stamping line and basis. A note
-// already given by an earlier step of the same line (a caution repeated by
-// each part of one calculation) is not repeated.
+// already given by an earlier step of the same statement (a caution
+// repeated by each part of one calculation) is not repeated. A working
+// copy that evaluates samples records nothing.
 func (s *Sheet) record(steps ...calc.Step) {
-	seen := map[string]bool{}
-	for i := len(s.steps) - 1; i >= 0 && s.steps[i].Line == s.line; i-- {
-		for _, n := range s.steps[i].Notes {
-			seen[n] = true
-		}
+	if s.quiet {
+		return
+	}
+	if s.noteSeen == nil {
+		s.noteSeen = map[string]bool{}
 	}
 	for i := range steps {
 		var notes []string
 		for _, n := range steps[i].Notes {
-			if !seen[n] {
-				seen[n] = true
+			if !s.noteSeen[n] {
+				s.noteSeen[n] = true
 				notes = append(notes, n)
 			}
 		}
@@ -347,27 +361,52 @@ func (s *Sheet) cycle(name string, deps map[string]bool) string {
 // (or on the frequency, when freq is set), in definition order, repeating
 // until nothing more changes, and re-solves networks that use them. It
 // returns one step listing what changed.
+//
+// A definition is evaluated again only when a name it reads changed after
+// its own last evaluation: definitions stand in dependency order, so one
+// pass usually settles them, and a later pass touches only what reads a
+// re-solved network.
 func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
 	step := &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"}
+	// when[name] is the tick at which a name changed; evaluated[d] the
+	// tick of d's last evaluation here. The inputs changed at tick 0.
+	tick := 1
+	when := make(map[string]int, len(changed))
+	for k := range changed {
+		when[k] = 0
+	}
+	evaluated := map[*def]int{}
+	hits := 0
 	for pass := 0; pass <= len(s.defs)+1; pass++ {
+		if err := s.stopped(); err != nil {
+			return nil, err
+		}
 		more := false
 		for _, d := range s.defs {
 			if d.expr == nil && d.elem == nil && d.recalc == nil {
 				continue
 			}
+			last, seen := evaluated[d]
+			if !seen {
+				last = -1
+			}
 			hit := false
 			for k := range d.deps {
-				if changed[k] {
+				if t, ok := when[k]; ok && t > last {
 					hit = true
 					break
 				}
 			}
-			if d.elem != nil && changed["f"] && d.elem.kind != reduce.Resistor {
-				hit = true
+			if d.elem != nil && d.elem.kind != reduce.Resistor {
+				if t, ok := when["f"]; ok && t > last {
+					hit = true
+				}
 			}
 			if !hit || changed[d.name] && d.owner == "" && pass == 0 && d.expr == nil {
 				continue
 			}
+			evaluated[d] = tick
+			tick++
 			nv, extra, err := s.reeval(d)
 			if err != nil {
 				if s.lenient != nil {
@@ -382,11 +421,16 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 					return
 				}
 				d.value = nv
+				when[d.name] = tick
+				tick++
+				more = true
 				if !changed[d.name] {
 					changed[d.name] = true
-					more = true
-					step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
-					step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
+					hits++
+					if !s.quiet {
+						step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
+						step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
+					}
 				}
 			}
 			note(d, nv)
@@ -398,7 +442,7 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 				}
 			}
 		}
-		nets, err := s.resolveNets(changed)
+		nets, err := s.resolveNets(changed, when, &tick)
 		if err != nil {
 			return nil, err
 		}
@@ -409,7 +453,7 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 			break
 		}
 	}
-	if len(step.Results) == 0 {
+	if hits == 0 || s.quiet {
 		return nil, nil
 	}
 	return step, nil

@@ -82,6 +82,7 @@ func (s *Sheet) Clone() *Sheet {
 	for k, v := range s.nets {
 		nv := *v
 		nv.elems = append([]string(nil), v.elems...)
+		nv.solver, nv.elemDefs, nv.resultDefs = nil, nil, nil
 		c.nets[k] = &nv
 	}
 	c.order = append([]string(nil), s.order...)
@@ -104,6 +105,7 @@ func (s *Sheet) Clone() *Sheet {
 		c.tols[k] = v
 	}
 	c.sweeps = s.sweeps[:len(s.sweeps):len(s.sweeps)]
+	c.noteSeen = nil
 	return &c
 }
 
@@ -170,6 +172,8 @@ func (s *Sheet) exec(src string, n int) error {
 			return s.stmtTolerance(p)
 		case "spread":
 			return s.stmtSpread(p)
+		case "budget":
+			return s.stmtBudget(p)
 		case "voltage", "current":
 			if s.isSourceStmt(body) {
 				return s.stmtElement(p, nil)

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math/cmplx"
 	"strconv"
+	"unicode/utf8"
 
 	"argand/calc"
 	"argand/reduce/site"
@@ -42,10 +43,8 @@ func (c *Sheet) evalAt(src string, e calc.Expr, hz float64) (calc.Quantity, erro
 	if _, err := c.propagate(map[string]bool{"f": true, "w": true, "ω": true}, ""); err != nil {
 		return calc.Quantity{}, err
 	}
-	for name := range depsOf(e) {
-		if err := c.brokenUnder(name, 0); err != nil {
-			return calc.Quantity{}, err
-		}
+	if err := c.broken(e); err != nil {
+		return calc.Quantity{}, err
 	}
 	ev := c.evaluator(src, c.line)
 	r, err := ev.Eval(e)
@@ -55,18 +54,34 @@ func (c *Sheet) evalAt(src string, e calc.Expr, hz float64) (calc.Quantity, erro
 	return r.Value, nil
 }
 
+// broken returns the error of a definition e reads, directly or through
+// others, that failed to re-evaluate in a lenient propagation.
+func (s *Sheet) broken(e calc.Expr) error {
+	if len(s.lenient) == 0 {
+		return nil
+	}
+	seen := map[string]bool{}
+	for name := range depsOf(e) {
+		if err := s.brokenUnder(name, 0, seen); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
 // brokenUnder returns the error of a definition that failed to re-evaluate
 // in a lenient propagation, if name depends on one.
-func (s *Sheet) brokenUnder(name string, depth int) error {
+func (s *Sheet) brokenUnder(name string, depth int, seen map[string]bool) error {
 	if err, ok := s.lenient[name]; ok && err != nil {
 		return err
 	}
 	d, ok := s.byName[name]
-	if !ok || depth > 10000 {
+	if !ok || depth > 10000 || seen[name] {
 		return nil
 	}
+	seen[name] = true
 	if d.owner != "" {
-		if err := s.brokenUnder(d.owner, depth+1); err != nil {
+		if err := s.brokenUnder(d.owner, depth+1, seen); err != nil {
 			return err
 		}
 	}
@@ -74,7 +89,7 @@ func (s *Sheet) brokenUnder(name string, depth int) error {
 		if k == name {
 			continue
 		}
-		if err := s.brokenUnder(k, depth+1); err != nil {
+		if err := s.brokenUnder(k, depth+1, seen); err != nil {
 			return err
 		}
 	}
@@ -179,6 +194,9 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		_, _, col := f1E.Span()
 		return lineErr(s.line, col, width(p, f1E), "%v", err)
 	}
+	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, e)}, "points", "use fewer points"); msg != "" {
+		return lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
+	}
 	if s.dry {
 		// the value at the working frequency stands for the sweep
 		if _, err := s.eval(p, e); err != nil {
@@ -187,8 +205,17 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		return nil
 	}
 	src := p.Source()
-	c := s.Clone()
-	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) { return c.evalAt(src, e, hz) })
+	c := s.sampler()
+	done := 0
+	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) {
+		if err := c.stopped(); err != nil {
+			return calc.Quantity{}, err
+		}
+		v, err := c.evalAt(src, e, hz)
+		done++
+		s.progress(done, len(pts))
+		return v, err
+	})
 	if err != nil {
 		_, _, col := e.Span()
 		return lineErr(s.line, col, width(p, e), "%v", err)
@@ -255,16 +282,26 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		params = append(params, site.Param{Name: n, Nominal: nominal, Tol: s.tols[n]})
 		names = append(names, n)
 	}
+	w := work{samples: site.MaxEvaluations, perSample: s.sampleCost(names, e)}
+	if msg := s.overBudget("this tolerance range", w, "samples", ""); msg != "" {
+		return site.RangeResult{}, lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
+	}
 	src := p.Source()
 	// one copy serves every sample: each sample sets every toleranced
 	// value and re-evaluates all that depends on them
-	c := s.Clone()
+	c := s.sampler()
+	done := 0
 	for _, n := range names {
 		if d := c.byName[n]; d.elem == nil {
 			d.expr = nil // held at the sampled value
 		}
 	}
 	rr, err := site.Range(params, func(vals []calc.Quantity) (calc.Quantity, error) {
+		if err := c.stopped(); err != nil {
+			return calc.Quantity{}, err
+		}
+		done++
+		s.progress(done, site.MaxEvaluations)
 		c.lenient = map[string]error{}
 		changed := map[string]bool{}
 		for i, n := range names {
@@ -284,10 +321,8 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		if _, err := c.propagate(changed, ""); err != nil {
 			return calc.Quantity{}, err
 		}
-		for name := range depsOf(e) {
-			if err := c.brokenUnder(name, 0); err != nil {
-				return calc.Quantity{}, err
-			}
+		if err := c.broken(e); err != nil {
+			return calc.Quantity{}, err
 		}
 		r, err := c.evaluator(src, s.line).Eval(e)
 		if err != nil {
@@ -295,6 +330,9 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		}
 		return r.Value, nil
 	})
+	if err == nil {
+		err = c.stopped()
+	}
 	if err != nil {
 		_, _, col := e.Span()
 		return site.RangeResult{}, lineErr(s.line, col, width(p, e), "%v", err)

@@ -63,6 +63,9 @@ func (r *RangeResult) Operands() []calc.Operand {
 		op("ang_min", r.AngMin), op("ang_max", r.AngMax), op("ang_span", r.AngSpan)}
 }
 
+// MaxEvaluations bounds the calls of the function one Range makes.
+const MaxEvaluations = maxEvals
+
 // Bounds on the search.
 const (
 	maxParams     = 12    // 2^12 corners

@@ -1,0 +1,85 @@
+package sheet
+
+import (
+	"context"
+	"errors"
+	"fmt"
+
+	"argand/calc"
+)
+
+// Job is how a statement that may run long learns that it should stop and
+// reports how far it has got. The zero Job never stops and reports
+// nothing.
+type Job struct {
+	// Ctx stops the statement when it is done; nil never stops it.
+	Ctx context.Context
+	// Progress, when set, is called from the goroutine running the
+	// statement with the samples done and the samples expected (0 when
+	// the amount is not known).
+	Progress func(done, total int)
+}
+
+// Interrupted is the error of a statement stopped by its Job's context.
+// The worksheet is as it was before the statement.
+type Interrupted struct {
+	Line int
+}
+
+func (e *Interrupted) Error() string { return fmt.Sprintf("interrupted at line %d", e.Line) }
+
+// errStop is what a working copy returns from a sample once its job is
+// done; the statement turns it into an *Interrupted error.
+var errStop = errors.New("stopped")
+
+// ExecJob runs one statement as the next line, like Exec, under job: a
+// sweep or a tolerance range checks job.Ctx at every sample and reports
+// its progress. When the context ends the statement the error is an
+// *Interrupted and the worksheet is unchanged, its line count included.
+//
+// The context is read between samples of the work that runs on working
+// copies (sweep points, tolerance samples); the other work of a statement
+// (re-solving the networks a changed value feeds) runs to its end, so
+// that it never leaves the worksheet half changed.
+func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, error) {
+	line := s.line
+	if job.Ctx != nil && job.Ctx.Err() != nil {
+		return nil, &Interrupted{Line: line + 1}
+	}
+	s.job = &job
+	defer func() { s.job = nil }()
+	steps, err := s.Exec(src)
+	if err != nil && job.Ctx != nil && job.Ctx.Err() != nil {
+		s.line = line
+		return nil, &Interrupted{Line: line + 1}
+	}
+	return steps, err
+}
+
+// stopped reports errStop when the job of a working copy is done.
+func (s *Sheet) stopped() error {
+	if !s.quiet || s.job == nil || s.job.Ctx == nil {
+		return nil
+	}
+	if s.job.Ctx.Err() != nil {
+		return errStop
+	}
+	return nil
+}
+
+// progress reports the samples done of those expected.
+func (s *Sheet) progress(done, total int) {
+	if s.job != nil && s.job.Progress != nil {
+		s.job.Progress(done, total)
+	}
+}
+
+// sampler returns a working copy of the worksheet for evaluating samples:
+// it records no steps, reuses one built network per network, and stops
+// when the statement's job is done.
+func (s *Sheet) sampler() *Sheet {
+	c := s.Clone()
+	c.quiet = true
+	c.dry = false
+	return c
+}

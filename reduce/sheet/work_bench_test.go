@@ -1,0 +1,118 @@
+package sheet
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+)
+
+// runLines runs worksheet lines on a fresh sheet, failing on an error.
+func runLines(tb testing.TB, s *Sheet, lines ...string) {
+	tb.Helper()
+	for _, l := range lines {
+		if _, err := s.Exec(l); err != nil {
+			tb.Fatalf("%s: %v", l, err)
+		}
+	}
+}
+
+// tolNetwork is a node-block network with four toleranced parts
+// (invented example data).
+var tolNetwork = []string{
+	"frequency 50 Hz",
+	"network sp reference gnd",
+	"voltage source Vs = 10 V from a to gnd",
+	"resistor Ra = 100 Ω from a to b",
+	"inductor La = 100 mH from b to c",
+	"resistor Rb = 220 Ω from c to gnd",
+	"capacitor Cb = 10 µF from c to gnd",
+	"end",
+	"tolerance Ra 5%",
+	"tolerance La 10%",
+	"tolerance Rb 5%",
+	"tolerance Cb 20%",
+}
+
+// BenchmarkSpreadNetwork is a spread over a network with four toleranced
+// parts: about 20 000 solutions of the network.
+func BenchmarkSpreadNetwork(b *testing.B) {
+	s := New()
+	runLines(b, s, tolNetwork...)
+	for b.Loop() {
+		c := s.Clone()
+		runLines(b, c, "spread vc = sp.Cb.v")
+	}
+}
+
+// BenchmarkReadingCheckNetwork is a reading check over the same network.
+func BenchmarkReadingCheckNetwork(b *testing.B) {
+	s := New()
+	runLines(b, s, tolNetwork...)
+	for b.Loop() {
+		c := s.Clone()
+		runLines(b, c, "check sp.Cb.v reads 5.5 V within 1% + 2 digits of 0.01 V")
+	}
+}
+
+// sweepNetwork is a 20-element node-block ladder (invented example data).
+func sweepNetwork() []string {
+	lines := []string{"network lad reference gnd", "voltage source V1 = 1 V from n0 to gnd"}
+	for k := 0; k < 10; k++ {
+		lines = append(lines,
+			fmt.Sprintf("resistor R%d = %d Ω from n%d to n%d", k, 10+k, k, k+1),
+			fmt.Sprintf("capacitor C%d = %d µF from n%d to gnd", k, 1+k, k+1))
+	}
+	return append(lines, "end")
+}
+
+func benchSweep(b *testing.B, points int) {
+	s := New()
+	runLines(b, s, sweepNetwork()...)
+	src := fmt.Sprintf("sweep lad.n10.v from 10 Hz to 100 kHz points %d", points)
+	for b.Loop() {
+		c := s.Clone()
+		runLines(b, c, src)
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*points), "ns/point")
+}
+
+// BenchmarkSweep sweeps a 20-element network over 250, 1000 and 4000
+// points: the time per point should not grow with the points.
+func BenchmarkSweep(b *testing.B) {
+	for _, n := range []int{250, 1000, 4000} {
+		b.Run(fmt.Sprint(n), func(b *testing.B) { benchSweep(b, n) })
+	}
+}
+
+// blockNetwork is a node-block network of n elements: a ladder of
+// resistors and capacitors fed by one source (invented example data).
+func blockNetwork(n int) string {
+	var w strings.Builder
+	w.WriteString("network big reference gnd\nvoltage source Vs = 230 V from n0 to gnd\n")
+	for k := 0; k < n-1; k++ {
+		if k%2 == 0 {
+			fmt.Fprintf(&w, "resistor R%d = %d Ω from n%d to n%d\n", k, 1+k%7, k/2, k/2+1)
+		} else {
+			fmt.Fprintf(&w, "capacitor C%d = %d µF from n%d to gnd\n", k, 1+k%5, k/2+1)
+		}
+	}
+	w.WriteString("end\n")
+	return w.String()
+}
+
+// BenchmarkNetworkBuild runs a node block of 10³ to 10⁵ elements.
+func BenchmarkNetworkBuild(b *testing.B) {
+	for _, n := range []int{1000, 10000, 30000, 100000} {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			ws := blockNetwork(n)
+			for b.Loop() {
+				s := New()
+				sum, err := s.Run(strings.NewReader(ws), nil)
+				if err != nil || sum.Err != nil {
+					b.Fatalf("%v %v", err, sum.Err)
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*n), "ns/element")
+		})
+	}
+}
