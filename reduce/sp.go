@@ -52,7 +52,7 @@ func ParallelOf(parts ...*SPNode) *SPNode { return &SPNode{Kind: SPParallel, Par
 // Limits on series-parallel trees. Reduction and working back recurse once
 // per level, so the depth is bounded; the node count bounds the work.
 const (
-	MaxSPDepth = 10000
+	MaxSPDepth = 50000
 	MaxSPNodes = 1000000
 )
 
@@ -235,6 +235,9 @@ type spEdge struct {
 	u, v  int     // the tree's top is at node u, its bottom at v
 	t     *SPNode // the part between them
 	alive bool
+	// pu and pv order the edge among the others at u and at v: the
+	// order in which it joined each node's adjacency list.
+	pu, pv int
 }
 
 // orient returns e's tree turned so that its top is at node top.
@@ -242,8 +245,17 @@ func (e *spEdge) orient(top int) *SPNode {
 	if e.u != top {
 		e.t.Reversed = !e.t.Reversed
 		e.u, e.v = e.v, e.u
+		e.pu, e.pv = e.pv, e.pu
 	}
 	return e.t
+}
+
+// at returns the order of e among the edges at node n.
+func (e *spEdge) at(n int) int {
+	if e.u == n {
+		return e.pu
+	}
+	return e.pv
 }
 
 // join returns the group of kind k of a and b (each already oriented
@@ -352,14 +364,78 @@ func SeriesParallel(net *Network) (SPCircuit, error) {
 	}
 	top, bottom := node(src.To), node(src.From)
 	adj := make([][]int, len(nodeNames))
+	seq := 0 // order of joining an adjacency list, over all nodes
 	for i, e := range edges {
 		adj[e.u] = append(adj[e.u], i)
+		e.pu, e.pv = seq, seq
+		seq++
 		if e.v != e.u {
 			adj[e.v] = append(adj[e.v], i)
+			e.pv = seq
+			seq++
 		}
 	}
+	// A visit of a node merges its parallel parts, sets its self-loops
+	// aside and, when it joins only one or two other nodes, merges in
+	// series. A node joining many parts (the reference of a ladder) is
+	// visited again after every merge beside it, so a visit must not
+	// read all its parts: live counts the live parts at a node that join
+	// it to another node, pairs lists the live parts between two nodes,
+	// dirty the node pairs at a node that may hold parallel parts, and
+	// loops the self-loops at a node.
+	live := make([]int, len(nodeNames))
+	loops := make([][]int, len(nodeNames))
+	dirty := make([][]uint64, len(nodeNames))
+	pairs := make(map[uint64][]int, len(edges))
+	key := func(u, v int) uint64 {
+		if u > v {
+			u, v = v, u
+		}
+		return uint64(u)<<32 | uint64(v)
+	}
+	attach := func(ei int) {
+		e := edges[ei]
+		if e.u == e.v {
+			loops[e.u] = append(loops[e.u], ei)
+			return
+		}
+		live[e.u]++
+		live[e.v]++
+		k := key(e.u, e.v)
+		pairs[k] = append(pairs[k], ei)
+		if len(pairs[k]) == 2 {
+			dirty[e.u] = append(dirty[e.u], k)
+			dirty[e.v] = append(dirty[e.v], k)
+		}
+	}
+	detach := func(ei int) {
+		e := edges[ei]
+		if e.u == e.v {
+			return // a self-loop leaves its list when it is set aside
+		}
+		live[e.u]--
+		live[e.v]--
+		k := key(e.u, e.v)
+		list := pairs[k]
+		for i, x := range list {
+			if x == ei {
+				list = append(list[:i], list[i+1:]...)
+				break
+			}
+		}
+		if len(list) == 0 {
+			delete(pairs, k)
+		} else {
+			pairs[k] = list
+		}
+	}
+	for i := range edges {
+		attach(i)
+	}
 	var idle []string
-	setAside := func(e *spEdge) {
+	setAside := func(ei int) {
+		e := edges[ei]
+		detach(ei)
 		e.alive = false
 		idle = append(idle, e.t.Elements()...)
 	}
@@ -374,46 +450,72 @@ func SeriesParallel(net *Network) (SPCircuit, error) {
 	for n := range nodeNames {
 		push(n)
 	}
+	var later []int // parts at a node that merge into an earlier parallel one
 	for len(queue) > 0 {
 		n := queue[0]
 		queue = queue[1:]
 		queued[n] = false
-		// drop dead edges and self-loops, then merge parallel parts
-		live := adj[n][:0]
-		first := make(map[int]int) // other node → edge
-		for _, ei := range adj[n] {
-			e := edges[ei]
-			if !e.alive {
+		// self-loops carry no current: set them aside in the order of
+		// the node's list
+		if len(loops[n]) > 0 {
+			ls := loops[n]
+			loops[n] = nil
+			sort.Slice(ls, func(i, j int) bool { return edges[ls[i]].pu < edges[ls[j]].pu })
+			for _, ei := range ls {
+				if edges[ei].alive {
+					setAside(ei)
+				}
+			}
+		}
+		// parallel parts: the first at this node takes in the others, in
+		// the order of the node's list
+		later = later[:0]
+		for _, k := range dirty[n] {
+			list := pairs[k]
+			if len(list) < 2 {
 				continue
 			}
-			if e.u == e.v {
-				setAside(e)
-				continue
-			}
-			other := e.u + e.v - n
-			if fi, ok := first[other]; ok {
-				f := edges[fi]
+			sort.Slice(list, func(i, j int) bool { return edges[list[i]].at(n) < edges[list[j]].at(n) })
+			later = append(later, list[1:]...)
+		}
+		dirty[n] = dirty[n][:0]
+		if len(later) > 0 {
+			sort.SliceStable(later, func(i, j int) bool { return edges[later[i]].at(n) < edges[later[j]].at(n) })
+			for _, ei := range later {
+				e := edges[ei]
+				if !e.alive {
+					continue // listed twice
+				}
+				other := e.u + e.v - n
+				list := pairs[key(n, other)]
+				f := edges[list[0]]
+				detach(ei)
 				f.t = join(SPParallel, f.t, e.orient(f.u))
 				e.alive = false
 				push(other)
-				continue
 			}
-			first[other] = ei
-			live = append(live, ei)
 		}
-		adj[n] = live
-		if n == top || n == bottom {
+		if n == top || n == bottom || live[n] > 2 {
 			continue
 		}
-		switch len(live) {
+		kept := adj[n][:0]
+		for _, ei := range adj[n] {
+			if edges[ei].alive {
+				kept = append(kept, ei)
+			}
+		}
+		adj[n] = kept
+		switch len(kept) {
 		case 1:
-			e := edges[live[0]]
-			setAside(e)
+			e := edges[kept[0]]
+			setAside(kept[0])
 			adj[n] = adj[n][:0]
 			push(e.u + e.v - n)
 		case 2:
-			e1, e2 := edges[live[0]], edges[live[1]]
+			e1, e2 := edges[kept[0]], edges[kept[1]]
 			a, b := e1.u+e1.v-n, e2.u+e2.v-n
+			detach(kept[0])
+			detach(kept[1])
 			t1 := e1.orient(a)
 			t2 := e2.orient(n)
 			e1.t = join(SPSeries, t1, t2)
@@ -421,8 +523,13 @@ func SeriesParallel(net *Network) (SPCircuit, error) {
 			e2.alive = false
 			adj[n] = adj[n][:0]
 			if a != b {
-				adj[b] = append(adj[b], live[0])
+				adj[b] = append(adj[b], kept[0])
+				e1.pv = seq
+				seq++
+			} else {
+				e1.pv = e1.pu
 			}
+			attach(kept[0])
 			push(a)
 			push(b)
 		}

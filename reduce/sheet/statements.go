@@ -25,6 +25,7 @@ func (s *Sheet) Line() int { return s.line }
 // ExecLine runs one statement as line n.
 func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 	s.line = n
+	s.noteSeen = nil
 	before := len(s.steps)
 	err := s.exec(src, n)
 	if err != nil {
