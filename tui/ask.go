@@ -213,14 +213,14 @@ func (m *Model) submit() {
 		m.mode = modeRows
 		return
 	}
-	if m.run("", src) {
+	m.runThen("", func() {
 		l.history = append(l.history, src)
 		l.hpos = len(l.history)
 		l.f.clear()
 		if m.s.sh.OpenNetwork() != "" {
 			m.note(false, "network block open: type its elements, then end")
 		}
-	}
+	}, src)
 }
 
 // pasteLines runs pasted text of several lines as one change: every line
@@ -240,9 +240,7 @@ func (m *Model) pasteLines(text string) {
 	if len(stmts) == 0 {
 		return
 	}
-	if m.run(fmt.Sprintf("pasted %d lines", len(stmts)), stmts...) {
-		m.line.f.clear()
-	}
+	m.runThen(fmt.Sprintf("pasted %d lines", len(stmts)), func() { m.line.f.clear() }, stmts...)
 }
 
 // exportKey handles the choice of what to export.
@@ -331,6 +329,12 @@ func (m *Model) helpLines() []string {
 		}
 		out = append(out, "")
 	}
+	out = append(out, m.th.heading.Render("keys: while a statement runs (after about 0.1 s it shows a progress line)"))
+	for _, l := range strings.Split(hm.FullHelpView([][]key.Binding{{m.keys.Stop}}), "\n") {
+		l = strings.TrimRight(l, " ")
+		out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
+	}
+	out = append(out, "")
 	out = append(out, m.th.heading.Render("safety"))
 	out = append(out, wrapLine(strings.ReplaceAll(safetyText, "\n", " "), m.width, 0)...)
 	out = append(out, "")

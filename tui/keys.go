@@ -68,6 +68,9 @@ type KeyMap struct {
 	// the trail in full
 	FullUp, FullDown, FullPageUp, FullPageDown key.Binding
 	FullTop, FullEnd, FullClose, FullQuit      key.Binding
+
+	// while a statement runs off the update loop
+	Stop key.Binding
 }
 
 func kb(keys []string, k, desc string) key.Binding {
@@ -186,6 +189,7 @@ func DefaultKeyMap() KeyMap {
 		FullEnd:      kb([]string{"end", "G"}, "end/G", "the latest step"),
 		FullClose:    kb([]string{"esc", "q", "T"}, "esc/q/T", "back to the entries"),
 		FullQuit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		Stop:         kb([]string{"esc", "ctrl+c"}, "esc/ctrl+c", "stop it: the session stays exactly as before the statement"),
 	}
 }
 

@@ -24,6 +24,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"time"
 
 	"argand/calc"
 	"argand/reduce/sheet"
@@ -32,6 +33,7 @@ import (
 
 	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/bubbles/key"
+	"github.com/charmbracelet/bubbles/spinner"
 	tea "github.com/charmbracelet/bubbletea"
 )
 
@@ -47,6 +49,9 @@ type Options struct {
 	// screen renderer; nil discards them.
 	Out    io.Writer
 	Getenv func(string) string // environment; nil is os.Getenv
+	// Wait is how long a statement runs on the update loop before it
+	// moves off it with a progress line; 0 is DefaultWait.
+	Wait time.Duration
 }
 
 // Minimum terminal size for the full screen; below it a short notice is
@@ -88,6 +93,10 @@ type Model struct {
 	lockPID  int
 	lockErr  error // why the lock could not be taken, when no one holds it
 	quitting bool
+
+	job     *job      // the change running off the update loop, if any
+	jobs    int       // jobs started, to tell a stopped job's late result
+	pending []tea.Cmd // commands a key's handling started (a job's wait)
 }
 
 // New creates the app: it takes the session lock, restores the last
@@ -316,10 +325,29 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 			m.note(false, "sent "+msg.what+" to the terminal clipboard (OSC 52)")
 		}
 		return m, nil
+	case jobDoneMsg:
+		m.jobDone(msg)
+		return m, m.takePending()
+	case spinner.TickMsg:
+		return m, m.jobSpin(msg)
 	case tea.KeyMsg:
-		return m, m.key(msg)
+		if m.job != nil {
+			return m, m.jobKey(msg)
+		}
+		cmd := m.key(msg)
+		return m, tea.Batch(cmd, m.takePending())
 	}
 	return m, nil
+}
+
+// takePending returns the commands started while handling a message.
+func (m *Model) takePending() tea.Cmd {
+	if len(m.pending) == 0 {
+		return nil
+	}
+	cmds := m.pending
+	m.pending = nil
+	return tea.Batch(cmds...)
 }
 
 func (m *Model) key(k tea.KeyMsg) tea.Cmd {

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"argand/tui/internal/golden"
+	"time"
 
 	"bytes"
 	"math/cmplx"
@@ -42,6 +43,10 @@ func newModel(t testing.TB, o Options) *Model {
 		o.File = benchSheet
 	}
 	o.Getenv = func(string) string { return "" }
+	if o.Wait == 0 {
+		// a statement moves off the update loop only after a stall
+		o.Wait = time.Minute
+	}
 	m := New(o)
 	t.Cleanup(m.Close)
 	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})

@@ -9,6 +9,7 @@ import (
 
 	"argand/calc"
 	"argand/reduce/power"
+	"argand/reduce/sheet"
 	"argand/reduce/site"
 	"argand/reduce/threephase"
 
@@ -46,27 +47,47 @@ func (m *Model) operands(n int) []string {
 // single is the operand of a one-operand operation: the selected row.
 func (m *Model) single() string { return m.s.v.Selected }
 
-// run executes statements as one change and reports the outcome.
+// run executes statements as one change and reports whether it was
+// taken at once; a change still running off the update loop reports
+// false (see startJob).
 func (m *Model) run(what string, stmts ...string) bool {
-	_, err := m.apply(what, stmts...)
-	return err == nil
+	return m.startJob(what, nil, stmts...)
 }
 
-// apply executes statements as one change, brings the names they define
-// to the top of the table and notes the outcome. It returns the steps, or
-// the error also noted.
-func (m *Model) apply(what string, stmts ...string) ([]calc.Step, error) {
-	steps, err := m.s.exec(stmts...)
+// runThen executes statements as one change and runs then once it is
+// taken, at once or when its job finishes.
+func (m *Model) runThen(what string, then func(), stmts ...string) {
+	m.startJob(what, then, stmts...)
+}
+
+// apply executes statements as one change on the update loop, brings the
+// names they define to the top of the table and notes the outcome. It
+// returns the steps, or the error also noted. The line mode uses it,
+// stopping the statement when job is done.
+func (m *Model) apply(job sheet.Job, what string, stmts ...string) ([]calc.Step, error) {
+	steps, err := m.s.exec(job, stmts...)
 	if err != nil {
-		var ro *readOnlyError
-		switch {
-		case errors.As(err, &ro), what == "":
-			m.note(true, errText(err))
-		default:
-			m.note(true, strings.TrimSuffix(what, ":")+": "+errText(err))
-		}
+		m.failed(what, err)
 		return nil, err
 	}
+	m.applied(what, steps)
+	return steps, nil
+}
+
+// failed notes the error of a change.
+func (m *Model) failed(what string, err error) {
+	var ro *readOnlyError
+	switch {
+	case errors.As(err, &ro), what == "":
+		m.note(true, errText(err))
+	default:
+		m.note(true, strings.TrimSuffix(what, ":")+": "+errText(err))
+	}
+}
+
+// applied brings the names a change defined to the top of the table and
+// notes its outcome.
+func (m *Model) applied(what string, steps []calc.Step) {
 	// the names the statements define (not those re-evaluated because
 	// they depend on them) come to the top: the newest row is the top row
 	var defined []string
@@ -100,7 +121,6 @@ func (m *Model) apply(what string, stmts ...string) ([]calc.Step, error) {
 	m.trail.back = 0
 	m.note(false, strings.TrimSpace(what+"  "+res))
 	m.caution = cautionOf(steps)
-	return steps, nil
 }
 
 // cautions are the safety notes the worksheet's operations attach to
@@ -401,12 +421,12 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 		// a value nothing depends on leaves the worksheet; one that others
 		// read is only put away from the table, since they still need it
 		if m.s.sh.Validate("forget "+n) == nil {
-			if m.run("delete "+n, "forget "+n) {
+			m.runThen("delete "+n, func() {
 				m.s.v.Selected = next
 				m.s.tidy()
 				m.s.save()
 				m.note(false, n+" deleted (u brings it back)")
-			}
+			}, "forget "+n)
 			break
 		}
 		if err := m.s.change(func(v *view) {
@@ -582,25 +602,27 @@ func (m *Model) askRename() {
 		}
 		rows := m.s.rows()
 		pos := slices.Index(rows, n)
-		if !m.run("rename "+n+" to "+nn, "rename "+n+" to "+nn) {
-			return
-		}
-		// the same row under its new name, in the same place
-		m.s.v.Order = slices.DeleteFunc(m.s.v.Order, func(x string) bool { return x == nn })
-		at := slices.Index(m.s.v.Order, n)
-		if at < 0 {
-			at = min(pos, len(m.s.v.Order))
-		}
-		m.s.v.Order = slices.Insert(m.s.v.Order, at, nn)
-		for i, mk := range m.s.v.Marks {
-			if mk == n {
-				m.s.v.Marks[i] = nn
-			}
-		}
-		m.s.v.Selected = nn
-		m.s.tidy()
-		m.s.save()
+		m.runThen("rename "+n+" to "+nn, func() { m.renamed(n, nn, pos) }, "rename "+n+" to "+nn)
 	})
+}
+
+// renamed keeps a renamed row in its place, with its marks.
+func (m *Model) renamed(n, nn string, pos int) {
+	// the same row under its new name, in the same place
+	m.s.v.Order = slices.DeleteFunc(m.s.v.Order, func(x string) bool { return x == nn })
+	at := slices.Index(m.s.v.Order, n)
+	if at < 0 {
+		at = min(pos, len(m.s.v.Order))
+	}
+	m.s.v.Order = slices.Insert(m.s.v.Order, at, nn)
+	for i, mk := range m.s.v.Marks {
+		if mk == n {
+			m.s.v.Marks[i] = nn
+		}
+	}
+	m.s.v.Selected = nn
+	m.s.tidy()
+	m.s.save()
 }
 
 func (m *Model) askCopy() {

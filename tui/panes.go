@@ -410,6 +410,9 @@ func (m *Model) entryView() string {
 // feedbackView is the line under the entry line: the live parse error
 // with a caret under its place, or the outcome of the last action.
 func (m *Model) feedbackView() string {
+	if m.job != nil {
+		return m.th.label.Render(m.tr(m.jobView()))
+	}
 	if col, marks, msg, ok := m.caret(); ok {
 		// the caret stays under its column; the message follows it when
 		// it fits, else it takes the hint line below in full
@@ -495,6 +498,9 @@ func (m *Model) caret() (col int, marks, msg string, ok bool) {
 
 // hintView is one line of the keys most likely wanted next.
 func (m *Model) hintView() string {
+	if m.job != nil {
+		return m.th.key.Render("esc") + m.tr(" or ") + m.th.key.Render("ctrl+c") + m.tr(" stops it; the session stays as it was")
+	}
 	if col, marks, msg, ok := m.caret(); ok {
 		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
 			// the message did not fit beside its caret: it has this line

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"bufio"
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -25,6 +26,20 @@ const plainCommands = "help, list, trail, undo, redo, save FILE, quit"
 // each other's work. Besides statements it reads the words of
 // plainCommands. It returns the exit code for the command line.
 func Plain(opt Options, in io.Reader, w io.Writer) int {
+	return PlainContext(context.Background(), opt, in, w)
+}
+
+// plainLine is a line read by the line mode's reader.
+type plainLine struct {
+	text string
+	n    int
+	err  error
+}
+
+// PlainContext is Plain stopped by ctx (ctrl+c): at the prompt, or while
+// a statement runs, it writes "interrupted at line N" and returns
+// cli.ExitInterrupted; the statement stopped is not kept.
+func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) int {
 	m := New(opt)
 	defer m.Close()
 	br := bufio.NewReader(in)
@@ -44,13 +59,39 @@ func Plain(opt Options, in io.Reader, w io.Writer) int {
 		}
 	}
 	m.plainWhere(say)
+	// lines are read in their own goroutine, so that ctrl+c at the prompt
+	// is seen while a read waits
+	lines := make(chan plainLine)
+	go func() {
+		for {
+			text, n, err := sheet.ReadLine(br)
+			select {
+			case lines <- plainLine{text, n, err}:
+			case <-ctx.Done():
+				return
+			}
+			if err != nil {
+				return
+			}
+		}
+	}()
+	interrupted := func() int {
+		fmt.Fprintln(w)
+		return cli.Interrupted(w, m.s.sh.Line()+1)
+	}
 	for {
 		prompt := "> "
 		if n := m.s.sh.OpenNetwork(); n != "" {
 			prompt = n + "> "
 		}
 		fmt.Fprint(w, m.tr(prompt))
-		line, n, err := sheet.ReadLine(br)
+		var got plainLine
+		select {
+		case got = <-lines:
+		case <-ctx.Done():
+			return interrupted()
+		}
+		line, n, err := got.text, got.n, got.err
 		if err != nil {
 			fmt.Fprintln(w)
 			return cli.ExitOK
@@ -106,11 +147,14 @@ func Plain(opt Options, in io.Reader, w io.Writer) int {
 			say("saved " + abs + " (argand run " + name + " replays it)")
 			continue
 		}
-		steps, err := m.apply("", line)
+		steps, err := m.apply(sheet.Job{Ctx: ctx}, "", line)
 		if err != nil {
 			var e *calc.Error
 			var ro *readOnlyError
+			var stop *sheet.Interrupted
 			switch {
+			case errors.As(err, &stop):
+				return cli.Interrupted(w, stop.Line)
 			case errors.As(err, &ro):
 				say(ro.Error())
 			case errors.As(err, &e):

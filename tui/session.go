@@ -206,26 +206,29 @@ func (e *readOnlyError) Error() string {
 
 func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder, why: s.roWhy} }
 
-// exec runs statements as one change: all of them or none.
-func (s *session) exec(stmts ...string) ([]calc.Step, error) {
+// exec runs statements as one change, all of them or none, stopping
+// when job is done; a stopped change leaves the session as it was.
+func (s *session) exec(job sheet.Job, stmts ...string) ([]calc.Step, error) {
 	if s.readOnly {
 		return nil, s.errReadOnly()
 	}
-	before := snapshot{sh: s.sh.Clone(), v: s.v.clone()}
-	var steps []calc.Step
-	for _, st := range stmts {
-		st2, err := s.sh.Exec(st)
-		if err != nil {
-			s.sh = before.sh
-			return nil, err
-		}
-		steps = append(steps, st2...)
+	work := s.sh.Clone()
+	steps, err := runStatements(job, work, stmts)
+	if err != nil {
+		return nil, err
 	}
-	s.undo = append(s.undo, before)
+	s.commit(work)
+	return steps, nil
+}
+
+// commit makes work, a copy of the worksheet changed by statements, the
+// session's worksheet; the worksheet before it goes to the undo history.
+func (s *session) commit(work *sheet.Sheet) {
+	s.undo = append(s.undo, snapshot{sh: s.sh, v: s.v.clone()})
 	s.redo = nil
+	s.sh = work
 	s.tidy()
 	s.save()
-	return steps, nil
 }
 
 // change applies a change of the view alone as one undoable step.

@@ -10,7 +10,7 @@
 //	argand --version
 //
 // Flags: --json, --digits N, --ascii, --plain. Exit codes: 0 ok, 1 a check
-// failed, 2 bad input or usage.
+// failed, 2 bad input or usage, 130 interrupted (ctrl+c).
 package main
 
 import (
@@ -18,9 +18,11 @@ import (
 	// its background colour; see its package comment.
 	_ "argand/tui/termbg"
 
+	"context"
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
 	"strconv"
 	"strings"
 
@@ -101,6 +103,12 @@ func main() {
 	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 }
 
+// interruptible returns a context that ctrl+c (SIGINT) ends, for the
+// commands that print as they go; the app reads ctrl+c as a key instead.
+func interruptible() (context.Context, context.CancelFunc) {
+	return signal.NotifyContext(context.Background(), os.Interrupt)
+}
+
 func run(argv []string, in io.Reader, out, errw io.Writer) int {
 	f, err := parse(argv)
 	if err != nil {
@@ -126,14 +134,18 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 			fmt.Fprintln(errw, "argand: eval needs at least one expression, as in argand eval '3+j4 Ω'")
 			return cli.ExitBadInput
 		}
-		return cli.Eval(f.args[1:], out, errw, f.opt)
+		ctx, stop := interruptible()
+		defer stop()
+		return cli.EvalContext(ctx, f.args[1:], out, errw, f.opt)
 	case "run":
 		if len(f.args) != 2 {
 			fmt.Fprintln(errw, "argand: run takes one worksheet file, or - for standard input")
 			return cli.ExitBadInput
 		}
+		ctx, stop := interruptible()
+		defer stop()
 		if f.args[1] == "-" {
-			return cli.Run(in, "stdin", out, errw, f.opt)
+			return cli.RunContext(ctx, in, "stdin", out, errw, f.opt)
 		}
 		file, err := os.Open(f.args[1])
 		if err != nil {
@@ -141,7 +153,7 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 			return cli.ExitBadInput
 		}
 		defer file.Close()
-		return cli.Run(file, f.args[1], out, errw, f.opt)
+		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":
 		return cli.Help(f.args[1:], out, errw, f.opt)
 	}
@@ -159,7 +171,9 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 	tty := term.IsTerminal(os.Stdin.Fd()) && term.IsTerminal(os.Stdout.Fd())
 	switch {
 	case !tty:
-		return cli.Batch(file, in, out, errw, f.opt)
+		ctx, stop := interruptible()
+		defer stop()
+		return cli.BatchContext(ctx, file, in, out, errw, f.opt)
 	}
 	opt := tui.Options{
 		ASCII:      f.opt.ASCII,
@@ -170,7 +184,9 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 	}
 	if f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "" {
 		// the line mode works on the same session as the app
-		return tui.Plain(opt, in, out)
+		ctx, stop := interruptible()
+		defer stop()
+		return tui.PlainContext(ctx, opt, in, out)
 	}
 	return tui.Run(opt, in, out, errw)
 }

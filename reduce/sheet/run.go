@@ -15,6 +15,9 @@ type Summary struct {
 	Fail   int
 	Err    *calc.Error // the first bad line, nil when all ran
 	ErrSrc string      // that line's text, for the caret
+	// Interrupted is the line the job's context stopped, 0 when none
+	// was; the lines before it have run.
+	Interrupted int
 }
 
 // ReadLine reads one line of at most calc.MaxLine bytes. A longer line is
@@ -48,7 +51,14 @@ func ReadLine(r *bufio.Reader) (line string, n int, err error) {
 // of each line as it completes, and stops at the first bad line, whose
 // error is in the summary. Steps of the lines before it have been emitted.
 func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
+	return s.RunJob(Job{}, r, emit)
+}
+
+// RunJob is Run under a job: when the job's context ends, the line being
+// run (or the next one) stops and the summary names it in Interrupted.
+func (s *Sheet) RunJob(job Job, r io.Reader, emit func([]calc.Step)) (Summary, error) {
 	br := bufio.NewReaderSize(r, 64*1024)
+	done := func() bool { return job.Ctx != nil && job.Ctx.Err() != nil }
 	var sum Summary
 	// an error can name an earlier line (the element a network diagnostic
 	// is about), so keep the text of each line for the caret
@@ -56,6 +66,10 @@ func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 	var lines []string
 	for {
 		line, n, err := ReadLine(br)
+		if done() {
+			sum.Interrupted = s.line + 1
+			break
+		}
 		if errors.Is(err, io.EOF) {
 			break
 		}
@@ -69,7 +83,12 @@ func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 			break
 		}
 		lines = append(lines, line)
-		steps, e := s.Exec(line)
+		steps, e := s.ExecJob(job, line)
+		var stop *Interrupted
+		if errors.As(e, &stop) {
+			sum.Interrupted = stop.Line
+			break
+		}
 		if e != nil {
 			var le *calc.Error
 			if !errors.As(e, &le) {
@@ -85,7 +104,7 @@ func (s *Sheet) Run(r io.Reader, emit func([]calc.Step)) (Summary, error) {
 			emit(steps)
 		}
 	}
-	if sum.Err == nil && s.open != nil {
+	if sum.Err == nil && sum.Interrupted == 0 && s.open != nil {
 		sum.Err = lineErr(s.line+1, 1, 1, "network %s is not closed: add a line with end", s.open.name)
 	}
 	sum.Pass, sum.Fail = s.pass, s.fail

@@ -19,6 +19,10 @@ func (s *Sheet) Exec(src string) ([]calc.Step, error) {
 	return s.ExecLine(src, s.line)
 }
 
+// SetLine sets the number of the last line run: the next statement Exec
+// runs is line n+1.
+func (s *Sheet) SetLine(n int) { s.line = n }
+
 // Line returns the number of the last line run.
 func (s *Sheet) Line() int { return s.line }
 

@@ -6,6 +6,8 @@ package cli
 
 import (
 	"bufio"
+	"context"
+	"errors"
 	"fmt"
 	"io"
 	"strings"
@@ -16,10 +18,17 @@ import (
 
 // Exit codes (shared DESIGN.md).
 const (
-	ExitOK        = 0
-	ExitCheckFail = 1
-	ExitBadInput  = 2
+	ExitOK          = 0
+	ExitCheckFail   = 1
+	ExitBadInput    = 2
+	ExitInterrupted = 130 // ctrl+c: 128 + SIGINT, as shells report it
 )
+
+// Interrupted writes the notice of a run stopped by ctrl+c.
+func Interrupted(ew io.Writer, line int) int {
+	fmt.Fprintf(ew, "interrupted at line %d\n", line)
+	return ExitInterrupted
+}
 
 // Options are the output settings from the command line.
 type Options struct {
@@ -111,6 +120,12 @@ func NewSheet(o Options) (*sheet.Sheet, error) {
 // Eval runs each argument as one statement (usually an expression) and
 // prints its steps; it stops at the first bad one.
 func Eval(args []string, w, ew io.Writer, o Options) int {
+	return EvalContext(context.Background(), args, w, ew, o)
+}
+
+// EvalContext is Eval stopped by ctx (ctrl+c): a statement running when
+// ctx ends stops, and the exit code is ExitInterrupted.
+func EvalContext(ctx context.Context, args []string, w, ew io.Writer, o Options) int {
 	p := &Printer{W: w, Err: ew, O: o}
 	s, err := NewSheet(o)
 	if err != nil {
@@ -123,7 +138,12 @@ func Eval(args []string, w, ew io.Writer, o Options) int {
 			p.Error(&calc.Error{Line: i + 1, Col: 1, Len: 1, Msg: "empty input: nothing to evaluate"}, a, "argument")
 			return ExitBadInput
 		}
-		steps, err := s.ExecLine(a, i+1)
+		s.SetLine(i)
+		steps, err := s.ExecJob(sheet.Job{Ctx: ctx}, a)
+		var stop *sheet.Interrupted
+		if errors.As(err, &stop) {
+			return Interrupted(ew, i+1)
+		}
 		if err != nil {
 			e, ok := err.(*calc.Error)
 			if !ok {
@@ -146,6 +166,13 @@ func Eval(args []string, w, ew io.Writer, o Options) int {
 // Run runs a worksheet, printing each line's steps as it completes, then
 // the checks' summary.
 func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
+	return RunContext(context.Background(), r, file, w, ew, o)
+}
+
+// RunContext is Run stopped by ctx (ctrl+c): the line running when ctx
+// ends stops, "interrupted at line N" goes to ew and the exit code is
+// ExitInterrupted. The steps of each line are written as it finishes.
+func RunContext(ctx context.Context, r io.Reader, file string, w, ew io.Writer, o Options) int {
 	p := &Printer{W: w, Err: ew, O: o}
 	s, err := NewSheet(o)
 	if err != nil {
@@ -155,7 +182,14 @@ func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
 	bw := bufio.NewWriter(w)
 	p.W = bw
 	defer bw.Flush()
-	sum, err := s.Run(r, func(steps []calc.Step) { p.Steps(s, steps) })
+	sum, err := s.RunJob(sheet.Job{Ctx: ctx}, stoppable(ctx, r), func(steps []calc.Step) {
+		p.Steps(s, steps)
+		bw.Flush()
+	})
+	if sum.Interrupted > 0 {
+		bw.Flush()
+		return Interrupted(ew, sum.Interrupted)
+	}
 	if err != nil {
 		bw.Flush()
 		fmt.Fprintf(ew, "error: %s: %s\n", calc.Printable(file), calc.Printable(err.Error()))
@@ -171,4 +205,43 @@ func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
 		return ExitCheckFail
 	}
 	return ExitOK
+}
+
+// stoppable returns a reader of r whose Read returns when ctx ends, so
+// that ctrl+c stops a run waiting on standard input. A read still blocked
+// then is left to end with the process.
+func stoppable(ctx context.Context, r io.Reader) io.Reader {
+	if ctx.Done() == nil {
+		return r
+	}
+	return &ctxReader{ctx: ctx, r: r}
+}
+
+type ctxReader struct {
+	ctx context.Context
+	r   io.Reader
+}
+
+type readResult struct {
+	n   int
+	err error
+}
+
+func (c *ctxReader) Read(p []byte) (int, error) {
+	if err := c.ctx.Err(); err != nil {
+		return 0, err
+	}
+	buf := make([]byte, len(p))
+	ch := make(chan readResult, 1)
+	go func() {
+		n, err := c.r.Read(buf)
+		ch <- readResult{n, err}
+	}()
+	select {
+	case res := <-ch:
+		copy(p, buf[:res.n])
+		return res.n, res.err
+	case <-c.ctx.Done():
+		return 0, c.ctx.Err()
+	}
 }

@@ -1,6 +1,7 @@
 package cli
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"os"
@@ -12,11 +13,16 @@ import (
 // Batch runs a worksheet file, or the built-in example when file is "",
 // without a terminal: every step printed, exit as for run.
 func Batch(file string, in io.Reader, w, ew io.Writer, o Options) int {
+	return BatchContext(context.Background(), file, in, w, ew, o)
+}
+
+// BatchContext is Batch stopped by ctx (ctrl+c), as RunContext.
+func BatchContext(ctx context.Context, file string, in io.Reader, w, ew io.Writer, o Options) int {
 	if file == "" {
 		if !o.JSON {
 			fmt.Fprintln(w, "# built-in example worksheet (example data, invented scenario)")
 		}
-		return Run(strings.NewReader(Example), "example", w, ew, o)
+		return RunContext(ctx, strings.NewReader(Example), "example", w, ew, o)
 	}
 	f, err := os.Open(file)
 	if err != nil {
@@ -24,5 +30,5 @@ func Batch(file string, in io.Reader, w, ew io.Writer, o Options) int {
 		return ExitBadInput
 	}
 	defer f.Close()
-	return Run(f, file, w, ew, o)
+	return RunContext(ctx, f, file, w, ew, o)
 }
