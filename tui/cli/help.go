@@ -75,6 +75,9 @@ statements
   check EXPR reads 98.2 Ω within 1% + 2 digits of 0.1 Ω
                          does a meter reading fit what the parts allow?
   sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db]
+  budget 60 s            bound on a sweep's, spread's or reading check's
+                           estimated work (10 s until set); past it the
+                           statement is refused with the estimate
 `
 
 const networks = `networks

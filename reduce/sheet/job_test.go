@@ -1,0 +1,198 @@
+package sheet
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"math/cmplx"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// fingerprint is everything a statement could change in a worksheet, as
+// text: the accepted statements, every name and value, the trail, the
+// sweeps, the settings and the checks.
+func fingerprint(s *Sheet) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "line %d settings %+v\n", s.Line(), s.Settings())
+	for _, st := range s.Statements() {
+		fmt.Fprintln(&b, "stmt", st)
+	}
+	for _, n := range s.Names() {
+		q, _ := s.Lookup(n)
+		fmt.Fprintf(&b, "%s = %v %v %v\n", n, q.V, q.Dim, q.Kind)
+	}
+	for _, st := range s.Steps() {
+		fmt.Fprintf(&b, "step %d %s %s %d\n", st.Line, st.Kind, st.Source, len(st.Results))
+	}
+	fmt.Fprintln(&b, "sweeps", len(s.Sweeps()))
+	pass, fail := s.Checks()
+	fmt.Fprintln(&b, "checks", pass, fail)
+	return b.String()
+}
+
+// cancelAfter returns a job whose context ends at the k-th progress
+// report, and the count of reports.
+func cancelAfter(k int) (Job, *int) {
+	ctx, cancel := context.WithCancel(context.Background())
+	n := new(int)
+	return Job{Ctx: ctx, Progress: func(done, total int) {
+		*n++
+		if *n >= k {
+			cancel()
+		}
+	}}, n
+}
+
+// TestStopAtAnyPoint stops long statements at many points of their work,
+// from before the first sample to the last, and finds the worksheet
+// exactly as it was before the statement each time.
+func TestStopAtAnyPoint(t *testing.T) {
+	s := New()
+	runLines(t, s, tolNetwork...)
+	runLines(t, s, "Zs = Ra + La", "check sp.Cb.v reads 5.5 V within 1% + 2 digits of 0.01 V")
+	stmts := []struct {
+		src     string
+		samples int
+	}{
+		{"sweep sp.Cb.v from 10 Hz to 10 kHz points 300", 300},
+		{"spread vc = sp.Cb.v", 17000},
+		{"check sp.Cb.v reads 5.5 V within 1% + 2 digits of 0.01 V", 17000},
+	}
+	for _, tc := range stmts {
+		before := fingerprint(s)
+		points := []int{0, 1, 2, 3, 10, tc.samples / 3, tc.samples / 2, tc.samples - 1}
+		for _, k := range points {
+			job, _ := cancelAfter(k)
+			if k == 0 {
+				ctx, cancel := context.WithCancel(context.Background())
+				cancel()
+				job = Job{Ctx: ctx}
+			}
+			_, err := s.ExecJob(job, tc.src)
+			var stop *Interrupted
+			if !errors.As(err, &stop) {
+				t.Fatalf("%s stopped at sample %d: error %v, want an interruption", tc.src, k, err)
+			}
+			if stop.Line != s.Line()+1 {
+				t.Errorf("%s stopped at sample %d: interrupted at line %d, want %d", tc.src, k, stop.Line, s.Line()+1)
+			}
+			if after := fingerprint(s); after != before {
+				t.Fatalf("%s stopped at sample %d changed the worksheet:\nbefore\n%s\nafter\n%s", tc.src, k, before, after)
+			}
+		}
+		// and the same statement, not stopped, runs to its end
+		job, n := cancelAfter(math.MaxInt)
+		if _, err := s.ExecJob(job, tc.src); err != nil {
+			t.Fatalf("%s: %v", tc.src, err)
+		}
+		if *n < 2 {
+			t.Errorf("%s reported progress %d times", tc.src, *n)
+		}
+	}
+}
+
+// TestSweepReusesNetwork sweeps a node network whose built network is
+// reused from point to point, and checks every point against the
+// voltage divider worked by hand: V_C = V·Z_C/(R + Z_C) with
+// Z_C = 1/(jωC) (common practice).
+func TestSweepReusesNetwork(t *testing.T) {
+	s := New()
+	runLines(t, s,
+		"network rc reference gnd",
+		"voltage source V1 = 10 V from gnd to a",
+		"resistor R1 = 1 kΩ from a to b",
+		"capacitor C1 = 100 nF from b to gnd",
+		"end",
+		"sweep rc.C1.v from 100 Hz to 10 kHz points 57 linear")
+	sw := s.Sweeps()
+	if len(sw) != 1 || len(sw[0].Table.Points) != 57 {
+		t.Fatalf("sweeps %v", sw)
+	}
+	for _, pt := range sw[0].Table.Points {
+		w := 2 * math.Pi * pt.Freq
+		zc := 1 / complex(0, w*100e-9)
+		want := 10 * zc / (1000 + zc)
+		if got := pt.Value.V; cmplx.Abs(got-want) > 1e-9*cmplx.Abs(want) {
+			t.Errorf("at %g Hz: %v, want %v", pt.Freq, got, want)
+		}
+	}
+	// the sweep leaves the network at the working frequency
+	v, _ := s.Lookup("rc.C1.v")
+	zc := 1 / complex(0, 2*math.Pi*50*100e-9)
+	if want := 10 * zc / (1000 + zc); cmplx.Abs(v.V-want) > 1e-9*cmplx.Abs(want) {
+		t.Errorf("after the sweep rc.C1.v = %v, want %v", v.V, want)
+	}
+}
+
+// TestBudget refuses a statement whose estimated work exceeds the budget,
+// saying the estimate, the budget and both ways out, and runs it once the
+// budget is raised.
+func TestBudget(t *testing.T) {
+	s := New()
+	runLines(t, s, sweepNetwork()...)
+	runLines(t, s, "budget 0.1 s")
+	if got := s.Settings().Budget; got != 0.1 {
+		t.Fatalf("budget %g s, want 0.1 s", got)
+	}
+	before := fingerprint(s)
+	_, err := s.Exec("sweep lad.n10.v from 10 Hz to 100 kHz points 100000")
+	if err == nil {
+		t.Fatal("a sweep of 100 000 points over a network ran within a budget of 0.1 s")
+	}
+	for _, want := range []string{"needs about", "budget of 100.0 ms", "use fewer points", "about", "budget "} {
+		if !strings.Contains(err.Error(), want) {
+			t.Errorf("refusal %q does not say %q", err, want)
+		}
+	}
+	if s.Validate("sweep lad.n10.v from 10 Hz to 100 kHz points 100000") == nil {
+		t.Error("the refusal is not shown while the statement is typed")
+	}
+	s.SetLine(s.Line() - 1) // the refused line does not count
+	if after := fingerprint(s); after != before {
+		t.Errorf("a refused statement changed the worksheet")
+	}
+	runLines(t, s, "sweep lad.n10.v from 10 Hz to 100 kHz points 50")
+	for _, bad := range []string{"budget", "budget 5", "budget 0 s", "budget 1e9 s", "budget 5 V"} {
+		if _, err := s.Exec(bad); err == nil {
+			t.Errorf("%q accepted", bad)
+		}
+	}
+}
+
+// TestPropagateOnce re-evaluates a chain of definitions once each when
+// its root changes: what depends on the change, and nothing else.
+func TestPropagateOnce(t *testing.T) {
+	s := New()
+	lines := []string{"Z0 = 10 Ω"}
+	for k := 1; k <= 50; k++ {
+		lines = append(lines, fmt.Sprintf("Z%d = Z%d || 100 Ω", k, k-1))
+	}
+	runLines(t, s, lines...)
+	steps, err := s.Exec("Z0 = 20 Ω")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rec []string
+	for _, st := range steps {
+		if st.Kind == "recompute" {
+			for _, r := range st.Results {
+				rec = append(rec, r.Name)
+			}
+		}
+	}
+	want := make([]string, 50)
+	for k := range want {
+		want[k] = fmt.Sprintf("Z%d", k+1)
+	}
+	if !reflect.DeepEqual(rec, want) {
+		t.Errorf("re-evaluated %v, want %v", rec, want)
+	}
+	// parallel of 20 Ω and 50 × 100 Ω in parallel: 1/(1/20 + 50/100) (common practice)
+	z, _ := s.Lookup("Z50")
+	if want := 1 / (1.0/20 + 50.0/100); math.Abs(real(z.V)-want) > 1e-9*want {
+		t.Errorf("Z50 = %v, want %g", z.V, want)
+	}
+}
