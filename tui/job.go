@@ -158,7 +158,7 @@ func (m *Model) stopJob() {
 	}
 	m.job = nil
 	j.cancel()
-	m.note(false, fmt.Sprintf("stopped after %s: %s not run, nothing changed", elapsed(time.Since(j.started)), m.tr(short(j.what, 40))))
+	m.note(false, fmt.Sprintf("stopped after %s, nothing changed: %s", elapsed(time.Since(j.started)), m.tr(short(j.what, 40))))
 }
 
 // jobKey handles a key while a job runs: esc or ctrl+c stops it; other
