@@ -104,16 +104,25 @@ func New() *Sheet {
 	s := &Sheet{
 		ctx:    calc.Context{Freq: DefaultFreq, Sequence: 1, Format: calc.Format{Digits: calc.DefaultDigits}},
 		byName: map[string]*def{},
-		funcs:  map[string]*calc.Func{},
 		nets:   map[string]*network{},
 		tols:   map[string]float64{},
 		budget: DefaultBudget,
 	}
-	for _, f := range allFuncs() {
-		f := f
-		s.funcs[f.Name] = &f
-	}
 	return s
+}
+
+// funcTable returns the functions of argand's packages by name, made on
+// first use: a worksheet of plain arithmetic (argand eval) never needs
+// them. Copies of a worksheet share the table, which never changes.
+func (s *Sheet) funcTable() map[string]*calc.Func {
+	if s.funcs == nil {
+		fs := allFuncs()
+		s.funcs = make(map[string]*calc.Func, len(fs))
+		for i := range fs {
+			s.funcs[fs[i].Name] = &fs[i]
+		}
+	}
+	return s.funcs
 }
 
 // Settings returns the current settings.
@@ -141,7 +150,7 @@ func (s *Sheet) Lookup(name string) (calc.Quantity, bool) {
 
 // Func finds a function beyond the built-in ones.
 func (s *Sheet) Func(name string) (*calc.Func, bool) {
-	f, ok := s.funcs[name]
+	f, ok := s.funcTable()[name]
 	return f, ok
 }
 
@@ -222,7 +231,7 @@ func (s *Sheet) Reserved(name string) string {
 	if calc.IsUnit(name) {
 		return "a unit symbol"
 	}
-	if _, ok := s.funcs[name]; ok {
+	if _, ok := s.funcTable()[name]; ok {
 		return "a function name"
 	}
 	for _, f := range calc.Builtins() {

@@ -71,6 +71,7 @@ func (s *Sheet) execErr(src string, n int) *calc.Error {
 
 // Clone returns a copy of the worksheet whose changes do not reach s.
 func (s *Sheet) Clone() *Sheet {
+	s.funcTable() // made once, so that copies share it
 	c := *s
 	c.defs = make([]*def, len(s.defs))
 	c.byName = make(map[string]*def, len(s.byName))
@@ -601,7 +602,7 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
 		st.Rule = "negation"
 		operand(n.X)
 	case *calc.Call:
-		f, ok := s.funcs[n.Fun]
+		f, ok := s.funcTable()[n.Fun]
 		if !ok {
 			for _, b := range calc.Builtins() {
 				if b.Name == n.Fun || (n.Fun == "abs" && b.Name == "mag") || (n.Fun == "angle" && b.Name == "arg") {
