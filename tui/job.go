@@ -161,12 +161,19 @@ func (m *Model) stopJob() {
 	m.note(false, fmt.Sprintf("stopped after %s, nothing changed: %s", elapsed(time.Since(j.started)), m.tr(short(j.what, 40))))
 }
 
-// jobKey handles a key while a job runs: esc or ctrl+c stops it; other
-// keys are answered with how to stop it.
+// maxAhead bounds the keys kept while a job runs.
+const maxAhead = 256
+
+// jobKey handles a key while a job runs: esc or ctrl+c stops it and drops
+// the keys typed meanwhile; other keys wait for the job to finish, as
+// they would in the terminal had it run on the update loop.
 func (m *Model) jobKey(k tea.KeyMsg) tea.Cmd {
 	switch {
 	case key.Matches(k, m.keys.Stop):
 		m.stopJob()
+		m.ahead = nil
+	case len(m.ahead) < maxAhead:
+		m.ahead = append(m.ahead, k)
 	default:
 		m.note(false, "still running: esc stops it")
 	}

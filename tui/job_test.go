@@ -55,8 +55,8 @@ func TestJobStops(t *testing.T) {
 		if v := m.View(); !strings.Contains(v, "running") || !strings.Contains(v, "stops it") {
 			t.Errorf("no progress line while the sweep runs:\n%s", v)
 		}
-		press(m, "x") // any other key is answered, not acted on
-		if m.job == nil || m.mode != modeLine {
+		press(m, "x") // any other key waits for the statement
+		if m.job == nil || m.mode != modeLine || len(m.ahead) != 1 {
 			t.Fatal("a key other than esc acted while the sweep ran")
 		}
 		press(m, stopKey)
@@ -108,16 +108,26 @@ func TestJobFinishes(t *testing.T) {
 	if m.job == nil {
 		t.Fatalf("the sweep did not move off the loop: %q", m.msg)
 	}
-	// a late spinner tick of another spinner is ignored
+	// a late spinner tick of another spinner is ignored; keys typed while
+	// the sweep runs follow it
 	m.Update(spinner.TickMsg{ID: -1})
-	m.Update(tea.Msg(jobDoneMsg(<-m.job.done)))
+	for _, r := range "Zw = 2 Ω" {
+		m.Update(keyMsg(string(r)))
+	}
+	m.Update(keyMsg("enter"))
+	for m.job != nil {
+		m.Update(tea.Msg(jobDoneMsg(<-m.job.done)))
+	}
+	if q, ok := m.s.sh.Lookup("Zw"); !ok || real(q.V) != 2 {
+		t.Fatalf("keys typed while the sweep ran were lost: %q", m.msg)
+	}
 	if m.job != nil || m.msgErr {
 		t.Fatalf("job %v, message %q", m.job, m.msg)
 	}
-	if len(m.s.sh.Sweeps()) != 1 || len(m.s.undo) != undo+1 || m.line.f.String() != "" {
+	if len(m.s.sh.Sweeps()) != 1 || len(m.s.undo) != undo+2 || m.line.f.String() != "" {
 		t.Errorf("sweeps %d, undo %d (was %d), entry line %q", len(m.s.sh.Sweeps()), len(m.s.undo), undo, m.line.f.String())
 	}
-	press(m, "esc", "u")
+	press(m, "esc", "u", "u") // the typed statement, then the sweep
 	if after := sessionState(m); after != before {
 		t.Errorf("undo did not restore the session:\n%s\n---\n%s", before, after)
 	}

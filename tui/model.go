@@ -97,6 +97,7 @@ type Model struct {
 	job     *job      // the change running off the update loop, if any
 	jobs    int       // jobs started, to tell a stopped job's late result
 	pending []tea.Cmd // commands a key's handling started (a job's wait)
+	ahead   []tea.KeyMsg // keys typed while a job runs, for after it
 }
 
 // New creates the app: it takes the session lock, restores the last
@@ -327,7 +328,14 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		return m, nil
 	case jobDoneMsg:
 		m.jobDone(msg)
-		return m, m.takePending()
+		cmds := []tea.Cmd{m.takePending()}
+		// keys typed while it ran follow, as if it had run on the loop
+		for len(m.ahead) > 0 && m.job == nil {
+			k := m.ahead[0]
+			m.ahead = m.ahead[1:]
+			cmds = append(cmds, m.key(k), m.takePending())
+		}
+		return m, tea.Batch(cmds...)
 	case spinner.TickMsg:
 		return m, m.jobSpin(msg)
 	case tea.KeyMsg:
