@@ -94,9 +94,9 @@ type Model struct {
 	lockErr  error // why the lock could not be taken, when no one holds it
 	quitting bool
 
-	job     *job      // the change running off the update loop, if any
-	jobs    int       // jobs started, to tell a stopped job's late result
-	pending []tea.Cmd // commands a key's handling started (a job's wait)
+	job     *job         // the change running off the update loop, if any
+	jobs    int          // jobs started, to tell a stopped job's late result
+	pending []tea.Cmd    // commands a key's handling started (a job's wait)
 	ahead   []tea.KeyMsg // keys typed while a job runs, for after it
 }
 

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 
 	"argand/calc"
 	"argand/reduce"
@@ -77,10 +78,21 @@ func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
 				}
 			}
 			if nw.compact != nil {
-				elements += size(nw.compact)
+				// a compact network is reduced step by step at each
+				// sample, its steps written out: about four times the
+				// work of a node network of the same size
+				elements += 4 * size(nw.compact)
 			}
 		} else if d, ok := s.byName[n]; ok {
 			nodes += size(d.expr) + 1
+			if d.recalc != nil {
+				// a Thevenin equivalent solves its network twice, with steps
+				for k := range d.deps {
+					if nw, ok := s.nets[strings.TrimPrefix(k, "net:")]; ok && strings.HasPrefix(k, "net:") {
+						elements += 4 * (len(nw.elems) + 1)
+					}
+				}
+			}
 		}
 		for _, r := range readers[n] {
 			if !hit[r] {
