@@ -154,6 +154,7 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 			var stop *sheet.Interrupted
 			switch {
 			case errors.As(err, &stop):
+				fmt.Fprintln(w) // after the ^C the terminal echoed
 				return cli.Interrupted(w, stop.Line)
 			case errors.As(err, &ro):
 				say(ro.Error())
