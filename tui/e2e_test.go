@@ -44,7 +44,7 @@ func (r *tmuxRun) text(s string) {
 func (r *tmuxRun) wait(want string) string {
 	r.t.Helper()
 	var screen string
-	for i := 0; i < 100; i++ {
+	for end := time.Now().Add(30 * time.Second); time.Now().Before(end); {
 		screen = r.tmux("capture-pane", "-p", "-t", r.name)
 		if strings.Contains(screen, want) {
 			return screen
