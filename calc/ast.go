@@ -55,11 +55,21 @@ type Polar struct {
 	kind     Kind
 }
 
-// Call is f(args).
+// Call is f(args). Args are in the order written; Named marks those
+// written as NAME = EXPR, which follow any positional ones.
 type Call struct {
 	span
-	Fun  string
-	Args []Expr
+	Fun   string
+	Args  []Expr
+	Named []NamedArg
+}
+
+// NamedArg is the name written before an argument: Args[Index] of its
+// call, named Name at column Col.
+type NamedArg struct {
+	Index    int
+	Name     string
+	Col, Len int
 }
 
 // Walk calls fn for e and each node below it, depth first.

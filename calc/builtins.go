@@ -35,6 +35,30 @@ func trigArg(c *Context, name string, a Quantity) (complex128, error) {
 	return a.V * math.Pi / 180, nil
 }
 
+// partKind is the kind of the real (imag false) or imaginary part of a:
+// P and Q of a power, R and X of an impedance, G and B of an admittance,
+// a signed real of a phasor.
+func partKind(a Quantity, imagPart bool) Kind {
+	switch a.Dim {
+	case DimPower:
+		if imagPart {
+			return KindReactive
+		}
+		return KindActive
+	case DimImpedance, DimAdmittance:
+		if imagPart {
+			return KindSigned
+		}
+		return KindResistive
+	case DimVoltage, DimCurrent:
+		return KindSigned
+	}
+	if a.Kind == KindAngle || a.Kind == KindTurn {
+		return a.Kind
+	}
+	return KindPlain
+}
+
 func needDim(name string, a Quantity, d Dim, what string) error {
 	if a.Dim != d {
 		return fmt.Errorf("%s needs %s in %s, got %s", name, what, UnitSymbol(d, KindPlain, false), DimName(a.Dim, false))
@@ -45,41 +69,32 @@ func needDim(name string, a Quantity, d Dim, what string) error {
 // builtins are the functions every worksheet has. The impedance functions
 // use X_L = ωL and X_C = −1/(ωC) with ω = 2π·f (common practice).
 var builtins = [...]Func{
-	{Name: "mag", Args: "(z)", Doc: "magnitude |z|", Formula: "|z| = √(re² + im²)", Min: 1, Max: 1,
+	{Name: "mag", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "magnitude |z|", Formula: "|z| = √(re² + im²)", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
-			k := a.Kind
-			if k == KindActive || k == KindReactive {
-				k = KindApparent
+			if a.Kind == KindAngle {
+				return Quantity{V: complex(cmplx.Abs(a.V), 0), Kind: KindAngle}.Check("mag")
 			}
-			return Quantity{V: complex(cmplx.Abs(a.V), 0), Dim: a.Dim, Kind: k}.Check("mag")
+			return Quantity{V: complex(cmplx.Abs(a.V), 0), Dim: a.Dim, Kind: KindMagnitude}.Check("mag")
 		})},
-	{Name: "arg", Args: "(z)", Doc: "angle of z", Formula: "∠z = atan2(im, re)", Min: 1, Max: 1,
+	{Name: "arg", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "angle of z", Formula: "∠z = atan2(im, re)", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			return Angle(Deg(a.V) * math.Pi / 180), nil
 		})},
-	{Name: "re", Args: "(z)", Doc: "real part", Formula: "re(z)", Min: 1, Max: 1,
+	{Name: "re", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "real part", Formula: "re(z)", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
-			k := a.Kind
-			if a.Dim == DimPower {
-				k = KindActive
-			}
-			return Quantity{V: complex(real(a.V), 0), Dim: a.Dim, Kind: k}, nil
+			return Quantity{V: complex(real(a.V), 0), Dim: a.Dim, Kind: partKind(a, false)}, nil
 		})},
-	{Name: "im", Args: "(z)", Doc: "imaginary part, as a real number", Formula: "im(z)", Min: 1, Max: 1,
+	{Name: "im", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "imaginary part, as a real number", Formula: "im(z)", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
-			k := a.Kind
-			if a.Dim == DimPower {
-				k = KindReactive
-			}
-			return Quantity{V: complex(imag(a.V), 0), Dim: a.Dim, Kind: k}, nil
+			return Quantity{V: complex(imag(a.V), 0), Dim: a.Dim, Kind: partKind(a, true)}, nil
 		})},
-	{Name: "conj", Args: "(z)", Doc: "complex conjugate", Formula: "z* = re − j·im", Min: 1, Max: 1,
+	{Name: "conj", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "complex conjugate", Formula: "z* = re − j·im", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) { return Conj(a), nil })},
-	{Name: "recip", Args: "(z)", Doc: "reciprocal 1/z (impedance ↔ admittance)", Formula: "1/z", Min: 1, Max: 1,
+	{Name: "recip", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "reciprocal 1/z (impedance ↔ admittance)", Formula: "1/z", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) { return Recip(a) })},
-	{Name: "sqrt", Args: "(z)", Doc: "principal square root", Formula: "√z", Min: 1, Max: 1,
+	{Name: "sqrt", Params: []Param{{Name: "z", Kind: ParamAny}}, Args: "(z)", Doc: "principal square root", Formula: "√z", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) { return Sqrt(a) })},
-	{Name: "sin", Args: "(θ)", Doc: "sine; a bare number is in the angle unit set", Formula: "sin θ", Min: 1, Max: 1,
+	{Name: "sin", Params: []Param{{Name: "θ", Kind: ParamNumber, Doc: "an angle, or a plain number in the angle unit set"}}, Args: "(θ)", Doc: "sine; a bare number is in the angle unit set", Formula: "sin θ", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			x, err := trigArg(c, "sin", a)
 			if err != nil {
@@ -87,7 +102,7 @@ var builtins = [...]Func{
 			}
 			return Number(exactTrig(cmplx.Sin, x, 0)).Check("sin")
 		})},
-	{Name: "cos", Args: "(θ)", Doc: "cosine; a bare number is in the angle unit set", Formula: "cos θ", Min: 1, Max: 1,
+	{Name: "cos", Params: []Param{{Name: "θ", Kind: ParamNumber, Doc: "an angle, or a plain number in the angle unit set"}}, Args: "(θ)", Doc: "cosine; a bare number is in the angle unit set", Formula: "cos θ", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			x, err := trigArg(c, "cos", a)
 			if err != nil {
@@ -95,7 +110,7 @@ var builtins = [...]Func{
 			}
 			return Number(exactTrig(cmplx.Cos, x, 1)).Check("cos")
 		})},
-	{Name: "tan", Args: "(θ)", Doc: "tangent; a bare number is in the angle unit set", Formula: "tan θ", Min: 1, Max: 1,
+	{Name: "tan", Params: []Param{{Name: "θ", Kind: ParamNumber, Doc: "an angle, or a plain number in the angle unit set"}}, Args: "(θ)", Doc: "tangent; a bare number is in the angle unit set", Formula: "tan θ", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			x, err := trigArg(c, "tan", a)
 			if err != nil {
@@ -106,7 +121,7 @@ var builtins = [...]Func{
 			}
 			return Number(exactTrig(cmplx.Tan, x, 2)).Check("tan")
 		})},
-	{Name: "atan2", Args: "(y, x)", Doc: "angle of the point (x, y)", Formula: "atan2(y, x)", Min: 2, Max: 2,
+	{Name: "atan2", Params: []Param{{Name: "y", Kind: ParamAny}, {Name: "x", Kind: ParamAny}}, Args: "(y, x)", Doc: "angle of the point (x, y)", Formula: "atan2(y, x)", Min: 2, Max: 2,
 		Call: func(c *Context, args []Arg) (Result, error) {
 			y, x := args[0].Q, args[1].Q
 			if x.Dim != y.Dim {
@@ -117,7 +132,7 @@ var builtins = [...]Func{
 			}
 			return Value(Angle(Deg(complex(real(x.V), real(y.V))) * math.Pi / 180)), nil
 		}},
-	{Name: "exp", Args: "(z)", Doc: "e to the power z", Formula: "eᶻ", Min: 1, Max: 1,
+	{Name: "exp", Params: []Param{{Name: "z", Kind: ParamNumber}}, Args: "(z)", Doc: "e to the power z", Formula: "eᶻ", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needPlain("exp", a); err != nil {
 				return Quantity{}, err
@@ -127,7 +142,7 @@ var builtins = [...]Func{
 			}
 			return Number(cmplx.Exp(a.V)).Check("exp")
 		})},
-	{Name: "ln", Args: "(z)", Doc: "natural logarithm (principal)", Formula: "ln z", Min: 1, Max: 1,
+	{Name: "ln", Params: []Param{{Name: "z", Kind: ParamNumber}}, Args: "(z)", Doc: "natural logarithm (principal)", Formula: "ln z", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needPlain("ln", a); err != nil {
 				return Quantity{}, err
@@ -137,7 +152,7 @@ var builtins = [...]Func{
 			}
 			return Number(cmplx.Log(unsignZero(a.V))).Check("ln")
 		})},
-	{Name: "log10", Args: "(z)", Doc: "common logarithm (principal)", Formula: "log₁₀ z", Min: 1, Max: 1,
+	{Name: "log10", Params: []Param{{Name: "z", Kind: ParamNumber}}, Args: "(z)", Doc: "common logarithm (principal)", Formula: "log₁₀ z", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needPlain("log10", a); err != nil {
 				return Quantity{}, err
@@ -147,14 +162,14 @@ var builtins = [...]Func{
 			}
 			return Number(cmplx.Log10(unsignZero(a.V))).Check("log10")
 		})},
-	{Name: "deg", Args: "(θ)", Doc: "an angle (or a number of radians) as a plain number of degrees", Formula: "θ·180/π", Min: 1, Max: 1,
+	{Name: "deg", Params: []Param{{Name: "θ", Kind: ParamNumber}}, Args: "(θ)", Doc: "an angle (or a number of radians) as a plain number of degrees", Formula: "θ·180/π", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needPlain("deg", a); err != nil {
 				return Quantity{}, err
 			}
 			return Number(a.V * 180 / math.Pi).Check("deg")
 		})},
-	{Name: "rad", Args: "(x)", Doc: "a number of degrees (or an angle) as a plain number of radians", Formula: "x·π/180", Min: 1, Max: 1,
+	{Name: "rad", Params: []Param{{Name: "x", Kind: ParamNumber}}, Args: "(x)", Doc: "a number of degrees (or an angle) as a plain number of radians", Formula: "x·π/180", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needPlain("rad", a); err != nil {
 				return Quantity{}, err
@@ -164,28 +179,28 @@ var builtins = [...]Func{
 			}
 			return Number(a.V * math.Pi / 180).Check("rad")
 		})},
-	{Name: "omega", Args: "(f)", Doc: "angular frequency of a frequency in Hz", Formula: "ω = 2π·f", Min: 1, Max: 1,
+	{Name: "omega", Params: []Param{{Name: "f", Kind: ParamFrequency, Else: "a frequency is written with Hz, as in 50 Hz"}}, Args: "(f)", Doc: "angular frequency of a frequency in Hz", Formula: "ω = 2π·f", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needDim("omega", a, DimFrequency, "a frequency"); err != nil {
 				return Quantity{}, err
 			}
 			return Quantity{V: 2 * math.Pi * a.V, Dim: DimAngularFrequency, Kind: KindAngle}.Check("omega")
 		})},
-	{Name: "zr", Args: "(R)", Doc: "impedance of a resistor", Formula: "Z = R", Min: 1, Max: 1,
+	{Name: "zr", Params: []Param{{Name: "R", Kind: ParamResistance}}, Args: "(R)", Doc: "impedance of a resistor", Formula: "Z = R", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needDim("zr", a, DimImpedance, "a resistance"); err != nil {
 				return Quantity{}, err
 			}
 			return a, nil
 		})},
-	{Name: "zl", Args: "(L)", Doc: "impedance of an inductor at the working frequency", Formula: "Z = jωL", Min: 1, Max: 1,
+	{Name: "zl", Params: []Param{{Name: "L", Kind: ParamInductance}}, Args: "(L)", Doc: "impedance of an inductor at the working frequency", Formula: "Z = jωL", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needDim("zl", a, DimInductance, "an inductance"); err != nil {
 				return Quantity{}, err
 			}
 			return InductorZ(a.V, c.Freq)
 		})},
-	{Name: "zc", Args: "(C)", Doc: "impedance of a capacitor at the working frequency", Formula: "Z = 1/(jωC) = −j/(ωC)", Min: 1, Max: 1,
+	{Name: "zc", Params: []Param{{Name: "C", Kind: ParamCapacitance}}, Args: "(C)", Doc: "impedance of a capacitor at the working frequency", Formula: "Z = 1/(jωC) = −j/(ωC)", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
 			if err := needDim("zc", a, DimCapacitance, "a capacitance"); err != nil {
 				return Quantity{}, err

@@ -80,7 +80,7 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		v := n.Val
 		if n.hasUnit {
 			v *= complex(n.scale, 0)
-			q, err := Quantity{V: v, Dim: n.dim, Kind: n.kind}.Check("number")
+			q, err := Quantity{V: v, Dim: n.dim, Kind: literalKind(n, v)}.Check("number")
 			if err != nil {
 				return Quantity{}, ev.errAt(n, err)
 			}
@@ -179,10 +179,10 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 			m.V *= complex(n.scale, 0)
 			d, k = n.dim, n.kind
 		}
-		if k == KindActive || k == KindReactive {
-			k = KindApparent
-		}
-		if k == KindAngle {
+		switch {
+		case k == KindActive || k == KindReactive || k == KindMagnitude && d == DimPower:
+			k = KindApparent // |S|∠φ is a complex power
+		case k == KindAngle || k.noAngle() || k == KindConj:
 			k = KindPlain
 		}
 		s, c := math.Sincos(rad)
@@ -214,6 +214,24 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 	return Quantity{}, ev.errAt(e, fmt.Errorf("cannot evaluate this expression"))
 }
 
+// literalKind is the kind of a number written with a unit: a real value
+// in Ω or S is a resistance or conductance (a reactance is written with j),
+// a real value in VA an apparent power |S|; a real value in V or A is a
+// reference phasor at 0°, the kind its dimension implies.
+func literalKind(n *Lit, v complex128) Kind {
+	d, k := n.dim, n.kind
+	if imag(v) != 0 || n.distrib {
+		return k // the real part of 3+j4 Ω is part of one impedance
+	}
+	switch {
+	case (d == DimImpedance || d == DimAdmittance) && k == KindPlain:
+		return KindResistive
+	case d == DimPower && k == KindApparent:
+		return KindMagnitude
+	}
+	return k
+}
+
 func isDimErr(err error) bool {
 	var d *DimError
 	return errors.As(err, &d)
@@ -233,24 +251,28 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		}
 		return Result{}, nameErr("unknown function %q", c.Fun)
 	}
-	if len(c.Args) < f.Min || (f.Max >= 0 && len(c.Args) > f.Max) {
+	exprs, params, berr := ev.bind(f, c)
+	if berr != nil {
+		return Result{}, berr
+	}
+	if len(exprs) < f.Min || (f.Max >= 0 && len(exprs) > f.Max) {
 		want := fmt.Sprintf("%d", f.Min)
 		if f.Max < 0 {
 			want = fmt.Sprintf("at least %d", f.Min)
 		} else if f.Max != f.Min {
 			want = fmt.Sprintf("%d to %d", f.Min, f.Max)
 		}
-		return Result{}, nameErr("%s takes %s argument(s) %s, got %d", c.Fun, want, f.Args, len(c.Args))
+		return Result{}, nameErr("%s takes %s argument(s) %s, got %d", c.Fun, want, f.ArgList(), len(exprs))
 	}
-	args := make([]Arg, len(c.Args))
-	for i, a := range c.Args {
+	args := make([]Arg, len(exprs))
+	for i, a := range exprs {
 		args[i].Text = ev.text(a)
+		if w, ok := ev.word(f, a); ok {
+			args[i].Word = w
+			continue
+		}
 		if nm, ok := a.(*Name); ok && f.Words != nil {
 			if _, defined := ev.Env.Lookup(nm.Name); !defined {
-				if w, ok := matchWord(nm.Name, f.Words); ok {
-					args[i].Word = w
-					continue
-				}
 				return Result{}, ev.errAt(a, fmt.Errorf("%s: %q is neither a defined name nor one of %v", c.Fun, nm.Name, f.Words))
 			}
 		}
@@ -259,6 +281,11 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 			return Result{}, err
 		}
 		args[i].Q = q
+		if params[i] != nil {
+			if e2 := checkParam(f, *params[i], args[i]); e2 != nil {
+				return Result{}, ev.errAt(a, e2)
+			}
+		}
 	}
 	r, err := f.Call(ev.Env.Context(), args)
 	if err != nil {
@@ -283,6 +310,143 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		}
 	}
 	return r, nil
+}
+
+// word reports an argument written as one of the function's bare words
+// (and not a defined name), and which word.
+func (ev *Evaluator) word(f *Func, a Expr) (string, bool) {
+	nm, ok := a.(*Name)
+	if !ok || f.Words == nil {
+		return "", false
+	}
+	if _, defined := ev.Env.Lookup(nm.Name); defined {
+		return "", false
+	}
+	return matchWord(nm.Name, f.Words)
+}
+
+// bind puts the arguments of a call in the order of the function's
+// parameters: positional ones first as written, a bare word skipping
+// optional parameters that are not words, then named ones by name. It
+// returns, for each argument, the parameter it binds to (nil where the
+// function declares none).
+func (ev *Evaluator) bind(f *Func, c *Call) ([]Expr, []*Param, *Error) {
+	npos := len(c.Args)
+	if len(c.Named) > 0 {
+		npos = c.Named[0].Index
+	}
+	at := func(n NamedArg, format string, a ...any) *Error {
+		return &Error{Line: ev.Line, Col: n.Col, Len: n.Len, Msg: fmt.Sprintf(format, a...)}
+	}
+	if len(c.Named) > 0 && len(f.Params) == 0 {
+		return nil, nil, at(c.Named[0], "%s takes no named arguments: write them in order %s", f.Name, f.ArgList())
+	}
+	slot := make([]int, len(f.Params))
+	for i := range slot {
+		slot[i] = -1
+	}
+	var extra []int // positional arguments past the last parameter
+	pi := 0
+	for i := 0; i < npos; i++ {
+		if pi >= len(f.Params) {
+			extra = append(extra, i)
+			continue
+		}
+		if _, isWord := ev.word(f, c.Args[i]); isWord {
+			for j := pi; j < len(f.Params); j++ {
+				if f.Params[j].Kind == ParamWord {
+					pi = j
+					break
+				}
+				if !f.Params[j].Optional {
+					break
+				}
+			}
+		}
+		slot[pi] = i
+		pi++
+	}
+	for _, n := range c.Named {
+		k := -1
+		for j, p := range f.Params {
+			if p.Name == n.Name {
+				k = j
+				break
+			}
+		}
+		if k < 0 {
+			for j, p := range f.Params {
+				if equalFold(p.Name, n.Name) {
+					k = j
+					break
+				}
+			}
+		}
+		if k < 0 {
+			return nil, nil, at(n, "%s has no parameter %q; its parameters are %s", f.Name, n.Name, paramNames(f))
+		}
+		if slot[k] >= 0 {
+			return nil, nil, at(n, "%s: %s is given twice", f.Name, f.Params[k].Name)
+		}
+		slot[k] = n.Index
+	}
+	var exprs []Expr
+	var params []*Param
+	gap := -1
+	for j := range f.Params {
+		if slot[j] < 0 {
+			if !f.Params[j].Optional {
+				if len(c.Named) == 0 {
+					continue // the count check reports it, as before
+				}
+				col := c.col
+				return nil, nil, &Error{Line: ev.Line, Col: col, Len: utf8.RuneCountInString(c.Fun),
+					Msg: fmt.Sprintf("%s: argument %s (%s) is missing", f.Name, f.Params[j].Name, f.Params[j].Kind)}
+			}
+			if gap < 0 {
+				gap = j
+			}
+			continue
+		}
+		if gap >= 0 && f.Params[j].Kind != ParamWord {
+			return nil, nil, at(namedAt(c, slot[j]), "%s: give %s as well when %s is given, since the arguments are read in order", f.Name, f.Params[gap].Name, f.Params[j].Name)
+		}
+		exprs = append(exprs, c.Args[slot[j]])
+		params = append(params, &f.Params[j])
+	}
+	for _, i := range extra {
+		exprs = append(exprs, c.Args[i])
+		if p, ok := f.paramFor(len(exprs) - 1); ok {
+			params = append(params, &p)
+		} else {
+			params = append(params, nil)
+		}
+	}
+	if len(f.Params) == 0 {
+		params = make([]*Param, len(exprs))
+	}
+	return exprs, params, nil
+}
+
+// namedAt returns the name written before argument i, or a mark at the
+// call when it was positional.
+func namedAt(c *Call, i int) NamedArg {
+	for _, n := range c.Named {
+		if n.Index == i {
+			return n
+		}
+	}
+	_, _, col := c.Args[i].Span()
+	return NamedArg{Col: col, Len: 1}
+}
+
+// paramNames lists a function's parameter names for messages.
+func paramNames(f *Func) string {
+	names := make([]string, len(f.Params))
+	for i, p := range f.Params {
+		names[i] = p.Name
+	}
+	return strings.Join(names, ", ")
 }
 
 // matchWord finds w among words, ignoring case.

@@ -31,9 +31,13 @@ func (f Format) digits() int {
 	return f.Digits
 }
 
-// tiny is the relative size below which a rectangular part is shown as 0:
-// rounding noise in 3∠90° must not print as 1.837e-16 + j3.
-const tiny = 1e-12
+// Tiny is the relative size below which a part is a rounding leftover and
+// shown as 0: of the other part of the same value (rounding noise in 3∠90°
+// must not print as 1.837e-16 + j3), and of the largest term of a sum
+// (Leftover).
+const Tiny = 1e-12
+
+const tiny = Tiny
 
 // NormDeg reduces an angle in degrees to (−180, 180], turning −0 and −180
 // into 0 and 180.
@@ -205,6 +209,10 @@ func (f Format) Polar(q Quantity) string {
 	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() {
 		return f.AngleValue(real(q.V))
 	}
+	if q.IsReal() && q.Kind.noAngle() {
+		// a magnitude or signed real has no angle to show
+		return f.Rect(q)
+	}
 	m := cmplx.Abs(q.V)
 	exp3, dec, unit, expo := f.scaled(m, q.Dim, q.Kind)
 	s := fixed(m, exp3, dec) + expo + unit
@@ -288,8 +296,7 @@ func sigFixed(x float64, digits int) string {
 // first when polarFirst is set; a real quantity prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() || !phasorDim(q.Dim) && q.IsReal() ||
-		(q.Kind == KindActive || q.Kind == KindReactive) && q.IsReal() {
+	if q.Scalar() {
 		return r
 	}
 	if polarFirst {
@@ -312,7 +319,7 @@ func phasorDim(d Dim) bool {
 // signed number for a real quantity that is not one (P in W, Q in var, a
 // count), so that a leading load's −3 kvar is not shown as 3 kvar ∠180°.
 func (f Format) Short(q Quantity) string {
-	if q.IsReal() && (q.Kind == KindActive || q.Kind == KindReactive || !phasorDim(q.Dim) || q.Kind == KindAngle) {
+	if q.Scalar() {
 		return f.Rect(q)
 	}
 	return f.Polar(q)

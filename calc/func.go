@@ -42,12 +42,16 @@ type Result struct {
 
 // Func is a function callable from an expression.
 type Func struct {
-	Name  string
-	Args  string   // argument list for help, such as "(P, pf1, pf2)"
-	Doc   string   // one line: what it computes
-	Min   int      // fewest arguments
-	Max   int      // most arguments; −1 for any number
-	Words []string // bare words accepted as arguments
+	Name string
+	Args string // argument list for help when Params is empty, such as "(P, pf1, pf2)"
+	// Params names and kinds each parameter in order (the last repeats
+	// when Max allows more). The evaluator binds named arguments by them and
+	// refuses an argument of the wrong kind before Call runs.
+	Params []Param
+	Doc    string   // one line: what it computes
+	Min    int      // fewest arguments
+	Max    int      // most arguments; −1 for any number
+	Words  []string // bare words accepted as arguments
 	// Formula is shown in the call's step, such as "|z| = √(re² + im²)".
 	Formula string
 	Call    func(c *Context, args []Arg) (Result, error)

@@ -413,6 +413,21 @@ func (p *Parser) call(name Item) Expr {
 	c := &Call{Fun: name.Text}
 	if !p.IsOp(")") {
 		for {
+			// NAME = EXPR names the parameter the argument binds to
+			label := ""
+			if p.tok.Tok == TokIdent {
+				sc := *p.s
+				if nt := sc.Scan(); nt.Tok == TokOp && nt.Text == "=" {
+					t := p.Next()
+					p.next()
+					label = t.Text
+					c.Named = append(c.Named, NamedArg{Index: len(c.Args), Name: t.Text, Col: t.Col, Len: utf8.RuneCountInString(t.Text)})
+				}
+			}
+			if label == "" && len(c.Named) > 0 {
+				p.Failf(p.tok, "a positional argument cannot follow a named one in %s(…): name it too, or move it before %s =", name.Text, c.Named[0].Name)
+				return c.finish(name, open)
+			}
 			c.Args = append(c.Args, p.sum())
 			if p.Err() != nil {
 				return c.finish(name, open)

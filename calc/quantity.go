@@ -5,24 +5,137 @@ import (
 	"math/cmplx"
 )
 
-// Kind refines how a quantity is displayed when one dimension has several
-// names. Power has a single dimension (V·A) but an engineer reads real power
-// in W, reactive power in var and apparent or complex power in VA. An angle
-// is dimensionless but shown in the angle unit of the worksheet.
+// Kind is what a quantity is, carried beside its dimension: the dimension
+// says V·A, the kind says whether that is an active power in W, a reactive
+// power in var, a complex power S = P + jQ or an apparent power |S| in VA,
+// or a plain product of two phasors that is none of them. The kind decides
+// the unit shown, whether an angle is shown, and which sums are refused.
+// See the package comment for how kinds combine.
 type Kind uint8
 
 const (
+	// KindPlain is the kind a dimension implies: a phasor for V and A, a
+	// complex impedance or admittance for Ω and S, a ratio or complex
+	// number when dimensionless, a signed real for H, F, Hz, s, m.
 	KindPlain    Kind = iota
-	KindActive        // real power, W
-	KindReactive      // reactive power, var
-	KindApparent      // apparent or complex power, VA
+	KindActive        // active power P, W: a signed real (or P in P + jQ)
+	KindReactive      // reactive power Q, var: a signed real (or jQ in P + jQ)
+	KindApparent      // complex power S = P + jQ in VA (IEEE Std 1459-2010)
 	KindAngle         // a plane angle held in radians
 	// KindTurn marks a product of an angle and a quantity that counts no
 	// cycles, such as 2π·R·C: the angle is per cycle, so the product is
 	// per cycle too (2π·R·C is a period) and 1/(2π·R·C) is in Hz.
 	// Shown as a plain value.
 	KindTurn
+	// KindMagnitude is |x|, the size of a phasor or complex quantity with
+	// its angle dropped: |I| in A, |V| in V, and for power the apparent
+	// power |S| in VA. Shown as a number with its unit and no angle.
+	KindMagnitude
+	// KindSigned is a signed real part of a complex quantity: a reactance
+	// X in Ω, a susceptance B in S, a signed voltage or current reading.
+	KindSigned
+	// KindResistive is a resistance R in Ω or a conductance G in S: real.
+	KindResistive
+	// KindCount is a whole number of things (turns, samples, sections).
+	KindCount
+	// KindProduct is V·I (or any product of two phasors) without the
+	// conjugate: not a complex power; S = V·I* (IEEE Std 1459-2010).
+	KindProduct
+	// KindConj is the conjugate of a phasor, as in V·conj(I).
+	KindConj
 )
+
+// noAngle reports kinds that are real numbers by meaning: they are shown as
+// a signed number with a unit, never as a phasor at 0° or 180°.
+func (k Kind) noAngle() bool {
+	switch k {
+	case KindActive, KindReactive, KindMagnitude, KindSigned, KindResistive, KindCount:
+		return true
+	}
+	return false
+}
+
+// Scalar reports whether q is shown as a signed real number without an
+// angle: a real value of a kind that is real by meaning, or a real value
+// of a dimension whose angle means nothing (H, F, Hz, a ratio).
+func (q Quantity) Scalar() bool {
+	if !q.IsReal() {
+		return false
+	}
+	return q.Kind.noAngle() || q.Kind == KindAngle || !phasorDim(q.Dim)
+}
+
+// QuantityName names the kind of q as JSON's "quantity" field does and
+// the README lists: phasor, impedance, admittance, resistance, conductance,
+// reactance, susceptance, complex-power, active-power, reactive-power,
+// apparent-power, phasor-product, magnitude, signed-real, ratio,
+// complex-ratio, angle, count.
+func QuantityName(q Quantity) string {
+	d := q.Dim
+	switch q.Kind {
+	case KindAngle:
+		if d.IsDimensionless() && q.IsReal() {
+			return "angle"
+		}
+	case KindCount:
+		return "count"
+	case KindProduct:
+		return "phasor-product"
+	}
+	if d == DimPower {
+		switch q.Kind {
+		case KindActive:
+			if q.IsReal() {
+				return "active-power"
+			}
+		case KindReactive:
+			if q.IsReal() {
+				return "reactive-power"
+			}
+		case KindMagnitude:
+			return "apparent-power"
+		}
+		return "complex-power"
+	}
+	switch q.Kind {
+	case KindMagnitude:
+		return "magnitude"
+	case KindSigned:
+		switch d {
+		case DimImpedance:
+			return "reactance"
+		case DimAdmittance:
+			return "susceptance"
+		}
+		return "signed-real"
+	case KindResistive:
+		switch d {
+		case DimImpedance:
+			return "resistance"
+		case DimAdmittance:
+			return "conductance"
+		}
+		return "signed-real"
+	}
+	switch d {
+	case DimVoltage, DimCurrent:
+		return "phasor"
+	case DimImpedance:
+		return "impedance"
+	case DimAdmittance:
+		return "admittance"
+	}
+	if d.IsDimensionless() {
+		if q.IsReal() {
+			return "ratio"
+		}
+		return "complex-ratio"
+	}
+	if q.IsReal() {
+		return "signed-real"
+	}
+	return "complex"
+}
 
 // Quantity is a complex value with a physical dimension. Phasors,
 // impedances, admittances, powers and plain numbers are all quantities.
@@ -71,29 +184,101 @@ func (q Quantity) Check(op string) (Quantity, error) {
 	return Quantity{}, errorf("%s: overflow (result too large to represent)", op)
 }
 
-// sumKind is the display kind of a sum or difference.
-func sumKind(a, b Kind) Kind {
-	if a == b {
-		return a
+// sumKind is the kind of a sum or difference a ± b of one dimension, or
+// an error for a sum that has no meaning as written. Power follows
+// IEC 60050-131 and IEEE Std 1459-2010: W and var are at right angles and
+// meet only as S = P + jQ; an apparent power |S| is a magnitude and adds to
+// nothing but another |S|; V·I without the conjugate is no power at all.
+// Impedance likewise: a resistance and a reactance held as reals meet only
+// as Z = R + jX.
+func sumKind(a, b Quantity, op string) (Kind, error) {
+	ka, kb := a.Kind, b.Kind
+	if a.Dim == DimPower {
+		switch {
+		case ka == KindProduct || kb == KindProduct:
+			if ka == kb {
+				return KindProduct, nil
+			}
+			return 0, errorf("cannot %s a phasor product V·I and a power: V·I without the conjugate is not a complex power; use power(V, I) or V * conj(I) (S = V·I*)", op)
+		case ka == KindMagnitude || kb == KindMagnitude:
+			if ka == kb {
+				return KindMagnitude, nil
+			}
+			return 0, errorf("cannot %s an apparent power |S| in VA and %s: |S| is a magnitude with no angle; give the load as a complex power (loadva(|S|, pf, lagging) or |S|∠φ) and add those", op, QuantityWord(otherOf(a, b, KindMagnitude)))
+		case ka == kb:
+			if ka == KindActive || ka == KindReactive {
+				return ka, quadrature(a, b, op)
+			}
+			return ka, nil
+		}
+		if err := quadrature(a, b, op); err != nil {
+			return 0, err
+		}
+		// a var held as a real number added to S would land on the P axis
+		for _, x := range []Quantity{a, b} {
+			if x.Kind == KindReactive && real(x.V) != 0 {
+				return 0, errorf("cannot %s a reactive power given as a real number and %s: Q adds as j·Q (S = P + jQ)", op, QuantityWord(otherOf(a, b, KindReactive)))
+			}
+			if x.Kind == KindActive && imag(x.V) != 0 {
+				return 0, errorf("cannot %s an active power with an imaginary part: P is real (S = P + jQ)", op)
+			}
+		}
+		return KindApparent, nil
 	}
-	plain := func(k Kind) bool { return k == KindAngle || k == KindPlain || k == KindTurn }
-	if plain(a) && plain(b) {
-		return KindPlain
+	if a.Dim == DimImpedance || a.Dim == DimAdmittance {
+		switch {
+		case ka == kb && (ka == KindResistive || ka == KindSigned || ka == KindMagnitude):
+			return ka, nil
+		case ka == KindSigned || kb == KindSigned:
+			what := "a reactance X"
+			if a.Dim == DimAdmittance {
+				what = "a susceptance B"
+			}
+			return 0, errorf("cannot %s %s held as a real number and %s: it lies on the imaginary axis; write j·X (Z = R + jX)", op, what, QuantityWord(otherOf(a, b, KindSigned)))
+		}
 	}
-	return KindApparent
+	switch {
+	case ka == kb:
+		if ka == KindConj {
+			return KindPlain, nil
+		}
+		return ka, nil
+	}
+	return KindPlain, nil
 }
 
-// scaleKind is the display kind of a quantity multiplied or divided by a
-// dimensionless factor: an angle stays an angle and a power keeps its kind,
-// unless the factor is complex, which mixes real and reactive parts.
-func scaleKind(k Kind, factor complex128) Kind {
+// otherOf returns the operand of a ± b that is not of kind k.
+func otherOf(a, b Quantity, k Kind) Quantity {
+	if a.Kind == k {
+		return b
+	}
+	return a
+}
+
+// scaleKind is the kind of a quantity multiplied or divided by a
+// dimensionless factor: an angle stays an angle and a power keeps its kind
+// under a real factor; a complex factor turns a real-by-meaning quantity
+// into a complex one (|S|·1∠30° is a complex power).
+func scaleKind(k Kind, factor complex128, d Dim) Kind {
 	if imag(factor) != 0 {
-		if k == KindActive || k == KindReactive {
+		switch k {
+		case KindActive, KindReactive:
 			return KindApparent
-		}
-		if k == KindAngle {
+		case KindMagnitude:
+			if d == DimPower {
+				return KindApparent
+			}
+			return KindPlain
+		case KindAngle, KindSigned, KindResistive, KindCount, KindConj:
 			return KindPlain
 		}
+		return k
+	}
+	switch {
+	case k == KindMagnitude && real(factor) < 0 && d != DimPower:
+		return KindSigned
+	case k == KindCount && real(factor) != math.Trunc(real(factor)):
+		return KindPlain
 	}
 	return k
 }
@@ -117,19 +302,43 @@ func Add(a, b Quantity) (Quantity, error) {
 	if a.Dim != b.Dim {
 		return Quantity{}, &DimError{Op: "+", A: a.Dim, B: b.Dim}
 	}
-	if err := quadrature(a, b, "add"); err != nil {
+	k, err := sumKind(a, b, "add")
+	if err != nil {
 		return Quantity{}, err
 	}
-	return Quantity{V: cancel(a.V+b.V, a.V, b.V), Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("addition")
+	return Quantity{V: Leftover(a.V+b.V, a.V, b.V), Dim: a.Dim, Kind: k}.Check("addition")
 }
 
-// cancel returns s, the sum of a and b, or 0 when the terms cancel to
-// within rounding: j1 Ω + (−j0.9999999999999997 Ω) at series resonance is a
-// short, not 333e-18 Ω. Four units in the last place of the larger term
-// are below anything the inputs can tell.
-func cancel(s, a, b complex128) complex128 {
-	const ulps = 4 * 2.220446049250313e-16
-	if cmplx.Abs(s) <= ulps*math.Max(cmplx.Abs(a), cmplx.Abs(b)) {
+// Leftover applies argand's one rule for rounding leftovers to a sum s of
+// the given terms (all of one dimension): a part of s (real or imaginary)
+// is 0 when it is below 1e-12 of the largest magnitude among the terms, so
+// j1 Ω + (−j0.9999999999999997 Ω) at series resonance is a short, not
+// 333e-18 Ω. Parts small beside the other part of s itself are dropped by
+// the display (Tiny), which is the same rule for a single value. A value
+// that is small because its inputs are small keeps its figures:
+// (1 mV)²/10 GΩ is 1e-16 W.
+func Leftover(s complex128, terms ...complex128) complex128 {
+	var big float64
+	for _, t := range terms {
+		big = math.Max(big, cmplx.Abs(t))
+	}
+	re, im := real(s), imag(s)
+	if math.Abs(re) < Tiny*big {
+		re = 0
+	}
+	if math.Abs(im) < Tiny*big {
+		im = 0
+	}
+	return complex(re+0, im+0)
+}
+
+// LeftoverReal is Leftover for a real sum of real terms.
+func LeftoverReal(s float64, terms ...float64) float64 {
+	var big float64
+	for _, t := range terms {
+		big = math.Max(big, math.Abs(t))
+	}
+	if math.Abs(s) < Tiny*big {
 		return 0
 	}
 	return s
@@ -140,10 +349,11 @@ func Sub(a, b Quantity) (Quantity, error) {
 	if a.Dim != b.Dim {
 		return Quantity{}, &DimError{Op: "−", A: a.Dim, B: b.Dim}
 	}
-	if err := quadrature(a, b, "subtract"); err != nil {
+	k, err := sumKind(a, b, "subtract")
+	if err != nil {
 		return Quantity{}, err
 	}
-	return Quantity{V: cancel(a.V-b.V, a.V, b.V), Dim: a.Dim, Kind: sumKind(a.Kind, b.Kind)}.Check("subtraction")
+	return Quantity{V: Leftover(a.V-b.V, a.V, b.V), Dim: a.Dim, Kind: k}.Check("subtraction")
 }
 
 // Mul returns a·b.
@@ -208,13 +418,83 @@ func Div(a, b Quantity) (Quantity, error) {
 		return Quantity{}, err
 	}
 	r := Quantity{V: a.V / b.V, Dim: a.Dim.Div(b.Dim)}
-	switch {
-	case b.Dim.IsDimensionless() && b.Kind != KindAngle:
-		r.Kind = scaleKind(a.Kind, b.V)
-	case r.Dim == DimPower:
-		r.Kind = KindApparent
-	}
+	r.Kind = quotientKind(a, b, r.Dim)
 	return r.Check("division")
+}
+
+// magLike reports a quantity that stands for a size: a magnitude, or a
+// real value of a phasor dimension written as a reference at 0° (230 V).
+func magLike(q Quantity) bool {
+	if !q.IsReal() {
+		return false
+	}
+	return q.Kind == KindMagnitude || q.Kind == KindPlain && (q.Dim == DimVoltage || q.Dim == DimCurrent)
+}
+
+// quotientKind is the kind of a/b: V²/R is an active power, V²/X a
+// reactive power (Q = V²/X for a reactance X, common practice), |V|²/|Z|
+// an apparent power; |V|²/Z is S* and so a phasor product, not S.
+func quotientKind(a, b Quantity, d Dim) Kind {
+	if b.Dim.IsDimensionless() && b.Kind != KindAngle {
+		return scaleKind(a.Kind, b.V, a.Dim)
+	}
+	if d == DimPower {
+		switch {
+		case a.Dim == DimEnergy && b.Dim == DimTime:
+			return KindActive
+		case a.Kind == KindMagnitude && a.Dim == DimVoltage.Pow(2) && b.Dim == DimImpedance:
+			switch b.Kind {
+			case KindResistive:
+				return KindActive
+			case KindSigned:
+				return KindReactive
+			case KindMagnitude:
+				return KindMagnitude
+			}
+		}
+		return KindProduct
+	}
+	if a.Kind == KindMagnitude && (b.Kind == KindMagnitude || b.Kind == KindResistive) {
+		return KindMagnitude
+	}
+	return KindPlain
+}
+
+// powerProduct is the kind of a product of dimension V·A: |I|²·R is an
+// active power, |I|²·X a reactive power, |I|²·Z a complex power (common
+// practice; IEEE Std 1459-2010); V·I* is a complex power, V·I without the
+// conjugate a phasor product; a product of two sizes (230 V × 10 A) an
+// apparent power |S|.
+func powerProduct(a, b Quantity) Kind {
+	for _, p := range [][2]Quantity{{a, b}, {b, a}} {
+		sq, z := p[0], p[1]
+		if sq.Kind == KindMagnitude && sq.Dim == DimCurrent.Pow(2) && z.Dim == DimImpedance ||
+			sq.Kind == KindMagnitude && sq.Dim == DimVoltage.Pow(2) && z.Dim == DimAdmittance && z.Kind == KindResistive {
+			switch z.Kind {
+			case KindResistive:
+				return KindActive
+			case KindSigned:
+				return KindReactive
+			case KindMagnitude:
+				return KindMagnitude
+			case KindPlain:
+				if sq.Dim == DimCurrent.Pow(2) {
+					return KindApparent
+				}
+			}
+			return KindProduct
+		}
+		v, i := p[0], p[1]
+		if v.Dim == DimVoltage && i.Dim == DimCurrent {
+			switch {
+			case i.Kind == KindConj && v.Kind != KindConj:
+				return KindApparent
+			case magLike(v) && magLike(i) && real(v.V)*real(i.V) >= 0:
+				return KindMagnitude
+			}
+		}
+	}
+	return KindProduct
 }
 
 func productKind(a, b Quantity, d Dim) Kind {
@@ -222,11 +502,13 @@ func productKind(a, b Quantity, d Dim) Kind {
 	case (a.Kind == KindAngle || b.Kind == KindAngle) && d.IsDimensionless() && a.Kind != b.Kind && imag(a.V) == 0 && imag(b.V) == 0:
 		return KindAngle // ω·t is an angle
 	case a.Dim.IsDimensionless() && a.Kind != KindAngle:
-		return scaleKind(b.Kind, a.V)
+		return scaleKind(b.Kind, a.V, b.Dim)
 	case b.Dim.IsDimensionless() && b.Kind != KindAngle:
-		return scaleKind(a.Kind, b.V)
+		return scaleKind(a.Kind, b.V, a.Dim)
 	case d == DimPower:
-		return KindApparent
+		return powerProduct(a, b)
+	case (a.Kind == KindMagnitude || a.Kind == KindResistive) && (b.Kind == KindMagnitude || b.Kind == KindResistive) && (a.Kind == KindMagnitude || b.Kind == KindMagnitude):
+		return KindMagnitude // |I|·R is |V_R|
 	}
 	return KindPlain
 }
@@ -251,7 +533,9 @@ func cycleMix(a, b Dim, op string) error {
 
 // Neg returns −a. A zero part stays +0: −(4+0i) is −4+0i, not −4−0i,
 // which would put it on the other side of the branch cut of √ and ln.
-func Neg(a Quantity) Quantity { return Quantity{V: unsignZero(-a.V), Dim: a.Dim, Kind: a.Kind} }
+func Neg(a Quantity) Quantity {
+	return Quantity{V: unsignZero(-a.V), Dim: a.Dim, Kind: scaleKind(a.Kind, -1, a.Dim)}
+}
 
 // unsignZero turns a −0 part into +0 (−0 + 0 is +0 in IEEE 754), so the
 // principal branch of √, ln and powers does not depend on the sign of a
@@ -261,6 +545,12 @@ func unsignZero(v complex128) complex128 { return complex(real(v)+0, imag(v)+0) 
 // Conj returns the complex conjugate.
 func Conj(a Quantity) Quantity {
 	k := a.Kind
+	switch {
+	case k == KindConj:
+		k = KindPlain
+	case k == KindPlain && (a.Dim == DimVoltage || a.Dim == DimCurrent):
+		k = KindConj // so that V·conj(I) is known for a complex power
+	}
 	return Quantity{V: cmplx.Conj(a.V), Dim: a.Dim, Kind: k}
 }
 
@@ -274,6 +564,9 @@ func Recip(a Quantity) (Quantity, error) {
 		return Quantity{}, err
 	}
 	r.Kind = KindPlain
+	if a.Kind == KindResistive || a.Kind == KindMagnitude {
+		r.Kind = a.Kind // 1/R is a conductance, 1/|Z| is |Y|
+	}
 	return r, nil
 }
 
@@ -339,7 +632,21 @@ func Pow(a, b Quantity) (Quantity, error) {
 		// finite operands: a NaN here is Inf·0 inside an overflowing product
 		return Quantity{}, errorf("power: overflow (result too large to represent)")
 	}
-	return Quantity{V: v, Dim: d}.Check("power")
+	return Quantity{V: v, Dim: d, Kind: powKind(a, b)}.Check("power")
+}
+
+// powKind: a real quantity with a unit raised to an even whole power is a
+// squared size (|I|², |V|²), and a power of a size is a size, so |I|²·R
+// can be known for an active power.
+func powKind(a, b Quantity) Kind {
+	if a.Dim.IsDimensionless() || !a.IsReal() || !b.IsReal() {
+		return KindPlain
+	}
+	e := real(b.V)
+	if a.Kind == KindMagnitude || e == math.Trunc(e) && math.Mod(e, 2) == 0 {
+		return KindMagnitude
+	}
+	return KindPlain
 }
 
 // maxExp is ln of the largest float64, about 709.78: e^x overflows above it.
@@ -368,7 +675,11 @@ func Sqrt(a Quantity) (Quantity, error) {
 	if !ok {
 		return Quantity{}, errorf("the square root of %s has no whole unit", DimName(a.Dim, false))
 	}
-	return Quantity{V: cmplx.Sqrt(unsignZero(a.V)), Dim: d}.Check("square root")
+	k := KindPlain
+	if a.Kind == KindMagnitude {
+		k = KindMagnitude // √(P² + Q²) is |S|
+	}
+	return Quantity{V: cmplx.Sqrt(unsignZero(a.V)), Dim: d, Kind: k}.Check("square root")
 }
 
 // Parallel returns a‖b = a·b/(a+b) for two impedances (or any like

@@ -253,6 +253,7 @@ func writeValueFields(b *strings.Builder, q Quantity, re, im float64, basis Basi
 	b.WriteString(`,"mag":` + jsonNum(cmplx.Abs(q.V)))
 	b.WriteString(`,"deg":` + jsonNum(deg))
 	b.WriteString(`,"unit":` + jsonString(unit))
+	b.WriteString(`,"quantity":` + jsonString(QuantityName(q)))
 	b.WriteString(`,"basis":` + jsonString(basis.String()))
 }
 

@@ -129,6 +129,13 @@ func UnitSymbol(d Dim, k Kind, ascii bool) string {
 			return "W"
 		case KindReactive:
 			return "var"
+		case KindProduct:
+			// V·I without the conjugate: its unit is V·A but it is not a
+			// power, so it is not written VA
+			if ascii {
+				return "V*A"
+			}
+			return "V·A"
 		}
 		return "VA"
 	}

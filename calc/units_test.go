@@ -75,8 +75,10 @@ func TestPowerKinds(t *testing.T) {
 	}{
 		{"1 W", KindActive, "W"},
 		{"1 var", KindReactive, "var"},
-		{"1 VA", KindApparent, "VA"},
-		{"1 V * 1 A", KindApparent, "VA"},
+		{"1 VA", KindMagnitude, "VA"},                // a real VA alone is an apparent power |S|
+		{"1 V * 1 A", KindMagnitude, "VA"},           // a product of sizes is |S|, not S
+		{"(3+j4 V) * conj(1 A)", KindApparent, "VA"}, // S = V·I* (IEEE Std 1459-2010)
+		{"(3+j4 V) * (1+j1 A)", KindProduct, "V·A"},  // V·I without the conjugate is no power
 	}
 	for _, tt := range tests {
 		q := mustEval(t, tt.src)

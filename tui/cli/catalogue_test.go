@@ -72,7 +72,7 @@ var catalogue = []struct {
 	{"function without call", nil, "mag + 1", "is a function", 1},
 	{"nothing after equals", nil, "x = ", "nothing after '='", 5},
 	{"open circuit", nil, "j10 Ω || -j10 Ω", "open circuit", 7},
-	{"inductor given ohms", nil, "zl(10 Ω)", "needs an inductance", 1},
+	{"inductor given ohms", nil, "zl(10 Ω)", "takes an inductance in H, got a resistance", 4}, // at the argument, naming both kinds
 	{"unit with power", nil, "(10 Ω)^0.5", "no whole unit", 7},
 	{"end without network", nil, "end", "without an open network", 1},
 	{"resistor in volts", nil, "resistor R1 = 10 V", "in Ω", 15},
