@@ -46,6 +46,7 @@ const (
 	ParamApparentPower                          // |S| in VA
 	ParamComplexPower                           // S = P + jQ in VA, or a W or var alone
 	ParamPower                                  // any power: W, var, VA
+	ParamSPower                                 // an apparent power |S| or a complex power S, in VA
 	ParamPowerOrImpedance                       // a fault level in VA or a source impedance in Ω
 	ParamTemperature                            // a temperature in °C, written as a plain number
 	numParamKinds
@@ -75,6 +76,7 @@ var paramWords = [numParamKinds]string{
 	ParamApparentPower:         "an apparent power in VA",
 	ParamComplexPower:          "a complex power in VA (P + jQ), or a W or var alone",
 	ParamPower:                 "a power in W, var or VA",
+	ParamSPower:                "an apparent power |S| or a complex power S in VA",
 	ParamPowerOrImpedance:      "a fault level in VA or an impedance in Ω",
 	ParamTemperature:           "a temperature in °C (a plain number)",
 }
@@ -137,6 +139,8 @@ func (k ParamKind) Accepts(q Quantity) bool {
 		return d == DimPower && (q.Kind == KindApparent || q.Kind == KindActive || q.Kind == KindReactive)
 	case ParamPower:
 		return d == DimPower && q.Kind != KindProduct
+	case ParamSPower:
+		return d == DimPower && (q.Kind == KindMagnitude || q.Kind == KindApparent)
 	case ParamPowerOrImpedance:
 		return d == DimImpedance || d == DimPower && q.Kind != KindProduct
 	}

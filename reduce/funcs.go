@@ -12,21 +12,21 @@ import (
 func Funcs() []calc.Func {
 	return []calc.Func{
 		{
-			Name: "series", Args: "(Z1, Z2, ...)",
+			Name: "series", Params: []calc.Param{{Name: "Z", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Z1, Z2, ...)",
 			Doc: "impedances in series (or admittances in series, all in S)",
 			Min: 2, Max: -1,
 			Formula: "Z = Z₁ + Z₂ + …",
 			Call:    callList(Series),
 		},
 		{
-			Name: "parallel", Args: "(Z1, Z2, ...)",
+			Name: "parallel", Params: []calc.Param{{Name: "Z", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Z1, Z2, ...)",
 			Doc: "impedances in parallel (or admittances in parallel, all in S); 0 Ω shorts the group, cancelling admittances are an open circuit",
 			Min: 2, Max: -1,
 			Formula: "Z = Z₁·Z₂/(Z₁+Z₂);  Z = 1/(1/Z₁ + 1/Z₂ + …)",
 			Call:    callList(Parallel),
 		},
 		{
-			Name: "admittance", Args: "(Z)",
+			Name: "admittance", Params: []calc.Param{{Name: "Z", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Z)",
 			Doc: "admittance of an impedance",
 			Min: 1, Max: 1,
 			Formula: "Y = 1/Z",
@@ -42,7 +42,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "vdiv", Args: "(V, Zk, Z2, ...)",
+			Name: "vdiv", Params: []calc.Param{{Name: "V", Kind: calc.ParamVoltage}, {Name: "Zk", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Z", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(V, Zk, Z2, ...)",
 			Doc: "voltage across Zk in a series string Zk, Z2, ... fed by V",
 			Min: 3, Max: -1,
 			Formula: "V_k = V·Z_k/ΣZ",
@@ -59,7 +59,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "idiv", Args: "(I, Zk, Z2, ...)",
+			Name: "idiv", Params: []calc.Param{{Name: "I", Kind: calc.ParamCurrent}, {Name: "Zk", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Z", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(I, Zk, Z2, ...)",
 			Doc: "current in branch Zk of a parallel group Zk, Z2, ... fed by I; give the branches all as impedances (Ω) or all as admittances (S)",
 			Min: 3, Max: -1,
 			Formula: "I_k = I·Y_k/ΣY",
@@ -76,7 +76,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "thevenin", Args: "(V, Zseries, Zshunt)",
+			Name: "thevenin", Params: []calc.Param{{Name: "V", Kind: calc.ParamVoltage}, {Name: "Zseries", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zshunt", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(V, Zseries, Zshunt)",
 			Doc: "Thevenin voltage across Zshunt of a source V feeding Zseries then Zshunt; .z is Z_th, .i the Norton current",
 			Min: 3, Max: 3,
 			Formula: "V_th = V·Z₂/(Z₁+Z₂), Z_th = Z₁‖Z₂, I_N = V/Z₁",
@@ -99,7 +99,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "norton", Args: "(Vth, Zth)",
+			Name: "norton", Params: []calc.Param{{Name: "Vth", Kind: calc.ParamVoltage}, {Name: "Zth", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Vth, Zth)",
 			Doc: "Norton current of a Thevenin source (Zth in Ω or as an admittance in S); .y is Y_N, .z is Z_N",
 			Min: 2, Max: 2,
 			Formula: "I_N = V_th/Z_th, Y_N = 1/Z_th",
@@ -117,7 +117,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "delta2y", Args: "(Zab, Zbc, Zca)",
+			Name: "delta2y", Params: []calc.Param{{Name: "Zab", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zbc", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zca", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Zab, Zbc, Zca)",
 			Doc: "Y arms of a Δ of sides Zab, Zbc, Zca; the value is Za, with .a, .b, .c",
 			Min: 3, Max: 3,
 			Formula: "Z_a = Z_ab·Z_ca/ΣZ, Z_b = Z_bc·Z_ab/ΣZ, Z_c = Z_ca·Z_bc/ΣZ",
@@ -135,7 +135,7 @@ func Funcs() []calc.Func {
 			},
 		},
 		{
-			Name: "y2delta", Args: "(Za, Zb, Zc)",
+			Name: "y2delta", Params: []calc.Param{{Name: "Za", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zb", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zc", Kind: calc.ParamImpedanceOrAdmittance}}, Args: "(Za, Zb, Zc)",
 			Doc: "Δ sides of a Y of arms Za, Zb, Zc; the value is Zab, with .ab, .bc, .ca",
 			Min: 3, Max: 3,
 			Formula: "Z_ab = P/Z_c, Z_bc = P/Z_a, Z_ca = P/Z_b, P = Z_a·Z_b + Z_b·Z_c + Z_c·Z_a",

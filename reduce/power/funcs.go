@@ -42,105 +42,105 @@ func checkArity(f calc.Func) func(*calc.Context, []calc.Arg) (calc.Result, error
 func funcs() []calc.Func {
 	return []calc.Func{
 		{
-			Name: "power", Args: "(V, I)", Min: 2, Max: 2,
+			Name: "power", Params: []calc.Param{{Name: "V", Kind: calc.ParamVoltage}, {Name: "I", Kind: calc.ParamCurrent}}, Args: "(V, I)", Min: 2, Max: 2,
 			Doc:     "complex power of an element from its voltage and current phasors (passive sign convention); .p .q .s .pf",
 			Formula: "S = V·I* (RMS) or S = ½·V·I* (peak); P = Re S; Q = Im S; PF = P/|S|",
 			Call:    callPower,
 		},
 		{
-			Name: "pf", Args: "(S)", Min: 1, Max: 1,
+			Name: "pf", Params: []calc.Param{{Name: "S", Kind: calc.ParamComplexPower, Else: "for a product of phasors use power(V, I) or V * conj(I): S = V·I*"}}, Args: "(S)", Min: 1, Max: 1,
 			Doc:     "power factor P/|S| of a complex power; lagging when Q > 0",
 			Formula: "PF = P/|S|",
 			Call:    callPF,
 		},
 		{
-			Name: "load", Args: "(P, pf, lagging|leading)", Min: 3, Max: 3, Words: []string{"lagging", "leading"},
+			Name: "load", Params: []calc.Param{{Name: "P", Kind: calc.ParamActivePower, Else: "for an apparent power use loadva"}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}}, Args: "(P, pf, lagging|leading)", Min: 3, Max: 3, Words: []string{"lagging", "leading"},
 			Doc:     "complex power of a load from its active power and power factor; .p .q .s .pf",
 			Formula: "Q = ±P·tan φ; S = P + jQ",
 			Call:    callLoad,
 		},
 		{
-			Name: "loadva", Args: "(S, pf, lagging|leading)", Min: 3, Max: 3, Words: []string{"lagging", "leading"},
+			Name: "loadva", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "for an active power use load; a complex power already holds its pf"}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}}, Args: "(S, pf, lagging|leading)", Min: 3, Max: 3, Words: []string{"lagging", "leading"},
 			Doc:     "complex power of a load from its apparent power and power factor; .p .q .s .pf",
 			Formula: "P = |S|·PF; Q = ±|S|·√(1 − PF²)",
 			Call:    callLoadVA,
 		},
 		{
-			Name: "motor", Args: "(Pout, eff, pf, single|three, Vline)", Min: 5, Max: 5, Words: []string{"single", "three"},
+			Name: "motor", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Else: "a motor is rated by its output power in W or hp"}, {Name: "eff", Kind: calc.ParamRatio}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "Vline", Kind: calc.ParamVoltage}}, Args: "(Pout, eff, pf, single|three, Vline)", Min: 5, Max: 5, Words: []string{"single", "three"},
 			Doc:     "complex power and line current a machine draws from its nameplate (output in W or hp, lagging PF); .p .q .s .pf .i .pin",
 			Formula: "P_in = P_out/η; |S| = P_in/PF; I = |S|/V or |S|/(√3·V_L)",
 			Call:    callMotor,
 		},
 		{
-			Name: "loads", Args: "(S1, S2, ...)", Min: 1, Max: -1,
+			Name: "loads", Params: []calc.Param{{Name: "S", Kind: calc.ParamComplexPower, Else: "give each load as a complex power, as loadva(|S|, pf, lagging) does"}}, Args: "(S1, S2, ...)", Min: 1, Max: -1,
 			Doc:     "total complex power of loads on one supply; .p .q .s .pf",
 			Formula: "S = Σ S_k",
 			Call:    callLoads,
 		},
 		{
-			Name: "current", Args: "(S, V, single|three)", Min: 3, Max: 3, Words: []string{"single", "three"},
+			Name: "current", Params: []calc.Param{{Name: "S", Kind: calc.ParamSPower, Else: "for an active power give the load as load(P, pf, lagging)"}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}}, Args: "(S, V, single|three)", Min: 3, Max: 3, Words: []string{"single", "three"},
 			Doc:     "line current drawn by a power from a supply (V is the line voltage for three-phase)",
 			Formula: "I = |S|/V or I = |S|/(√3·V_L)",
 			Call:    callCurrent,
 		},
 		{
-			Name: "pfc", Args: "(P, pf1, pf2, V, single|three[, lagging|leading])", Min: 5, Max: 6,
+			Name: "pfc", Params: []calc.Param{{Name: "P", Kind: calc.ParamActivePower, Else: "for a load given as a complex power use pfcload"}, {Name: "pf1", Kind: calc.ParamRatio}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(P, pf1, pf2, V, single|three[, lagging|leading])", Min: 5, Max: 6,
 			Words:   []string{"single", "three", "lagging", "leading"},
 			Doc:     "capacitors to raise a lagging (inductive) load's power factor pf1 to pf2 at the working frequency; the optional word is the sense of the target pf2; for a load given as complex S (leading or lagging) use pfcload; .qc .c .cy .cdelta .i1 .i2",
 			Formula: "Q_c = P·(tan φ₁ − tan φ₂); C = Q_c/(ω·V²); C_Y = Q_c/(ω·V_L²); C_Δ = Q_c/(3·ω·V_L²)",
 			Call:    callPFC,
 		},
 		{
-			Name: "pfcload", Args: "(S, pf2, V, single|three[, lagging|leading])", Min: 4, Max: 5,
+			Name: "pfcload", Params: []calc.Param{{Name: "S", Kind: calc.ParamComplexPower, Else: "for an apparent power give the load as loadva(|S|, pf, lagging)"}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(S, pf2, V, single|three[, lagging|leading])", Min: 4, Max: 5,
 			Words:   []string{"single", "three", "lagging", "leading"},
 			Doc:     "capacitors to bring a load of complex power S to power factor pf2 at the working frequency; .qc .c .cy .cdelta .i1 .i2",
 			Formula: "Q_c = Q₁ − P·tan φ₂; C = Q_c/(ω·V²); C_Y = Q_c/(ω·V_L²); C_Δ = Q_c/(3·ω·V_L²)",
 			Call:    callPFCLoad,
 		},
 		{
-			Name: "rerate", Args: "(Qr, V, Vr)", Min: 3, Max: 3,
+			Name: "rerate", Params: []calc.Param{{Name: "Qr", Kind: calc.ParamReactivePower, Else: "a capacitor is rated by its reactive power in var"}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "Vr", Kind: calc.ParamVoltage}}, Args: "(Qr, V, Vr)", Min: 3, Max: 3,
 			Doc:     "reactive power of a capacitor rated Qr at Vr when used at V",
 			Formula: "Q = Q_r·(V/V_r)²",
 			Call:    callRerate,
 		},
 		{
-			Name: "harmonic", Args: "(Ssc, Qc)", Min: 2, Max: 2,
+			Name: "harmonic", Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower}}, Args: "(Ssc, Qc)", Min: 2, Max: 2,
 			Doc:     "harmonic order at which a capacitor bank resonates with the supply; .f",
 			Formula: "h ≈ √(S_sc/Q_c)",
 			Call:    callHarmonic,
 		},
 		{
-			Name: "discharge", Args: "(C, V0, Vsafe, t)", Min: 4, Max: 4,
+			Name: "discharge", Params: []calc.Param{{Name: "C", Kind: calc.ParamCapacitance}, {Name: "V0", Kind: calc.ParamVoltage}, {Name: "Vsafe", Kind: calc.ParamVoltage}, {Name: "t", Kind: calc.ParamTime}}, Args: "(C, V0, Vsafe, t)", Min: 4, Max: 4,
 			Doc:     "discharge resistor that brings a capacitor from V0 to Vsafe within t",
 			Formula: "R = t/(C·ln(V0/V_safe))",
 			Call:    callDischarge,
 		},
 		{
-			Name: "dischargetime", Args: "(R, C, V0, Vsafe)", Min: 4, Max: 4,
+			Name: "dischargetime", Params: []calc.Param{{Name: "R", Kind: calc.ParamResistance}, {Name: "C", Kind: calc.ParamCapacitance}, {Name: "V0", Kind: calc.ParamVoltage}, {Name: "Vsafe", Kind: calc.ParamVoltage}}, Args: "(R, C, V0, Vsafe)", Min: 4, Max: 4,
 			Doc:     "time a resistor takes to discharge a capacitor from V0 to Vsafe",
 			Formula: "t = R·C·ln(V0/V_safe)",
 			Call:    callDischargeTime,
 		},
 		{
-			Name: "rms", Args: "(Xpk)", Min: 1, Max: 1,
+			Name: "rms", Params: []calc.Param{{Name: "Xpk", Kind: calc.ParamAny}}, Args: "(Xpk)", Min: 1, Max: 1,
 			Doc:     "RMS value of a sinusoid from its peak; .peak .rms .avg",
 			Formula: "X_rms = X_pk/√2",
 			Call:    sineCall(SineFromPeak, "rms", "rms"),
 		},
 		{
-			Name: "peak", Args: "(Xrms)", Min: 1, Max: 1,
+			Name: "peak", Params: []calc.Param{{Name: "Xrms", Kind: calc.ParamAny}}, Args: "(Xrms)", Min: 1, Max: 1,
 			Doc:     "peak value of a sinusoid from its RMS value; .peak .rms .avg",
 			Formula: "X_pk = √2·X_rms",
 			Call:    sineCall(SineFromRMS, "peak", "peak"),
 		},
 		{
-			Name: "rectavg", Args: "(Xpk)", Min: 1, Max: 1,
+			Name: "rectavg", Params: []calc.Param{{Name: "Xpk", Kind: calc.ParamAny}}, Args: "(Xpk)", Min: 1, Max: 1,
 			Doc:     "rectified average of a sinusoid from its peak (the plain average is 0); .peak .rms .avg",
 			Formula: "X_avg = 2·X_pk/π",
 			Call:    sineCall(SineFromPeak, "rectavg", "avg"),
 		},
 		{
-			Name: "rectpeak", Args: "(Xavg)", Min: 1, Max: 1,
+			Name: "rectpeak", Params: []calc.Param{{Name: "Xavg", Kind: calc.ParamAny}}, Args: "(Xavg)", Min: 1, Max: 1,
 			Doc:     "peak value of a sinusoid from its rectified average; .peak .rms .avg",
 			Formula: "X_pk = π·X_avg/2",
 			Call:    sineCall(SineFromRectAvg, "rectpeak", "peak"),
@@ -248,7 +248,7 @@ func withSource(steps []calc.Step, src string) []calc.Step {
 // powerResult is the result of every function whose value is a complex
 // power: S with .p .q .s and, when defined, .pf.
 func powerResult(p Power, steps []calc.Step, src string) calc.Result {
-	extra := []calc.Operand{{Name: "p", Value: p.P}, {Name: "q", Value: p.Q}, {Name: "s", Value: p.Apparent}}
+	extra := []calc.Operand{{Name: "p", Value: p.P}, {Name: "q", Value: p.Q}, {Name: "s", Value: p.S}, {Name: "sa", Value: p.Apparent}}
 	if p.PF.Defined() {
 		extra = append(extra, calc.Operand{Name: "pf", Value: number(p.PF.Value)})
 	}

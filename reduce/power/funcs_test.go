@@ -60,10 +60,10 @@ func TestFuncs(t *testing.T) {
 		note  string // a note the result must carry, "" for none
 	}{
 		// IEEE Std 1459-2010 definitions, exact by hand
-		{"power", []calc.Arg{q(volt(230)), q(amp(8 - 6i))}, 1840 + 1380i, map[string]float64{"p": 1840, "q": 1380, "s": 2300, "pf": 0.8}, "lagging"},
+		{"power", []calc.Arg{q(volt(230)), q(amp(8 - 6i))}, 1840 + 1380i, map[string]float64{"p": 1840, "q": 1380, "sa": 2300, "pf": 0.8}, "lagging"},
 		{"pf", []calc.Arg{q(va(1840 - 1380i))}, 0.8, nil, "leading"},
 		{"load", []calc.Arg{q(watt(10e3)), num(0.8), w("lagging")}, 10e3 + 7.5e3i, map[string]float64{"pf": 0.8}, ""},
-		{"loadva", []calc.Arg{q(va(5e3)), num(0.6), w("leading")}, 3e3 - 4e3i, map[string]float64{"s": 5e3}, ""},
+		{"loadva", []calc.Arg{q(va(5e3)), num(0.6), w("leading")}, 3e3 - 4e3i, map[string]float64{"sa": 5e3}, ""},
 		{"motor", []calc.Arg{q(watt(7500)), num(0.9), num(0.85), w("three"), q(volt(400))}, complex(8333.33333333333333, 5164.53615335918571),
 			map[string]float64{"i": 14.1507418919025923, "pin": 8333.33333333333333}, "not a substitute"},
 		{"loads", []calc.Arg{q(va(10e3 + 7.5e3i)), q(va(3e3 - 4e3i)), q(watt(2e3))}, 15e3 + 3.5e3i, map[string]float64{"pf": 0.973841209741793236}, ""},

@@ -290,7 +290,7 @@ func ResonanceOrder(ssc, qc calc.Quantity) (Resonance, []calc.Step, error) {
 		Rule:    "harmonic order of resonance between a capacitor bank and the supply (common practice)",
 		Formula: "h ≈ √(S_sc/Q_c)",
 		Inputs: []calc.Operand{
-			{Name: "S_sc", Value: calc.Quantity{V: complex(ssc.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindApparent}},
+			{Name: "S_sc", Value: calc.Quantity{V: complex(ssc.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}},
 			{Name: "Q_c", Value: varQ(qc.Mag())},
 		},
 		Results: []calc.Operand{{Name: "h", Value: number(h)}},

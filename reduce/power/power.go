@@ -165,7 +165,7 @@ func Of(s complex128) (Power, error) {
 		S:        q,
 		P:        calc.Quantity{V: complex(real(s), 0), Dim: calc.DimPower, Kind: calc.KindActive},
 		Q:        calc.Quantity{V: complex(imag(s), 0), Dim: calc.DimPower, Kind: calc.KindReactive},
-		Apparent: calc.Quantity{V: complex(cmplx.Abs(s), 0), Dim: calc.DimPower, Kind: calc.KindApparent},
+		Apparent: calc.Quantity{V: complex(cmplx.Abs(s), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude},
 		PF:       FactorOf(s),
 	}, nil
 }
@@ -360,7 +360,7 @@ func FromApparent(s calc.Quantity, pf float64, sense Sense) (Power, []calc.Step,
 		Kind:    "load",
 		Rule:    "load power from apparent power and power factor (" + ieee + ")",
 		Formula: "P = |S|·PF; Q = ±|S|·√(1 − PF²) (+ lagging, − leading)",
-		Inputs:  []calc.Operand{{Name: "|S|", Value: calc.Quantity{V: complex(m, 0), Dim: calc.DimPower, Kind: calc.KindApparent}}, {Name: "PF", Value: calc.Number(complex(pf, 0))}},
+		Inputs:  []calc.Operand{{Name: "|S|", Value: calc.Quantity{V: complex(m, 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}}, {Name: "PF", Value: calc.Number(complex(pf, 0))}},
 		Results: pp.operands(),
 		Notes:   pp.notes(),
 	}
@@ -502,7 +502,7 @@ func LineCurrent(s, v calc.Quantity, ph Phases) (calc.Quantity, []calc.Step, err
 		Rule:    ph.String() + " line current from apparent power (common practice)",
 		Formula: formula,
 		Inputs: []calc.Operand{
-			{Name: "|S|", Value: calc.Quantity{V: complex(s.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindApparent}},
+			{Name: "|S|", Value: calc.Quantity{V: complex(s.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}},
 			{Name: vname, Value: calc.Real(vm, calc.DimVoltage)},
 		},
 		Results: []calc.Operand{{Name: "I", Value: q}},

@@ -81,7 +81,7 @@ func TestFromPhasors(t *testing.T) {
 			if !near(real(p.P.V), real(c.s)) || !near(real(p.Q.V), imag(c.s)) || !near(real(p.Apparent.V), cmplx.Abs(c.s)) {
 				t.Errorf("P, Q, |S| = %v, %v, %v", p.P.V, p.Q.V, p.Apparent.V)
 			}
-			if p.P.Kind != calc.KindActive || p.Q.Kind != calc.KindReactive || p.S.Kind != calc.KindApparent || p.Apparent.Kind != calc.KindApparent {
+			if p.P.Kind != calc.KindActive || p.Q.Kind != calc.KindReactive || p.S.Kind != calc.KindApparent || p.Apparent.Kind != calc.KindMagnitude { // |S| is a magnitude (IEEE Std 1459-2010)
 				t.Errorf("kinds %v %v %v %v", p.P.Kind, p.Q.Kind, p.S.Kind, p.Apparent.Kind)
 			}
 			if !near(p.PF.Value, c.pf) || p.PF.Sense != c.sense {

@@ -48,7 +48,8 @@ func (c *Components) Operands() []calc.Operand {
 			ops = append(ops, o)
 		}
 	}
-	return append(ops, op("P", c.P), op("Q", c.Q), op("S", c.S), op("pf", c.PF), op("phi", c.Phi))
+	s := calc.Quantity{V: complex(real(c.P.V), real(c.Q.V)), Dim: calc.DimPower, Kind: calc.KindApparent}
+	return append(ops, op("P", c.P), op("Q", c.Q), op("S", s), op("Sa", c.S), op("pf", c.PF), op("phi", c.Phi))
 }
 
 // FromVIAngle returns the equivalent components of a load from RMS readings
@@ -184,8 +185,8 @@ func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Compo
 	s := math.Hypot(p, q)
 	phi := math.Atan2(q, p)
 	c := Components{
-		V:    rq(v, calc.DimVoltage),
-		I:    rq(i, calc.DimCurrent),
+		V:    kq(v, calc.DimVoltage, calc.KindMagnitude),
+		I:    kq(i, calc.DimCurrent, calc.KindMagnitude),
 		Phi:  angle(phi),
 		P:    power(p, calc.KindActive),
 		Q:    power(q, calc.KindReactive),
@@ -195,8 +196,8 @@ func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Compo
 	}
 	i2 := i * i
 	rs, xs := p/i2, q/i2
-	c.Rs = rq(rs, calc.DimImpedance)
-	c.Xs = rq(xs, calc.DimImpedance)
+	c.Rs = kq(rs, calc.DimImpedance, calc.KindResistive)
+	c.Xs = kq(xs, calc.DimImpedance, calc.KindSigned)
 	c.Z = cq(complex(rs, xs), calc.DimImpedance)
 	steps = append(steps, calc.Step{
 		Kind:    "measure",
@@ -216,14 +217,14 @@ func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Compo
 		c.RpOpen = true
 		par.Notes = append(par.Notes, "P = 0: no parallel resistance (open circuit)")
 	} else {
-		c.Rp = rq(v2/p, calc.DimImpedance)
+		c.Rp = kq(v2/p, calc.DimImpedance, calc.KindResistive)
 		par.Results = append(par.Results, op("Rp", c.Rp))
 	}
 	if q == 0 {
 		c.XpOpen = true
 		par.Notes = append(par.Notes, "Q = 0: no parallel reactance (open circuit)")
 	} else {
-		c.Xp = rq(v2/q, calc.DimImpedance)
+		c.Xp = kq(v2/q, calc.DimImpedance, calc.KindSigned)
 		par.Results = append(par.Results, op("Xp", c.Xp))
 	}
 	steps = append(steps, par)

@@ -96,7 +96,18 @@ func deg(rad float64) float64 { return rad * 180 / math.Pi }
 // rad converts degrees to radians.
 func rad(d float64) float64 { return d * math.Pi / 180 }
 
+// kq returns a real quantity of dimension d and kind k: a magnitude, a
+// resistance, a reactance.
+func kq(x float64, d calc.Dim, k calc.Kind) calc.Quantity {
+	return calc.Quantity{V: complex(x, 0), Dim: d, Kind: k}
+}
+
+// power returns a real power of kind k; an apparent power, given as
+// KindApparent by older callers, is a magnitude |S|.
 func power(x float64, k calc.Kind) calc.Quantity {
+	if k == calc.KindApparent {
+		k = calc.KindMagnitude
+	}
 	return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: k}
 }
 

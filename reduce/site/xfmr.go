@@ -144,7 +144,7 @@ func Transformer(n Nameplate) (XfmrResult, error) {
 			Kind:    "xfmr",
 			Rule:    "transformer impedance from the nameplate, " + phase,
 			Formula: "Z_base = V²/S, Z = (%Z/100)·Z_base ∠ atan(X/R)",
-			Inputs: []calc.Operand{op("S", power(n.S, calc.KindApparent)), op("V1", rq(n.V1, calc.DimVoltage)), op("V2", rq(n.V2, calc.DimVoltage)),
+			Inputs: []calc.Operand{op("S", power(n.S, calc.KindMagnitude)), op("V1", rq(n.V1, calc.DimVoltage)), op("V2", rq(n.V2, calc.DimVoltage)),
 				op("%Z", num(n.PctZ)), op("X/R", num(n.XR))},
 			Results: []calc.Operand{op("Z1", r.Z1), op("Z2", r.Z2), op("Zbase1", r.Zbase1), op("Zbase2", r.Zbase2), op("ratio", r.Ratio)},
 			Notes:   notes,

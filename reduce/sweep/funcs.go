@@ -12,43 +12,43 @@ import (
 func Funcs() []calc.Func {
 	return []calc.Func{
 		{
-			Name: "resonance", Args: "(L, C)", Min: 2, Max: 2,
+			Name: "resonance", Params: []calc.Param{{Name: "L", Kind: calc.ParamInductance}, {Name: "C", Kind: calc.ParamCapacitance}}, Args: "(L, C)", Min: 2, Max: 2,
 			Doc:     "resonant frequency of L and C in Hz; .w0 in rad/s",
 			Formula: "f0 = 1/(2π·√(L·C))",
 			Call:    callResonance,
 		},
 		{
-			Name: "qseries", Args: "(R, L, C)", Min: 3, Max: 3,
+			Name: "qseries", Params: []calc.Param{{Name: "R", Kind: calc.ParamResistance}, {Name: "L", Kind: calc.ParamInductance}, {Name: "C", Kind: calc.ParamCapacitance}}, Args: "(R, L, C)", Min: 3, Max: 3,
 			Doc:     "quality factor of a series RLC circuit",
 			Formula: "Q = (1/R)·√(L/C)",
 			Call:    callQ(SeriesQ),
 		},
 		{
-			Name: "qparallel", Args: "(R, L, C)", Min: 3, Max: 3,
+			Name: "qparallel", Params: []calc.Param{{Name: "R", Kind: calc.ParamResistance}, {Name: "L", Kind: calc.ParamInductance}, {Name: "C", Kind: calc.ParamCapacitance}}, Args: "(R, L, C)", Min: 3, Max: 3,
 			Doc:     "quality factor of a parallel RLC circuit",
 			Formula: "Q = R·√(C/L)",
 			Call:    callQ(ParallelQ),
 		},
 		{
-			Name: "bandwidth", Args: "(f0, Q)", Min: 2, Max: 2,
+			Name: "bandwidth", Params: []calc.Param{{Name: "f0", Kind: calc.ParamFrequency}, {Name: "Q", Kind: calc.ParamRatio}}, Args: "(f0, Q)", Min: 2, Max: 2,
 			Doc:     "−3 dB bandwidth of a resonance (f0 in Hz or rad/s); .f1, .f2 the half-power frequencies",
 			Formula: "B = f0/Q;  f1 = f0·(√(1 + 1/(4Q²)) − 1/(2Q));  f2 = f0·(√(1 + 1/(4Q²)) + 1/(2Q))",
 			Call:    callBandwidth,
 		},
 		{
-			Name: "tank", Args: "(L, r, C)", Min: 3, Max: 3,
+			Name: "tank", Params: []calc.Param{{Name: "L", Kind: calc.ParamInductance}, {Name: "r", Kind: calc.ParamResistance}, {Name: "C", Kind: calc.ParamCapacitance}}, Args: "(L, r, C)", Min: 3, Max: 3,
 			Doc:     "unity-power-factor frequency of C in parallel with L whose series resistance is r; .f0 = 1/(2π√(LC)), .z the impedance there",
 			Formula: "f = f0·√(1 − r²·C/L);  Z = L/(r·C)",
 			Call:    callTank,
 		},
 		{
-			Name: "db", Args: "(H)", Min: 1, Max: 1,
+			Name: "db", Params: []calc.Param{{Name: "H", Kind: calc.ParamNumber}}, Args: "(H)", Min: 1, Max: 1,
 			Doc:     "gain in dB of a ratio H",
 			Formula: "gain = 20·log10|H|",
 			Call:    callDB,
 		},
 		{
-			Name: "transfer", Args: "(Vout, Vin)", Min: 2, Max: 2,
+			Name: "transfer", Params: []calc.Param{{Name: "Vout", Kind: calc.ParamAny}, {Name: "Vin", Kind: calc.ParamAny}}, Args: "(Vout, Vin)", Min: 2, Max: 2,
 			Doc:     "transfer ratio H = Vout/Vin; .db the gain in dB (absent when the output is zero)",
 			Formula: "H = Vout/Vin;  gain = 20·log10|H|",
 			Call:    callTransfer,

@@ -11,7 +11,7 @@ import (
 func Funcs() []calc.Func {
 	return []calc.Func{
 		{
-			Name:    "line2phase",
+			Name: "line2phase", Params: []calc.Param{{Name: "X", Kind: calc.ParamVoltageOrCurrent}, {Name: "conn", Kind: calc.ParamWord, Doc: "wye|delta"}},
 			Args:    "(X, wye|delta)",
 			Doc:     "phase voltage or current of a balanced set from the line value (angle kept; sequence from the setting)",
 			Min:     2,
@@ -21,7 +21,7 @@ func Funcs() []calc.Func {
 			Call:    callConvert(false),
 		},
 		{
-			Name:    "phase2line",
+			Name: "phase2line", Params: []calc.Param{{Name: "X", Kind: calc.ParamVoltageOrCurrent}, {Name: "conn", Kind: calc.ParamWord, Doc: "wye|delta"}},
 			Args:    "(X, wye|delta)",
 			Doc:     "line voltage or current of a balanced set from the phase value (angle kept; sequence from the setting)",
 			Min:     2,
@@ -31,7 +31,7 @@ func Funcs() []calc.Func {
 			Call:    callConvert(true),
 		},
 		{
-			Name:    "seq",
+			Name: "seq", Params: []calc.Param{{Name: "Xa", Kind: calc.ParamAny}, {Name: "Xb", Kind: calc.ParamAny}, {Name: "Xc", Kind: calc.ParamAny}},
 			Args:    "(Xa, Xb, Xc)",
 			Doc:     "symmetrical components of three phasors: value is the positive sequence; .zero, .pos, .neg",
 			Min:     3,
@@ -40,7 +40,7 @@ func Funcs() []calc.Func {
 			Call:    callSeq,
 		},
 		{
-			Name:    "phases",
+			Name: "phases", Params: []calc.Param{{Name: "X0", Kind: calc.ParamAny}, {Name: "X1", Kind: calc.ParamAny}, {Name: "X2", Kind: calc.ParamAny}},
 			Args:    "(X0, X1, X2)",
 			Doc:     "phase phasors from zero, positive and negative sequence components: value is phase a; .a, .b, .c",
 			Min:     3,
@@ -49,7 +49,7 @@ func Funcs() []calc.Func {
 			Call:    callPhases,
 		},
 		{
-			Name:    "wye",
+			Name: "wye", Params: []calc.Param{{Name: "Vph", Kind: calc.ParamVoltage}, {Name: "Za", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zb", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zc", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "neutral", Kind: calc.ParamWord, Doc: "neutral|floating"}},
 			Args:    "(Vph, Za, Zb, Zc, neutral|floating)",
 			Doc:     "unbalanced Y load on a balanced supply of phase voltage Vph: value is the neutral current (neutral) or the neutral-point shift (floating); .ia, .ib, .ic, .in, .vshift, .va, .vb, .vc, .s",
 			Min:     5,
@@ -59,7 +59,7 @@ func Funcs() []calc.Func {
 			Call:    callWye,
 		},
 		{
-			Name:    "delta",
+			Name: "delta", Params: []calc.Param{{Name: "Vline", Kind: calc.ParamVoltage}, {Name: "Zab", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zbc", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "Zca", Kind: calc.ParamImpedanceOrAdmittance}},
 			Args:    "(Vline, Zab, Zbc, Zca)",
 			Doc:     "unbalanced Δ load on a balanced supply of line voltage Vline: value is I_a; .iab, .ibc, .ica, .ia, .ib, .ic, .s",
 			Min:     4,
@@ -68,7 +68,7 @@ func Funcs() []calc.Func {
 			Call:    callDelta,
 		},
 		{
-			Name:    "balanced",
+			Name: "balanced", Params: []calc.Param{{Name: "Vline", Kind: calc.ParamVoltage}, {Name: "Zph", Kind: calc.ParamImpedanceOrAdmittance}, {Name: "conn", Kind: calc.ParamWord, Doc: "wye|delta"}},
 			Args:    "(Vline, Zph, wye|delta)",
 			Doc:     "balanced load of phase impedance Zph: value is the total complex power; .p, .q, .s, .il, .iph, .vph, .zy",
 			Min:     3,
@@ -78,7 +78,7 @@ func Funcs() []calc.Func {
 			Call:    callBalanced,
 		},
 		{
-			Name:    "wattmeters",
+			Name: "wattmeters", Params: []calc.Param{{Name: "Vline", Kind: calc.ParamVoltage}, {Name: "Iline", Kind: calc.ParamCurrent}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}},
 			Args:    "(Vline, Iline, pf, lagging|leading)",
 			Doc:     "two-wattmeter readings of a balanced load (current coils in lines a and b, voltage coils to line c): value is W1; .w1, .w2",
 			Min:     4,
@@ -88,7 +88,7 @@ func Funcs() []calc.Func {
 			Call:    callWattmeters,
 		},
 		{
-			Name:    "fromwattmeters",
+			Name: "fromwattmeters", Params: []calc.Param{{Name: "W1", Kind: calc.ParamActivePower}, {Name: "W2", Kind: calc.ParamActivePower}},
 			Args:    "(W1, W2)",
 			Doc:     "power of a balanced load from two wattmeter readings (wiring as for wattmeters): value is P; .p, .q, .s, .pf",
 			Min:     2,
@@ -243,7 +243,7 @@ func callWye(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return calc.Result{
 		Value: value,
 		Extra: []calc.Operand{op("ia", w.I[0]), op("ib", w.I[1]), op("ic", w.I[2]), op("in", w.IN), op("vshift", w.VShift),
-			op("va", w.VLoad[0]), op("vb", w.VLoad[1]), op("vc", w.VLoad[2]), op("s", w.S)},
+			op("va", w.VLoad[0]), op("vb", w.VLoad[1]), op("vc", w.VLoad[2]), op("s", w.S), op("sa", apparent(w.S))},
 		Steps: steps,
 		Notes: []string{Caution},
 	}, nil
@@ -265,7 +265,7 @@ func callDelta(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return calc.Result{
 		Value: d.ILine[0],
 		Extra: []calc.Operand{op("iab", d.IPhase[0]), op("ibc", d.IPhase[1]), op("ica", d.IPhase[2]),
-			op("ia", d.ILine[0]), op("ib", d.ILine[1]), op("ic", d.ILine[2]), op("s", d.S)},
+			op("ia", d.ILine[0]), op("ib", d.ILine[1]), op("ic", d.ILine[2]), op("s", d.S), op("sa", apparent(d.S))},
 		Steps: steps,
 		Notes: []string{Caution},
 	}, nil
@@ -290,7 +290,7 @@ func callBalanced(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	return calc.Result{
 		Value: b.S,
-		Extra: []calc.Operand{op("p", b.P), op("q", b.Q), op("s", b.S), op("il", b.ILine), op("iph", b.IPhase),
+		Extra: []calc.Operand{op("p", b.P), op("q", b.Q), op("s", b.S), op("sa", b.Apparent), op("il", b.ILine), op("iph", b.IPhase),
 			op("vph", b.VPhase), op("zy", b.ZY)},
 		Steps: steps,
 		Notes: []string{Caution},
@@ -342,7 +342,7 @@ func callFromWattmeters(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	extra := []calc.Operand{op("p", r.P), op("q", r.Q), op("s", r.S)}
+	extra := []calc.Operand{op("p", r.P), op("q", r.Q), op("s", r.S), op("sa", apparent(r.S))}
 	notes := []string{Caution}
 	if r.PFDefined {
 		extra = append(extra, op("pf", calc.Number(complex(r.PF, 0))))
@@ -350,4 +350,10 @@ func callFromWattmeters(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		notes = append([]string{"power factor undefined: S = 0"}, notes...)
 	}
 	return calc.Result{Value: r.P, Extra: extra, Steps: steps, Notes: notes}, nil
+}
+
+// apparent returns |S| of a complex power: the apparent power, a magnitude
+// in VA (IEEE Std 1459-2010).
+func apparent(s calc.Quantity) calc.Quantity {
+	return calc.Quantity{V: complex(s.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}
 }

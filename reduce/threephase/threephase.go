@@ -131,7 +131,7 @@ func powers(s complex128) (sq, p, q, mag calc.Quantity) {
 	sq = calc.Quantity{V: s, Dim: calc.DimPower, Kind: calc.KindApparent}
 	p = calc.Quantity{V: complex(real(s), 0), Dim: calc.DimPower, Kind: calc.KindActive}
 	q = calc.Quantity{V: complex(imag(s), 0), Dim: calc.DimPower, Kind: calc.KindReactive}
-	mag = calc.Quantity{V: complex(cmplx.Abs(s), 0), Dim: calc.DimPower, Kind: calc.KindApparent}
+	mag = calc.Quantity{V: complex(cmplx.Abs(s), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}
 	return
 }
 

@@ -132,15 +132,55 @@ func Help(args []string, w, ew io.Writer, o Options) int {
 	return ExitOK
 }
 
+// Fields are the names of extra results (NAME.field) whose meaning is the
+// same in every function that gives them: .s is always the complex power
+// S = P + jQ and .sa always the apparent power |S| (IEC 60050-131, IEEE Std
+// 1459-2010). A test holds every function to this list.
+var Fields = [][2]string{
+	{"p", "active power P in W"},
+	{"q", "reactive power Q in var (> 0 lagging, inductive)"},
+	{"s", "complex power S = P + jQ in VA"},
+	{"sa", "apparent power |S| in VA"},
+	{"pf", "power factor P/|S|, a plain number"},
+	{"i", "current in A (a phasor where the angle is known, else |I|)"},
+	{"z", "impedance in Ω"},
+	{"y", "admittance in S"},
+	{"rs", "series resistance in Ω"},
+	{"xs", "series reactance in Ω (signed)"},
+	{"rp", "parallel resistance in Ω"},
+	{"xp", "parallel reactance in Ω (signed)"},
+}
+
 // FunctionList lists every function with its arguments and what it does,
 // wrapped to 80 columns for a terminal of that width.
 func FunctionList() string {
 	var b strings.Builder
 	b.WriteString("functions\n")
+	b.WriteString("  arguments go in order, or by name after any in order: xfmr(S = 500 kVA,\n")
+	b.WriteString("  V1 = 11 kV, V2 = 400 V, z = 4.5%, xr = 6); a parameter refuses a value of\n")
+	b.WriteString("  the wrong kind (an active power in W is not an apparent power in VA)\n\n")
+	b.WriteString("fields of a result, one meaning in every function\n")
+	for _, fl := range Fields {
+		b.WriteString("  ." + fl[0] + strings.Repeat(" ", max(1, 6-len(fl[0]))) + fl[1] + "\n")
+	}
+	b.WriteString("\n")
 	for _, f := range sheet.Functions() {
-		b.WriteString("  " + f.Name + f.Args + "\n")
+		fn := f
+		b.WriteString("  " + f.Name + fn.ArgList() + "\n")
 		for _, l := range wrap(f.Doc, 80-6) {
 			b.WriteString("      " + l + "\n")
+		}
+		var ps []string
+		for _, p := range f.Params {
+			if p.Kind == calc.ParamWord || p.Kind == calc.ParamAny {
+				continue
+			}
+			ps = append(ps, p.Name+": "+p.Kind.String())
+		}
+		if len(ps) > 0 {
+			for _, l := range wrap(strings.Join(ps, "; "), 80-6) {
+				b.WriteString("      " + l + "\n")
+			}
 		}
 	}
 	return b.String()
