@@ -1,0 +1,100 @@
+package calc
+
+import (
+	"strings"
+	"testing"
+)
+
+// TestKindRules: the table of the package comment, row by row. Power
+// quantities after IEC 60050-131 and IEEE Std 1459-2010 (S = V·I*,
+// S = P + jQ, |S| = √(P² + Q²)); P = I²R, Q = I²X (common practice).
+func TestKindRules(t *testing.T) {
+	tests := []struct {
+		src, quantity, unit string
+		err                 string // non-empty: refused with this text
+	}{
+		{"mag(2 A)^2 * 50 Ω", "active-power", "W", ""},
+		{"mag(Vs/Z)^2 * re(Z)", "active-power", "W", ""},
+		{"mag(2 A)^2 * im(Z)", "reactive-power", "var", ""},
+		{"mag(2 A)^2 * Z", "complex-power", "VA", ""},
+		{"(2 A)^2 * 50 Ω", "active-power", "W", ""},
+		{"(230 V)^2 / 50 Ω", "active-power", "W", ""},
+		{"mag(Vs)^2 / im(Z)", "reactive-power", "var", ""},
+		{"Vs * conj(Vs/Z)", "complex-power", "VA", ""},
+		{"Vs * (Vs/Z)", "phasor-product", "V·A", ""},
+		{"230 V * 10 A", "apparent-power", "VA", ""},
+		{"mag(Vs) * mag(Vs/Z)", "apparent-power", "VA", ""},
+		{"800 W + j600 var", "complex-power", "VA", ""},
+		{"800 W + 600 var", "", "", "at right angles"},
+		{"1 kvar + 1 kVA", "", "", "apparent power |S|"},
+		{"1 kW + 1 kVA", "", "", "apparent power |S|"},
+		{"(800+j600 VA) + 100 W", "complex-power", "VA", ""},
+		{"(800+j600 VA) + 100 var", "", "", "Q adds as j·Q"},
+		{"50 Ω + im(Z)", "", "", "write j·X"},
+		{"Vs * (Vs/Z) + (800+j600 VA)", "", "", "use power(V, I) or V * conj(I)"},
+		{"-mag(Vs)", "signed-real", "V", ""},
+		{"2 * mag(2 A)^2 * 50 Ω", "active-power", "W", ""},
+		{"mag(1 kW) * 1∠30", "complex-power", "VA", ""},
+		{"re(800+j600 VA)", "active-power", "W", ""},
+		{"im(800+j600 VA)", "reactive-power", "var", ""},
+		{"re(Z)", "resistance", "Ω", ""},
+		{"im(Z)", "reactance", "Ω", ""},
+		{"re(recip(Z))", "conductance", "S", ""},
+		{"im(recip(Z))", "susceptance", "S", ""},
+		{"mag(Z)", "magnitude", "Ω", ""},
+		{"mag(800+j600 VA)", "apparent-power", "VA", ""},
+		{"sqrt(re(800+j600 VA)^2 + im(800+j600 VA)^2)", "apparent-power", "VA", ""},
+		{"Vs", "phasor", "V", ""},
+		{"3+j4 Ω", "impedance", "Ω", ""},
+		{"50 Ω", "resistance", "Ω", ""},
+		{"j50 Ω", "impedance", "Ω", ""},
+		{"10 mH", "signed-real", "H", ""},
+		{"4.5%", "ratio", "", ""},
+		{"30°", "angle", "", ""},
+		{"1∠120", "complex-ratio", "", ""},
+	}
+	for _, tt := range tests {
+		q, err := evalString(newTestEnv(), tt.src)
+		if tt.err != "" {
+			if err == nil || !strings.Contains(err.Msg, tt.err) {
+				t.Errorf("%s: got %v, %v; want refusal %q", tt.src, q, err, tt.err)
+			}
+			continue
+		}
+		if err != nil {
+			t.Errorf("%s: %v", tt.src, err)
+			continue
+		}
+		if got := QuantityName(q); got != tt.quantity {
+			t.Errorf("%s: quantity %s, want %s", tt.src, got, tt.quantity)
+		}
+		if got := UnitSymbol(q.Dim, q.Kind, false); got != tt.unit {
+			t.Errorf("%s: unit %q, want %q", tt.src, got, tt.unit)
+		}
+	}
+}
+
+// TestScalarsHaveNoAngle: a magnitude, a signed real, a ratio or a count
+// is shown as a signed number with its unit, never as a phasor at 0° or
+// 180° (the kinds of IEC 60050-131 and IEEE Std 1459-2010).
+func TestScalarsHaveNoAngle(t *testing.T) {
+	f := Format{}
+	tests := []struct {
+		q    Quantity
+		want string
+	}{
+		{Quantity{V: 43.48, Dim: DimCurrent, Kind: KindMagnitude}, "43.48 A"},
+		{Quantity{V: 23.21, Dim: DimImpedance, Kind: KindSigned}, "23.21 Ω"},
+		{Quantity{V: -28.89, Dim: DimImpedance, Kind: KindSigned}, "-28.89 Ω"},
+		{Quantity{V: -3000, Dim: DimPower, Kind: KindReactive}, "-3.000 kvar"},
+		{Quantity{V: 12500, Dim: DimPower, Kind: KindMagnitude}, "12.50 kVA"},
+		{Quantity{V: 3, Kind: KindCount}, "3.000"},
+	}
+	for _, tt := range tests {
+		for name, got := range map[string]string{"Both": f.Both(tt.q, true), "Short": f.Short(tt.q), "Polar": f.Polar(tt.q)} {
+			if got != tt.want {
+				t.Errorf("%s(%v) = %q, want %q", name, tt.q, got, tt.want)
+			}
+		}
+	}
+}
