@@ -44,9 +44,71 @@ func (ev *Evaluator) Eval(e Expr) (Result, *Error) {
 	if err != nil {
 		return Result{}, err
 	}
-	r := Result{Value: q, Steps: ev.Steps, Notes: ev.Notes}
+	r := Result{Value: q, Steps: ev.Steps, Notes: append(ev.Notes, ev.kindNotes(e, q)...)}
 	ev.Steps, ev.Notes = nil, nil
 	return r, nil
+}
+
+// kindNotes explains a result whose kind a reader could take for another:
+// a product of sizes (|S|, not S), a product of phasors (not a power at
+// all), a peak-basis V·I*, and the tell-tale units of a frequency typed
+// without Hz.
+func (ev *Evaluator) kindNotes(e Expr, q Quantity) []string {
+	var notes []string
+	f := ev.Env.Context().Format
+	if q.Dim == DimPower {
+		switch q.Kind {
+		case KindProduct:
+			notes = append(notes, "V·I of two phasors is a phasor product, not a complex power: S = V·I* (IEEE Std 1459-2010); use power(V, I) or V * conj(I)")
+		case KindMagnitude:
+			if b, ok := e.(*Binary); ok && b.Op == "*" {
+				notes = append(notes, "a product of sizes is the apparent power |S| = |V|·|I|, with no angle; for the complex power use power(V, I) or V * conj(I)")
+			}
+		case KindApparent:
+			hasConj := false
+			Walk(e, func(x Expr) {
+				if c, ok := x.(*Call); ok && c.Fun == "conj" {
+					hasConj = true
+				}
+			})
+			if hasConj && ev.Env.Context().Basis == Peak {
+				notes = append(notes, "basis peak: S = ½·V·I* for peak phasors, so V * conj(I) here is 2·S; power(V, I) applies the ½")
+			}
+		}
+	}
+	if d, ok := frequencyIntent(q); ok {
+		alt := Quantity{V: q.V, Dim: d, Kind: KindMagnitude}
+		what := "a number here"
+		Walk(e, func(x Expr) {
+			// the bare number that is not the 2 of 2π nor a 1 over
+			if l, ok := x.(*Lit); ok && !l.hasUnit && l.Val != 2 && l.Val != 1 && what == "a number here" {
+				what = ev.text(l)
+			}
+		})
+		notes = append(notes, what+" has no unit; with "+what+" Hz this is "+DimWord(d)+": "+f.Both(alt, false))
+	}
+	return notes
+}
+
+// frequencyIntent recognises the units a frequency typed without Hz
+// leaves behind: 2π·50·L is in H (per cycle) where 2π·f·L is in Ω, and
+// 1/(2π·50·C) in V·cycle/(A·s) where 1/(2π·f·C) is in Ω. It returns the
+// dimension the result would have had.
+func frequencyIntent(q Quantity) (Dim, bool) {
+	if q.Kind == KindTurn && (q.Dim == DimInductance || q.Dim == DimCapacitance) {
+		d := q.Dim
+		d[BaseSecond]--
+		return d, true
+	}
+	if q.Dim[BaseCycle] == 1 {
+		d := q.Dim
+		d[BaseCycle] = 0
+		d[BaseSecond]++
+		if d == DimImpedance || d == DimAdmittance {
+			return d, true
+		}
+	}
+	return Dim{}, false
 }
 
 func (ev *Evaluator) text(e Expr) string {

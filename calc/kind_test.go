@@ -98,3 +98,35 @@ func TestScalarsHaveNoAngle(t *testing.T) {
 		}
 	}
 }
+
+// TestKindNotes: a result whose kind a reader could take for another
+// carries a note saying what it is: |S| from a product of sizes, a phasor
+// product (S = V·I*, IEEE Std 1459-2010), and a frequency typed without Hz
+// (X_L = 2π·f·L, common practice).
+func TestKindNotes(t *testing.T) {
+	tests := []struct{ src, want string }{
+		{"230 V * 10 A", "apparent power |S|"},
+		{"Vs * (Vs/Z)", "phasor product, not a complex power"},
+		{"2*pi*50*22 mH", "50 has no unit; with 50 Hz this is an impedance (Ω): 6.912 Ω"},
+		{"1/(2*pi*50*10uF)", "50 has no unit; with 50 Hz this is an impedance (Ω): 318.3 Ω"},
+	}
+	for _, tt := range tests {
+		x, perr := ParseExpr(tt.src, 1)
+		if perr != nil {
+			t.Fatalf("%s: %v", tt.src, perr)
+		}
+		ev := &Evaluator{Env: newTestEnv(), Src: tt.src, Line: 1}
+		r, err := ev.Eval(x)
+		if err != nil {
+			t.Fatalf("%s: %v", tt.src, err)
+		}
+		if !strings.Contains(strings.Join(r.Notes, "\n"), tt.want) {
+			t.Errorf("%s: notes %q, want %q", tt.src, r.Notes, tt.want)
+		}
+	}
+	x, _ := ParseExpr("Vs * Vs / Z", 1)
+	ev := &Evaluator{Env: newTestEnv(), Src: "Vs * Vs / Z", Line: 1}
+	if r, _ := ev.Eval(x); len(r.Notes) == 0 {
+		t.Errorf("Vs * Vs / Z (|V|²/Z is S*, a phasor product): no note")
+	}
+}

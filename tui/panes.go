@@ -314,9 +314,16 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 		return p.lines
 	}
 	items := make([]sketch.Item, 0, len(names))
+	var skipped []string
 	for _, n := range names {
 		q, ok := m.s.sh.Lookup(n)
 		if !ok {
+			continue
+		}
+		if !drawable(q) {
+			// a magnitude, a signed real or a count has no angle: an
+			// arrow at 0° would claim one
+			skipped = append(skipped, n)
 			continue
 		}
 		kind := q.Kind
@@ -337,13 +344,36 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 		}
 	}
 	out := []string{m.th.section("sketch", m.tr(what), w)}
+	rows := h - 1
+	var note string
+	if len(skipped) > 0 {
+		note = m.tr(strings.Join(skipped, ", ") + ": no angle (a magnitude or signed real), not drawn")
+		if len([]rune(note)) > w {
+			note = string([]rune(note)[:w])
+		}
+		rows--
+	}
 	if len(items) == 0 {
 		out = append(out, m.th.dim.Render("nothing to draw"))
 	} else {
-		out = append(out, sketch.Render(items, w, h-1, sketch.Options{ASCII: m.opt.ASCII})...)
+		out = append(out, sketch.Render(items, w, rows, sketch.Options{ASCII: m.opt.ASCII})...)
+	}
+	if note != "" {
+		out = append(out, m.th.dim.Render(note))
 	}
 	p.key, p.lines = k, out
 	return out
+}
+
+// drawable reports a quantity that has a direction in the complex plane:
+// a phasor or complex quantity, a resistance on the real axis, or an active
+// or reactive power as a side of the power triangle.
+func drawable(q calc.Quantity) bool {
+	switch q.Kind {
+	case calc.KindActive, calc.KindReactive, calc.KindResistive:
+		return true
+	}
+	return !q.Scalar() && q.Kind != calc.KindAngle
 }
 
 // sketchValue is where a quantity is drawn in the complex plane. A

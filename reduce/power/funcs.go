@@ -80,7 +80,7 @@ func funcs() []calc.Func {
 		{
 			Name: "current", Params: []calc.Param{{Name: "S", Kind: calc.ParamSPower, Else: "for an active power give the load as load(P, pf, lagging)"}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}}, Args: "(S, V, single|three)", Min: 3, Max: 3, Words: []string{"single", "three"},
 			Doc:     "line current drawn by a power from a supply (V is the line voltage for three-phase)",
-			Formula: "I = |S|/V or I = |S|/(√3·V_L)",
+			Formula: "I = (S/V)* where S and V have angles, else |I| = |S|/V; three-phase I_a = (S/(3·V_an))*, |I| = |S|/(√3·V_L); peak basis: twice these (S = ½·V·I*)",
 			Call:    callCurrent,
 		},
 		{
@@ -391,7 +391,7 @@ func callLoads(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return powerResult(p, steps, source("loads", args)), nil
 }
 
-func callCurrent(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
+func callCurrent(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	s, err := quantity("current", args, 0, "S", calc.DimPower, powerWant)
 	if err != nil {
 		return calc.Result{}, err
@@ -404,7 +404,11 @@ func callCurrent(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	i, steps, err := LineCurrent(s, v, ph)
+	seq := 1
+	if c != nil && c.Sequence < 0 {
+		seq = -1
+	}
+	i, steps, err := Current(s, v, ph, basisOf(c), seq)
 	if err != nil {
 		return calc.Result{}, err
 	}

@@ -16,6 +16,7 @@ import (
 	"math"
 	"math/cmplx"
 	"strconv"
+	"strings"
 
 	"argand/calc"
 )
@@ -489,7 +490,7 @@ func LineCurrent(s, v calc.Quantity, ph Phases) (calc.Quantity, []calc.Step, err
 	default:
 		return calc.Quantity{}, nil, errors.New("current: the supply must be single- or three-phase")
 	}
-	q, err := calc.Real(i, calc.DimCurrent).Check("line current")
+	q, err := calc.Quantity{V: complex(i, 0), Dim: calc.DimCurrent, Kind: calc.KindMagnitude}.Check("line current")
 	if err != nil {
 		return calc.Quantity{}, nil, fmt.Errorf("current: %w", err)
 	}
@@ -503,9 +504,80 @@ func LineCurrent(s, v calc.Quantity, ph Phases) (calc.Quantity, []calc.Step, err
 		Formula: formula,
 		Inputs: []calc.Operand{
 			{Name: "|S|", Value: calc.Quantity{V: complex(s.Mag(), 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}},
-			{Name: vname, Value: calc.Real(vm, calc.DimVoltage)},
+			{Name: vname, Value: calc.Quantity{V: complex(vm, 0), Dim: calc.DimVoltage, Kind: calc.KindMagnitude}},
 		},
+		Results: []calc.Operand{{Name: "|I|", Value: q}},
+	}
+	if ph == ThreePhase {
+		st.Notes = []string{Caution}
+	}
+	return q, []calc.Step{st}, nil
+}
+
+// Current returns the line current drawn by power s from a supply of
+// voltage v on the given phasor basis. Where both are known with their
+// angles (a complex power and a voltage phasor) the current is a phasor:
+// I = (S/V)* for RMS phasors and I = 2·(S/V)* for peak ones, from
+// S = V·I* and S = ½·V·I* (IEEE Std 1459-2010); three-phase uses the phase
+// voltage V_an = V_L/(√3∠±30°) and a third of S. Otherwise only |I| is
+// known, and the result is that magnitude.
+func Current(s, v calc.Quantity, ph Phases, basis calc.Basis, seq int) (calc.Quantity, []calc.Step, error) {
+	if s.Kind != calc.KindApparent || v.Kind == calc.KindMagnitude {
+		q, st, err := LineCurrent(s, v, ph)
+		if err != nil || basis == calc.RMS {
+			return q, st, err
+		}
+		// peak phasors: |S| = ½·V·I, so I = 2·|S|/V
+		q.V *= 2
+		st[0].Formula = strings.Replace(st[0].Formula, "I = |S|/", "I = 2·|S|/", 1) + " (peak basis: |S| = ½·V·I)"
+		st[0].Results[0].Value = q
+		return q, st, nil
+	}
+	if err := wantDim("current", "V", v, calc.DimVoltage, "a voltage"); err != nil {
+		return calc.Quantity{}, nil, err
+	}
+	if v.V == 0 {
+		return calc.Quantity{}, nil, errors.New("current: the supply voltage is 0, so no current follows from the power")
+	}
+	k := complex(1, 0)
+	if basis == calc.Peak {
+		k = 2
+	}
+	var i complex128
+	formula := "I = (S/V)*"
+	vname := "V"
+	switch ph {
+	case SinglePhase:
+		i = k * cmplx.Conj(s.V/v.V)
+	case ThreePhase:
+		sg := 1.0
+		if seq < 0 {
+			sg = -1
+		}
+		van := v.V / cmplx.Rect(math.Sqrt(3), sg*math.Pi/6)
+		i = k * cmplx.Conj(s.V/(3*van))
+		formula = "I_a = (S/(3·V_an))*, V_an = V_L/(√3∠30°)"
+		if sg < 0 {
+			formula = "I_a = (S/(3·V_an))*, V_an = V_L/(√3∠−30°) (ACB)"
+		}
+		vname = "V_L"
+	default:
+		return calc.Quantity{}, nil, errors.New("current: the supply must be single- or three-phase")
+	}
+	if basis == calc.Peak {
+		formula = strings.Replace(formula, "= (", "= 2·(", 1) + " (peak basis: S = ½·V·I*)"
+	}
+	q, err := calc.Q(i, calc.DimCurrent).Check("line current")
+	if err != nil {
+		return calc.Quantity{}, nil, fmt.Errorf("current: %w", err)
+	}
+	st := calc.Step{
+		Kind:    "current",
+		Rule:    ph.String() + " line current phasor from the complex power and the voltage phasor (" + ieee + ")",
+		Formula: formula,
+		Inputs:  []calc.Operand{{Name: "S", Value: s}, {Name: vname, Value: v}},
 		Results: []calc.Operand{{Name: "I", Value: q}},
+		Basis:   basis,
 	}
 	if ph == ThreePhase {
 		st.Notes = []string{Caution}

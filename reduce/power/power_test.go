@@ -346,3 +346,40 @@ func TestPhiRange(t *testing.T) {
 		t.Errorf("Phi = %v", p.Phi())
 	}
 }
+
+// TestCurrentBasis: the current from S and V satisfies S = V·I* on the
+// RMS basis and S = ½·V·I* on the peak basis (IEEE Std 1459-2010); from a
+// magnitude |S| only |I| is known, and it is named a magnitude.
+func TestCurrentBasis(t *testing.T) {
+	s := calc.Quantity{V: 8000 + 6000i, Dim: calc.DimPower, Kind: calc.KindApparent}
+	v := volt(230)
+	for _, b := range []calc.Basis{calc.RMS, calc.Peak} {
+		half := 1.0
+		if b == calc.Peak {
+			half = 0.5
+		}
+		i, _, err := Current(s, v, SinglePhase, b, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := complex(half, 0) * v.V * cmplx.Conj(i.V); !near(real(got), 8000) || !near(imag(got), 6000) {
+			t.Errorf("%v: V·I* = %v, want 8000+j6000", b, got)
+		}
+		// three-phase: S = 3·V_an·I_a* with V_an = V_L/(√3∠30°) for ABC (common practice)
+		i3, _, err := Current(s, volt(400), ThreePhase, b, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		van := 400 / cmplx.Rect(math.Sqrt(3), math.Pi/6)
+		if got := complex(3*half, 0) * van * cmplx.Conj(i3.V); !near(real(got), 8000) || !near(imag(got), 6000) {
+			t.Errorf("%v three-phase: 3·V_an·I_a* = %v, want 8000+j6000", b, got)
+		}
+		m, _, err := Current(calc.Quantity{V: 10e3, Dim: calc.DimPower, Kind: calc.KindMagnitude}, volt(230), SinglePhase, b, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if m.Kind != calc.KindMagnitude || !near(real(m.V), 10e3/230/half) {
+			t.Errorf("%v: from |S|: %v kind %v, want |I| = %g", b, m.V, m.Kind, 10e3/230/half)
+		}
+	}
+}

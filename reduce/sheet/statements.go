@@ -402,6 +402,10 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 			letter = "P"
 		case calc.KindReactive:
 			letter = "Q"
+		case calc.KindProduct:
+			letter = "VI" // not a power: V·I without the conjugate
+		case calc.KindMagnitude:
+			letter = "Sa" // an apparent power |S|
 		default:
 			letter = "S"
 		}
