@@ -97,6 +97,12 @@ var baseSymbols = [numBase]string{"V", "A", "s", "m", "cycle"}
 // baseString writes the dimension as a product of base units, for example
 // "V·s/A"; ascii selects "*" for the multiplication dot and "^" powers.
 func (d Dim) baseString(ascii bool) string {
+	return d.baseStringPrefixed(ascii, [numBase]string{})
+}
+
+// baseStringPrefixed is baseString with a prefix before some units; the
+// power written after a unit applies to the prefixed unit (kV² = 10⁶ V²).
+func (d Dim) baseStringPrefixed(ascii bool, prefix [numBase]string) string {
 	dot := "·"
 	if ascii {
 		dot = "*"
@@ -110,7 +116,7 @@ func (d Dim) baseString(ascii bool) string {
 		if n < 0 {
 			n = -n
 		}
-		s := baseSymbols[i]
+		s := prefix[i] + baseSymbols[i]
 		if n != 1 {
 			s += powString(n, ascii)
 		}

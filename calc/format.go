@@ -114,7 +114,8 @@ func scale10(x float64, e int) float64 {
 	return x / math.Pow(10, float64(e))
 }
 
-var prefixFor = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}
+var prefixFor = map[int]string{-30: "q", -27: "r", -24: "y", -21: "z", -18: "a", -15: "f", -12: "p", -9: "n", -6: "µ", -3: "m",
+	0: "", 3: "k", 6: "M", 9: "G", 12: "T", 15: "P", 18: "E", 21: "Z", 24: "Y", 27: "R", 30: "Q"}
 
 // fixed formats x/10^exp3 with the given decimals, never as "-0.000".
 func fixed(x float64, exp3, decimals int) string {
@@ -126,7 +127,12 @@ func fixed(x float64, exp3, decimals int) string {
 }
 
 // scaled chooses how to write numbers of size m with unit sym: an SI prefix
-// for a prefixable unit within f…T, else an "e" exponent (which parses back).
+// (q … Q) on a named unit; on a unit written as a product of base units
+// (V², /s, V·s/A) a prefix on its first unit, which binds before that
+// unit's power (kV² is 10⁶ V², SI Brochure 9th ed., §5.4.1), so the
+// number may fall below 1 (0.05290 kV²). Only a size beyond the prefixes'
+// range takes an exponent. Numbers are written without digit groups so that
+// what is shown reads back.
 func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo string) {
 	exp3, decimals = engScale(m, f.digits())
 	sym := UnitSymbol(d, k, f.ASCII)
@@ -134,9 +140,9 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 	if m != 0 {
 		e = decExp(m, f.digits())
 	}
-	if sym == "" && exp3 >= -3 && exp3 < 6 && e < f.digits() {
-		// plain numbers of everyday size read better without an exponent,
-		// as long as no more figures show than are significant
+	if sym == "" && (exp3 >= -3 && exp3 < 6 && e < f.digits() || m != 0 && e >= -15 && e < 15) {
+		// plain numbers read better without an exponent, as long as no
+		// more figures show than are significant
 		decimals = f.digits() - 1 - e
 		if decimals < 0 {
 			decimals = 0
@@ -150,6 +156,16 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 		}
 		return exp3, decimals, " " + p + sym, ""
 	}
+	if sym != "" && m != 0 {
+		if scale, u, ok := basePrefix(m, d, k, f.ASCII); ok {
+			y := scale10(m, scale)
+			dec := f.digits() - 1 - decExp(y, f.digits())
+			if dec < 0 {
+				dec = 0
+			}
+			return scale, dec, " " + u, ""
+		}
+	}
 	if exp3 != 0 {
 		expo = "e" + strconv.Itoa(exp3)
 	}
@@ -157,6 +173,58 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 		unit = " " + sym
 	}
 	return exp3, decimals, unit, expo
+}
+
+// basePrefix finds a prefix for the first unit of a product of base units
+// such that the number before it is at least 1 and below 1000 to the power
+// of that unit's exponent. It returns the decimal scale and the unit.
+func basePrefix(m float64, d Dim, k Kind, ascii bool) (int, string, bool) {
+	if sym := UnitSymbol(d, k, ascii); sym != d.baseString(ascii) && sym != strings.TrimPrefix(d.baseString(ascii), "1") {
+		return 0, "", false
+	}
+	idx := -1
+	for i, x := range d {
+		if x > 0 && i != BaseCycle {
+			idx = i
+			break
+		}
+	}
+	if idx < 0 {
+		for i, x := range d {
+			if x < 0 && i != BaseCycle {
+				idx = i
+				break
+			}
+		}
+	}
+	if idx < 0 {
+		return 0, "", false
+	}
+	n := int(d[idx])
+	abs := n
+	if abs < 0 {
+		abs = -abs
+	}
+	// the number before the unit in [1, 1000) where a prefix gives it,
+	// else in [0.001, 1), else anything the range allows
+	windows := [][2]float64{{1, 1000}, {1e-3, 1}, {1, math.Pow(10, float64(3*abs))}}
+	for _, win := range windows {
+		for p := -30; p <= 30; p += 3 {
+			y := scale10(m, n*p)
+			if y < win[0] || y >= win[1] {
+				continue
+			}
+			pre := prefixFor[p]
+			if pre == "µ" && ascii {
+				pre = "u"
+			}
+			var ps [numBase]string
+			ps[idx] = pre
+			// a reciprocal is written /ms, as it is read back
+			return n * p, strings.TrimPrefix(d.baseStringPrefixed(ascii, ps), "1"), true
+		}
+	}
+	return 0, "", false
 }
 
 // Rect formats q in rectangular form, both parts to one prefix chosen from
@@ -277,8 +345,8 @@ func sigFixed(x float64, digits int) string {
 		return "0"
 	}
 	a := math.Abs(x)
-	if a < 1e-3 {
-		return strconv.FormatFloat(x, 'e', digits-1, 64)
+	if a < 1e-15 {
+		return "0" // a leftover of rounding, not an angle or a per cent
 	}
 	e := decExp(a, digits)
 	dec := digits - 1 - e

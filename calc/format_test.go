@@ -39,8 +39,8 @@ func TestFormatEngineering(t *testing.T) {
 		{Real(0, DimVoltage), "0.000 V", "0.000 V ∠0°"},
 		{Number(0), "0.000", "0.000 ∠0°"},
 		{Quantity{V: 2 * math.Pi * 500, Dim: DimAngularFrequency, Kind: KindAngle}, "3.142 krad/s", "3.142 krad/s ∠0°"},
-		{Real(2000, DimAngularFrequency), "2.000e3 /s", "2.000e3 /s ∠0°"},   // a rate that is not angular
-		{Real(1e-3, Dim{BaseAmpere: -1}), "1.000e-3 /A", "1.000e-3 /A ∠0°"}, // no prefix on a reciprocal
+		{Real(2000, DimAngularFrequency), "2.000 /ms", "2.000 /ms ∠0°"},   // a rate that is not angular; the prefix binds to s (SI Brochure 9th ed., §5.4.1)
+		{Real(1e-3, Dim{BaseAmpere: -1}), "1.000 /kA", "1.000 /kA ∠0°"}, // a prefix on the unit of a reciprocal, no exponent
 	}
 	for _, tt := range tests {
 		if got := f.Rect(tt.q); got != tt.rect {
@@ -132,7 +132,7 @@ func TestTinyParts(t *testing.T) {
 		{complex(3, 1e-15), "3.000 V", "3.000 V ∠0°"},
 		{complex(1.8369701987210297e-16, 3), "j3.000 V", "3.000 V ∠90.00°"}, // 3∠90° via sin/cos
 		{complex(-2, 1e-13), "-2.000 V", "2.000 V ∠180.0°"},
-		{complex(1, 1e-11), "1.000 + j0.000 V", "1.000 V ∠5.730e-10°"}, // above the threshold: kept
+		{complex(1, 1e-11), "1.000 + j0.000 V", "1.000 V ∠0.0000000005730°"}, // above the threshold: kept
 	}
 	for _, tt := range tests {
 		q := Q(tt.v, DimVoltage)
@@ -244,5 +244,35 @@ func TestAngleRoundsToMinus180(t *testing.T) {
 	}
 	if got := (Format{Digits: 5}).Polar(q); got != "1.0000 V ∠-179.99°" {
 		t.Errorf("got %q, want 1.0000 V ∠-179.99°", got)
+	}
+}
+
+// TestNoENotation: engineering notation with SI prefixes q … Q (SI
+// Brochure 9th ed., table 7); a prefix binds to the unit before its power
+// (kV² = 10⁶ V², SI Brochure 9th ed., §5.4.1), so V² shows as 0.05290 kV².
+func TestNoENotation(t *testing.T) {
+	f := Format{}
+	tests := []struct {
+		q    Quantity
+		want string
+	}{
+		{Real(13.88e-18, DimCurrent), "13.88 aA"},
+		{Real(52.9e3, DimVoltage.Pow(2)), "0.05290 kV²"},
+		{Real(1.927e-34, DimCurrent.Pow(2)), "192.7 aA²"},
+		{Real(1e20, DimFrequency), "100.0 EHz"},
+		{Real(3e-28, DimCharge), "300.0 qC"},
+		{Real(2e29, DimPower), "200.0 RVA"},
+		{Real(123456789, DimInductance.Mul(DimLength)), "123.5 MV·s·m/A"},
+		{Number(1e9), "1000000000"},
+		{Number(1.5e-5), "0.00001500"},
+	}
+	for _, tt := range tests {
+		got := f.Rect(tt.q)
+		if got != tt.want {
+			t.Errorf("Rect(%v %v) = %q, want %q", tt.q.V, tt.q.Dim, got, tt.want)
+		}
+		if strings.ContainsAny(got, "e") && !strings.Contains(tt.want, "e") {
+			t.Errorf("%q has an exponent", got)
+		}
 	}
 }

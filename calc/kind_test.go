@@ -130,3 +130,38 @@ func TestKindNotes(t *testing.T) {
 		t.Errorf("Vs * Vs / Z (|V|²/Z is S*, a phasor product): no note")
 	}
 }
+
+// TestParallelScaled: a‖b = a·b/(a + b) of two equal branches is half of
+// one (common practice), even where |b|² overflows float64.
+func TestParallelScaled(t *testing.T) {
+	for _, z := range []complex128{1e308 + 1e308i, 1e-308 + 1e-308i, 3 + 4i} {
+		r, err := Parallel(Q(z, DimImpedance), Q(z, DimImpedance))
+		if err != nil {
+			t.Errorf("%v || %v: %v", z, z, err)
+			continue
+		}
+		if !closeC(r.V, z/2, 1e-15) {
+			t.Errorf("%v || %v = %v, want %v", z, z, r.V, z/2)
+		}
+	}
+}
+
+// TestLeftoverRule: one rule for rounding leftovers: a part below 1e-12
+// of the largest term that produced it is 0; a value small because its
+// inputs are small keeps its figures (common practice of floating-point
+// work: cancellation leaves noise at the scale of the terms).
+func TestLeftoverRule(t *testing.T) {
+	if got := Leftover(1e-13+1i, 1, 1i); got != 1i {
+		t.Errorf("Leftover = %v, want j1", got)
+	}
+	if got := LeftoverReal(489.9e-15, 8e3, -8e3+489.9e-15); got != 0 {
+		t.Errorf("LeftoverReal = %v, want 0", got)
+	}
+	q := mustEval(t, "(1 mV)^2 / 10 GΩ")
+	if !closeC(q.V, 1e-16, 1e-12) {
+		t.Errorf("(1 mV)²/10 GΩ = %v, want 1e-16 W", q.V)
+	}
+	if q := mustEval(t, "j1 Ω + -j0.9999999999999997 Ω"); q.V != 0 {
+		t.Errorf("j1 − j0.9999999999999997 = %v, want 0", q.V)
+	}
+}

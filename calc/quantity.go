@@ -417,7 +417,7 @@ func Div(a, b Quantity) (Quantity, error) {
 	if err := cycleMix(a.Dim, b.Dim.Pow(-1), "÷"); err != nil {
 		return Quantity{}, err
 	}
-	r := Quantity{V: a.V / b.V, Dim: a.Dim.Div(b.Dim)}
+	r := Quantity{V: Quot(a.V, b.V), Dim: a.Dim.Div(b.Dim)}
 	r.Kind = quotientKind(a, b, r.Dim)
 	return r.Check("division")
 }
@@ -669,6 +669,17 @@ func ipow(z complex128, n int) complex128 {
 	return r
 }
 
+// Quot returns a/b with both scaled first by the larger part of b, so that
+// a quotient that fits in float64 is not lost to an overflow of |b|² inside
+// the division: (1e308+j1e308)/(1e308+j1e308) is 1, not NaN.
+func Quot(a, b complex128) complex128 {
+	s := math.Max(math.Abs(real(b)), math.Abs(imag(b)))
+	if s == 0 || math.IsInf(s, 0) || math.IsNaN(s) {
+		return a / b
+	}
+	return (a / complex(s, 0)) / (b / complex(s, 0))
+}
+
 // Sqrt returns the principal square root.
 func Sqrt(a Quantity) (Quantity, error) {
 	d, ok := a.Dim.Root(2)
@@ -706,9 +717,9 @@ func Parallel(a, b Quantity) (Quantity, error) {
 	if cmplx.Abs(x) > cmplx.Abs(y) {
 		x, y = y, x
 	}
-	den := 1 + x/y
+	den := 1 + Quot(x, y)
 	if cmplx.Abs(den) <= 4*2.220446049250313e-16 {
 		return Quantity{}, ErrOpenCircuit
 	}
-	return Quantity{V: x / den, Dim: a.Dim}.Check("parallel")
+	return Quantity{V: Quot(x, den), Dim: a.Dim}.Check("parallel")
 }

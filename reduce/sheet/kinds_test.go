@@ -101,3 +101,12 @@ func TestNamedArgumentsAgree(t *testing.T) {
 		}
 	}
 }
+
+// TestFrequencyOverflow: a frequency whose ω = 2π·f overflows is refused
+// with the reason, never shown as Inf (IEEE 754 range, common practice).
+func TestFrequencyOverflow(t *testing.T) {
+	_, err := New().Exec("frequency 1e308 Hz")
+	if err == nil || !strings.Contains(err.Error(), "ω = 2π·f would overflow") {
+		t.Errorf("frequency 1e308 Hz: %v", err)
+	}
+}

@@ -295,6 +295,9 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	if hz <= 0 || !finite(hz) {
 		return lineErr(s.line, col, n, "frequency must be greater than 0 (got %s)", s.ctx.Format.Mag(real(q.V), q.Dim, 0))
 	}
+	if !finite(2 * 3.141592653589793 * hz) {
+		return lineErr(s.line, col, n, "frequency too large: ω = 2π·f would overflow the largest number argand holds, so no reactance could be computed at it")
+	}
 	_ = kw
 	old := s.ctx.Freq
 	s.ctx.Freq = hz
