@@ -39,7 +39,7 @@ func TestFormatEngineering(t *testing.T) {
 		{Real(0, DimVoltage), "0.000 V", "0.000 V ∠0°"},
 		{Number(0), "0.000", "0.000 ∠0°"},
 		{Quantity{V: 2 * math.Pi * 500, Dim: DimAngularFrequency, Kind: KindAngle}, "3.142 krad/s", "3.142 krad/s ∠0°"},
-		{Real(2000, DimAngularFrequency), "2.000 /ms", "2.000 /ms ∠0°"},   // a rate that is not angular; the prefix binds to s (SI Brochure 9th ed., §5.4.1)
+		{Real(2000, DimAngularFrequency), "2.000 /ms", "2.000 /ms ∠0°"}, // a rate that is not angular; the prefix binds to s (SI Brochure 9th ed., §5.4.1)
 		{Real(1e-3, Dim{BaseAmpere: -1}), "1.000 /kA", "1.000 /kA ∠0°"}, // a prefix on the unit of a reciprocal, no exponent
 	}
 	for _, tt := range tests {
