@@ -154,6 +154,7 @@ func (p Power) Phi() float64 {
 // Of returns the Power for complex power s (VA), or an error when s is not
 // finite.
 func Of(s complex128) (Power, error) {
+	s = calc.Leftover(s, s) // a part below 1e-12 of the other is 0, in P and Q as on screen
 	q, err := calc.Quantity{V: s, Dim: calc.DimPower, Kind: calc.KindApparent}.Check("complex power")
 	if err != nil {
 		return Power{}, err

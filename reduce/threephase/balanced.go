@@ -146,6 +146,8 @@ func SolveBalanced(vLine, z calc.Quantity, conn Connection, seq Sequence, basis 
 		})
 	}
 	s := 3 * complex(basisFactor(basis), 0) * b.VPhase.V * conj(b.IPhase.V)
+	// each part of V·I* is a sum of products no larger than |V|·|I|
+	s = calc.Leftover(s, complex(3*basisFactor(basis)*b.VPhase.Mag()*b.IPhase.Mag(), 0))
 	b.S, b.P, b.Q, b.Apparent = powers(s)
 	if err := checkAll("balanced load", b.VPhase, b.IPhase, b.ILine, b.ZY, b.S, b.Apparent); err != nil {
 		return Balanced{}, nil, err
@@ -153,7 +155,7 @@ func SolveBalanced(vLine, z calc.Quantity, conn Connection, seq Sequence, basis 
 	steps = append(steps, calc.Step{
 		Kind:    "power",
 		Rule:    "total power of a balanced load: three equal phases",
-		Formula: powerFormula(basis, "3") + ";  |S| = √3·V_L·I_L",
+		Formula: powerFormula(basis, "3") + ";  " + apparentFormula(basis),
 		Inputs:  []calc.Operand{op("V_ph", b.VPhase), op("I_ph", b.IPhase)},
 		Results: []calc.Operand{op("S", b.S), op("P", b.P), op("Q", b.Q), op("|S|", b.Apparent)},
 		Basis:   basis,
@@ -166,3 +168,13 @@ func SolveBalanced(vLine, z calc.Quantity, conn Connection, seq Sequence, basis 
 }
 
 func conj(v complex128) complex128 { return complex(real(v), -imag(v)) }
+
+// apparentFormula is |S| of a balanced three-phase load from line values,
+// on the basis in use: √3·V_L·I_L for RMS phasors, half that for peak ones
+// (S = ½·V·I*, IEEE Std 1459-2010).
+func apparentFormula(basis calc.Basis) string {
+	if basis == calc.Peak {
+		return "|S| = (√3/2)·V_L·I_L (peak phasors)"
+	}
+	return "|S| = √3·V_L·I_L (RMS)"
+}

@@ -127,7 +127,10 @@ func powerFormula(b calc.Basis, n string) string {
 }
 
 // powers splits a complex power into P (W), Q (var) and |S| (VA).
+// A part below 1e-12 of the other is a rounding leftover and is 0, in the
+// fields as on the screen (calc.Leftover, relative to |S|).
 func powers(s complex128) (sq, p, q, mag calc.Quantity) {
+	s = calc.Leftover(s, s)
 	sq = calc.Quantity{V: s, Dim: calc.DimPower, Kind: calc.KindApparent}
 	p = calc.Quantity{V: complex(real(s), 0), Dim: calc.DimPower, Kind: calc.KindActive}
 	q = calc.Quantity{V: complex(imag(s), 0), Dim: calc.DimPower, Kind: calc.KindReactive}

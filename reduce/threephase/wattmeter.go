@@ -52,8 +52,10 @@ func TwoWattmeterReadings(vLine, iLine calc.Quantity, pf float64, lagging bool, 
 	g := seq.sign()
 	vi := vLine.Mag() * iLine.Mag() * basisFactor(basis)
 	d30 := math.Pi / 6
-	w.W1 = calc.Quantity{V: complex(vi*math.Cos(phi-g*d30), 0), Dim: calc.DimPower, Kind: calc.KindActive}
-	w.W2 = calc.Quantity{V: complex(vi*math.Cos(phi+g*d30), 0), Dim: calc.DimPower, Kind: calc.KindActive}
+	// cos(φ ± 30°) = cos φ·cos 30° ∓ sin φ·sin 30°: terms no larger than
+	// V_L·I_L, so a reading below 1e-12 of that is a leftover (calc.Leftover)
+	w.W1 = calc.Quantity{V: complex(calc.LeftoverReal(vi*math.Cos(phi-g*d30), vi), 0), Dim: calc.DimPower, Kind: calc.KindActive}
+	w.W2 = calc.Quantity{V: complex(calc.LeftoverReal(vi*math.Cos(phi+g*d30), vi), 0), Dim: calc.DimPower, Kind: calc.KindActive}
 	if err := checkAll("two-wattmeter readings", w.W1, w.W2); err != nil {
 		return Wattmeters{}, nil, err
 	}
