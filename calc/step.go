@@ -47,6 +47,9 @@ type CheckOutcome struct {
 	// MagOnly marks a comparison of magnitudes alone (a meter reading
 	// against a range): no angle is compared or reported.
 	MagOnly bool
+	// Scalar marks a comparison of two signed reals (P, Q, X, a count) by
+	// their values: no angle is compared or reported.
+	Scalar bool
 }
 
 // Step is one recorded piece of work: the statement as typed, the rule
@@ -176,7 +179,9 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		} else {
 			b.WriteString("    " + verdict + ": got " + f.Both(c.Got, polarFirst) + ", expected " + f.Both(c.Want, polarFirst) + "\n")
 		}
-		if c.MagOnly {
+		if c.Scalar {
+			b.WriteString("      difference " + f.Rect(c.Diff) + "; " + sigFixed(c.RelMag*100, 3) + " % of the expected value; tolerance " + tr(c.Tolerance) + "\n")
+		} else if c.MagOnly {
 			b.WriteString("      outside the range by " + f.Mag(real(c.Diff.V), c.Diff.Dim, c.Diff.Kind) + "; " + sigFixed(c.RelMag*100, 3) + " % from the nominal magnitude; " + tr(c.Tolerance) + "\n")
 		} else {
 			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + sigFixed(c.RelMag*100, 3) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
@@ -327,6 +332,14 @@ func (s *Step) JSON() string {
 		b.WriteString(`,"rel_mag":` + jsonNum(c.RelMag))
 		b.WriteString(`,"deg_diff":` + jsonNum(c.DegDiff))
 		b.WriteString(`,"tolerance":` + jsonString(c.Tolerance))
+		compared := "magnitude and angle"
+		switch {
+		case c.Scalar:
+			compared = "value"
+		case c.MagOnly:
+			compared = "magnitude"
+		}
+		b.WriteString(`,"compared":` + jsonString(compared))
 	}
 	if len(s.Notes) > 0 {
 		b.WriteString(`,"notes":[`)

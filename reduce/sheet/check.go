@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/cmplx"
 	"strconv"
+	"strings"
 	"unicode/utf8"
 
 	"argand/calc"
@@ -80,6 +81,12 @@ func (s *Sheet) stmtCheck(p *calc.Parser) error {
 		_, _, col := rhs.Span()
 		return lineErr(s.line, col, width(p, rhs), "check compares %s with %s: the units differ", calc.DimName(g.Dim, false), calc.DimName(w.Dim, false))
 	}
+	if g.Dim == calc.DimPower && calc.QuantityName(g) != calc.QuantityName(w) {
+		_, _, col := rhs.Span()
+		return lineErr(s.line, col, width(p, rhs), "check compares %s with %s: the kinds differ (IEC 60050-131); compare like with like, as re(x) for P, im(x) for Q, mag(x) for |S|",
+			calc.QuantityWord(g), calc.QuantityWord(w))
+	}
+	scalar := g.Scalar() && w.Scalar()
 	rel, abs := defaultRelTol, -1.0
 	tolText := "0.1% (default)"
 	degTol := -1.0
@@ -121,6 +128,7 @@ func (s *Sheet) stmtCheck(p *calc.Parser) error {
 		}
 		tolText += " and " + p.Text(angE)
 	}
+	angleGiven := degTol >= 0
 	if degTol < 0 {
 		// a relative tolerance alone bounds the angle alike: a phasor within
 		// rel of the expected magnitude may turn by about rel radians
@@ -128,9 +136,25 @@ func (s *Sheet) stmtCheck(p *calc.Parser) error {
 		if rel >= 0 && tolE != nil {
 			degTol = rel * 180 / math.Pi
 		}
-		if rel >= 0 {
-			tolText += " and " + strconv.FormatFloat(degTol, 'g', 3, 64) + "°"
+	}
+	// say exactly what is compared: a signed real by its value, a phasor
+	// by magnitude and angle, with the angle tolerance used and where it
+	// came from
+	switch {
+	case scalar:
+		tolText += " on the value (" + strings.ReplaceAll(calc.QuantityName(w), "-", " ") + ": no angle to compare)"
+	case rel >= 0 && !angleGiven:
+		how := "the default"
+		if tolE != nil {
+			how = "the relative tolerance taken as radians"
 		}
+		tolText += " on the magnitude and ±" + strconv.FormatFloat(degTol, 'g', 3, 64) + "° on the angle (" + how + ")"
+	case rel >= 0:
+		tolText += " (magnitude, then angle)"
+	case angleGiven:
+		tolText += " (|got − expected|, then angle)"
+	default:
+		tolText += " on |got − expected|, which covers magnitude and angle together"
 	}
 	mg, mw := cmplx.Abs(g.V), cmplx.Abs(w.V)
 	diff := calc.Quantity{V: g.V - w.V, Dim: w.Dim, Kind: w.Kind}
@@ -143,7 +167,21 @@ func (s *Sheet) stmtCheck(p *calc.Parser) error {
 		// an angle means nothing at zero magnitude
 		return mg == 0 || mw == 0 || math.Abs(out.DegDiff) <= degTol*(1+1e-12)
 	}
-	if rel >= 0 {
+	if scalar {
+		d := math.Abs(real(g.V) - real(w.V))
+		if rel >= 0 {
+			out.Pass = d <= rel*math.Abs(real(w.V))*(1+1e-12)
+			if w.V == 0 {
+				_, _, col := rhs.Span()
+				return lineErr(s.line, col, width(p, rhs), "the expected value is 0: give an absolute tolerance, such as within 0.001 %s", calc.UnitSymbol(w.Dim, w.Kind, false))
+			}
+			out.RelMag = real(g.V)/real(w.V) - 1
+		} else {
+			out.Pass = d <= abs*(1+1e-12)
+		}
+		out.DegDiff = 0
+		out.Scalar = true
+	} else if rel >= 0 {
 		if mw == 0 {
 			_, _, col := rhs.Span()
 			return lineErr(s.line, col, width(p, rhs), "the expected value is 0: give an absolute tolerance, such as within 0.001 %s", calc.UnitSymbol(w.Dim, w.Kind, false))

@@ -110,3 +110,38 @@ func TestFrequencyOverflow(t *testing.T) {
 		t.Errorf("frequency 1e308 Hz: %v", err)
 	}
 }
+
+// TestCheckComparesKinds: a check compares kinds as well as values (an
+// active power is not a complex power, IEC 60050-131), and its step says
+// exactly what it compared and with which angle tolerance.
+func TestCheckComparesKinds(t *testing.T) {
+	s := New()
+	if _, err := s.Exec("x = 800+j600 VA"); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := s.Exec("check x is 600 W within 1%"); err == nil || !strings.Contains(err.Error(), "the kinds differ") {
+		t.Errorf("check of VA against W: %v", err)
+	}
+	tests := []struct{ src, want string }{
+		{"check x is 800+j600 VA within 1%", "1% on the magnitude and ±0.573° on the angle (the relative tolerance taken as radians)"},
+		{"check x is 800+j600 VA within 1% and 0.1°", "1% and 0.1° (magnitude, then angle)"},
+		{"check re(x) is 800 W within 1%", "1% on the value (active power: no angle to compare)"},
+		{"check im(x) is -600 var within 1%", "on the value"},
+	}
+	for _, tt := range tests {
+		steps, err := s.Exec(tt.src)
+		if err != nil {
+			t.Errorf("%s: %v", tt.src, err)
+			continue
+		}
+		c := steps[len(steps)-1].Check
+		if c == nil || !strings.Contains(c.Tolerance, tt.want) {
+			t.Errorf("%s: tolerance %+v, want %q", tt.src, c, tt.want)
+		}
+	}
+	// a signed real is compared with its sign: 600 var is not −600 var
+	steps, err := s.Exec("check im(x) is -600 var within 1%")
+	if err != nil || steps[len(steps)-1].Check.Pass {
+		t.Errorf("600 var passed as −600 var: %v", err)
+	}
+}
