@@ -179,7 +179,7 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 // such that the number before it is at least 1 and below 1000 to the power
 // of that unit's exponent. It returns the decimal scale and the unit.
 func basePrefix(m float64, d Dim, k Kind, ascii bool) (int, string, bool) {
-	if sym := UnitSymbol(d, k, ascii); sym != d.baseString(ascii) && sym != strings.TrimPrefix(d.baseString(ascii), "1") {
+	if sym := UnitSymbol(d, k, ascii); sym != strings.TrimPrefix(d.baseString(ascii), "1") {
 		return 0, "", false
 	}
 	idx := -1

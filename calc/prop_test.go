@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/cmplx"
 	"strconv"
+	"strings"
 	"testing"
 
 	"pgregory.net/rapid"
@@ -212,4 +213,84 @@ func TestPropFormatRoundTrip(t *testing.T) {
 		roundTrip(t, f.Rect(q), q, f.Digits)
 		roundTrip(t, f.Polar(q), q, f.Digits)
 	})
+}
+
+// genExpr draws a small expression of circuit quantities: literals with
+// units, the names of the test environment, mag, re, im and conj, and the
+// four operations.
+func genExpr(t *rapid.T, depth int) string {
+	leaves := []string{"230 V", "10∠-30 A", "2 A", "50 Ω", "3+j4 Ω", "j20 Ω", "800 W", "j600 var", "600 var",
+		"5 kVA", "3+j4 kVA", "Z", "Z2", "Vs", "0.8", "2", "10 mS", "1∠120"}
+	if depth <= 0 || rapid.IntRange(0, 2).Draw(t, "leaf") == 0 {
+		return rapid.SampledFrom(leaves).Draw(t, "lit")
+	}
+	switch rapid.IntRange(0, 3).Draw(t, "form") {
+	case 0:
+		f := rapid.SampledFrom([]string{"mag", "re", "im", "conj"}).Draw(t, "fn")
+		return f + "(" + genExpr(t, depth-1) + ")"
+	case 1:
+		return "(" + genExpr(t, depth-1) + ")^2"
+	}
+	op := rapid.SampledFrom([]string{"+", "-", "*", "/"}).Draw(t, "op")
+	return "(" + genExpr(t, depth-1) + ") " + op + " (" + genExpr(t, depth-1) + ")"
+}
+
+// TestPropKindDisplayJSON: over random expressions, what the text shows
+// agrees with the JSON: the same unit, and an angle shown exactly when the
+// JSON kind is one that has an angle (the kinds of IEC 60050-131 and IEEE
+// Std 1459-2010 as the package comment lists them).
+func TestPropKindDisplayJSON(t *testing.T) {
+	withAngle := map[string]bool{"phasor": true, "impedance": true, "admittance": true, "complex-power": true,
+		"phasor-product": true, "complex": true, "complex-ratio": true}
+	rapid.Check(t, func(t *rapid.T) {
+		src := genExpr(t, 3)
+		q, err := evalString(newTestEnv(), src)
+		if err != nil {
+			return // refused with a message: nothing shown
+		}
+		js := JSONValue("x", q, RMS)
+		kind := jsonField(js, "quantity")
+		unit := jsonField(js, "unit")
+		text := Format{}.Both(q, false)
+		if kind == "angle" {
+			return // shown in degrees, held in rad
+		}
+		first := strings.SplitN(text, " = ", 2)[0]
+		if unit != "" && !sameUnit(first[strings.LastIndexByte(first, ' ')+1:], unit) {
+			t.Fatalf("%s: text %q does not end in the JSON unit %q (%s)", src, text, unit, kind)
+		}
+		hasAngle := strings.Contains(text, "∠")
+		if hasAngle && !withAngle[kind] {
+			t.Fatalf("%s: text %q shows an angle for a %s", src, text, kind)
+		}
+		if !hasAngle && withAngle[kind] && !q.IsReal() {
+			t.Fatalf("%s: text %q shows no angle for a complex %s", src, text, kind)
+		}
+	})
+}
+
+// jsonField reads a string field from one JSON object written by JSONValue.
+func jsonField(js, key string) string {
+	i := strings.Index(js, `"`+key+`":"`)
+	if i < 0 {
+		return ""
+	}
+	rest := js[i+len(key)+4:]
+	return rest[:strings.IndexByte(rest, '"')]
+}
+
+// sameUnit reports whether a shown unit is the JSON unit, perhaps with an
+// SI prefix on its first symbol (kV² for V², /kA for /A).
+func sameUnit(shown, unit string) bool {
+	if shown == unit {
+		return true
+	}
+	slash := strings.HasPrefix(shown, "/")
+	shown, unit = strings.TrimLeft(shown, "/("), strings.TrimLeft(unit, "/(")
+	for _, p := range []string{"q", "r", "y", "z", "a", "f", "p", "n", "µ", "m", "k", "M", "G", "T", "P", "E", "Z", "Y", "R", "Q"} {
+		if strings.HasPrefix(shown, p) && shown[len(p):] == unit {
+			return true
+		}
+	}
+	return slash && shown == unit
 }

@@ -152,7 +152,12 @@ func UnitSymbol(d Dim, k Kind, ascii bool) string {
 		}
 		return n.sym
 	}
-	return d.baseString(ascii)
+	// a pure reciprocal is written /A², as it reads back, not 1/A²
+	b := d.baseString(ascii)
+	if strings.HasPrefix(b, "1/") {
+		return b[1:]
+	}
+	return b
 }
 
 // prefixable reports whether a display unit may carry an SI prefix: the
