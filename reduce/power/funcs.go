@@ -3,6 +3,7 @@ package power
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 	"strconv"
 	"strings"
 
@@ -425,9 +426,23 @@ func correctionResult(c *calc.Context, fn string, args []calc.Arg, t Target, pre
 		return calc.Result{}, fmt.Errorf("%s: set the working frequency first: the capacitance depends on ω = 2π·f", fn)
 	}
 	t.Freq = c.Freq
+	peak := c.Basis == calc.Peak
+	if peak {
+		// a peak phasor V is √2·V_rms: the capacitor's Q_c = ω·C·V_rms² and
+		// the line currents work in RMS, then the currents go back to peak
+		t.V.V /= complex(math.Sqrt2, 0)
+	}
 	k, steps, err := Correct(t)
 	if err != nil {
 		return calc.Result{}, err
+	}
+	if peak {
+		k.I1.V *= complex(math.Sqrt2, 0)
+		k.I2.V *= complex(math.Sqrt2, 0)
+		k.Notes = append([]string{"basis peak: V is read as a peak value, so V_rms = V/√2 sets C (Q_c = ω·C·V_rms²); P, Q and |S| are the usual (RMS) powers; the currents .i1 and .i2 are shown as peak values (√2·I_rms)"}, k.Notes...)
+		if len(steps) > 0 {
+			steps[0].Notes = append(steps[0].Notes, "basis peak: V_rms = V/√2 = "+c.Format.Mag(cmplx.Abs(t.V.V), calc.DimVoltage, calc.KindMagnitude))
+		}
 	}
 	extra := []calc.Operand{{Name: "qc", Value: k.Qc}}
 	if t.Phases == SinglePhase {

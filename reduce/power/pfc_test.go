@@ -2,6 +2,7 @@ package power
 
 import (
 	"math"
+	"math/cmplx"
 	"strings"
 	"testing"
 
@@ -282,5 +283,45 @@ func TestDischarge(t *testing.T) {
 		if err == nil || !strings.Contains(err.Error(), b.want) {
 			t.Errorf("%s: err = %v, want %q", b.name, err, b.want)
 		}
+	}
+}
+
+// TestPFCBasis: the capacitor for one correction does not depend on how
+// the voltage phasor is written: V on the peak basis is √2 times V on the
+// RMS basis and gives the same C and Q_c (Q_c = ω·C·V_rms², common
+// practice); the currents follow the basis (I_pk = √2·I_rms).
+func TestPFCBasis(t *testing.T) {
+	call := func(b calc.Basis, v float64) calc.Result {
+		t.Helper()
+		c := &calc.Context{Freq: 50, Basis: b, Sequence: 1}
+		var f calc.Func
+		for _, x := range Funcs() {
+			if x.Name == "pfc" {
+				f = x
+			}
+		}
+		args := []calc.Arg{{Q: calc.Quantity{V: 10e3, Dim: calc.DimPower, Kind: calc.KindActive}}, {Q: calc.Number(0.7)}, {Q: calc.Number(0.95)},
+			{Q: calc.Real(v, calc.DimVoltage)}, {Word: "single"}}
+		r, err := f.Call(c, args)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r
+	}
+	rms, pk := call(calc.RMS, 230), call(calc.Peak, 230*math.Sqrt2)
+	get := func(r calc.Result, k string) complex128 {
+		for _, o := range r.Extra {
+			if o.Name == k {
+				return o.Value.V
+			}
+		}
+		t.Fatalf("no .%s", k)
+		return 0
+	}
+	if !near(real(get(rms, "c")), real(get(pk, "c"))) || !near(real(rms.Value.V), real(pk.Value.V)) {
+		t.Errorf("C %v vs %v, Qc %v vs %v", get(rms, "c"), get(pk, "c"), rms.Value.V, pk.Value.V)
+	}
+	if !near(cmplx.Abs(get(pk, "i1")), math.Sqrt2*cmplx.Abs(get(rms, "i1"))) {
+		t.Errorf("peak i1 %v, want √2 × %v", get(pk, "i1"), get(rms, "i1"))
 	}
 }

@@ -145,3 +145,18 @@ func TestCheckComparesKinds(t *testing.T) {
 		t.Errorf("600 var passed as −600 var: %v", err)
 	}
 }
+
+// TestElementPower: |I|²·R with R a resistor element is an active power in
+// W (P = I²R, common practice; IEC 60050-131).
+func TestElementPower(t *testing.T) {
+	s := New()
+	for _, l := range []string{"resistor R = 10 Ω", "Vs = 230 V", "Zs = 3+j4 Ω", "p = mag(Vs/Zs)^2*R"} {
+		if _, err := s.Exec(l); err != nil {
+			t.Fatalf("%s: %v", l, err)
+		}
+	}
+	q, _ := s.Lookup("p")
+	if calc.QuantityName(q) != "active-power" || calc.UnitSymbol(q.Dim, q.Kind, false) != "W" {
+		t.Errorf("mag(Vs/Zs)^2*R is %s in %s, want an active power in W", calc.QuantityName(q), calc.UnitSymbol(q.Dim, q.Kind, false))
+	}
+}

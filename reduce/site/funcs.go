@@ -2,6 +2,7 @@ package site
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"argand/calc"
@@ -364,11 +365,25 @@ func callCableDrop(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	cb.Leading = has(words, "leading")
 	cb.ThreePhase = has(words, "three")
+	notes := []string{CableCaution}
+	if c != nil && c.Basis == calc.Peak {
+		// Vs and I are phasors on the peak basis, and the drop I·Z scales
+		// with them; a nominal voltage is RMS by definition (IEC 60038), so
+		// the per cent compares the drop with √2·Vnom
+		if cb.Vnom != 0 {
+			cb.Vnom *= math.Sqrt2
+			notes = append(notes, "basis peak: Vs, I and the drop are peak values; Vnom is a nominal voltage, RMS by definition, so the per cent is of its peak √2·Vnom")
+		} else {
+			notes = append(notes, "basis peak: Vs, I and the drop are peak values; the per cent is of Vs, the same on either basis")
+		}
+	} else if cb.Vnom != 0 {
+		notes = append(notes, "Vnom is a nominal voltage: RMS by definition (IEC 60038)")
+	}
 	r, err := CableDrop(cb)
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: r.Vload, Steps: r.Steps, Notes: []string{CableCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.Vload, Steps: r.Steps, Notes: notes, Extra: []calc.Operand{
 		op("drop", r.Drop), op("pct", num(r.DropPct)), op("approx", r.Approx), op("diff", r.Diff), op("z", r.Zloop)}}, nil
 }
 

@@ -127,3 +127,40 @@ func TestFuncsHostile(t *testing.T) {
 		}
 	}
 }
+
+// TestCableDropBasis: the per cent drop of a cable run is the same whether
+// its phasors are written RMS or peak, with the nominal voltage RMS by
+// definition (IEC 60038) under either basis; the drop itself follows the
+// basis (ΔV = I·Z, common practice).
+func TestCableDropBasis(t *testing.T) {
+	var f calc.Func
+	for _, x := range Funcs() {
+		if x.Name == "cabledrop" {
+			f = x
+		}
+	}
+	per := calc.Dim{calc.BaseVolt: 1, calc.BaseAmpere: -1, calc.BaseMetre: -1}
+	run := func(b calc.Basis, k float64) (float64, float64) {
+		args := []calc.Arg{{Q: calc.Real(230*k, calc.DimVoltage)}, {Q: calc.Real(32*k, calc.DimCurrent)}, {Q: calc.Number(0.9)}, {Word: "lagging"},
+			{Q: calc.Real(1.83e-3, per)}, {Q: calc.Real(0.09e-3, per)}, {Q: calc.Real(45, calc.DimLength)}, {Word: "single"}, {Q: calc.Real(230, calc.DimVoltage)}}
+		r, err := f.Call(&calc.Context{Freq: 50, Basis: b, Sequence: 1}, args)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var drop, pct float64
+		for _, o := range r.Extra {
+			switch o.Name {
+			case "drop":
+				drop = real(o.Value.V)
+			case "pct":
+				pct = real(o.Value.V)
+			}
+		}
+		return drop, pct
+	}
+	d1, p1 := run(calc.RMS, 1)
+	d2, p2 := run(calc.Peak, math.Sqrt2)
+	if math.Abs(p1-p2) > 1e-9*p1 || math.Abs(d2-math.Sqrt2*d1) > 1e-9*d2 {
+		t.Errorf("RMS: drop %g, %g %%; peak: drop %g, %g %%", d1, p1, d2, p2)
+	}
+}

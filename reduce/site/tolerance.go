@@ -511,10 +511,10 @@ func (s *search) result(method string) (RangeResult, error) {
 // magKind is the display kind of a magnitude: |S| of a complex power is
 // an apparent power.
 func magKind(k calc.Kind) calc.Kind {
-	if k == calc.KindActive || k == calc.KindReactive {
-		return calc.KindApparent
+	if k == calc.KindAngle {
+		return k
 	}
-	return k
+	return calc.KindMagnitude
 }
 
 // Overlap is the verdict on a measured value against a tolerance range.
