@@ -59,3 +59,19 @@ type Func struct {
 
 // Value wraps a single quantity as a Result.
 func Value(q Quantity) Result { return Result{Value: q} }
+
+// RMSByDefinition wraps a function whose arguments are ratings, nameplate
+// values or meter readings. Those are RMS by definition whatever basis the
+// worksheet's phasors are on (IEC 60038 for nominal voltages; a meter
+// reads RMS, common practice), so the function works in RMS on either
+// basis, and on the peak basis its step says so. what names the values,
+// such as "the transformer's rating S, V1, V2".
+func RMSByDefinition(what string, call func(*Context, []Arg) (Result, error)) func(*Context, []Arg) (Result, error) {
+	return func(c *Context, args []Arg) (Result, error) {
+		r, err := call(c, args)
+		if err == nil && c != nil && c.Basis == Peak {
+			r.Notes = append(r.Notes, "basis peak: "+what+" are RMS by definition on either basis, and so are the results")
+		}
+		return r, err
+	}
+}

@@ -15,8 +15,15 @@ import (
 // errors.
 func Funcs() []calc.Func {
 	fs := funcs()
+	rated := map[string]string{
+		"motor":  "the nameplate output and line voltage",
+		"rerate": "the capacitor's rating Qr at Vr and the system voltage V",
+	}
 	for i := range fs {
 		fs[i].Call = checkArity(fs[i])
+		if what, ok := rated[fs[i].Name]; ok {
+			fs[i].Call = calc.RMSByDefinition(what, fs[i].Call)
+		}
 	}
 	return fs
 }

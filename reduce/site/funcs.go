@@ -93,8 +93,21 @@ func Funcs() []calc.Func {
 			Formula: "band = |x| ± (pct/100·|x| + digits·resolution)",
 			Call:    callReadCheck},
 	}
+	rated := map[string]string{
+		"xfmr":         "the nameplate S, V1, V2",
+		"faultcurrent": "the nameplate S, V1, V2 and the fault level",
+		"pubase":       "base power and voltage",
+		"rebase":       "base powers and voltages",
+		"radial":       "the base and the fault level",
+		"fromvi":       "meter readings of V and I",
+		"fromvip":      "meter readings of V, I and P",
+		"frompf":       "the voltage reading",
+	}
 	for i := range fs {
 		fs[i].Call = guard(fs[i])
+		if what, ok := rated[fs[i].Name]; ok {
+			fs[i].Call = calc.RMSByDefinition(what, fs[i].Call)
+		}
 	}
 	return fs
 }
