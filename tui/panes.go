@@ -327,7 +327,7 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 			continue
 		}
 		kind := q.Kind
-		if q.Dim == calc.DimPower {
+		if q.Dim == calc.DimPower && q.Kind != calc.KindProduct {
 			// W, var and VA are one dimension: P, jQ and S share a scale
 			// so that they draw as the power triangle they are
 			kind = calc.KindApparent
@@ -347,7 +347,7 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 	rows := h - 1
 	var note string
 	if len(skipped) > 0 {
-		note = m.tr(strings.Join(skipped, ", ") + ": no angle (a magnitude or signed real), not drawn")
+		note = m.tr(strings.Join(skipped, ", ") + ": no angle, not drawn")
 		if len([]rune(note)) > w {
 			note = string([]rune(note)[:w])
 		}
