@@ -18,6 +18,8 @@ var fuzzSeeds = []string{
 	"1/0", "5∠", "(1+2", "1 +", "foo(2)", "10 k", "S", "1 V·s/A", "1 A*1 s/1 V", "1 H/1 Ω",
 	"Vs / (Z + Z2)", "-(-(-1))", "((((1))))", "1e-400", "1e400", "\xff", "π", "1 %", "10 ms", "10 mS",
 	"10 m", "1 hp", "2 rad/s", "1∠0.5 rad", "3.3 kohm", "1 W + 1 var", "2 VA * 0.5", "1.5e3 Ω", ".5",
+	"mag(z = Z)", "mag(z = Z, z = Z)", "mag(y = 1)", "sin(θ = 30)", "atan2(x = 3, y = 4)", "atan2(3, x = 4)",
+	"atan2(y = 4, 3)", "mag(z =)", "mag(= 3)", "mag(2 A)^2 * 50 Ω", "1 kW + 1 kVA", "230 V * 10 A",
 }
 
 // checkErr asserts an error's place lies inside its line.

@@ -714,7 +714,10 @@ func Parallel(a, b Quantity) (Quantity, error) {
 	// underflow, so 1e-300 Ω ‖ 1e-300 Ω is 5e-301 Ω and 1e200 ‖ 1e200 is
 	// 5e199; 1 + a/b near 0 is the admittances cancelling
 	x, y := a.V, b.V
-	if cmplx.Abs(x) > cmplx.Abs(y) {
+	ax, ay := cmplx.Abs(x), cmplx.Abs(y)
+	// a fixed order, also between branches of equal size, so that a‖b
+	// and b‖a round alike
+	if ax > ay || ax == ay && (real(x) > real(y) || real(x) == real(y) && imag(x) > imag(y)) {
 		x, y = y, x
 	}
 	den := 1 + Quot(x, y)
