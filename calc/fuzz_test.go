@@ -126,6 +126,11 @@ func parsesBack(q Quantity) bool {
 		return false
 	}
 	sym := UnitSymbol(q.Dim, q.Kind, false)
+	if sym != "" && m != 0 && (m < 1e-15 || m >= 999.95e12) {
+		// shown with a prefix a … q or P … Q, which input does not read
+		// (DESIGN: input prefixes f … T)
+		return false
+	}
 	return sym == "" || IsUnit(sym) || sym == "rad/s"
 }
 
