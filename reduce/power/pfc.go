@@ -237,8 +237,8 @@ func Rerate(qr, v, vr calc.Quantity) (calc.Quantity, []calc.Step, error) {
 		Formula: "Q = Q_r·(V/V_r)²",
 		Inputs: []calc.Operand{
 			{Name: "Q_r", Value: varQ(qr.Mag())},
-			{Name: "V", Value: calc.Real(v.Mag(), calc.DimVoltage)},
-			{Name: "V_r", Value: calc.Real(vr.Mag(), calc.DimVoltage)},
+			{Name: "V", Value: calc.Magnitude(v.Mag(), calc.DimVoltage)},
+			{Name: "V_r", Value: calc.Magnitude(vr.Mag(), calc.DimVoltage)},
 		},
 		Results: []calc.Operand{{Name: "Q", Value: q}},
 		Notes:   notes,
@@ -355,8 +355,8 @@ func DischargeResistance(c, v0, vsafe, t calc.Quantity) (calc.Quantity, []calc.S
 		Rule:    "discharge resistor for a capacitor to reach a safe voltage in a given time (common practice)",
 		Formula: "R = t/(C·ln(V0/V_safe)), from t = R·C·ln(V0/V_safe)",
 		Inputs: []calc.Operand{
-			{Name: "C", Value: c}, {Name: "V0", Value: calc.Real(v0.Mag(), calc.DimVoltage)},
-			{Name: "V_safe", Value: calc.Real(vsafe.Mag(), calc.DimVoltage)}, {Name: "t", Value: t},
+			{Name: "C", Value: c}, {Name: "V0", Value: calc.Magnitude(v0.Mag(), calc.DimVoltage)},
+			{Name: "V_safe", Value: calc.Magnitude(vsafe.Mag(), calc.DimVoltage)}, {Name: "t", Value: t},
 		},
 		Results: []calc.Operand{{Name: "R", Value: r}},
 		Notes:   append([]string{"the largest resistance that meets the time: a smaller resistor discharges faster"}, dischargeNotes()...),
@@ -386,8 +386,8 @@ func DischargeTime(r, c, v0, vsafe calc.Quantity) (calc.Quantity, []calc.Step, e
 		Rule:    "time for a resistor to discharge a capacitor to a safe voltage (common practice)",
 		Formula: "t = R·C·ln(V0/V_safe)",
 		Inputs: []calc.Operand{
-			{Name: "R", Value: r}, {Name: "C", Value: c}, {Name: "V0", Value: calc.Real(v0.Mag(), calc.DimVoltage)},
-			{Name: "V_safe", Value: calc.Real(vsafe.Mag(), calc.DimVoltage)},
+			{Name: "R", Value: r}, {Name: "C", Value: c}, {Name: "V0", Value: calc.Magnitude(v0.Mag(), calc.DimVoltage)},
+			{Name: "V_safe", Value: calc.Magnitude(vsafe.Mag(), calc.DimVoltage)},
 		},
 		Results: []calc.Operand{{Name: "t", Value: t}},
 		Notes:   dischargeNotes(),

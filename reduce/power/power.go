@@ -269,7 +269,7 @@ func FromVIAngle(v, i calc.Quantity, phi float64, basis calc.Basis) (Power, []ca
 		Kind:    "load",
 		Rule:    "load power from voltage, current and the angle by which the current lags (" + ieee + ")",
 		Formula: formula + "; φ = θ_V − θ_I",
-		Inputs:  []calc.Operand{{Name: "|V|", Value: calc.Real(v.Mag(), calc.DimVoltage)}, {Name: "|I|", Value: calc.Real(i.Mag(), calc.DimCurrent)}, {Name: "φ", Value: calc.Angle(phi)}},
+		Inputs:  []calc.Operand{{Name: "|V|", Value: calc.Magnitude(v.Mag(), calc.DimVoltage)}, {Name: "|I|", Value: calc.Magnitude(i.Mag(), calc.DimCurrent)}, {Name: "φ", Value: calc.Angle(phi)}},
 		Results: p.operands(),
 		Basis:   basis,
 		Notes:   p.notes(),

@@ -104,10 +104,10 @@ func CableDrop(c Cable) (CableResult, error) {
 	res := CableResult{
 		Zloop:   cq(zc, calc.DimImpedance),
 		Vload:   cq(vloadLine, calc.DimVoltage),
-		Drop:    rq(drop, calc.DimVoltage),
+		Drop:    kq(drop, calc.DimVoltage, calc.KindSigned),
 		DropPct: drop / vnom * 100,
-		Approx:  rq(approx, calc.DimVoltage),
-		Diff:    rq(drop-approx, calc.DimVoltage),
+		Approx:  kq(approx, calc.DimVoltage, calc.KindSigned),
+		Diff:    kq(drop-approx, calc.DimVoltage, calc.KindSigned),
 	}
 	perM := calc.Dim{calc.BaseVolt: 1, calc.BaseAmpere: -1, calc.BaseMetre: -1}
 	pf := "lagging"

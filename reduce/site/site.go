@@ -73,8 +73,14 @@ func finiteC(name string, z complex128) error {
 	return finite([]string{name + " (real part)", name + " (imaginary part)"}, real(z), imag(z))
 }
 
-// rq returns a real quantity.
-func rq(x float64, d calc.Dim) calc.Quantity { return calc.Real(x, d) }
+// rq returns a real quantity. A voltage or current given as a real number
+// here is a size (a reading, a rating, a drop), never a phasor at 0°.
+func rq(x float64, d calc.Dim) calc.Quantity {
+	if d == calc.DimVoltage || d == calc.DimCurrent {
+		return calc.Magnitude(x, d)
+	}
+	return calc.Real(x, d)
+}
 
 // cq returns a complex quantity.
 func cq(z complex128, d calc.Dim) calc.Quantity { return calc.Q(z, d) }
