@@ -153,7 +153,9 @@ func Real(x float64, d Dim) Quantity { return Quantity{V: complex(x, 0), Dim: d}
 
 // Magnitude returns the size |x| of a quantity of dimension d: shown as a
 // number with its unit and no angle.
-func Magnitude(x float64, d Dim) Quantity { return Quantity{V: complex(x, 0), Dim: d, Kind: KindMagnitude} }
+func Magnitude(x float64, d Dim) Quantity {
+	return Quantity{V: complex(x, 0), Dim: d, Kind: KindMagnitude}
+}
 
 // Number returns a dimensionless quantity.
 func Number(v complex128) Quantity { return Quantity{V: v} }
