@@ -44,7 +44,24 @@ func checkErr(t *testing.T, src string, err *Error) {
 	c := Caret(src, err)
 	lines := strings.Split(c, "\n")
 	caret := lines[len(lines)-1]
-	if !strings.HasSuffix(caret, "^") || utf8.RuneCountInString(strings.TrimRight(caret, "^")) != err.Col-1 {
+	// Each character before the column takes one cell, or the width of
+	// its visible escape (a line break included), so the caret stays
+	// under the character it marks.
+	pad := 0
+	for i, col := 0, 1; i < len(src) && col < err.Col; col++ {
+		r, n := utf8.DecodeRuneInString(src[i:])
+		shown := Printable(src[i : i+n])
+		switch {
+		case r == '\n':
+			pad += len(`\x0a`)
+		case shown != src[i:i+n] && strings.HasPrefix(shown, `\`):
+			pad += len(shown)
+		default:
+			pad++
+		}
+		i += n
+	}
+	if !strings.HasSuffix(caret, "^") || len(strings.TrimRight(caret, "^")) != pad {
 		t.Fatalf("%q: caret line %q does not start at column %d", src, caret, err.Col)
 	}
 }
