@@ -177,27 +177,12 @@ func elements(n *reduce.Network) (*topology, error) {
 		if e.From == "" || e.To == "" {
 			return nil, bad("both nodes must be named")
 		}
-		if e.Kind > reduce.CurrentSource {
-			return nil, bad("unknown element kind")
+		if err := checkValue(e); err != nil {
+			return nil, err
 		}
 		t.from[k], t.to[k] = node(e.From), node(e.To)
 		if e.Kind.IsSource() {
-			if !finite(e.Value) {
-				return nil, bad("the source value is not a finite number")
-			}
-			if e.From == e.To {
-				return nil, &NetError{
-					Msg:   fmt.Sprintf("%s: the %s is joined to node %s at both ends", e.Name, e.Kind, e.From),
-					Nodes: []string{e.From}, Elements: []string{e.Name}, Line: e.Line,
-				}
-			}
 			continue
-		}
-		if !finite(e.Z) {
-			return nil, bad("the impedance is not a finite number")
-		}
-		if e.Z == 0 && e.Raw != 0 {
-			return nil, bad("the impedance has not been worked out at a frequency (evaluate the network at a frequency first)")
 		}
 		if e.From == e.To {
 			t.self[k] = true
@@ -207,6 +192,36 @@ func elements(n *reduce.Network) (*topology, error) {
 		t.short[k] = e.Z == 0
 	}
 	return t, nil
+}
+
+// checkValue checks the kind and value of one element whose nodes are
+// named.
+func checkValue(e reduce.Element) error {
+	bad := func(format string, args ...any) error {
+		return &NetError{Msg: e.Name + ": " + fmt.Sprintf(format, args...), Elements: []string{e.Name}, Line: e.Line}
+	}
+	if e.Kind > reduce.CurrentSource {
+		return bad("unknown element kind")
+	}
+	if e.Kind.IsSource() {
+		if !finite(e.Value) {
+			return bad("the source value is not a finite number")
+		}
+		if e.From == e.To {
+			return &NetError{
+				Msg:   fmt.Sprintf("%s: the %s is joined to node %s at both ends", e.Name, e.Kind, e.From),
+				Nodes: []string{e.From}, Elements: []string{e.Name}, Line: e.Line,
+			}
+		}
+		return nil
+	}
+	if !finite(e.Z) {
+		return bad("the impedance is not a finite number")
+	}
+	if e.Z == 0 && e.Raw != 0 {
+		return bad("the impedance has not been worked out at a frequency (evaluate the network at a frequency first)")
+	}
+	return nil
 }
 
 // component returns the node and element names of the part of the graph

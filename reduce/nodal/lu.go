@@ -11,226 +11,328 @@ type entry struct {
 	v    complex128
 }
 
-// maxBandStorage bounds the band storage (in complex numbers) that a solve
-// may allocate: 4·10⁶ numbers take 64 MB. A network whose reordered matrix
-// still needs more is refused rather than left to exhaust memory.
-const maxBandStorage = 4_000_000
+// pivotThreshold is τ of threshold partial pivoting: a candidate pivot is
+// accepted when its modulus is at least τ times the largest in its column
+// of the active matrix, so no multiplier of L exceeds 1/τ = 10. The value
+// 0.1 is the compromise between stability and keeping the pivots the
+// ordering chose that I. S. Duff, A. M. Erisman and J. K. Reid recommend
+// for sparse Gaussian elimination ("Direct Methods for Sparse Matrices",
+// Oxford, 1986, from memory): small enough that the diagonal of a node
+// equation is nearly always kept, so the fill stays as the ordering
+// planned, and large enough that the growth of the entries, and with it
+// the backward error, stays small; iterative refinement mops up the rest.
+// The same test decides whether a later factorisation with other values
+// may reuse the pivots.
+const pivotThreshold = 0.1
 
-// rcmOrder returns a reverse Cuthill–McKee ordering of the symmetric
-// pattern given by adjacency lists in compressed form (neighbours of i are
-// adj[start[i]:start[i+1]]): order[new] = old. Each connected part starts
-// from a pseudo-peripheral vertex found by repeated breadth-first search
-// (Cuthill & McKee, "Reducing the bandwidth of sparse symmetric matrices",
-// 1969; the reversal after George, 1971; the starting vertex as in George &
-// Liu, "Computer Solution of Large Sparse Positive Definite Systems", 1981,
-// from memory). Neighbours are visited in order of increasing degree.
-func rcmOrder(n int, start, adj []int32) []int32 {
-	deg := func(v int32) int32 { return start[v+1] - start[v] }
-	order := make([]int32, 0, n)
-	level := make([]int32, n)
-	visited := make([]bool, n)
-	var nb []int32
-
-	// bfsLevels runs a breadth-first search from root over unvisited
-	// vertices and returns the last level's vertices and the depth, using
-	// level as scratch (−1 unvisited).
-	mark := make([]int32, n)
-	stamp := int32(0)
-	bfs := func(root int32) (last []int32, depth int32) {
-		stamp++
-		queue := []int32{root}
-		mark[root] = stamp
-		level[root] = 0
-		for h := 0; h < len(queue); h++ {
-			v := queue[h]
-			for _, w := range adj[start[v]:start[v+1]] {
-				if visited[w] || mark[w] == stamp {
-					continue
-				}
-				mark[w] = stamp
-				level[w] = level[v] + 1
-				queue = append(queue, w)
-			}
-		}
-		depth = level[queue[len(queue)-1]]
-		for i := len(queue) - 1; i >= 0 && level[queue[i]] == depth; i-- {
-			last = append(last, queue[i])
-		}
-		return last, depth
-	}
-
-	for s := int32(0); int(s) < n; s++ {
-		if visited[s] {
-			continue
-		}
-		// The lowest-degree vertex of this part is a good first guess.
-		root := s
-		{
-			stamp++
-			queue := []int32{s}
-			mark[s] = stamp
-			for h := 0; h < len(queue); h++ {
-				v := queue[h]
-				if deg(v) < deg(root) {
-					root = v
-				}
-				for _, w := range adj[start[v]:start[v+1]] {
-					if !visited[w] && mark[w] != stamp {
-						mark[w] = stamp
-						queue = append(queue, w)
-					}
-				}
-			}
-		}
-		// Pseudo-peripheral vertex: move to a minimum-degree vertex of the
-		// deepest level while the depth grows (a few rounds suffice).
-		last, depth := bfs(root)
-		for round := 0; round < 8; round++ {
-			cand := last[0]
-			for _, v := range last {
-				if deg(v) < deg(cand) {
-					cand = v
-				}
-			}
-			l2, d2 := bfs(cand)
-			if d2 <= depth {
-				break
-			}
-			root, last, depth = cand, l2, d2
-		}
-		// Cuthill–McKee from root.
-		head := len(order)
-		order = append(order, root)
-		visited[root] = true
-		for h := head; h < len(order); h++ {
-			v := order[h]
-			nb = nb[:0]
-			for _, w := range adj[start[v]:start[v+1]] {
-				if !visited[w] {
-					visited[w] = true
-					nb = append(nb, w)
-				}
-			}
-			// insertion sort by degree: neighbour lists are short
-			for i := 1; i < len(nb); i++ {
-				for k := i; k > 0 && deg(nb[k]) < deg(nb[k-1]); k-- {
-					nb[k], nb[k-1] = nb[k-1], nb[k]
-				}
-			}
-			order = append(order, nb...)
-		}
-	}
-	for i, j := 0, len(order)-1; i < j; i, j = i+1, j-1 {
-		order[i], order[j] = order[j], order[i]
-	}
-	return order
-}
-
-// bandLU is the LU factorisation with partial pivoting of a complex band
-// matrix with kl sub-diagonals and ku super-diagonals: Gaussian
-// elimination restricted to the band, where row interchanges widen the
-// upper band of U to kl+ku (Golub & Van Loan, "Matrix Computations",
-// band Gaussian elimination with partial pivoting, from memory).
+// sparseLU is the LU factorisation P·B = L·U of a sparse complex matrix B
+// held by columns, computed column by column by the left-looking method of
+// J. R. Gilbert and T. Peierls ("Sparse partial pivoting in time
+// proportional to arithmetic operations", SIAM J. Sci. Stat. Comput. 9(5),
+// 1988): the pattern of column k of L and U is the set of rows reachable
+// in the graph of the L found so far from the rows of B(:,k), found by
+// depth-first search, which also yields the order in which the earlier
+// columns update column k. Pivots are chosen by threshold partial pivoting
+// (see pivotThreshold) with preference for the diagonal.
 //
-// Row i holds columns i−kl … i+kl+ku contiguously, so element (i, j) sits
-// at a[i·w + j − i + kl] with w = 2kl+ku+1. The multipliers of L stay where
-// they were computed and the interchanges are replayed on the right-hand
-// side step by step.
-type bandLU struct {
-	n, kl, ku, w int
-	a            []complex128
-	piv          []int32
+// Row indices of L and U are pivot positions: row i of P·B. The columns of
+// U list their entries in an order in which the updates may be applied, so
+// that refactor can repeat the elimination on new values of the same
+// pattern without any search.
+type sparseLU struct {
+	n int
+	// L, unit lower triangular, without its diagonal.
+	lp []int32
+	li []int32
+	lx []complex128
+	// U without its diagonal, and the reciprocals of the pivots.
+	up   []int32
+	ui   []int32
+	ux   []complex128
+	dinv []complex128
+	// perm[k] is the row of B chosen as pivot k; pinv its inverse.
+	perm, pinv []int32
+	// singular is the first column whose pivot fell below pivotTol of
+	// the column's largest entry, or −1.
+	singular int
+	// x is the dense work column, kept zero between columns.
+	x []complex128
 }
-
-func newBand(n, kl, ku int) (*bandLU, bool) {
-	w := 2*kl + ku + 1
-	if n > 0 && w > maxBandStorage/n {
-		return nil, false
-	}
-	return &bandLU{n: n, kl: kl, ku: ku, w: w, a: make([]complex128, n*w), piv: make([]int32, n)}, true
-}
-
-func (b *bandLU) add(i, j int, v complex128) { b.a[i*b.w+j-i+b.kl] += v }
 
 // abs1 is |re|+|im|, the cheap modulus used for pivot choice.
 func abs1(v complex128) float64 { return math.Abs(real(v)) + math.Abs(imag(v)) }
 
-// factor overwrites the band with L and U. It returns the first column k
-// whose pivot is zero or smaller than rtol times the largest entry of that
-// column in the original matrix (colmax), or −1 when the matrix is
-// numerically regular. A pivot found too small is replaced by that bound
-// and the elimination goes on, so that a solve with the factors can still
-// expose the null direction of a singular matrix (one step of inverse
-// iteration).
-func (b *bandLU) factor(colmax []float64, rtol float64) int {
-	n, kl, w := b.n, b.kl, b.w
-	off := kl // a[i][j] = a[i*w + off + j - i]
-	first := -1
-	for k := 0; k < n; k++ {
-		last := min(n-1, k+kl)
-		jmax := min(n-1, k+kl+b.ku)
-		p, best := k, abs1(b.a[k*w+off])
-		for i := k + 1; i <= last; i++ {
-			if m := abs1(b.a[i*w+off+k-i]); m > best {
-				p, best = i, m
-			}
-		}
-		b.piv[k] = int32(p)
-		rk := b.a[k*w+off-k : k*w+off-k+jmax+1] // row k indexed by column
-		if p != k {
-			rp := b.a[p*w+off-p : p*w+off-p+jmax+1]
-			for j := k; j <= jmax; j++ {
-				rk[j], rp[j] = rp[j], rk[j]
-			}
-		}
-		if !(best > rtol*colmax[k]) || math.IsInf(best, 0) {
-			if first < 0 {
-				first = k
-			}
-			t := rtol * colmax[k]
-			if !(t > 0) || math.IsInf(t, 0) {
-				t = 1
-			}
-			rk[k] = complex(t, 0)
-		}
-		d := rk[k]
-		for i := k + 1; i <= last; i++ {
-			ri := b.a[i*w+off-i : i*w+off-i+jmax+1]
-			if ri[k] == 0 {
-				continue
-			}
-			l := ri[k] / d
-			ri[k] = l
-			for j := k + 1; j <= jmax; j++ {
-				ri[j] -= l * rk[j]
-			}
-		}
-	}
-	return first
+// csc is a square sparse matrix by columns: the rows of column j are
+// i[p[j]:p[j+1]], in increasing order, with values x.
+type csc struct {
+	n int
+	p []int32
+	i []int32
+	x []complex128
 }
 
-// solve overwrites x (the right-hand side) with the solution.
-func (b *bandLU) solve(x []complex128) {
-	n, kl, w := b.n, b.kl, b.w
-	off := kl
-	for k := 0; k < n; k++ {
-		if p := int(b.piv[k]); p != k {
-			x[k], x[p] = x[p], x[k]
+// colMax returns the largest entry modulus (abs1) of each column.
+func (b *csc) colMax() []float64 {
+	m := make([]float64, b.n)
+	for j := 0; j < b.n; j++ {
+		for q := b.p[j]; q < b.p[j+1]; q++ {
+			m[j] = math.Max(m[j], abs1(b.x[q]))
 		}
-		xk := x[k]
-		if xk == 0 {
+	}
+	return m
+}
+
+// capacityError is returned when the factors outgrow the bound set from
+// the symbolic analysis.
+type capacityError struct{ nnz int }
+
+func (e *capacityError) Error() string { return "factor too large" }
+
+// factor computes P·B = L·U from scratch, choosing pivots. colmax holds
+// the largest entry of each column of B; a pivot below pivotTol times it
+// marks the matrix numerically singular (see singular) and is replaced by
+// that bound so that the factors stay usable for inverse iteration.
+// capHint sizes the storage; maxNNZ bounds the entries of L and U.
+func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
+	n := b.n
+	f := &sparseLU{
+		n:        n,
+		lp:       make([]int32, n+1),
+		up:       make([]int32, n+1),
+		dinv:     make([]complex128, n),
+		perm:     make([]int32, n),
+		pinv:     make([]int32, n),
+		singular: -1,
+		x:        make([]complex128, n),
+	}
+	half := capHint/2 + n
+	f.li = make([]int32, 0, half)
+	f.lx = make([]complex128, 0, half)
+	f.ui = make([]int32, 0, half)
+	f.ux = make([]complex128, 0, half)
+	for i := range f.pinv {
+		f.pinv[i] = -1
+	}
+	x := f.x
+	// Depth-first search state: the reach is written at the top of xi
+	// (xi[top:n]), the stack at its bottom; pstack keeps each node's
+	// position in its list.
+	xi := make([]int32, 2*n)
+	pstack := make([]int32, n)
+	visited := make([]int32, n) // stamp k+1: row reached for column k
+	cand := make([]int32, 0, 16)
+	free := 0 // rows below free are all pivotal: the search for a spare row starts here
+
+	for k := 0; k < n; k++ {
+		stamp := int32(k + 1)
+		// Reach of B(:,k) in the graph of L: row i (of B) leads on to
+		// the rows of column pinv[i] of L when it is already pivotal.
+		top := n
+		for q := b.p[k]; q < b.p[k+1]; q++ {
+			r := b.i[q]
+			if visited[r] == stamp {
+				continue
+			}
+			// iterative depth-first search from r
+			head := 0
+			xi[0] = r
+			for head >= 0 {
+				v := xi[head]
+				j := f.pinv[v]
+				if visited[v] != stamp {
+					visited[v] = stamp
+					if j >= 0 {
+						pstack[head] = f.lp[j]
+					}
+				}
+				done := true
+				if j >= 0 {
+					end := f.lp[j+1]
+					for p := pstack[head]; p < end; p++ {
+						w := f.li[p]
+						if visited[w] == stamp {
+							continue
+						}
+						pstack[head] = p + 1
+						head++
+						xi[head] = w
+						done = false
+						break
+					}
+				}
+				if done {
+					head--
+					top--
+					xi[top] = v
+				}
+			}
+		}
+		reach := xi[top:n]
+		// Numeric: scatter B(:,k) and apply the updates in order.
+		for q := b.p[k]; q < b.p[k+1]; q++ {
+			x[b.i[q]] += b.x[q]
+		}
+		for _, v := range reach {
+			j := f.pinv[v]
+			if j < 0 {
+				continue
+			}
+			xj := x[v]
+			if xj == 0 {
+				continue
+			}
+			for p := f.lp[j]; p < f.lp[j+1]; p++ {
+				x[f.li[p]] -= f.lx[p] * xj
+			}
+		}
+		// Pivot among the rows not yet pivotal.
+		cand = cand[:0]
+		best, ipiv := -1.0, int32(-1)
+		for _, v := range reach {
+			if f.pinv[v] >= 0 {
+				continue
+			}
+			cand = append(cand, v)
+			if a := abs1(x[v]); a > best {
+				best, ipiv = a, v
+			}
+		}
+		// Prefer the diagonal, the row the ordering placed with k.
+		if f.pinv[k] < 0 && visited[k] == stamp && abs1(x[k]) >= pivotThreshold*best {
+			ipiv = int32(k)
+		}
+		if ipiv < 0 {
+			// Structurally no candidate: take a spare row so that the
+			// factors stay square; the pivot is then 0 and replaced.
+			for free < n && f.pinv[free] >= 0 {
+				free++
+			}
+			ipiv = int32(free)
+			cand = append(cand, ipiv)
+			best = 0
+		}
+		piv := x[ipiv]
+		if tol := pivotTol * colmax[k]; !(best > tol) || math.IsInf(best, 0) {
+			if f.singular < 0 {
+				f.singular = k
+			}
+			if !(tol > 0) || math.IsInf(tol, 0) {
+				tol = 1
+			}
+			piv = complex(tol, 0)
+		}
+		f.perm[k] = ipiv
+		f.pinv[ipiv] = int32(k)
+		d := 1 / piv
+		f.dinv[k] = d
+		// U(:,k): the pivotal rows reached, in update order.
+		for _, v := range reach {
+			if j := f.pinv[v]; j >= 0 && j != int32(k) {
+				f.ui = append(f.ui, j)
+				f.ux = append(f.ux, x[v])
+				x[v] = 0
+			}
+		}
+		f.up[k+1] = int32(len(f.ui))
+		// L(:,k): the other candidates over the pivot; rows stay B rows
+		// until the end.
+		for _, v := range cand {
+			if v != ipiv {
+				f.li = append(f.li, v)
+				f.lx = append(f.lx, x[v]*d)
+			}
+			x[v] = 0
+		}
+		f.lp[k+1] = int32(len(f.li))
+		if len(f.li)+len(f.ui) > maxNNZ {
+			return nil, &capacityError{len(f.li) + len(f.ui)}
+		}
+	}
+	for p := range f.li {
+		f.li[p] = f.pinv[f.li[p]]
+	}
+	return f, nil
+}
+
+// refactor repeats the factorisation on new values of B with the same
+// pattern, keeping the pivot order. It reports false, leaving the factors
+// unusable, when some pivot fails the threshold test against its column
+// (or the singularity test against colmax): the caller then factorises
+// afresh, choosing new pivots.
+func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
+	n := f.n
+	x := f.x
+	ok := true
+	for k := 0; k < n; k++ {
+		for q := b.p[k]; q < b.p[k+1]; q++ {
+			x[f.pinv[b.i[q]]] += b.x[q]
+		}
+		for p := f.up[k]; p < f.up[k+1]; p++ {
+			j := f.ui[p]
+			xj := x[j]
+			if xj != 0 {
+				for q := f.lp[j]; q < f.lp[j+1]; q++ {
+					x[f.li[q]] -= f.lx[q] * xj
+				}
+			}
+			f.ux[p] = xj
+			x[j] = 0
+		}
+		piv := x[k]
+		x[k] = 0
+		a := abs1(piv)
+		big := 0.0
+		for q := f.lp[k]; q < f.lp[k+1]; q++ {
+			big = math.Max(big, abs1(x[f.li[q]]))
+		}
+		if !(a >= pivotThreshold*big) || !(a > pivotTol*colmax[k]) || math.IsInf(a, 0) {
+			ok = false
+		}
+		d := 1 / piv
+		f.dinv[k] = d
+		for q := f.lp[k]; q < f.lp[k+1]; q++ {
+			i := f.li[q]
+			f.lx[q] = x[i] * d
+			x[i] = 0
+		}
+		if !ok {
+			// clear the rest of x: every later column starts from zero
+			for i := range x {
+				x[i] = 0
+			}
+			return false
+		}
+	}
+	return true
+}
+
+// solve overwrites y, the right-hand side in B's row order, with B⁻¹·y in
+// B's column order; w is scratch of length n.
+func (f *sparseLU) solve(y, w []complex128) {
+	for i, v := range y {
+		w[f.pinv[i]] = v
+	}
+	for j := 0; j < f.n; j++ {
+		wj := w[j]
+		if wj == 0 {
 			continue
 		}
-		for i := k + 1; i <= min(n-1, k+kl); i++ {
-			x[i] -= b.a[i*w+off+k-i] * xk
+		for p := f.lp[j]; p < f.lp[j+1]; p++ {
+			w[f.li[p]] -= f.lx[p] * wj
 		}
 	}
-	for i := n - 1; i >= 0; i-- {
-		ri := b.a[i*w+off-i:]
-		s := x[i]
-		for j := i + 1; j <= min(n-1, i+kl+b.ku); j++ {
-			s -= ri[j] * x[j]
+	for k := f.n - 1; k >= 0; k-- {
+		wk := w[k] * f.dinv[k]
+		w[k] = wk
+		if wk == 0 {
+			continue
 		}
-		x[i] = s / ri[i]
+		for p := f.up[k]; p < f.up[k+1]; p++ {
+			w[f.ui[p]] -= f.ux[p] * wk
+		}
 	}
+	copy(y, w)
 }
+
+// nnz is the number of entries of L and U, diagonal included.
+func (f *sparseLU) nnz() int { return len(f.li) + len(f.ui) + f.n }

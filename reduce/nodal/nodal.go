@@ -75,10 +75,14 @@ type Solution struct {
 	// PowerAbs is Σ |S|, its natural scale.
 	PowerSum complex128
 	PowerAbs float64
-	// Unknowns and Band describe the equations solved: their number and
-	// the half-bandwidth after reordering.
-	Unknowns, Band int
-	Notes          []string
+	// Unknowns is the number of equations solved and Factor the number of
+	// entries in their LU factors.
+	Unknowns, Factor int
+	// BackwardError is the normwise backward error of the solved
+	// equations, ‖b − A·x‖∞ / (‖A‖∞·‖x‖∞ + ‖b‖∞), with |re|+|im| as the
+	// modulus, after iterative refinement.
+	BackwardError float64
+	Notes         []string
 }
 
 // Solve finds every node voltage and every element's voltage, current and
@@ -88,170 +92,35 @@ type Solution struct {
 // but the reference, with node voltages as unknowns, plus one equation and
 // one current unknown for each voltage source and each ideal (0 Ω) short.
 //
-// The complex equations are solved by band LU factorisation with partial
-// pivoting after a reverse Cuthill–McKee reordering, which keeps a ladder or
-// a chain of meshes to a narrow band: the work grows linearly with the
-// network size for such networks.
+// The complex equations are solved by sparse LU factorisation with
+// threshold partial pivoting after an approximate minimum degree ordering,
+// followed by iterative refinement (see Analyse and Plan.Solve, of which
+// Solve is the composition): the work grows with the fill of the factors,
+// linearly for ladders, stars and other networks with few loops.
 //
 // Passive elements must carry their impedance Z at the working frequency
 // (see reduce.Network.At). Sources are phasors on the given basis.
 func Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
-	t, err := check(n)
+	p, err := Analyse(n)
 	if err != nil {
 		return nil, err
 	}
-	return t.solve(basis)
+	return p.Solve(n, basis)
 }
 
-func (t *topology) solve(basis calc.Basis) (*Solution, error) {
+// solution builds the Solution from the solved unknowns p.x.
+func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 	els := t.net.Elements
-	// Unknowns: non-reference node voltages, then branch currents.
-	nodeUnk := make([]int32, len(t.nodes)) // node → unknown, −1 for the reference
-	var unk []int32                        // unknown → node
-	for i := range t.nodes {
-		if int32(i) == t.ref {
-			nodeUnk[i] = -1
-			continue
-		}
-		nodeUnk[i] = int32(len(unk))
-		unk = append(unk, int32(i))
-	}
-	var cur []int // current unknown → element
-	curOf := make([]int32, len(els))
-	for k, e := range els {
-		curOf[k] = -1
-		if e.Kind == reduce.VoltageSource || t.short[k] {
-			curOf[k] = int32(len(unk) + len(cur))
-			cur = append(cur, k)
-		}
-	}
-	N := len(unk) + len(cur)
-	rhs := make([]complex128, N)
-	ent := make([]entry, 0, 4*len(els))
-	put := func(i, j int32, v complex128) {
-		if i >= 0 && j >= 0 {
-			ent = append(ent, entry{i, j, v})
-		}
-	}
-	for k, e := range els {
-		if t.self[k] {
-			continue
-		}
-		a, b := nodeUnk[t.from[k]], nodeUnk[t.to[k]]
-		switch {
-		case e.Kind == reduce.CurrentSource:
-			// Value leaves From and enters To.
-			if a >= 0 {
-				rhs[a] -= e.Value
-			}
-			if b >= 0 {
-				rhs[b] += e.Value
-			}
-		case curOf[k] >= 0:
-			// KCL: the branch current leaves a and enters b; the branch
-			// equation V(a) − V(b) = −Value keeps the matrix symmetric.
-			c := curOf[k]
-			put(a, c, 1)
-			put(b, c, -1)
-			put(c, a, 1)
-			put(c, b, -1)
-			if e.Kind == reduce.VoltageSource {
-				rhs[c] = -e.Value
-			}
-		default:
-			y := 1 / e.Z
-			if !finite(y) {
-				return nil, &NetError{Msg: fmt.Sprintf("%s: the admittance 1/Z is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
-			}
-			put(a, a, y)
-			put(b, b, y)
-			put(a, b, -y)
-			put(b, a, -y)
-		}
-	}
-
-	// Symmetric pattern in compressed form for the ordering.
-	start := make([]int32, N+1)
-	for _, x := range ent {
-		if x.i != x.j {
-			start[x.i+1]++
-		}
-	}
-	for i := 0; i < N; i++ {
-		start[i+1] += start[i]
-	}
-	adj := make([]int32, start[N])
-	fill := make([]int32, N)
-	copy(fill, start[:N])
-	for _, x := range ent {
-		if x.i != x.j {
-			adj[fill[x.i]] = x.j
-			fill[x.i]++
-		}
-	}
-	order := rcmOrder(N, start, adj)
-	pos := make([]int32, N)
-	for newI, old := range order {
-		pos[old] = int32(newI)
-	}
-	band := 0
-	for _, x := range ent {
-		d := int(pos[x.i] - pos[x.j])
-		if d < 0 {
-			d = -d
-		}
-		band = max(band, d)
-	}
-	lu, ok := newBand(N, band, band)
-	if !ok {
-		return nil, &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %d unknowns with a band of %d after reordering", N, band)}
-	}
-	colmax := make([]float64, N)
-	for _, x := range ent {
-		lu.add(int(pos[x.i]), int(pos[x.j]), x.v)
-	}
-	for _, x := range ent {
-		j := pos[x.j]
-		colmax[j] = max(colmax[j], abs1(lu.a[int(pos[x.i])*lu.w+int(j)-int(pos[x.i])+lu.kl]))
-	}
-	x := make([]complex128, N)
-	if k := lu.factor(colmax, pivotTol); k >= 0 {
-		// Inverse iteration from a fixed start: the solution is dominated
-		// by the null direction, whose large entries show where the
-		// trouble lies.
-		for i := range x {
-			x[i] = complex(1, 0.5*float64(i%3))
-		}
-		lu.solve(x)
-		big := 0.0
-		for _, v := range x {
-			if finite(v) {
-				big = math.Max(big, cmplx.Abs(v))
-			}
-		}
-		var culprits []int
-		for newI, v := range x {
-			if !finite(v) || cmplx.Abs(v) >= 0.01*big {
-				culprits = append(culprits, int(order[newI]))
-			}
-		}
-		if len(culprits) == 0 {
-			culprits = []int{int(order[k])}
-		}
-		return nil, t.singular(culprits, unk, cur)
-	}
-	for i := range rhs {
-		x[pos[i]] = rhs[i]
-	}
-	lu.solve(x)
-
+	nodeUnk, pos, curOf, x := p.nodeUnk, p.pos, p.curOf, p.x
+	N := p.b.n
 	s := &Solution{
 		Basis:     basis,
 		Reference: t.net.Reference,
 		Voltage:   make(map[string]complex128, len(t.nodes)),
 		KCL:       make(map[string]complex128, len(t.nodes)),
-		Unknowns:  N,
-		Band:      band,
+		Unknowns:      N,
+		Factor:        p.lu.nnz(),
+		BackwardError: p.eta,
 		Notes:     append([]string(nil), t.notes...),
 	}
 	v := make([]complex128, len(t.nodes))
@@ -394,11 +263,11 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		Kind: "nodal",
 		Rule: "modified nodal analysis (Ho, Ruehli & Brennan, IEEE Trans. Circuits and Systems, 1975): " +
 			"Kirchhoff's current law at every node but the reference, plus one equation per voltage source and ideal short; " +
-			"solved by band LU with partial pivoting after reverse Cuthill–McKee ordering",
+			"solved by sparse LU with threshold partial pivoting after approximate minimum degree ordering",
 		Formula: "[Y B; B^T 0]·[v; i] = [j; e]",
 		Basis:   s.Basis,
 		Notes: append([]string{
-			fmt.Sprintf("reference node %s at 0 V; %d unknowns, half-bandwidth %d after reordering", s.Reference, s.Unknowns, s.Band),
+			fmt.Sprintf("reference node %s at 0 V; %d unknowns, %d entries in the LU factors", s.Reference, s.Unknowns, s.Factor),
 		}, s.Notes...),
 	}
 	for _, name := range s.Nodes {

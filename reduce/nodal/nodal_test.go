@@ -129,8 +129,10 @@ func TestLadderAgainstGonum(t *testing.T) {
 	if norm(diff) > 1e-9*norm(ref) {
 		t.Errorf("‖v − v_ref‖ = %g", norm(diff))
 	}
-	if s.Band > 4 {
-		t.Errorf("half-bandwidth %d after reordering, want a narrow band", s.Band)
+	// A ladder is a chain: eliminated from its ends, it fills nothing,
+	// so L and U hold no more than the matrix itself.
+	if s.Factor > 4*s.Unknowns {
+		t.Errorf("%d entries in the LU factors of %d unknowns, want a few per unknown", s.Factor, s.Unknowns)
 	}
 }
 
