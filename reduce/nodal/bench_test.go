@@ -78,3 +78,44 @@ func TestSweepNetwork(t *testing.T) {
 		checkBalance(t, solve(t, nf))
 	}
 }
+
+// BenchmarkShapes solves the shapes of shapes_test.go at several sizes,
+// from the network description to every branch current and the checks.
+// Stats after one solution go with the figures: unknowns, entries of the
+// LU factors and the estimate of the symbolic analysis.
+func BenchmarkShapes(b *testing.B) {
+	shapes := []struct {
+		name string
+		make func() *reduce.Network
+	}{
+		{"ladder-bridged/unknowns=1000", func() *reduce.Network { return bridgedLadder(997) }},
+		{"ladder-bridged/unknowns=10000", func() *reduce.Network { return bridgedLadder(9997) }},
+		{"grid/32x32", func() *reduce.Network { return grid(32, 32) }},
+		{"grid/100x100", func() *reduce.Network { return grid(100, 100) }},
+		{"grid/316x316", func() *reduce.Network { return grid(316, 316) }},
+		{"star/leaves=1000", func() *reduce.Network { return star(1000) }},
+		{"star/leaves=5000", func() *reduce.Network { return star(5000) }},
+		{"star/leaves=50000", func() *reduce.Network { return star(50000) }},
+	}
+	for _, sh := range shapes {
+		b.Run(sh.name, func(b *testing.B) {
+			n := sh.make()
+			var s *nodal.Solution
+			for b.Loop() {
+				var err error
+				if s, err = nodal.Solve(n, calc.RMS); err != nil {
+					b.Fatal(err)
+				}
+			}
+			p, err := nodal.Analyse(n)
+			if err != nil {
+				b.Fatal(err)
+			}
+			w := p.Work()
+			b.ReportMetric(float64(s.Unknowns), "unknowns")
+			b.ReportMetric(float64(s.Factor), "nnzLU")
+			b.ReportMetric(float64(w.Factor), "nnzLU-est")
+			b.ReportMetric(s.BackwardError/0x1p-52, "backward-error/u")
+		})
+	}
+}

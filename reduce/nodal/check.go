@@ -10,7 +10,7 @@ import (
 )
 
 // maxElements bounds the size of a network the nodal solution accepts.
-const maxElements = 200_000
+const maxElements = 1_000_000
 
 // NetError reports a network that has no unique solution, or a malformed
 // one, naming the nodes and elements concerned. Line is the worksheet line
@@ -145,7 +145,7 @@ func elements(n *reduce.Network) (*topology, error) {
 	if len(n.Elements) > maxElements {
 		return nil, &NetError{Msg: fmt.Sprintf("the network has %d elements; at most %d are accepted", len(n.Elements), maxElements)}
 	}
-	t := &topology{net: n, index: make(map[string]int32)}
+	t := &topology{net: n, index: make(map[string]int32, len(n.Elements)/2+1)}
 	m := len(n.Elements)
 	t.from, t.to = make([]int32, m), make([]int32, m)
 	t.short, t.self = make([]bool, m), make([]bool, m)

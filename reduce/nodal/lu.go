@@ -121,6 +121,9 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
 	pstack := make([]int32, n)
 	visited := make([]int32, n) // stamp k+1: row reached for column k
 	cand := make([]int32, 0, 16)
+	// pend[j] ends the part of L(:,j) the search must follow (symmetric
+	// pruning, see below).
+	pend := make([]int32, n)
 	free := 0 // rows below free are all pivotal: the search for a spare row starts here
 
 	for k := 0; k < n; k++ {
@@ -147,7 +150,7 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
 				}
 				done := true
 				if j >= 0 {
-					end := f.lp[j+1]
+					end := pend[j]
 					for p := pstack[head]; p < end; p++ {
 						w := f.li[p]
 						if visited[w] == stamp {
@@ -177,12 +180,8 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
 			if j < 0 {
 				continue
 			}
-			xj := x[v]
-			if xj == 0 {
-				continue
-			}
-			for p := f.lp[j]; p < f.lp[j+1]; p++ {
-				x[f.li[p]] -= f.lx[p] * xj
+			if xj := x[v]; xj != 0 {
+				axpy(x, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], xj)
 			}
 		}
 		// Pivot among the rows not yet pivotal.
@@ -244,6 +243,39 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
 			x[v] = 0
 		}
 		f.lp[k+1] = int32(len(f.li))
+		pend[k] = f.lp[k+1]
+		// Symmetric pruning (S. C. Eisenstat and J. W. H. Liu,
+		// "Exploiting structural symmetry in a sparse partial pivoting
+		// code", SIAM J. Sci. Comput. 14(1), 1993): when U(j,k) ≠ 0 and
+		// the pivot row of k lies in L(:,j), every row of L(:,j) not yet
+		// pivotal is also in L(:,k), so a later search reaches it through
+		// k and need not follow it from j. Such rows move to the end of
+		// L(:,j), past pend[j]; the numeric updates still use them all.
+		for q := f.up[k]; q < f.up[k+1]; q++ {
+			j := f.ui[q]
+			if pend[j] != f.lp[j+1] {
+				continue // pruned already
+			}
+			lo, hi := f.lp[j], f.lp[j+1]
+			found := false
+			for p := lo; p < hi; p++ {
+				if f.li[p] == ipiv {
+					found = true
+					break
+				}
+			}
+			if !found {
+				continue
+			}
+			for p := lo; p < hi; p++ {
+				if f.pinv[f.li[p]] >= 0 {
+					f.li[p], f.li[lo] = f.li[lo], f.li[p]
+					f.lx[p], f.lx[lo] = f.lx[lo], f.lx[p]
+					lo++
+				}
+			}
+			pend[j] = lo
+		}
 		if len(f.li)+len(f.ui) > maxNNZ {
 			return nil, &capacityError{len(f.li) + len(f.ui)}
 		}
@@ -271,9 +303,7 @@ func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
 			j := f.ui[p]
 			xj := x[j]
 			if xj != 0 {
-				for q := f.lp[j]; q < f.lp[j+1]; q++ {
-					x[f.li[q]] -= f.lx[q] * xj
-				}
+				axpy(x, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], xj)
 			}
 			f.ux[p] = xj
 			x[j] = 0
@@ -313,22 +343,15 @@ func (f *sparseLU) solve(y, w []complex128) {
 		w[f.pinv[i]] = v
 	}
 	for j := 0; j < f.n; j++ {
-		wj := w[j]
-		if wj == 0 {
-			continue
-		}
-		for p := f.lp[j]; p < f.lp[j+1]; p++ {
-			w[f.li[p]] -= f.lx[p] * wj
+		if wj := w[j]; wj != 0 {
+			axpy(w, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], wj)
 		}
 	}
 	for k := f.n - 1; k >= 0; k-- {
 		wk := w[k] * f.dinv[k]
 		w[k] = wk
-		if wk == 0 {
-			continue
-		}
-		for p := f.up[k]; p < f.up[k+1]; p++ {
-			w[f.ui[p]] -= f.ux[p] * wk
+		if wk != 0 {
+			axpy(w, f.ui[f.up[k]:f.up[k+1]], f.ux[f.up[k]:f.up[k+1]], wk)
 		}
 	}
 	copy(y, w)
@@ -336,3 +359,11 @@ func (f *sparseLU) solve(y, w []complex128) {
 
 // nnz is the number of entries of L and U, diagonal included.
 func (f *sparseLU) nnz() int { return len(f.li) + len(f.ui) + f.n }
+
+// axpy subtracts v times the sparse vector (idx, val) from x.
+func axpy(x []complex128, idx []int32, val []complex128, v complex128) {
+	val = val[:len(idx)]
+	for q, i := range idx {
+		x[i] -= val[q] * v
+	}
+}
