@@ -114,14 +114,14 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 	nodeUnk, pos, curOf, x := p.nodeUnk, p.pos, p.curOf, p.x
 	N := p.b.n
 	s := &Solution{
-		Basis:     basis,
-		Reference: t.net.Reference,
-		Voltage:   make(map[string]complex128, len(t.nodes)),
-		KCL:       make(map[string]complex128, len(t.nodes)),
+		Basis:         basis,
+		Reference:     t.net.Reference,
+		Voltage:       make(map[string]complex128, len(t.nodes)),
+		KCL:           make(map[string]complex128, len(t.nodes)),
 		Unknowns:      N,
 		Factor:        p.lu.nnz(),
 		BackwardError: p.eta,
-		Notes:     append([]string(nil), t.notes...),
+		Notes:         append([]string(nil), t.notes...),
 	}
 	v := make([]complex128, len(t.nodes))
 	for i := range t.nodes {
