@@ -313,7 +313,9 @@ func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
 		a := abs1(piv)
 		big := 0.0
 		for q := f.lp[k]; q < f.lp[k+1]; q++ {
-			big = math.Max(big, abs1(x[f.li[q]]))
+			if m := abs1(x[f.li[q]]); m > big {
+				big = m
+			}
 		}
 		if !(a >= pivotThreshold*big) || !(a > pivotTol*colmax[k]) || math.IsInf(a, 0) {
 			ok = false

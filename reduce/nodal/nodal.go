@@ -82,7 +82,11 @@ type Solution struct {
 	// equations, ‖b − A·x‖∞ / (‖A‖∞·‖x‖∞ + ‖b‖∞), with |re|+|im| as the
 	// modulus, after iterative refinement.
 	BackwardError float64
-	Notes         []string
+	// LowImpedance names the passive elements given a current unknown of
+	// their own because their impedance is so low beside the node
+	// voltages that V/Z would lose their current to rounding.
+	LowImpedance []string
+	Notes        []string
 }
 
 // Solve finds every node voltage and every element's voltage, current and
@@ -122,6 +126,15 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		Factor:        p.lu.nnz(),
 		BackwardError: p.eta,
 		Notes:         append([]string(nil), t.notes...),
+	}
+	for k, d := range p.direct {
+		if d {
+			s.LowImpedance = append(s.LowImpedance, els[k].Name)
+		}
+	}
+	if len(s.LowImpedance) > 0 {
+		s.Notes = append(s.Notes, fmt.Sprintf("%s: impedance so low beside the node voltages that %s solved for directly, not found as V/Z",
+			list(s.LowImpedance), plural(len(s.LowImpedance), "its current is", "their currents are")))
 	}
 	v := make([]complex128, len(t.nodes))
 	for i := range t.nodes {
@@ -291,6 +304,10 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		head.Notes = append(head.Notes, caution)
 	}
 	steps := []calc.Step{head}
+	direct := map[string]bool{}
+	for _, name := range s.LowImpedance {
+		direct[name] = true
+	}
 	for _, b := range s.Branches {
 		st := calc.Step{Kind: "element", Line: b.Line, Basis: s.Basis}
 		vq := calc.Q(b.V, calc.DimVoltage)
@@ -312,6 +329,10 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		case b.Z == 0:
 			st.Rule = b.Name + ": ideal short (0 Ω); its current comes from the solution"
 			st.Formula = v + ", " + sFormula
+			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
+		case direct[b.Name]:
+			st.Rule = b.Name + ": impedance so low that its current comes from the solution"
+			st.Formula = v + ", V = Z·I, " + sFormula
 			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
 		default:
 			st.Rule = b.Name + ": Ohm's law"

@@ -43,7 +43,8 @@ type Plan struct {
 	order   []int32 // order[new] = old unknown
 	pos     []int32 // pos[old] = new
 	b       csc     // the matrix in the new order; values rewritten by Solve
-	slot    [][4]int32
+	slot    [][5]int32
+	direct  []bool // passive elements given a current unknown for their low impedance
 	work    Work
 	maxNNZ  int
 
@@ -83,8 +84,15 @@ func Analyse(n *reduce.Network) (*Plan, error) {
 	if err != nil {
 		return nil, err
 	}
+	return analyse(t, make([]bool, len(n.Elements)))
+}
+
+// analyse plans the checked topology t; the passive elements marked in
+// direct get a current unknown of their own.
+func analyse(t *topology, direct []bool) (*Plan, error) {
+	n := t.net
 	els := n.Elements
-	p := &Plan{t: t, ref: n.Reference}
+	p := &Plan{t: t, ref: n.Reference, direct: direct}
 	p.names = make([]string, len(els))
 	p.kinds = make([]reduce.ElementKind, len(els))
 	p.from = make([]string, len(els))
@@ -105,7 +113,7 @@ func Analyse(n *reduce.Network) (*Plan, error) {
 	p.curOf = make([]int32, len(els))
 	for k, e := range els {
 		p.curOf[k] = -1
-		if e.Kind == reduce.VoltageSource || t.short[k] {
+		if e.Kind == reduce.VoltageSource || t.short[k] || direct[k] {
 			p.curOf[k] = int32(len(p.unk) + len(p.cur))
 			p.cur = append(p.cur, k)
 		}
@@ -130,6 +138,9 @@ func Analyse(n *reduce.Network) (*Plan, error) {
 			put(b, c)
 			put(c, a)
 			put(c, b)
+			if direct[k] {
+				put(c, c)
+			}
 		} else {
 			put(a, a)
 			put(b, b)
@@ -195,24 +206,26 @@ func Analyse(n *reduce.Network) (*Plan, error) {
 		q, _ := slices.BinarySearch(col, ni)
 		return p.b.p[nj] + int32(q)
 	}
-	p.slot = make([][4]int32, len(els))
+	p.slot = make([][5]int32, len(els))
 	for k, e := range els {
-		p.slot[k] = [4]int32{-1, -1, -1, -1}
+		p.slot[k] = [5]int32{-1, -1, -1, -1, -1}
 		if t.self[k] || e.Kind == reduce.CurrentSource {
 			continue
 		}
 		a, b := p.nodeUnk[t.from[k]], p.nodeUnk[t.to[k]]
 		if c := p.curOf[k]; c >= 0 {
-			p.slot[k] = [4]int32{find(a, c), find(b, c), find(c, a), find(c, b)}
+			p.slot[k] = [5]int32{find(a, c), find(b, c), find(c, a), find(c, b), -1}
+			if direct[k] {
+				p.slot[k][4] = find(c, c)
+			}
 		} else {
-			p.slot[k] = [4]int32{find(a, a), find(b, b), find(a, b), find(b, a)}
+			p.slot[k] = [5]int32{find(a, a), find(b, b), find(a, b), find(b, a), -1}
 		}
 	}
 
 	p.work = symbolic(&p.b)
-	if p.work.Bytes > maxBytes || p.work.MultiplyAdds > maxMultiplyAdds {
-		return nil, &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %s; at most %sB of memory and %s multiply-adds are allowed",
-			p.work, count(maxBytes), count(maxMultiplyAdds))}
+	if err := p.work.check(maxBytes, maxMultiplyAdds); err != nil {
+		return nil, err
 	}
 	// The factorisation may outgrow the estimate (off-diagonal pivots),
 	// but not by far and never past the memory bound.
@@ -283,8 +296,88 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 		return nil, err
 	}
 	p.solveRefined()
+	if low := p.imprecise(n); low != nil {
+		// Re-plan with a current unknown for each such element; the
+		// topology checks stand.
+		q, err := analyse(p.t, low)
+		if err != nil {
+			return nil, err
+		}
+		q.stats = p.stats
+		*p = *q
+		if err := p.stamp(n); err != nil {
+			return nil, err
+		}
+		if err := p.factorise(); err != nil {
+			return nil, err
+		}
+		if p.lu.singular >= 0 {
+			err := p.singular(t)
+			p.lu = nil
+			return nil, err
+		}
+		p.solveRefined()
+	}
 	p.stats.Solves++
 	return p.solution(t, basis)
+}
+
+// currentTol bounds the rounding error of a passive element's current
+// computed as I = (V(From) − V(To))/Z, relative to the largest current in
+// the network. Node voltages carry errors of the order of the float64
+// round-off u times their size, so an element of very low impedance
+// between nodes at high voltage (a 1 µΩ link at 230 V) has a current
+// known only to u·|V|/|Z|: Kirchhoff's current law could then not be
+// checked to better than that. Such an element gets a current unknown of
+// its own, V(From) − V(To) − Z·I = 0, as modified nodal analysis allows
+// for any element (Ho, Ruehli and Brennan, 1975), and its current comes
+// straight from the solution.
+const currentTol = 1e-11
+
+// imprecise returns the elements whose current, computed from the node
+// voltages, would be less precise than currentTol of the largest current,
+// together with those already given a current unknown; or nil when there
+// are none new.
+func (p *Plan) imprecise(n *reduce.Network) []bool {
+	const u = 0x1p-52
+	volt := func(node int32) complex128 {
+		if q := p.nodeUnk[node]; q >= 0 {
+			return p.x[p.pos[q]]
+		}
+		return 0
+	}
+	maxI := 0.0
+	for k, e := range n.Elements {
+		if p.t.self[k] {
+			continue
+		}
+		var i float64
+		switch {
+		case e.Kind == reduce.CurrentSource:
+			i = cmplx.Abs(e.Value)
+		case p.curOf[k] >= 0:
+			i = cmplx.Abs(p.x[p.pos[p.curOf[k]]])
+		default:
+			i = cmplx.Abs(volt(p.t.from[k])-volt(p.t.to[k])) / cmplx.Abs(e.Z)
+		}
+		if !math.IsInf(i, 0) && !math.IsNaN(i) {
+			maxI = math.Max(maxI, i)
+		}
+	}
+	var low []bool
+	for k, e := range n.Elements {
+		if p.t.self[k] || e.Kind.IsSource() || p.curOf[k] >= 0 {
+			continue
+		}
+		scale := math.Max(cmplx.Abs(volt(p.t.from[k])), cmplx.Abs(volt(p.t.to[k])))
+		if u*scale > currentTol*maxI*cmplx.Abs(e.Z) {
+			if low == nil {
+				low = slices.Clone(p.direct)
+			}
+			low[k] = true
+		}
+	}
+	return low
 }
 
 // with returns the topology t read with the values of n, which has the
@@ -324,17 +417,20 @@ func (p *Plan) stamp(n *reduce.Network) error {
 			}
 		case p.curOf[k] >= 0:
 			// KCL: the branch current leaves From and enters To; the
-			// branch equation V(From) − V(To) = −Value keeps the matrix
-			// symmetric.
+			// branch equation V(From) − V(To) = −Value for a source, and
+			// V(From) − V(To) − Z·I = 0 for a passive element, keeps the
+			// matrix symmetric.
 			p.add(s[0], 1)
 			p.add(s[1], -1)
 			p.add(s[2], 1)
 			p.add(s[3], -1)
 			if e.Kind == reduce.VoltageSource {
 				p.rhs[p.pos[p.curOf[k]]] = -e.Value
+			} else {
+				p.add(s[4], -e.Z)
 			}
 		default:
-			y := 1 / e.Z
+			y := recip(e.Z)
 			if !finite(y) {
 				return &NetError{Msg: fmt.Sprintf("%s: the admittance 1/Z is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
 			}
@@ -356,11 +452,25 @@ func (p *Plan) add(q int32, v complex128) {
 // factorise factorises the stamped matrix, reusing the pivots of the last
 // factorisation when they pass the threshold test.
 func (p *Plan) factorise() error {
-	p.colmax = p.b.colMax()
-	for _, m := range p.colmax {
+	// Column maxima for the singularity test and row sums for the norm
+	// of the matrix, in one pass.
+	if p.colmax == nil {
+		p.colmax = make([]float64, p.b.n)
+	}
+	clear(p.rowAbs)
+	for j := 0; j < p.b.n; j++ {
+		m := 0.0
+		for q := p.b.p[j]; q < p.b.p[j+1]; q++ {
+			a := abs1(p.b.x[q])
+			if a > m {
+				m = a
+			}
+			p.rowAbs[p.b.i[q]] += a
+		}
 		if math.IsInf(m, 0) {
 			return &NetError{Msg: "the network equations hold a value too large to represent"}
 		}
+		p.colmax[j] = m
 	}
 	if p.lu != nil {
 		if p.lu.refactor(&p.b, p.colmax) {
@@ -393,12 +503,6 @@ func (p *Plan) factorise() error {
 func (p *Plan) solveRefined() {
 	copy(p.x, p.rhs)
 	p.lu.solve(p.x, p.w)
-	clear(p.rowAbs)
-	for j := 0; j < p.b.n; j++ {
-		for q := p.b.p[j]; q < p.b.p[j+1]; q++ {
-			p.rowAbs[p.b.i[q]] += abs1(p.b.x[q])
-		}
-	}
 	normA, normB := 0.0, 0.0
 	for i, v := range p.rowAbs {
 		normA = math.Max(normA, v)
@@ -474,4 +578,17 @@ func (p *Plan) singular(t *topology) error {
 		culprits = []int{int(p.order[p.lu.singular])}
 	}
 	return t.singular(culprits, p.unk, p.cur)
+}
+
+// recip returns 1/z, rounded once for a purely real or purely imaginary z
+// (resistors, inductors and capacitors), by the general complex division
+// otherwise.
+func recip(z complex128) complex128 {
+	switch {
+	case imag(z) == 0:
+		return complex(1/real(z), 0)
+	case real(z) == 0:
+		return complex(0, -1/imag(z))
+	}
+	return 1 / z
 }

@@ -38,6 +38,15 @@ func (w Work) String() string {
 		count(float64(w.Unknowns)), count(float64(w.Factor)), count(w.MultiplyAdds), count(float64(w.Bytes)))
 }
 
+// check refuses work beyond the given bounds, stating the estimates.
+func (w Work) check(maxB int64, maxF float64) error {
+	if w.Bytes <= maxB && w.MultiplyAdds <= maxF {
+		return nil
+	}
+	return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %s; at most %sB of memory and %s multiply-adds are allowed",
+		w, count(float64(maxB)), count(maxF))}
+}
+
 // count writes a non-negative number with three significant figures and
 // an SI prefix: 950, 12.3 k, 4.50 M.
 func count(x float64) string {

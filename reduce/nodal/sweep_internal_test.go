@@ -1,0 +1,207 @@
+package nodal
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"testing"
+
+	"argand/calc"
+	"argand/reduce"
+)
+
+// MeshNetwork is a rows×cols mesh of series R–L sections with a shunt
+// capacitor at every node and a resistive load at every fifth, fed at one
+// corner by a 230 V source through a second source-side voltage source
+// (two zero-diagonal rows): invented example data for sweeps. It is
+// exported for the external tests of the package.
+func MeshNetwork(rows, cols int) *reduce.Network {
+	node := func(r, c int) string { return fmt.Sprintf("m%d_%d", r, c) }
+	n := &reduce.Network{Name: "example data", Reference: "0", Elements: []reduce.Element{
+		{Name: "V1", Kind: reduce.VoltageSource, From: "0", To: "s", Value: 230},
+		{Name: "V2", Kind: reduce.VoltageSource, From: "s", To: node(0, 0), Value: complex(0, 5)},
+	}}
+	add := func(name string, k reduce.ElementKind, a, b string, raw float64) {
+		n.Elements = append(n.Elements, reduce.Element{Name: name, Kind: k, From: a, To: b, Raw: complex(raw, 0)})
+	}
+	k := 0
+	for r := range rows {
+		for c := range cols {
+			here := node(r, c)
+			if c+1 < cols {
+				mid := fmt.Sprintf("h%d", k)
+				add("RH"+fmt.Sprint(k), reduce.Resistor, here, mid, 0.2+0.01*float64(k%13))
+				add("LH"+fmt.Sprint(k), reduce.Inductor, mid, node(r, c+1), 1e-4*(1+float64(k%5)))
+			}
+			if r+1 < rows {
+				add("RV"+fmt.Sprint(k), reduce.Resistor, here, node(r+1, c), 0.5+0.02*float64(k%7))
+			}
+			add("C"+fmt.Sprint(k), reduce.Capacitor, here, "0", 1e-7*(1+float64(k%3)))
+			if k%5 == 4 {
+				add("RL"+fmt.Sprint(k), reduce.Resistor, here, "0", 50+float64(k%11))
+			}
+			k++
+		}
+	}
+	return n
+}
+
+// sweepPoints is the frequency of each of count points spread evenly in
+// the logarithm from 10 Hz to 100 kHz.
+func sweepPoints(count int) []float64 {
+	f := make([]float64, count)
+	for k := range f {
+		f[k] = 10 * math.Pow(10, 4*float64(k)/float64(count-1))
+	}
+	return f
+}
+
+// sweepNets evaluates n at each frequency.
+func sweepNets(tb testing.TB, n *reduce.Network, freqs []float64) []*reduce.Network {
+	out := make([]*reduce.Network, len(freqs))
+	for k, f := range freqs {
+		nf, err := n.At(f)
+		if err != nil {
+			tb.Fatal(err)
+		}
+		out[k] = nf
+	}
+	return out
+}
+
+// BenchmarkSweepPoint measures one point of a 1000-point sweep over a
+// mesh of about 1000 nodes with the symbolic analysis reused: the numeric
+// refactorisation alone ("refactor"), and the whole point: writing the new
+// values into the matrix, refactorising and solving with refinement
+// ("restamp+refactor+solve"). The Solution with its maps of names is not
+// built here; BenchmarkSweepPlan in the external tests times that.
+func BenchmarkSweepPoint(b *testing.B) {
+	n := MeshNetwork(20, 26)
+	nets := sweepNets(b, n, sweepPoints(1000))
+	p, err := Analyse(nets[0])
+	if err != nil {
+		b.Fatal(err)
+	}
+	if _, err := p.Solve(nets[0], calc.RMS); err != nil {
+		b.Fatal(err)
+	}
+	b.Run("refactor", func(b *testing.B) {
+		if err := p.stamp(nets[500]); err != nil {
+			b.Fatal(err)
+		}
+		colmax := p.b.colMax()
+		cpu := StartCPU()
+		for b.Loop() {
+			if !p.lu.refactor(&p.b, colmax) {
+				b.Fatal("pivot refused")
+			}
+		}
+		cpu.Report(b, b.N)
+		b.ReportMetric(float64(p.b.n), "unknowns")
+		b.ReportMetric(float64(p.lu.nnz()), "nnzLU")
+	})
+	b.Run("factor", func(b *testing.B) {
+		if err := p.stamp(nets[500]); err != nil {
+			b.Fatal(err)
+		}
+		colmax := p.b.colMax()
+		cpu := StartCPU()
+		for b.Loop() {
+			if _, err := factor(&p.b, colmax, p.work.Factor, p.maxNNZ); err != nil {
+				b.Fatal(err)
+			}
+		}
+		cpu.Report(b, b.N)
+	})
+	b.Run("restamp+refactor+solve", func(b *testing.B) {
+		before := p.stats
+		k := 0
+		cpu := StartCPU()
+		for b.Loop() {
+			if err := p.stamp(nets[k%len(nets)]); err != nil {
+				b.Fatal(err)
+			}
+			if err := p.factorise(); err != nil {
+				b.Fatal(err)
+			}
+			p.solveRefined()
+			k++
+		}
+		cpu.Report(b, k)
+		b.ReportMetric(float64(p.stats.Repivots-before.Repivots)/float64(k), "repivots/point")
+		b.ReportMetric(float64(p.stats.Refinements-before.Refinements)/float64(k), "refinements/point")
+	})
+}
+
+// TestWorkLimits: a network whose estimated work exceeds the bounds is
+// refused with a message stating the estimates. The bounds are lowered
+// here so that a small network crosses them.
+func TestWorkLimits(t *testing.T) {
+	n, err := MeshNetwork(4, 4).At(50)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := Analyse(n)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := p.Work()
+	if w.Unknowns != p.b.n || w.Factor < w.Unknowns || w.MultiplyAdds <= 0 || w.Bytes <= 0 {
+		t.Fatalf("estimates %+v", w)
+	}
+	if err := w.check(w.Bytes-1, w.MultiplyAdds*2); err == nil || !containsAll(err.Error(), "too large", "entries in the LU factors", "multiply-adds", "memory", "at most") {
+		t.Errorf("memory bound: %v", err)
+	}
+	if err := w.check(w.Bytes*2, w.MultiplyAdds/2); err == nil {
+		t.Error("work bound not enforced")
+	}
+	if err := w.check(w.Bytes, w.MultiplyAdds); err != nil {
+		t.Errorf("at the bounds: %v", err)
+	}
+}
+
+func containsAll(s string, words ...string) bool {
+	for _, w := range words {
+		if !strings.Contains(s, w) {
+			return false
+		}
+	}
+	return true
+}
+
+// TestCount: the figures in messages use SI prefixes, never e-notation
+// (SI Brochure 9th ed., prefixes k, M, G).
+func TestCount(t *testing.T) {
+	tests := []struct {
+		x    float64
+		want string
+	}{
+		{0, "0"}, {999, "999"}, {1000, "1.00 k"}, {12345, "12.3 k"}, {999_499, "999 k"},
+		{999_500, "1.00 M"}, {4.5e6, "4.50 M"}, {1 << 30, "1.07 G"}, {1e11, "100 G"},
+	}
+	for _, tt := range tests {
+		if got := count(tt.x); got != tt.want {
+			t.Errorf("count(%g) = %q, want %q", tt.x, got, tt.want)
+		}
+	}
+}
+
+// CPUMeter reports the CPU time per iteration of a benchmark as the
+// metric cpu-ns/op, beside the wall time.
+type CPUMeter struct {
+	start int64
+	ok    bool
+}
+
+// StartCPU begins measuring; call Report after the loop.
+func StartCPU() CPUMeter {
+	t, ok := CPUTime()
+	return CPUMeter{t, ok}
+}
+
+// Report adds the metric for n iterations.
+func (m CPUMeter) Report(b *testing.B, n int) {
+	if t, ok := CPUTime(); ok && m.ok && n > 0 {
+		b.ReportMetric(float64(t-m.start)/float64(n), "cpu-ns/op")
+	}
+}
