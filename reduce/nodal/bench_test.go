@@ -101,12 +101,14 @@ func BenchmarkShapes(b *testing.B) {
 		b.Run(sh.name, func(b *testing.B) {
 			n := sh.make()
 			var s *nodal.Solution
+			cpu := nodal.StartCPU()
 			for b.Loop() {
 				var err error
 				if s, err = nodal.Solve(n, calc.RMS); err != nil {
 					b.Fatal(err)
 				}
 			}
+			cpu.Report(b, b.N)
 			p, err := nodal.Analyse(n)
 			if err != nil {
 				b.Fatal(err)
@@ -118,4 +120,59 @@ func BenchmarkShapes(b *testing.B) {
 			b.ReportMetric(s.BackwardError/0x1p-52, "backward-error/u")
 		})
 	}
+}
+
+// BenchmarkSweepPlan is the end-to-end cost of a 1000-point sweep from
+// 10 Hz to 100 kHz over a mesh of about 1000 nodes (MeshNetwork 20×26):
+// each point evaluates every impedance at its frequency and solves to a
+// full Solution, either with one Plan for the whole sweep ("plan") or
+// with a fresh analysis at every point ("solve"). The counts of reused
+// and refused pivots go with the figures.
+func BenchmarkSweepPlan(b *testing.B) {
+	n := nodal.MeshNetwork(20, 26)
+	freqs := make([]float64, 1000)
+	for k := range freqs {
+		freqs[k] = 10 * math.Pow(10, 4*float64(k)/999)
+	}
+	b.Run("plan", func(b *testing.B) {
+		var st nodal.Stats
+		cpu := nodal.StartCPU()
+		for b.Loop() {
+			var p *nodal.Plan
+			for _, f := range freqs {
+				nf, err := n.At(f)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if p == nil {
+					if p, err = nodal.Analyse(nf); err != nil {
+						b.Fatal(err)
+					}
+				}
+				if _, err := p.Solve(nf, calc.RMS); err != nil {
+					b.Fatal(err)
+				}
+			}
+			st = p.Stats()
+		}
+		cpu.Report(b, b.N)
+		b.ReportMetric(float64(st.Refactorisations), "refactorisations")
+		b.ReportMetric(float64(st.Repivots), "repivots")
+		b.ReportMetric(float64(st.Refinements), "refinements")
+	})
+	b.Run("solve", func(b *testing.B) {
+		cpu := nodal.StartCPU()
+		for b.Loop() {
+			for _, f := range freqs {
+				nf, err := n.At(f)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if _, err := nodal.Solve(nf, calc.RMS); err != nil {
+					b.Fatal(err)
+				}
+			}
+		}
+		cpu.Report(b, b.N)
+	})
 }

@@ -14,6 +14,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 
 	"argand/calc"
 	"argand/reduce"
@@ -146,8 +147,7 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		}
 		s.Voltage[t.nodes[i]] = v[i]
 	}
-	s.Nodes = append([]string(nil), t.nodes...)
-	sortNatural(s.Nodes)
+	s.Nodes = slices.Clone(p.nodes)
 	half := 1.0
 	if basis == calc.Peak {
 		half = 0.5

@@ -36,13 +36,14 @@ type Plan struct {
 	kinds   []reduce.ElementKind
 	from    []string
 	to      []string
-	nodeUnk []int32 // node → unknown, −1 for the reference
-	unk     []int32 // unknown → node
-	cur     []int   // current unknown → element
-	curOf   []int32 // element → current unknown, or −1
-	order   []int32 // order[new] = old unknown
-	pos     []int32 // pos[old] = new
-	b       csc     // the matrix in the new order; values rewritten by Solve
+	nodes   []string // in natural order
+	nodeUnk []int32  // node → unknown, −1 for the reference
+	unk     []int32  // unknown → node
+	cur     []int    // current unknown → element
+	curOf   []int32  // element → current unknown, or −1
+	order   []int32  // order[new] = old unknown
+	pos     []int32  // pos[old] = new
+	b       csc      // the matrix in the new order; values rewritten by Solve
 	slot    [][5]int32
 	direct  []bool // passive elements given a current unknown for their low impedance
 	work    Work
@@ -223,6 +224,8 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 		}
 	}
 
+	p.nodes = slices.Clone(t.nodes)
+	sortNatural(p.nodes)
 	p.work = symbolic(&p.b)
 	if err := p.work.check(maxBytes, maxMultiplyAdds); err != nil {
 		return nil, err
@@ -339,6 +342,8 @@ const currentTol = 1e-11
 // together with those already given a current unknown; or nil when there
 // are none new.
 func (p *Plan) imprecise(n *reduce.Network) []bool {
+	// Moduli as |re|+|im| (within √2 of |z|): the bound is a margin, not
+	// a measurement.
 	const u = 0x1p-52
 	volt := func(node int32) complex128 {
 		if q := p.nodeUnk[node]; q >= 0 {
@@ -354,14 +359,14 @@ func (p *Plan) imprecise(n *reduce.Network) []bool {
 		var i float64
 		switch {
 		case e.Kind == reduce.CurrentSource:
-			i = cmplx.Abs(e.Value)
+			i = abs1(e.Value)
 		case p.curOf[k] >= 0:
-			i = cmplx.Abs(p.x[p.pos[p.curOf[k]]])
+			i = abs1(p.x[p.pos[p.curOf[k]]])
 		default:
-			i = cmplx.Abs(volt(p.t.from[k])-volt(p.t.to[k])) / cmplx.Abs(e.Z)
+			i = abs1(volt(p.t.from[k])-volt(p.t.to[k])) / abs1(e.Z)
 		}
-		if !math.IsInf(i, 0) && !math.IsNaN(i) {
-			maxI = math.Max(maxI, i)
+		if i > maxI && !math.IsInf(i, 0) {
+			maxI = i
 		}
 	}
 	var low []bool
@@ -369,8 +374,8 @@ func (p *Plan) imprecise(n *reduce.Network) []bool {
 		if p.t.self[k] || e.Kind.IsSource() || p.curOf[k] >= 0 {
 			continue
 		}
-		scale := math.Max(cmplx.Abs(volt(p.t.from[k])), cmplx.Abs(volt(p.t.to[k])))
-		if u*scale > currentTol*maxI*cmplx.Abs(e.Z) {
+		scale := math.Max(abs1(volt(p.t.from[k])), abs1(volt(p.t.to[k])))
+		if u*scale > currentTol*maxI*abs1(e.Z) {
 			if low == nil {
 				low = slices.Clone(p.direct)
 			}
