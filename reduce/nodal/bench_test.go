@@ -117,6 +117,7 @@ func BenchmarkShapes(b *testing.B) {
 			b.ReportMetric(float64(s.Unknowns), "unknowns")
 			b.ReportMetric(float64(s.Factor), "nnzLU")
 			b.ReportMetric(float64(w.Factor), "nnzLU-est")
+			b.ReportMetric(w.MultiplyAdds, "madds-est")
 			b.ReportMetric(s.BackwardError/0x1p-52, "backward-error/u")
 		})
 	}

@@ -123,7 +123,7 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 
 	// The pattern: each element's four positions (old numbering).
 	type pair struct{ i, j int32 }
-	var ent []pair
+	ent := make([]pair, 0, 4*len(els)+len(p.cur))
 	put := func(i, j int32) {
 		if i >= 0 && j >= 0 {
 			ent = append(ent, pair{i, j})
