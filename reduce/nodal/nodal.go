@@ -8,6 +8,13 @@
 // A network with no unique solution is reported as a *NetError naming the
 // nodes and elements at fault, found by graph search before any arithmetic;
 // no NaN or infinity is ever returned.
+//
+// Solve is Analyse followed by Plan.Solve. Analyse does the work that
+// depends on the topology alone (the checks, the ordering of the equations
+// and the symbolic analysis with its estimates of time and memory), and a
+// Plan solves the network again with other values or at another frequency
+// at the cost of a numeric refactorisation, as a sweep or a tolerance
+// spread needs.
 package nodal
 
 import (
