@@ -21,9 +21,17 @@ type entry struct {
 // equation is nearly always kept, so the fill stays as the ordering
 // planned, and large enough that the growth of the entries, and with it
 // the backward error, stays small; iterative refinement mops up the rest.
-// The same test decides whether a later factorisation with other values
-// may reuse the pivots.
 const pivotThreshold = 0.1
+
+// reuseThreshold is the threshold a pivot must pass to be kept when the
+// matrix is refactorised with other values (a sweep, a spread): τ/10,
+// bounding the multipliers by 100. The gap between the two thresholds is
+// hysteresis: a pivot chosen at 0.1 of its column is not given up at the
+// next point of a sweep for drifting a little below it, which would cost a
+// full factorisation, often for pivots much like the old ones. The
+// backward error measured after every solution, with iterative
+// refinement, guards the accuracy either way.
+const reuseThreshold = pivotThreshold / 10
 
 // sparseLU is the LU factorisation P·B = L·U of a sparse complex matrix B
 // held by columns, computed column by column by the left-looking method of
@@ -57,6 +65,8 @@ type sparseLU struct {
 	singular int
 	// x is the dense work column, kept zero between columns.
 	x []complex128
+	// work space of factor
+	xi, pstack, visited, pend []int32
 }
 
 // abs1 is |re|+|im|, the cheap modulus used for pivot choice.
@@ -92,38 +102,47 @@ func (e *capacityError) Error() string { return "factor too large" }
 // the largest entry of each column of B; a pivot below pivotTol times it
 // marks the matrix numerically singular (see singular) and is replaced by
 // that bound so that the factors stay usable for inverse iteration.
-// capHint sizes the storage; maxNNZ bounds the entries of L and U.
-func factor(b *csc, colmax []float64, capHint, maxNNZ int) (*sparseLU, error) {
+// capHint sizes the storage; maxNNZ bounds the entries of L and U. The
+// storage of old, when not nil, is reused: a sweep that must choose new
+// pivots then allocates nothing.
+func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU) (*sparseLU, error) {
 	n := b.n
-	f := &sparseLU{
-		n:        n,
-		lp:       make([]int32, n+1),
-		up:       make([]int32, n+1),
-		dinv:     make([]complex128, n),
-		perm:     make([]int32, n),
-		pinv:     make([]int32, n),
-		singular: -1,
-		x:        make([]complex128, n),
+	f := old
+	if f == nil || f.n != n {
+		half := capHint/2 + n
+		f = &sparseLU{
+			n:    n,
+			lp:   make([]int32, n+1),
+			up:   make([]int32, n+1),
+			dinv: make([]complex128, n),
+			perm: make([]int32, n),
+			pinv: make([]int32, n),
+			x:    make([]complex128, n),
+			li:   make([]int32, 0, half),
+			lx:   make([]complex128, 0, half),
+			ui:   make([]int32, 0, half),
+			ux:   make([]complex128, 0, half),
+			// Depth-first search state: the reach is written at the
+			// top of xi (xi[top:n]), the stack at its bottom; pstack
+			// keeps each node's position in its list; visited[v] is
+			// k+1 once row v is reached for column k; pend[j] ends the
+			// part of L(:,j) the search must follow (symmetric pruning,
+			// see below).
+			xi:      make([]int32, 2*n),
+			pstack:  make([]int32, n),
+			visited: make([]int32, n),
+			pend:    make([]int32, n),
+		}
 	}
-	half := capHint/2 + n
-	f.li = make([]int32, 0, half)
-	f.lx = make([]complex128, 0, half)
-	f.ui = make([]int32, 0, half)
-	f.ux = make([]complex128, 0, half)
+	f.singular = -1
+	f.li, f.lx, f.ui, f.ux = f.li[:0], f.lx[:0], f.ui[:0], f.ux[:0]
+	clear(f.x)
+	clear(f.visited)
 	for i := range f.pinv {
 		f.pinv[i] = -1
 	}
-	x := f.x
-	// Depth-first search state: the reach is written at the top of xi
-	// (xi[top:n]), the stack at its bottom; pstack keeps each node's
-	// position in its list.
-	xi := make([]int32, 2*n)
-	pstack := make([]int32, n)
-	visited := make([]int32, n) // stamp k+1: row reached for column k
+	x, xi, pstack, visited, pend := f.x, f.xi, f.pstack, f.visited, f.pend
 	cand := make([]int32, 0, 16)
-	// pend[j] ends the part of L(:,j) the search must follow (symmetric
-	// pruning, see below).
-	pend := make([]int32, n)
 	free := 0 // rows below free are all pivotal: the search for a spare row starts here
 
 	for k := 0; k < n; k++ {
@@ -317,7 +336,7 @@ func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
 				big = m
 			}
 		}
-		if !(a >= pivotThreshold*big) || !(a > pivotTol*colmax[k]) || math.IsInf(a, 0) {
+		if !(a >= reuseThreshold*big) || !(a > pivotTol*colmax[k]) || math.IsInf(a, 0) {
 			ok = false
 		}
 		d := 1 / piv

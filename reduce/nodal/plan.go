@@ -484,12 +484,13 @@ func (p *Plan) factorise() error {
 		}
 		p.stats.Repivots++
 	}
-	lu, err := factor(&p.b, p.colmax, p.work.Factor, p.maxNNZ)
+	lu, err := factor(&p.b, p.colmax, p.work.Factor, p.maxNNZ, p.lu)
 	if err != nil {
 		var ce *capacityError
 		if errors.As(err, &ce) {
 			return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: its LU factors grew past %s entries, far beyond the estimate (%s)", count(float64(ce.nnz)), p.work)}
 		}
+		p.lu = nil
 		return err
 	}
 	p.lu = lu

@@ -46,6 +46,41 @@ func MeshNetwork(rows, cols int) *reduce.Network {
 	return n
 }
 
+// GridRLC is a rows×cols grid whose edges are resistors, inductors and
+// capacitors in turn, with a capacitor to the reference at every third
+// node, fed at one corner like MeshNetwork: invented example data for
+// sweeps, with more fill than the mesh for the same number of nodes.
+func GridRLC(rows, cols int) *reduce.Network {
+	node := func(r, c int) string { return fmt.Sprintf("q%d_%d", r, c) }
+	n := &reduce.Network{Name: "example data", Reference: "0", Elements: []reduce.Element{
+		{Name: "V1", Kind: reduce.VoltageSource, From: "0", To: "s", Value: 230},
+		{Name: "V2", Kind: reduce.VoltageSource, From: "s", To: node(0, 0), Value: complex(0, 5)},
+	}}
+	kinds := []reduce.ElementKind{reduce.Resistor, reduce.Inductor, reduce.Capacitor}
+	raws := []float64{1.5, 2e-3, 50e-6}
+	k := 0
+	add := func(name string, a, b string) {
+		j := k % 3
+		n.Elements = append(n.Elements, reduce.Element{Name: name, Kind: kinds[j], From: a, To: b, Raw: complex(raws[j]*(1+0.1*float64(k%7)), 0)})
+		k++
+	}
+	for r := range rows {
+		for c := range cols {
+			if c+1 < cols {
+				add(fmt.Sprintf("E%d", k), node(r, c), node(r, c+1))
+			}
+			if r+1 < rows {
+				add(fmt.Sprintf("E%d", k), node(r, c), node(r+1, c))
+			}
+			if (r*cols+c)%3 == 2 {
+				n.Elements = append(n.Elements, reduce.Element{Name: fmt.Sprintf("C%d_%d", r, c), Kind: reduce.Capacitor, From: node(r, c), To: "0", Raw: 1e-6})
+			}
+		}
+	}
+	n.Elements = append(n.Elements, reduce.Element{Name: "RL", Kind: reduce.Resistor, From: node(rows-1, cols-1), To: "0", Raw: 10})
+	return n
+}
+
 // sweepPoints is the frequency of each of count points spread evenly in
 // the logarithm from 10 Hz to 100 kHz.
 func sweepPoints(count int) []float64 {
@@ -76,7 +111,15 @@ func sweepNets(tb testing.TB, n *reduce.Network, freqs []float64) []*reduce.Netw
 // ("restamp+refactor+solve"). The Solution with its maps of names is not
 // built here; BenchmarkSweepPlan in the external tests times that.
 func BenchmarkSweepPoint(b *testing.B) {
-	n := MeshNetwork(20, 26)
+	for _, net := range []struct {
+		name string
+		n    *reduce.Network
+	}{{"mesh-20x26", MeshNetwork(20, 26)}, {"grid-32x32", GridRLC(32, 32)}} {
+		b.Run(net.name, func(b *testing.B) { benchSweepPoint(b, net.n) })
+	}
+}
+
+func benchSweepPoint(b *testing.B, n *reduce.Network) {
 	nets := sweepNets(b, n, sweepPoints(1000))
 	p, err := Analyse(nets[0])
 	if err != nil {
@@ -86,7 +129,12 @@ func BenchmarkSweepPoint(b *testing.B) {
 		b.Fatal(err)
 	}
 	b.Run("refactor", func(b *testing.B) {
+		// pivots chosen for these values, so that all are reused
+		p.lu = nil
 		if err := p.stamp(nets[500]); err != nil {
+			b.Fatal(err)
+		}
+		if err := p.factorise(); err != nil {
 			b.Fatal(err)
 		}
 		colmax := p.b.colMax()
@@ -107,7 +155,7 @@ func BenchmarkSweepPoint(b *testing.B) {
 		colmax := p.b.colMax()
 		cpu := StartCPU()
 		for b.Loop() {
-			if _, err := factor(&p.b, colmax, p.work.Factor, p.maxNNZ); err != nil {
+			if _, err := factor(&p.b, colmax, p.work.Factor, p.maxNNZ, nil); err != nil {
 				b.Fatal(err)
 			}
 		}
