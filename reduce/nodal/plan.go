@@ -28,7 +28,10 @@ const maxRefine = 2
 //
 // A Plan keeps its matrix and factors between solutions and changes them
 // in Solve: it may be used again and again by one goroutine at a time, but
-// not by several at once.
+// not by several at once (give each goroutine its own Plan). When a
+// solution finds an element whose impedance is too low for its current to
+// be found as V/Z (see currentTol), Solve re-plans with a current unknown
+// for it, and Work changes accordingly.
 type Plan struct {
 	t       *topology
 	ref     string
@@ -68,7 +71,8 @@ type Stats struct {
 	// Refactorisations those that reused them.
 	Solves, Factorisations, Refactorisations int
 	// Repivots counts refactorisations abandoned because a reused
-	// pivot failed the threshold test.
+	// pivot failed its threshold test (see reuseThreshold); each is
+	// followed by a factorisation that chooses new pivots.
 	Repivots int
 	// Refinements counts steps of iterative refinement.
 	Refinements int
