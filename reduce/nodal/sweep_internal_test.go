@@ -232,6 +232,12 @@ func TestCount(t *testing.T) {
 			t.Errorf("count(%g) = %q, want %q", tt.x, got, tt.want)
 		}
 	}
+	if got := bytes(560); got != "560 B" {
+		t.Errorf("bytes(560) = %q", got)
+	}
+	if got := bytes(12.3e6); got != "12.3 MB" {
+		t.Errorf("bytes(12.3e6) = %q", got)
+	}
 }
 
 // CPUMeter reports the CPU time per iteration of a benchmark as the

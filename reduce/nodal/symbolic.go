@@ -34,8 +34,8 @@ type Work struct {
 // String states the estimates for a message, in plain numbers with SI
 // prefixes.
 func (w Work) String() string {
-	return fmt.Sprintf("%s unknowns, about %s entries in the LU factors, %s complex multiply-adds and %sB of memory",
-		count(float64(w.Unknowns)), count(float64(w.Factor)), count(w.MultiplyAdds), count(float64(w.Bytes)))
+	return fmt.Sprintf("%s unknowns, about %s entries in the LU factors, %s complex multiply-adds and %s of memory",
+		count(float64(w.Unknowns)), count(float64(w.Factor)), count(w.MultiplyAdds), bytes(float64(w.Bytes)))
 }
 
 // check refuses work beyond the given bounds, stating the estimates.
@@ -43,8 +43,16 @@ func (w Work) check(maxB int64, maxF float64) error {
 	if w.Bytes <= maxB && w.MultiplyAdds <= maxF {
 		return nil
 	}
-	return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %s; at most %sB of memory and %s multiply-adds are allowed",
-		w, count(float64(maxB)), count(maxF))}
+	return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %s; at most %s of memory and %s multiply-adds are allowed",
+		w, bytes(float64(maxB)), count(maxF))}
+}
+
+// bytes writes a size in bytes with an SI prefix: 560 B, 12.3 MB.
+func bytes(x float64) string {
+	if x < 1000 {
+		return fmt.Sprintf("%.0f B", x)
+	}
+	return count(x) + "B"
 }
 
 // count writes a non-negative number with three significant figures and
