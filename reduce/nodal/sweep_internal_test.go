@@ -232,11 +232,11 @@ func TestCount(t *testing.T) {
 			t.Errorf("count(%g) = %q, want %q", tt.x, got, tt.want)
 		}
 	}
-	if got := bytes(560); got != "560 B" {
-		t.Errorf("bytes(560) = %q", got)
+	if got := byteSize(560); got != "560 B" {
+		t.Errorf("byteSize(560) = %q", got)
 	}
-	if got := bytes(12.3e6); got != "12.3 MB" {
-		t.Errorf("bytes(12.3e6) = %q", got)
+	if got := byteSize(12.3e6); got != "12.3 MB" {
+		t.Errorf("byteSize(12.3e6) = %q", got)
 	}
 }
 

@@ -35,7 +35,7 @@ type Work struct {
 // prefixes.
 func (w Work) String() string {
 	return fmt.Sprintf("%s unknowns, about %s entries in the LU factors, %s complex multiply-adds and %s of memory",
-		count(float64(w.Unknowns)), count(float64(w.Factor)), count(w.MultiplyAdds), bytes(float64(w.Bytes)))
+		count(float64(w.Unknowns)), count(float64(w.Factor)), count(w.MultiplyAdds), byteSize(float64(w.Bytes)))
 }
 
 // check refuses work beyond the given bounds, stating the estimates.
@@ -44,11 +44,11 @@ func (w Work) check(maxB int64, maxF float64) error {
 		return nil
 	}
 	return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: %s; at most %s of memory and %s multiply-adds are allowed",
-		w, bytes(float64(maxB)), count(maxF))}
+		w, byteSize(float64(maxB)), count(maxF))}
 }
 
-// bytes writes a size in bytes with an SI prefix: 560 B, 12.3 MB.
-func bytes(x float64) string {
+// byteSize writes a size in bytes with an SI prefix: 560 B, 12.3 MB.
+func byteSize(x float64) string {
 	if x < 1000 {
 		return fmt.Sprintf("%.0f B", x)
 	}
