@@ -152,7 +152,6 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		if !finite(v[i]) {
 			return nil, &NetError{Msg: fmt.Sprintf("the voltage of node %s is too large to represent", t.nodes[i]), Nodes: []string{t.nodes[i]}}
 		}
-		s.Voltage[t.nodes[i]] = v[i]
 	}
 	s.Nodes = slices.Clone(p.nodes)
 	half := 1.0
@@ -170,10 +169,11 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 	for _, x := range v {
 		vScale = math.Max(vScale, cmplx.Abs(x))
 	}
-	for name, x := range s.Voltage {
+	for i, x := range v {
 		if cmplx.Abs(x) <= noiseTol*vScale {
-			s.Voltage[name] = 0
+			x = 0
 		}
+		s.Voltage[t.nodes[i]] = x
 	}
 	s.Branches = make([]Branch, len(els))
 	for k, e := range els {
