@@ -170,3 +170,33 @@ func TestPlanSingular(t *testing.T) {
 		t.Errorf("V(m) = %v, want %v", v, want)
 	}
 }
+
+// TestWorkEstimate: when every pivot is taken on the diagonal, the factors
+// of a structurally symmetric matrix have exactly the pattern of its
+// Cholesky factor and its transpose (A. George and J. W. H. Liu, "Computer
+// Solution of Large Sparse Positive Definite Systems", Prentice-Hall,
+// 1981, from memory), so the estimate of the symbolic analysis is exact.
+// A resistive grid fed by a current source is diagonally dominant, and
+// threshold pivoting keeps every diagonal.
+func TestWorkEstimate(t *testing.T) {
+	for _, size := range []int{3, 10, 25} {
+		n := network("0", isrc("I1", "0", "g0_0", 1))
+		for _, e := range grid(size, size).Elements {
+			if !e.Kind.IsSource() {
+				n.Elements = append(n.Elements, res(e.Name, e.From, e.To, 1+real(e.Z)))
+			}
+		}
+		p, err := nodal.Analyse(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := p.Solve(n, calc.RMS)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if w := p.Work(); w.Factor != s.Factor || w.Unknowns != s.Unknowns {
+			t.Errorf("%d×%d grid: estimate %+v, factors hold %d entries for %d unknowns", size, size, w, s.Factor, s.Unknowns)
+		}
+		compareGonum(t, n, s)
+	}
+}
