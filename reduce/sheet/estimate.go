@@ -8,6 +8,7 @@ import (
 
 	"argand/calc"
 	"argand/reduce"
+	"argand/reduce/nodal"
 )
 
 // DefaultBudget is the bound on a statement's estimated work, in seconds,
@@ -26,6 +27,7 @@ const (
 	nsPerNode    = 250  // one node of an expression evaluated again
 	nsPerElement = 2500 // one element of a network solved again
 	nsPerSample  = 3000 // the fixed cost of a sample
+	nsPerMulAdd  = 3    // one complex multiply-add of a numeric refactorisation
 )
 
 // work is an estimate of a statement's work.
@@ -64,13 +66,14 @@ func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
 	for _, n := range inputs {
 		hit[n] = true
 	}
-	nodes, elements := size(e), 0
+	nodes, elements, factor := size(e), 0, 0.0
 	for len(queue) > 0 {
 		n := queue[0]
 		queue = queue[1:]
 		if len(n) > 4 && n[:4] == "net:" {
 			nw := s.nets[n[4:]]
 			elements += len(nw.elems) + 1
+			factor += s.factorWork(nw)
 			for _, r := range nw.results {
 				if !hit[r] {
 					hit[r] = true
@@ -101,8 +104,32 @@ func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
 			}
 		}
 	}
-	ns := nsPerSample + nsPerScan*2*float64(len(s.defs)) + nsPerNode*float64(nodes) + nsPerElement*float64(elements)
+	ns := nsPerSample + nsPerScan*2*float64(len(s.defs)) + nsPerNode*float64(nodes) + nsPerElement*float64(elements) + nsPerMulAdd*factor
 	return ns * 1e-9
+}
+
+// factorWork is the number of complex multiply-adds of one numeric
+// factorisation of a node network, from the solver's symbolic analysis;
+// the per-element cost above misses the fill of meshed networks (a grid
+// factorises in far more operations than it has elements). 0 for a
+// compact network or one that cannot be analysed (its error comes when it
+// is solved).
+func (s *Sheet) factorWork(nw *network) float64 {
+	if nw.compact != nil {
+		return 0
+	}
+	if nw.solver != nil && nw.solver.plan != nil {
+		return nw.solver.plan.Work().MultiplyAdds
+	}
+	net, err := s.build(nw)
+	if err != nil {
+		return 0
+	}
+	p, err := nodal.Analyse(net)
+	if err != nil {
+		return 0
+	}
+	return p.Work().MultiplyAdds
 }
 
 // size counts the nodes of an expression.

@@ -39,12 +39,22 @@ type network struct {
 // which analyses a network's structure once and then refactorises for
 // each change of values can take its place.
 type netSolver struct {
-	net *reduce.Network
+	net  *reduce.Network
+	plan *nodal.Plan // the symbolic analysis, made at the first solve
 }
 
-// solve solves the network at its present element values.
+// solve solves the network at its present element values. The ordering
+// and symbolic analysis are made once and kept, so a sweep or a spread
+// pays per sample only for a numeric refactorisation and a solve.
 func (v *netSolver) solve(basis calc.Basis) (*nodal.Solution, error) {
-	return nodal.Solve(v.net, basis)
+	if v.plan == nil || !v.plan.Fits(v.net) {
+		p, err := nodal.Analyse(v.net)
+		if err != nil {
+			return nil, err
+		}
+		v.plan = p
+	}
+	return v.plan.Solve(v.net, basis)
 }
 
 // NetworkInfo describes a defined network for the app.
