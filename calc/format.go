@@ -392,3 +392,24 @@ func (f Format) Short(q Quantity) string {
 	}
 	return f.Polar(q)
 }
+
+// SmallRatio writes a dimensionless ratio, such as a residual relative to
+// the largest term, to two significant figures as m × 10^e: SI prefixes
+// belong to units, not to ratios, and e-notation is not shown to people.
+// Ratios from 0.01 to 1000 are written plainly.
+func SmallRatio(x float64) string {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return "undefined"
+	}
+	if x == 0 {
+		return "0"
+	}
+	ax := math.Abs(x)
+	if ax >= 0.01 && ax < 1000 {
+		return strconv.FormatFloat(x, 'g', 2, 64)
+	}
+	s := strconv.FormatFloat(x, 'e', 1, 64) // m.me±XX
+	i := strings.IndexByte(s, 'e')
+	exp, _ := strconv.Atoi(s[i+1:])
+	return s[:i] + " × 10^" + strconv.Itoa(exp)
+}

@@ -355,20 +355,20 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		Formula: "max |Σ I| at a node ≈ 0;  Σ S ≈ 0",
 		Basis:   s.Basis,
 		Results: []calc.Operand{
-			{Name: "max KCL residual", Value: calc.Q(complex(s.MaxKCL, 0), calc.DimCurrent)},
+			{Name: "max KCL residual", Value: calc.Magnitude(s.MaxKCL, calc.DimCurrent)},
 			{Name: "ΣS", Value: calc.Quantity{V: s.PowerSum, Dim: calc.DimPower, Kind: calc.KindApparent}},
 		},
 	}
 	for _, name := range s.Nodes {
-		bal.Rows = append(bal.Rows, calc.Row{Name: name, Values: []calc.Operand{{Name: "kcl", Value: calc.Q(s.KCL[name], calc.DimCurrent)}}})
+		bal.Rows = append(bal.Rows, calc.Row{Name: name, Values: []calc.Operand{{Name: "|kcl|", Value: calc.Magnitude(cmplx.Abs(s.KCL[name]), calc.DimCurrent)}}})
 	}
 	if s.MaxI > 0 {
-		bal.Notes = append(bal.Notes, fmt.Sprintf("largest KCL residual is %.1e of the largest branch current (%s)",
-			s.MaxKCL/s.MaxI, f.Mag(s.MaxI, calc.DimCurrent, calc.KindPlain)))
+		bal.Notes = append(bal.Notes, fmt.Sprintf("largest KCL residual is %s of the largest branch current (%s)",
+			calc.SmallRatio(s.MaxKCL/s.MaxI), f.Mag(s.MaxI, calc.DimCurrent, calc.KindPlain)))
 	}
 	if s.PowerAbs > 0 {
-		bal.Notes = append(bal.Notes, fmt.Sprintf("|ΣS| is %.1e of Σ|S| (%s)",
-			cmplx.Abs(s.PowerSum)/s.PowerAbs, f.Mag(s.PowerAbs, calc.DimPower, calc.KindApparent)))
+		bal.Notes = append(bal.Notes, fmt.Sprintf("|ΣS| is %s of Σ|S| (%s)",
+			calc.SmallRatio(cmplx.Abs(s.PowerSum)/s.PowerAbs), f.Mag(s.PowerAbs, calc.DimPower, calc.KindApparent)))
 	}
 	return append(steps, bal)
 }
