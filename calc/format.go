@@ -394,7 +394,8 @@ func (f Format) Short(q Quantity) string {
 }
 
 // SmallRatio writes a dimensionless ratio, such as a residual relative to
-// the largest term, to two significant figures as m × 10^e: SI prefixes
+// the largest term, to two significant figures as m×10^e (no spaces, so
+// a wrapped line never splits it): SI prefixes
 // belong to units, not to ratios, and e-notation is not shown to people.
 // Ratios from 0.01 to 1000 are written plainly.
 func SmallRatio(x float64) string {
@@ -411,5 +412,5 @@ func SmallRatio(x float64) string {
 	s := strconv.FormatFloat(x, 'e', 1, 64) // m.me±XX
 	i := strings.IndexByte(s, 'e')
 	exp, _ := strconv.Atoi(s[i+1:])
-	return s[:i] + " × 10^" + strconv.Itoa(exp)
+	return s[:i] + "×10^" + strconv.Itoa(exp)
 }
