@@ -266,8 +266,8 @@ func (o Options) format(x float64, unit string) string {
 var prefixes = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}
 
 // Eng writes x to the given significant figures (1 to 15) in engineering
-// notation, with an SI prefix on unit when one fits (f to T) and an "e"
-// exponent otherwise: Eng(2500, "V", 3, false) is "2.50 kV". NaN and
+// notation, with an SI prefix on unit when one fits (f to T) and a power
+// of ten (2.50×10^3) otherwise: Eng(2500, "V", 3, false) is "2.50 kV". NaN and
 // infinities are written as "not finite".
 func Eng(x float64, unit string, digits int, ascii bool) string {
 	if math.IsNaN(x) || math.IsInf(x, 0) {
@@ -294,7 +294,13 @@ func Eng(x float64, unit string, digits int, ascii bool) string {
 		return s + " " + p + unit
 	}
 	if exp3 != 0 {
-		s += "e" + strconv.Itoa(exp3)
+		// no prefix fits (or there is no unit to carry one): a power of
+		// ten, never e-notation, which the design keeps from people
+		x := "×"
+		if ascii {
+			x = "*"
+		}
+		s += x + "10^" + strconv.Itoa(exp3)
 	}
 	return s + sp + unit
 }

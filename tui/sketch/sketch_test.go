@@ -93,8 +93,8 @@ func TestEng(t *testing.T) {
 		{4.7e-6, "F", 2, true, "4.7 uF"},
 		{-6000, "var", 3, false, "-6.00 kvar"},
 		{0, "W", 3, false, "0 W"},
-		{1e20, "V", 3, false, "100e18 V"},
-		{12345, "", 3, false, "12.3e3"},
+		{1e20, "V", 3, false, "100×10^18 V"},
+		{12345, "", 3, false, "12.3×10^3"},
 		{math.NaN(), "V", 3, false, "not finite"},
 	}
 	for _, tt := range tests {
