@@ -66,6 +66,9 @@ func (s *Sheet) nameTarget(p *calc.Parser, verb string) (*def, calc.Item, bool) 
 // removed. A value something else depends on cannot be forgotten.
 func (s *Sheet) stmtForget(p *calc.Parser) error {
 	p.Next()
+	if t := p.Peek(); t.Tok == calc.TokIdent && s.spectra[t.Text] != nil {
+		return s.forgetSpectrum(p)
+	}
 	d, _, ok := s.nameTarget(p, "forget")
 	if !ok {
 		return p.Err()
@@ -77,6 +80,22 @@ func (s *Sheet) stmtForget(p *calc.Parser) error {
 	s.dropNames(func(x *def) bool { return x.name == d.name || x.owner == d.name })
 	delete(s.tols, d.name)
 	s.record(calc.Step{Kind: "forget", Source: p.Source(), Rule: d.name + " is no longer defined"})
+	return nil
+}
+
+// forgetSpectrum removes a spectrum nothing depends on.
+func (s *Sheet) forgetSpectrum(p *calc.Parser) error {
+	t := p.Next()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	if deps := s.dependents(t.Text); len(deps) > 0 {
+		p.Failf(t, "spectrum %s cannot be forgotten: %s depend%s on it", t.Text, strings.Join(deps, ", "), map[bool]string{true: "s", false: ""}[len(deps) == 1])
+		return p.Err()
+	}
+	delete(s.spectra, t.Text)
+	s.record(calc.Step{Kind: "forget", Source: p.Source(), Rule: "spectrum " + t.Text + " is no longer defined"})
 	return nil
 }
 

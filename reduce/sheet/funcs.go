@@ -5,6 +5,7 @@ import (
 
 	"argand/calc"
 	"argand/reduce"
+	"argand/reduce/harmonic"
 	"argand/reduce/power"
 	"argand/reduce/site"
 	"argand/reduce/sweep"
@@ -20,6 +21,7 @@ func allFuncs() []calc.Func {
 	out = append(out, threephase.Funcs()...)
 	out = append(out, sweep.Funcs()...)
 	out = append(out, site.Funcs()...)
+	out = append(out, harmonic.Funcs(nil, nil)...)
 	return out
 }
 

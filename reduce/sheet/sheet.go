@@ -14,6 +14,7 @@ import (
 
 	"argand/calc"
 	"argand/reduce"
+	"argand/reduce/harmonic"
 )
 
 // DefaultFreq is the working frequency of a new worksheet, in Hz.
@@ -96,17 +97,21 @@ type Sheet struct {
 	job *Job
 	// budget is the bound on a statement's estimated work, in seconds.
 	budget float64
+	// spectra are the spectra defined by spectrum statements; a spectrum
+	// never changes once built, so copies of the worksheet share them.
+	spectra map[string]*spectrumDef
 }
 
 // New returns an empty worksheet at the default settings with every
 // function of argand's packages available.
 func New() *Sheet {
 	s := &Sheet{
-		ctx:    calc.Context{Freq: DefaultFreq, Sequence: 1, Format: calc.Format{Digits: calc.DefaultDigits}},
-		byName: map[string]*def{},
-		nets:   map[string]*network{},
-		tols:   map[string]float64{},
-		budget: DefaultBudget,
+		ctx:     calc.Context{Freq: DefaultFreq, Sequence: 1, Format: calc.Format{Digits: calc.DefaultDigits}},
+		byName:  map[string]*def{},
+		nets:    map[string]*network{},
+		tols:    map[string]float64{},
+		budget:  DefaultBudget,
+		spectra: map[string]*spectrumDef{},
 	}
 	return s
 }
@@ -150,6 +155,9 @@ func (s *Sheet) Lookup(name string) (calc.Quantity, bool) {
 
 // Func finds a function beyond the built-in ones.
 func (s *Sheet) Func(name string) (*calc.Func, bool) {
+	if harmonic.TakesSpectrum(name) {
+		return s.spectrumFunc(name)
+	}
 	f, ok := s.funcTable()[name]
 	return f, ok
 }
@@ -216,7 +224,8 @@ var reservedWords = map[string]string{
 	"thevenin": "a statement keyword", "sweep": "a statement keyword", "tolerance": "a statement keyword",
 	"spread": "a statement keyword", "deltay": "a statement keyword",
 	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
-	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
+	"spectrum": "a statement keyword",
+	"f":        "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",
 }
@@ -230,6 +239,9 @@ func (s *Sheet) Reserved(name string) string {
 	}
 	if calc.IsUnit(name) {
 		return "a unit symbol"
+	}
+	if _, ok := s.spectra[name]; ok {
+		return "a spectrum"
 	}
 	if _, ok := s.funcTable()[name]; ok {
 		return "a function name"

@@ -112,6 +112,10 @@ func (s *Sheet) Clone() *Sheet {
 	}
 	c.sweeps = s.sweeps[:len(s.sweeps):len(s.sweeps)]
 	c.noteSeen = nil
+	c.spectra = make(map[string]*spectrumDef, len(s.spectra))
+	for k, v := range s.spectra {
+		c.spectra[k] = v
+	}
 	return &c
 }
 
@@ -180,6 +184,8 @@ func (s *Sheet) exec(src string, n int) error {
 			return s.stmtSpread(p)
 		case "budget":
 			return s.stmtBudget(p)
+		case "spectrum":
+			return s.stmtSpectrum(p)
 		case "voltage", "current":
 			if s.isSourceStmt(body) {
 				return s.stmtElement(p, nil)

@@ -1,0 +1,244 @@
+package sheet
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"sort"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"argand/calc"
+	"argand/reduce/harmonic"
+)
+
+// spectrumDef is a spectrum defined in the worksheet.
+type spectrumDef struct {
+	s    harmonic.Spectrum
+	line int
+}
+
+// Spectrum returns the spectrum called name, for the app and tests.
+func (s *Sheet) Spectrum(name string) (harmonic.Spectrum, bool) {
+	d, ok := s.spectra[name]
+	if !ok {
+		return harmonic.Spectrum{}, false
+	}
+	return d.s, true
+}
+
+// SpectrumNames lists the spectra defined, sorted.
+func (s *Sheet) SpectrumNames() []string {
+	out := make([]string, 0, len(s.spectra))
+	for n := range s.spectra {
+		out = append(out, n)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// spectrumFunc returns a function that reads spectra, bound to this
+// worksheet's spectra: their names are the bare words it accepts.
+func (s *Sheet) spectrumFunc(name string) (*calc.Func, bool) {
+	look := func(n string) (harmonic.Spectrum, bool) { return s.Spectrum(n) }
+	for _, f := range harmonic.Funcs(look, s.SpectrumNames()) {
+		if f.Name == name {
+			f := f
+			return &f, true
+		}
+	}
+	return nil, false
+}
+
+// stmtSpectrum runs:
+//
+//	spectrum NAME h1 230 V, h3 6.9 V ∠ 10, h5 4 % ∠ -120, …
+//	spectrum NAME from FILE
+//
+// Each order's value is its RMS magnitude with a unit or a percentage of
+// the fundamental, with an optional angle after ∠.
+func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
+	p.Next()
+	nameTok := p.Next()
+	if _, again := s.spectra[nameTok.Text]; !again || nameTok.Tok != calc.TokIdent {
+		if !s.validName(p, nameTok) {
+			return p.Err()
+		}
+	}
+	name := nameTok.Text
+	if d, ok := s.byName[name]; ok {
+		p.Failf(nameTok, "%s is already a named value (line %d)", name, d.line)
+		return p.Err()
+	}
+	if _, ok := s.nets[name]; ok {
+		p.Failf(nameTok, "%s is a network", name)
+		return p.Err()
+	}
+	for other := range s.spectra {
+		if other != name && strings.EqualFold(other, name) {
+			p.Failf(nameTok, "spectrum %s differs from spectrum %s only in case; choose another name", name, other)
+			return p.Err()
+		}
+	}
+	var entries []harmonic.Entry
+	var cols []int
+	var note string
+	if p.IsWord("from") {
+		from := p.Next()
+		path := strings.TrimSpace(p.Source()[from.End:])
+		col := from.Col + 5
+		if path == "" {
+			p.FailAt(col, 1, "spectrum %s from: the file name is missing", name)
+			return p.Err()
+		}
+		if s.dry {
+			return nil
+		}
+		var err error
+		entries, err = readSpectrumFile(path)
+		if err != nil {
+			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.ASCIIOnly(path), err)
+		}
+		for range entries {
+			cols = append(cols, col)
+		}
+		note = "read from " + path + " (" + strconv.Itoa(len(entries)) + " orders)"
+	} else {
+		if p.Peek().Tok == calc.TokEOF {
+			return perr(p, "spectrum %s needs its orders, as in: spectrum %s h1 230 V, h5 4 %%, h7 3 %% ∠ 40   (or: spectrum %s from FILE)", name, name, name)
+		}
+		for {
+			t := p.Next()
+			order, ok := orderWord(t)
+			if !ok {
+				p.Failf(t, "expected an order such as h1, h5 or h7, found %q", t.Text)
+				return p.Err()
+			}
+			if p.Peek().Tok == calc.TokEOF || p.IsOp(",") {
+				return perr(p, "order h%d needs a value: a magnitude with its unit or a percentage of the fundamental", order)
+			}
+			e := p.Expr()
+			if err := p.Err(); err != nil {
+				return err
+			}
+			if len(entries) >= harmonic.MaxOrder {
+				p.Failf(t, "a spectrum holds at most %d orders", harmonic.MaxOrder)
+				return p.Err()
+			}
+			r, err := s.eval(p, e)
+			if err != nil {
+				return err
+			}
+			entries = append(entries, harmonic.Entry{Order: order, Value: r.Value, Percent: percentOf(e), HasAngle: hasAngle(e, r.Value)})
+			cols = append(cols, t.Col)
+			if p.Peek().Tok == calc.TokEOF {
+				break
+			}
+			if !p.IsOp(",") {
+				return perr(p, "expected ',' before the next order, found %q", p.Peek().Text)
+			}
+			p.Next()
+		}
+	}
+	sp, err := harmonic.Build(entries)
+	if err != nil {
+		var ee *harmonic.EntryError
+		col, n := nameTok.Col, utf8.RuneCountInString(name)
+		if errors.As(err, &ee) && ee.Index >= 0 && ee.Index < len(cols) {
+			col, n = cols[ee.Index], 1
+		}
+		return lineErr(s.line, col, n, "spectrum %s: %v", name, err)
+	}
+	if s.dry {
+		return nil
+	}
+	if s.spectra == nil {
+		s.spectra = map[string]*spectrumDef{}
+	}
+	_, existed := s.spectra[name]
+	s.spectra[name] = &spectrumDef{s: sp, line: s.line}
+	st := harmonic.Describe(p.Source(), name, sp, &s.ctx)
+	if note != "" {
+		st.Notes = append([]string{note}, st.Notes...)
+	}
+	s.record(st)
+	if existed {
+		if err := s.reevaluate(map[string]bool{name: true}, "spectrum "+name+" redefined"); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// orderWord reads h1, h5, … as a harmonic order.
+func orderWord(t calc.Item) (int, bool) {
+	if t.Tok != calc.TokIdent || len(t.Text) < 2 || (t.Text[0] != 'h' && t.Text[0] != 'H') {
+		return 0, false
+	}
+	n, err := strconv.Atoi(t.Text[1:])
+	if err != nil || n < 0 || t.Text[1] == '+' || t.Text[1] == '-' {
+		return 0, false
+	}
+	return n, true
+}
+
+// percentOf reports a value written as a percentage: 4 %, 4 % ∠ 30, or
+// 4∠30 %.
+func percentOf(e calc.Expr) bool {
+	switch n := e.(type) {
+	case *calc.Paren:
+		return percentOf(n.X)
+	case *calc.Lit:
+		return n.Unit == "%"
+	case *calc.Polar:
+		return n.Unit == "%" || percentOf(n.Mag)
+	}
+	return false
+}
+
+// hasAngle reports a value written with an angle (polar or complex).
+func hasAngle(e calc.Expr, v calc.Quantity) bool {
+	for {
+		pe, ok := e.(*calc.Paren)
+		if !ok {
+			break
+		}
+		e = pe.X
+	}
+	if _, ok := e.(*calc.Polar); ok {
+		return true
+	}
+	return !v.IsReal()
+}
+
+// readSpectrumFile reads a spectrum file of at most harmonic.MaxFile bytes.
+func readSpectrumFile(path string) ([]harmonic.Entry, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		var pe *os.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return nil, fmt.Errorf("cannot open the file: %v", err)
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, harmonic.MaxFile+1))
+	if err != nil {
+		return nil, fmt.Errorf("cannot read the file: %v", err)
+	}
+	entries, lines, err := harmonic.ParseCSV(data)
+	if err != nil {
+		return nil, err
+	}
+	// Build names an entry by index; check here too so the line is named
+	if _, berr := harmonic.Build(entries); berr != nil {
+		var ee *harmonic.EntryError
+		if errors.As(berr, &ee) && ee.Index >= 0 && ee.Index < len(lines) {
+			return nil, fmt.Errorf("line %d: %v", lines[ee.Index], berr)
+		}
+		return nil, berr
+	}
+	return entries, nil
+}
