@@ -172,8 +172,20 @@ func spectrumInput(name string, s Spectrum) calc.Operand {
 	return calc.Operand{Name: name + " (spectrum, RMS)", Value: mag(s.RMS(), s.Dim)}
 }
 
-func result(v calc.Quantity, st calc.Step, extra ...calc.Operand) calc.Result {
-	return calc.Result{Value: v, Extra: extra, Steps: []calc.Step{st}, Notes: st.Notes}
+// result gathers a function's value, extras and step, refusing any value
+// that is not a finite number (an overflow from extreme arguments).
+func result(v calc.Quantity, st calc.Step, extra ...calc.Operand) (calc.Result, error) {
+	fn := st.Source
+	if i := strings.IndexByte(fn, '('); i > 0 {
+		fn = fn[:i]
+	}
+	all := append(append([]calc.Operand{{Name: "value", Value: v}}, extra...), st.Results...)
+	for _, x := range all {
+		if _, err := x.Value.Check(fn); err != nil {
+			return calc.Result{}, fmt.Errorf("%w (%s); check the magnitudes given", err, x.Name)
+		}
+	}
+	return calc.Result{Value: v, Extra: extra, Steps: []calc.Step{st}, Notes: st.Notes}, nil
 }
 
 func (k kit) callRMS(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -191,7 +203,7 @@ func (k kit) callRMS(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Inputs:  []calc.Operand{spectrumInput(name, s)},
 		Results: []calc.Operand{{Name: "X", Value: mag(rms, s.Dim)}, {Name: "X_1", Value: mag(h1, s.Dim)}, {Name: "X_H", Value: mag(hh, s.Dim)}, {Name: "THD", Value: num(thd)}},
 	}
-	return result(mag(rms, s.Dim), st, calc.Operand{Name: "h1", Value: mag(h1, s.Dim)}, calc.Operand{Name: "hh", Value: mag(hh, s.Dim)}, calc.Operand{Name: "thd", Value: num(thd)}), nil
+	return result(mag(rms, s.Dim), st, calc.Operand{Name: "h1", Value: mag(h1, s.Dim)}, calc.Operand{Name: "hh", Value: mag(hh, s.Dim)}, calc.Operand{Name: "thd", Value: num(thd)})
 }
 
 // rmsBasis refuses a result in volts or amperes under the peak basis: a
@@ -218,7 +230,7 @@ func (k kit) callTHD(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Notes: []string{"THD = " + pct(f, thd) + " of the fundamental; relative to the total RMS instead it is THD/√(1 + THD²) = " +
 			pct(f, thd/math.Sqrt(1+thd*thd))},
 	}
-	return result(num(thd), st, calc.Operand{Name: "hh", Value: mag(s.HarmonicRMS(), s.Dim)}, calc.Operand{Name: "h1", Value: mag(s.Fundamental(), s.Dim)}), nil
+	return result(num(thd), st, calc.Operand{Name: "hh", Value: mag(s.HarmonicRMS(), s.Dim)}, calc.Operand{Name: "h1", Value: mag(s.Fundamental(), s.Dim)})
 }
 
 func format(c *calc.Context) calc.Format {
@@ -255,7 +267,7 @@ func (k kit) callTDD(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Results: []calc.Operand{{Name: "TDD", Value: num(tdd)}},
 		Notes:   notes,
 	}
-	return result(num(tdd), st), nil
+	return result(num(tdd), st)
 }
 
 func (k kit) callCrest(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -279,7 +291,7 @@ func (k kit) callCrest(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Results: []calc.Operand{{Name: "CF", Value: num(cf)}, {Name: "peak", Value: mag(pk, s.Dim)}, {Name: "X", Value: mag(rms, s.Dim)}},
 		Notes:   []string{"a sinusoid's crest factor is √2 ≈ 1.414; the peak depends on the angles of the orders, not only on their sizes"},
 	}
-	return result(num(cf), st, calc.Operand{Name: "peak", Value: mag(pk, s.Dim)}, calc.Operand{Name: "rms", Value: mag(rms, s.Dim)}), nil
+	return result(num(cf), st, calc.Operand{Name: "peak", Value: mag(pk, s.Dim)}, calc.Operand{Name: "rms", Value: mag(rms, s.Dim)})
 }
 
 func (k kit) callFHL(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -299,7 +311,7 @@ func (k kit) callFHL(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Notes: []string{"the winding eddy-current loss at this load is F_HL times what the same RMS current would give as a sinusoid",
 			"K-factor (UL 1561) = Σ (I_h/I_R)²·h² = F_HL·(I/I_R)², with I_R the rated current: the two agree when the load current equals the rated current; F_HL depends only on the shape of the current, K also on its size"},
 	}
-	return result(num(fhl), st, calc.Operand{Name: "str", Value: num(str)}), nil
+	return result(num(fhl), st, calc.Operand{Name: "str", Value: num(str)})
 }
 
 func (k kit) callK(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -334,7 +346,7 @@ func (k kit) callK(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Results: []calc.Operand{{Name: "K", Value: num(kf)}, {Name: "F_HL", Value: num(fhl)}},
 		Notes:   notes,
 	}
-	return result(num(kf), st, calc.Operand{Name: "fhl", Value: num(fhl)}), nil
+	return result(num(kf), st, calc.Operand{Name: "fhl", Value: num(fhl)})
 }
 
 func (k kit) callMeter(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -371,7 +383,7 @@ func (k kit) callMeter(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 			power.Caution},
 	}
 	return result(mag(reading, s.Dim), st, calc.Operand{Name: "rms", Value: mag(rms, s.Dim)}, calc.Operand{Name: "avg", Value: mag(avg, s.Dim)},
-		calc.Operand{Name: "error", Value: num(e)}, calc.Operand{Name: "ff", Value: num(ff)}), nil
+		calc.Operand{Name: "error", Value: num(e)}, calc.Operand{Name: "ff", Value: num(ff)})
 }
 
 func (k kit) callPower(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -421,7 +433,7 @@ func (k kit) callPower(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		{Name: "q1", Value: vars(p.Q1)}, {Name: "n", Value: vars(p.N)}, {Name: "di", Value: vars(p.DI)}, {Name: "dv", Value: vars(p.DV)}, {Name: "dh", Value: vars(p.DH)},
 		{Name: "s1", Value: va(p.S1)}, {Name: "sn", Value: va(p.SN)}, {Name: "sh", Value: va(p.SH)},
 		{Name: "pf", Value: num(p.PF)}, {Name: "pf1", Value: num(p.PF1)}, {Name: "thdv", Value: num(p.THDV)}, {Name: "thdi", Value: num(p.THDI)}}
-	return result(va(p.S), st, ex...), nil
+	return result(va(p.S), st, ex...)
 }
 
 // bankCautions are the capacitor-bank cautions carried by every bank
@@ -506,7 +518,7 @@ func (k kit) callCheck(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if p > 0 {
 		ex = append(ex, calc.Operand{Name: "n", Value: num(n)})
 	}
-	return result(num(hr), st, ex...), nil
+	return result(num(hr), st, ex...)
 }
 
 func phasesWord(fn string, args []calc.Arg, i int) (bool, error) {
@@ -585,7 +597,7 @@ func callDetune(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if vr > 0 {
 		ex = append(ex, calc.Operand{Name: "qr", Value: vars(d.QRated)})
 	}
-	return result(mag(d.L, calc.DimInductance), st, ex...), nil
+	return result(mag(d.L, calc.DimInductance), st, ex...)
 }
 
 // above lists the usual converter orders above n.
@@ -641,7 +653,7 @@ func callBankOut(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		notes = append(notes, "a capacitor below its rated voltage gives less than its rating: output goes with the square of the voltage")
 	}
 	st.Notes = append(notes, bankCautions()...)
-	return result(vars(o.Q), st, calc.Operand{Name: "uc", Value: mag(o.UC, calc.DimVoltage)}, calc.Operand{Name: "qc", Value: vars(o.QC)}, calc.Operand{Name: "ql", Value: vars(o.QL)}), nil
+	return result(vars(o.Q), st, calc.Operand{Name: "uc", Value: mag(o.UC, calc.DimVoltage)}, calc.Operand{Name: "qc", Value: vars(o.QC)}, calc.Operand{Name: "ql", Value: vars(o.QL)})
 }
 
 // scanRows is the number of plot rows of bankscan, and scanPerOrder the
@@ -728,7 +740,7 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if c != nil && c.Freq > 0 {
 		ex = append(ex, calc.Operand{Name: "f", Value: mag(hr*c.Freq, calc.DimFrequency)})
 	}
-	return result(num(hr), st, ex...), nil
+	return result(num(hr), st, ex...)
 }
 
 // Describe is the step of a spectrum statement: a row per order with its

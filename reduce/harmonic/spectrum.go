@@ -152,6 +152,14 @@ func Build(entries []Entry) (Spectrum, error) {
 	if dim.IsDimensionless() {
 		out.Comps[0].RMS = 1
 	}
+	// the waveform's peak is at most √2·Σ X_h: keep it representable
+	sum := 0.0
+	for _, c := range out.Comps {
+		sum += c.RMS
+	}
+	if math.IsInf(sum*math.Sqrt2, 0) {
+		return Spectrum{}, entryErr(-1, "the magnitudes are too large to add up (overflow)")
+	}
 	return out, nil
 }
 
