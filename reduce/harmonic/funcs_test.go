@@ -11,8 +11,8 @@ import (
 )
 
 func q(v complex128, d calc.Dim) calc.Arg { return calc.Arg{Q: calc.Quantity{V: v, Dim: d}} }
-func w(s string) calc.Arg              { return calc.Arg{Word: s, Text: s} }
-func plainArg(x float64) calc.Arg      { return calc.Arg{Q: calc.Number(complex(x, 0))} }
+func w(s string) calc.Arg                 { return calc.Arg{Word: s, Text: s} }
+func plainArg(x float64) calc.Arg         { return calc.Arg{Q: calc.Number(complex(x, 0))} }
 func powerArg(x float64, k calc.Kind) calc.Arg {
 	return calc.Arg{Q: calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: k}}
 }

@@ -20,6 +20,11 @@ var sheetSeeds = []string{
 	"frequency 0 Hz", "S = 1", "x = (1+2", "1e308*1e308", "5∠", "j10 || -j10", "50 Hz * 10 mH",
 	"sequence acb\nsequence abc", "tolerance R1 5%", "check 1 is 2 within 1%", "x = 1\nx = x + 1",
 	"a = 1\nb = a\na = b", "sweep 1 Hz from 1 Hz to 10 Hz points 3", "\xff\xfe", "# comment only",
+	"spectrum I h1 100 A ∠ -20, h3 35 % ∠ 60, h5 22 %\nthd(I)\ncrest(I)\nkfactor(I, 120 A)",
+	"spectrum V h1 230 V, h5 3 % ∠ -60\nspectrum I h1 10 A ∠ -30, h5 20 % ∠ 40\nhpower(V, I)\navgmeter(V)",
+	"spectrum I h1 100 %, h5 20 %, h5 3 %", "spectrum I from /nonexistent", "spectrum I from .",
+	"detune(50 kvar, 400 V, 7 %, three, 440 V)\nbankout(60 kvar, 440 V, 400 V, 7 %)",
+	"spectrum I h1 100 A, h5 22 %\nbankcheck(10 MVA, 400 kvar, I, 7 %)\nbankscan(10 MVA, 400 kvar, 400 V, 0.07, 8, 15)",
 }
 
 // FuzzSheet runs arbitrary lines through the worksheet interpreter. An

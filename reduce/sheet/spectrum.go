@@ -87,8 +87,9 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 	var note string
 	if p.IsWord("from") {
 		from := p.Next()
-		path := strings.TrimSpace(p.Source()[from.End:])
-		col := from.Col + 5
+		rest := p.Source()[from.End:]
+		path := strings.TrimSpace(rest)
+		col := from.Col + 4 + utf8.RuneCountInString(rest[:len(rest)-len(strings.TrimLeft(rest, " \t"))])
 		if path == "" {
 			p.FailAt(col, 1, "spectrum %s from: the file name is missing", name)
 			return p.Err()
@@ -99,12 +100,12 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 		var err error
 		entries, err = readSpectrumFile(path)
 		if err != nil {
-			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.ASCIIOnly(path), err)
+			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", visible(path), err)
 		}
 		for range entries {
 			cols = append(cols, col)
 		}
-		note = "read from " + path + " (" + strconv.Itoa(len(entries)) + " orders)"
+		note = "read from " + visible(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
 	} else {
 		if p.Peek().Tok == calc.TokEOF {
 			return perr(p, "spectrum %s needs its orders, as in: spectrum %s h1 230 V, h5 4 %%, h7 3 %% ∠ 40   (or: spectrum %s from FILE)", name, name, name)
@@ -224,6 +225,9 @@ func readSpectrumFile(path string) ([]harmonic.Entry, error) {
 		return nil, fmt.Errorf("cannot open the file: %v", err)
 	}
 	defer f.Close()
+	if st, err := f.Stat(); err != nil || !st.Mode().IsRegular() {
+		return nil, fmt.Errorf("not a regular file")
+	}
 	data, err := io.ReadAll(io.LimitReader(f, harmonic.MaxFile+1))
 	if err != nil {
 		return nil, fmt.Errorf("cannot read the file: %v", err)
@@ -241,4 +245,18 @@ func readSpectrumFile(path string) ([]harmonic.Entry, error) {
 		return nil, berr
 	}
 	return entries, nil
+}
+
+// visible writes control characters of a file name as escapes, so that a
+// name typed or pasted with them cannot drive the terminal.
+func visible(s string) string {
+	var b strings.Builder
+	for _, r := range s {
+		if r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0 {
+			fmt.Fprintf(&b, "\\x%02x", r)
+			continue
+		}
+		b.WriteRune(r)
+	}
+	return b.String()
 }
