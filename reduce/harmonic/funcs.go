@@ -588,8 +588,8 @@ func callDetune(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 				" (the reactor raises it by 1/(1 − p), and harmonic voltages add to it): choose capacitors rated above U_C")
 		}
 	}
-	notes = append(notes, "tuned to order "+f.Mag(d.N, calc.Dim{}, 0)+": the bank is inductive above it and cannot resonate with the supply at the orders above ("+above(d.N)+
-		"); orders below it (such as 3 in a single-phase or unbalanced supply, for n above 3) are not protected")
+	notes = append(notes, "tuned to order "+f.Mag(d.N, calc.Dim{}, 0)+": the bank is inductive above it and cannot resonate with the supply at the orders above ("+
+		usual(d.N, true)+"); "+usual(d.N, false))
 	st.Notes = append(notes, bankCautions()...)
 	ex := []calc.Operand{{Name: "n", Value: num(d.N)}, {Name: "fr", Value: mag(d.N*c.Freq, calc.DimFrequency)}, {Name: "rise", Value: num(d.Rise)},
 		{Name: "uc", Value: mag(d.UC, calc.DimVoltage)}, {Name: "c", Value: mag(d.C, calc.DimCapacitance)}, {Name: "xc", Value: mag(d.XC, calc.DimImpedance)},
@@ -600,18 +600,25 @@ func callDetune(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return result(mag(d.L, calc.DimInductance), st, ex...)
 }
 
-// above lists the usual converter orders above n.
-func above(n float64) string {
+// usual lists the usual harmonic orders (3 from single-phase loads and
+// unbalance, 5, 7, 11, 13 from converters) above the tuned order n, or
+// says which lie below it and are not protected.
+func usual(n float64, up bool) string {
 	var out []string
 	for _, h := range []int{3, 5, 7, 11, 13} {
-		if float64(h) > n {
+		if float64(h) > n == up {
 			out = append(out, strconv.Itoa(h))
 		}
 	}
-	if len(out) == 0 {
-		return "none of the usual converter orders up to 13"
+	switch {
+	case up && len(out) == 0:
+		return "none of the usual orders up to 13"
+	case up:
+		return strings.Join(out, ", ") + ", …"
+	case len(out) == 0:
+		return "every usual order from 3 up lies above it"
 	}
-	return strings.Join(out, ", ") + ", …"
+	return "order " + strings.Join(out, ", ") + " lies below it and is not protected"
 }
 
 func callBankOut(c *calc.Context, args []calc.Arg) (calc.Result, error) {

@@ -78,6 +78,13 @@ statements
   budget 60 s            bound on a sweep's, spread's or reading check's
                            estimated work (10 s until set); past it the
                            statement is refused with the estimate
+  spectrum I h1 100 A ∠ -20, h5 22 % ∠ 170, h7 12 %
+                         a harmonic spectrum: the RMS value of each order
+                         (a unit, or % of h1) and its angle where known;
+                         table, RMS, THD and a bar plot. Read by hrms thd
+                         tdd crest fhl kfactor avgmeter hpower bankcheck
+  spectrum I from FILE   the same from lines of: order, value, angle in
+                         degrees (such as 5, 22 %, 170); # starts a comment
 `
 
 const networks = `networks
