@@ -712,7 +712,7 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	f := format(c)
 	hr := b.ResonanceOrder()
 	st := calc.Step{Kind: "harmonic", Source: source("bankscan", args),
-		Rule:    "impedance seen from the bus over harmonic order: the supply alone and in parallel with the bank (common practice)",
+		Rule:    "impedance seen from the bus over harmonic order: the supply alone (Zs) and in parallel with the bank (Z) (common practice)",
 		Formula: "Z_s = V²/S_sc·(1/(X/R) + j·h);  Z_b = j·(h·p − 1/h)·X_C, X_C = V²/(Q_c·(1 − p));  Z = Z_s·Z_b/(Z_s + Z_b)",
 		Inputs: []calc.Operand{{Name: "S_sc", Value: va(ssc)}, {Name: "Q_c", Value: vars(q)}, {Name: "V", Value: mag(v, calc.DimVoltage)},
 			{Name: "p", Value: num(b.P)}, {Name: "X/R", Value: num(b.XR)}},
@@ -726,9 +726,8 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		if pt.Inf {
 			row.Name += ": resonance (lossless: unbounded)"
 		} else {
-			row.Values = []calc.Operand{{Name: "|Z supply|", Value: mag(cmplxAbs(pt.Zs), calc.DimImpedance)},
-				{Name: "|Z with bank|", Value: mag(cmplxAbs(pt.Zp), calc.DimImpedance)},
-				{Name: "ratio", Value: num(cmplxAbs(pt.Zp) / cmplxAbs(pt.Zs))}}
+			row.Values = []calc.Operand{{Name: "Zs", Value: calc.Q(pt.Zs, calc.DimImpedance)}, {Name: "Z", Value: calc.Q(pt.Zp, calc.DimImpedance)},
+				{Name: "|Z|/|Zs|", Value: num(cmplxAbs(pt.Zp) / cmplxAbs(pt.Zs))}}
 		}
 		st.Rows = append(st.Rows, row)
 	}
@@ -761,10 +760,13 @@ func Describe(src, name string, s Spectrum, c *calc.Context) calc.Step {
 	h1 := s.Fundamental()
 	for _, comp := range s.Comps {
 		row := calc.Row{Name: "h" + strconv.Itoa(comp.Order)}
-		if comp.HasAngle {
+		switch {
+		case comp.HasAngle || comp.Order == 1 && !s.Dim.IsDimensionless():
+			// the fundamental without an angle is the reference, at 0°
 			row.Values = append(row.Values, calc.Operand{Name: "X", Value: calc.Quantity{V: complex(comp.RMS*math.Cos(comp.Angle), comp.RMS*math.Sin(comp.Angle)), Dim: s.Dim}})
-		} else if !s.Dim.IsDimensionless() {
-			row.Values = append(row.Values, calc.Operand{Name: "X", Value: mag(comp.RMS, s.Dim)})
+		case !s.Dim.IsDimensionless():
+			// a magnitude with no angle is not a phasor at 0°: say so
+			row.Name += " " + f.Mag(comp.RMS, s.Dim, 0) + ", angle not given"
 		}
 		row.Values = append(row.Values, calc.Operand{Name: "% of h1", Value: num(comp.RMS / h1 * 100)})
 		st.Rows = append(st.Rows, row)

@@ -11,7 +11,7 @@ import (
 )
 
 // barWidth is the length, in cells, of the longest bar of a spectrum plot.
-const barWidth = 40
+const barWidth = 24
 
 // PlotSpectrum draws the spectrum as one bar per order, each as a
 // percentage of the fundamental. Bars are scaled to the largest order
@@ -32,7 +32,7 @@ func PlotSpectrum(s Spectrum, ascii bool) string {
 		top = h1
 	}
 	var b strings.Builder
-	b.WriteString("order  bar: % of the fundamental (scaled to the largest harmonic)\n")
+	b.WriteString("order  % of the fundamental (bars scaled to the largest harmonic)\n")
 	for _, c := range s.Comps {
 		pct := c.RMS / h1 * 100
 		n := int(math.Round(c.RMS / top * barWidth))
@@ -131,7 +131,7 @@ func PlotScan(pts []ScanPoint, marks []int, width, height int, ascii bool) strin
 		}
 	}
 	var b strings.Builder
-	b.WriteString("|Z| in Ω (log scale) against harmonic order; * supply with bank, . supply alone\n")
+	b.WriteString("|Z| in Ω, log scale; * with the bank, . supply alone\n")
 	for r := 0; r < height; r++ {
 		lab := ""
 		switch r {
