@@ -732,7 +732,7 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		st.Rows = append(st.Rows, row)
 	}
 	ascii := c != nil && c.Format.ASCII
-	notes := []string{"plot:\n" + PlotScan(fine, nil, 64, scanRows, ascii)}
+	notes := []string{"plot:\n" + PlotScan(fine, 64, scanRows, ascii)}
 	for _, h := range []int{5, 7, 11, 13} {
 		if math.Abs(float64(h)-hr) <= 0.5 {
 			notes = append(notes, "WARNING: the resonance order "+f.Mag(hr, calc.Dim{}, 0)+" lies within ±0.5 of order "+strconv.Itoa(h)+", a usual converter harmonic")
@@ -776,6 +776,9 @@ func Describe(src, name string, s Spectrum, c *calc.Context) calc.Step {
 	}
 	st.Results = append(st.Results, calc.Operand{Name: "THD", Value: num(s.THD())})
 	st.Notes = append(st.Notes, "THD = "+pct(f, s.THD())+" of the fundamental; functions that read a spectrum: hrms thd tdd crest fhl kfactor avgmeter hpower bankcheck")
+	if c != nil && c.Basis == calc.Peak {
+		st.Notes = append(st.Notes, "the worksheet's phasor basis is peak, but a spectrum holds the RMS value of each order, as entered")
+	}
 	if m := s.missingAngles(); len(m) > 0 {
 		st.Notes = append(st.Notes, "no angle at order "+orderList(m)+": RMS, THD, TDD, F_HL and K need none; crest, avgmeter and hpower do")
 	}

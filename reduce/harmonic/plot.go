@@ -66,9 +66,9 @@ func pctText(p float64) string {
 // PlotScan draws |Z| of the supply alone ('.') and of the supply in
 // parallel with the bank ('*') against harmonic order, on a logarithmic
 // impedance axis, in about width columns and height rows. Orders listed
-// in marks are flagged under the axis with '^'. A lossless resonance
+// A lossless resonance
 // (unbounded impedance) is drawn at the top edge and named beneath.
-func PlotScan(pts []ScanPoint, marks []int, width, height int, ascii bool) string {
+func PlotScan(pts []ScanPoint, width, height int, ascii bool) string {
 	if len(pts) < 2 {
 		return "(nothing to plot)\n"
 	}
@@ -165,15 +165,6 @@ func PlotScan(pts []ScanPoint, marks []int, width, height int, ascii bool) strin
 	}
 	b.WriteString(strings.Repeat(" ", margin+1) + corner + string(axisLine) + "\n")
 	b.WriteString(strings.Repeat(" ", margin+1) + " " + strings.TrimRight(string(under), " ") + "\n")
-	if len(marks) > 0 {
-		m := []rune(strings.Repeat(" ", cols+1))
-		for _, h := range marks {
-			if float64(h) >= h0 && float64(h) <= h1 {
-				m[colOf(float64(h))] = '^'
-			}
-		}
-		b.WriteString(strings.Repeat(" ", margin+1) + " " + strings.TrimRight(string(m), " ") + "  ^ orders present\n")
-	}
 	if len(res) > 0 {
 		b.WriteString("lossless resonance (unbounded |Z|) at order " + strings.Join(res, ", ") + "\n")
 	}

@@ -173,17 +173,6 @@ func (s Spectrum) Unit() string { return calc.UnitSymbol(s.Dim, 0, false) }
 // Fundamental returns the RMS value of order 1.
 func (s Spectrum) Fundamental() float64 { return s.Comps[0].RMS }
 
-// Orders lists the orders present with a non-zero magnitude.
-func (s Spectrum) Orders() []int {
-	var out []int
-	for _, c := range s.Comps {
-		if c.RMS > 0 {
-			out = append(out, c.Order)
-		}
-	}
-	return out
-}
-
 // Max returns the highest order present.
 func (s Spectrum) Max() int { return s.Comps[len(s.Comps)-1].Order }
 
