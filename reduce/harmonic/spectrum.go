@@ -167,9 +167,6 @@ func approxOne(x float64) bool { return math.Abs(x-1) <= 1e-12 }
 
 func cmplxAbs(v complex128) float64 { return math.Hypot(real(v), imag(v)) }
 
-// Unit is the spectrum's unit symbol, "" for a spectrum of fractions.
-func (s Spectrum) Unit() string { return calc.UnitSymbol(s.Dim, 0, false) }
-
 // Fundamental returns the RMS value of order 1.
 func (s Spectrum) Fundamental() float64 { return s.Comps[0].RMS }
 
