@@ -113,8 +113,15 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 		for {
 			t := p.Next()
 			order, ok := orderWord(t)
-			if !ok {
+			switch {
+			case t.Tok == calc.TokEOF:
+				p.FailAt(t.Col, 1, "expected an order such as h5 after the comma, found the end of the line")
+				return p.Err()
+			case !ok:
 				p.Failf(t, "expected an order such as h1, h5 or h7, found %q", t.Text)
+				return p.Err()
+			case p.IsOp("="):
+				p.Failf(p.Peek(), "write the value right after the order, without '=': h%d 100 A", order)
 				return p.Err()
 			}
 			if p.Peek().Tok == calc.TokEOF || p.IsOp(",") {
@@ -193,6 +200,8 @@ func percentOf(e calc.Expr) bool {
 		return percentOf(n.X)
 	case *calc.Lit:
 		return n.Unit == "%"
+	case *calc.Unary:
+		return percentOf(n.X)
 	case *calc.Polar:
 		return n.Unit == "%" || percentOf(n.Mag)
 	}
