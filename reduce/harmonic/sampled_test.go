@@ -119,7 +119,10 @@ func TestSampledRMSAndDistortion(t *testing.T) {
 			} else if s.THD() != 0 {
 				t.Errorf("THD of a sine = %g, want 0", s.THD())
 			}
-			// F_HL and K from the samples' own spectrum
+			// F_HL and K from the samples' own spectrum; the definitions are
+			// those of IEEE Std C57.110 (F_HL, F_HL-STR with exponent 0.8)
+			// and UL 1561 (K per unit of the rated current), from memory:
+			// neither text was at hand
 			var num, den, numStr float64
 			for h := 1; h <= 60; h++ {
 				m := cmplx.Abs(component(xs, h)) / x1
