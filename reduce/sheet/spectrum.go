@@ -100,12 +100,12 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 		var err error
 		entries, err = readSpectrumFile(path)
 		if err != nil {
-			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", visible(path), err)
+			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.Printable(path), err)
 		}
 		for range entries {
 			cols = append(cols, col)
 		}
-		note = "read from " + visible(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
+		note = "read from " + calc.Printable(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
 	} else {
 		if p.Peek().Tok == calc.TokEOF {
 			return perr(p, "spectrum %s needs its orders, as in: spectrum %s h1 230 V, h5 4 %%, h7 3 %% ∠ 40   (or: spectrum %s from FILE)", name, name, name)
@@ -254,18 +254,4 @@ func readSpectrumFile(path string) ([]harmonic.Entry, error) {
 		return nil, berr
 	}
 	return entries, nil
-}
-
-// visible writes control characters of a file name as escapes, so that a
-// name typed or pasted with them cannot drive the terminal.
-func visible(s string) string {
-	var b strings.Builder
-	for _, r := range s {
-		if r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0 {
-			fmt.Fprintf(&b, "\\x%02x", r)
-			continue
-		}
-		b.WriteRune(r)
-	}
-	return b.String()
 }
