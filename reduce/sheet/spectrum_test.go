@@ -190,3 +190,25 @@ func TestSpectrumSession(t *testing.T) {
 		t.Errorf("replayed spectra %v", names)
 	}
 }
+
+// TestSpectrumKinds: the powers of IEEE Std 1459-2010 keep their kinds
+// through the worksheet: W for active, var for reactive and distortion
+// powers, VA for apparent powers; ratios carry no unit.
+func TestSpectrumKinds(t *testing.T) {
+	s := New()
+	runOn(t, s, "spectrum U h1 230 V, h5 3 % ∠ -60", "spectrum I h1 10 A ∠ -30, h5 20 % ∠ 40", "pw = hpower(U, I)")
+	want := map[string]string{"pw": "VA", "pw.p": "W", "pw.p1": "W", "pw.ph": "W", "pw.q1": "var", "pw.n": "var",
+		"pw.di": "var", "pw.dv": "var", "pw.dh": "var", "pw.s1": "VA", "pw.sn": "VA", "pw.sh": "VA", "pw.pf": "", "pw.pf1": ""}
+	for name, unit := range want {
+		q := value(t, s, name)
+		if got := calc.UnitSymbol(q.Dim, q.Kind, false); got != unit || !q.IsReal() {
+			t.Errorf("%s in %q (real %v), want %q", name, got, q.IsReal(), unit)
+		}
+	}
+	js := s.Steps()[len(s.Steps())-1].JSON()
+	for _, frag := range []string{`"name":"pw.p","re":`, `"unit":"var"`, `"unit":"W"`} {
+		if !strings.Contains(js, frag) {
+			t.Errorf("JSON lacks %s: %s", frag, js)
+		}
+	}
+}
