@@ -71,7 +71,7 @@ func Funcs(look Lookup, names []string) []calc.Func {
 			Doc:     "resonance order of a capacitor bank (output Qc at the supply voltage, reactor ratio p) with a supply of short-circuit power Ssc, checked against the orders present in spectrum X; .f, .n tuned order",
 			Formula: "h_r = 1/√(Q_c·(1 − p)/S_sc + p);  amplification = |Z_bank/(Z_supply + Z_bank)|", Call: k.callCheck}),
 		{Name: "detune", Args: "(Qc, V, p, single|three[, Vr])", Min: 4, Max: 5, Words: []string{"single", "three"},
-			Doc:     "detuned capacitor bank giving Qc at supply voltage V with reactor ratio p: the reactor's L per phase; .n tuned order, .fr, .rise, .uc capacitor voltage, .c, .xc, .xl, .qc, .ql, .i, .qr rating needed at Vr",
+			Doc:     "detuned capacitor bank giving Qc at supply voltage V with reactor ratio p: the reactor's L per phase; .n tuned order, .fr, .rise, .uc capacitor voltage, .c (star), .cdelta, .xc, .xl, .qc, .ql, .i, .qr rating needed at Vr",
 			Formula: "X_C − X_L = V²/Q_c;  X_L = p·X_C;  n = 1/√p;  U_C = V/(1 − p);  Q_r = Q_C·(V_r/U_C)²", Call: callDetune},
 		{Name: "bankout", Args: "(Qr, Vr, V[, p])", Min: 3, Max: 4,
 			Doc:     "output at supply voltage V of a bank of capacitors rated Qr at Vr, with reactor ratio p (0 without); .uc capacitor voltage, .qc, .ql",
@@ -596,6 +596,13 @@ func callDetune(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		{Name: "xl", Value: mag(d.XL, calc.DimImpedance)}, {Name: "qc", Value: vars(d.QC)}, {Name: "ql", Value: vars(d.QL)}, {Name: "i", Value: mag(d.I, calc.DimCurrent)}}
 	if vr > 0 {
 		ex = append(ex, calc.Operand{Name: "qr", Value: vars(d.QRated)})
+	}
+	if three {
+		// capacitors connected in delta across the lines: a third of the
+		// star capacitance gives the same output (common practice)
+		cd := mag(d.C/3, calc.DimCapacitance)
+		st.Results = append(st.Results, calc.Operand{Name: "C_Δ (capacitors in delta)", Value: cd})
+		ex = append(ex, calc.Operand{Name: "cdelta", Value: cd})
 	}
 	return result(mag(d.L, calc.DimInductance), st, ex...)
 }

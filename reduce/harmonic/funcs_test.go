@@ -212,6 +212,18 @@ func TestWarnings(t *testing.T) {
 	if strings.Contains(notes, "WARNING") || !strings.Contains(notes, "no order present in Iload lies within ±0.5") {
 		t.Errorf("14 %% detuned bank notes: %q", notes)
 	}
+	// a delta-connected bank: the capacitor across the line voltage V_C,Δ =
+	// √3·(V_C per phase) draws the same var with a third of the star C
+	r, err = fs["detune"].Call(ctx(), []calc.Arg{powerArg(50e3, calc.KindReactive), q(400, calc.DimVoltage), plainArg(0.07), w("three")})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cy, _ := extra(r, "c")
+	cd, _ := extra(r, "cdelta")
+	uc, _ := extra(r, "uc")
+	qc, _ := extra(r, "qc")
+	near(t, "delta capacitors' output", 3*real(uc.V)*real(uc.V)*2*math.Pi*50*real(cd.V), real(qc.V), 1e-12)
+	near(t, "C_Δ = C_Y/3", real(cd.V), real(cy.V)/3, 1e-15)
 	// capacitors rated below their working voltage
 	r, err = fs["detune"].Call(ctx(), []calc.Arg{powerArg(50e3, calc.KindReactive), q(400, calc.DimVoltage), plainArg(0.07), w("three"), q(400, calc.DimVoltage)})
 	if err != nil {
