@@ -42,44 +42,55 @@ func Funcs(look Lookup, names []string) []calc.Func {
 		return f
 	}
 	k := kit{look: look}
-	return []calc.Func{
-		sp(calc.Func{Name: "hrms", Args: "(X)", Min: 1, Max: 1,
+	fs := []calc.Func{
+		sp(calc.Func{Name: "hrms", Params: []calc.Param{{Name: "X", Kind: calc.ParamWord, Doc: "the name of a spectrum"}}, Args: "(X)", Min: 1, Max: 1,
 			Doc:     "true RMS of spectrum X; .h1 fundamental, .hh RMS of the harmonics, .thd",
 			Formula: "X = √(Σ X_h²)", Call: k.callRMS}),
-		sp(calc.Func{Name: "thd", Args: "(X)", Min: 1, Max: 1,
+		sp(calc.Func{Name: "thd", Params: []calc.Param{{Name: "X", Kind: calc.ParamWord, Doc: "the name of a spectrum"}}, Args: "(X)", Min: 1, Max: 1,
 			Doc:     "total harmonic distortion of spectrum X relative to its fundamental (a ratio); .hh, .h1",
 			Formula: "THD = √(Σ_{h≥2} X_h²) / X_1", Call: k.callTHD}),
-		sp(calc.Func{Name: "tdd", Args: "(I, IL)", Min: 2, Max: 2,
+		sp(calc.Func{Name: "tdd", Params: []calc.Param{{Name: "I", Kind: calc.ParamWord, Doc: "the name of a current spectrum"}, {Name: "IL", Kind: calc.ParamCurrent, Doc: "the maximum demand current"}}, Args: "(I, IL)", Min: 2, Max: 2,
 			Doc:     "total demand distortion of current spectrum I against the maximum demand current IL (a ratio)",
 			Formula: "TDD = √(Σ_{h≥2} I_h²) / I_L", Call: k.callTDD}),
-		sp(calc.Func{Name: "crest", Args: "(X)", Min: 1, Max: 1,
+		sp(calc.Func{Name: "crest", Params: []calc.Param{{Name: "X", Kind: calc.ParamWord, Doc: "the name of a spectrum with angles"}}, Args: "(X)", Min: 1, Max: 1,
 			Doc:     "crest factor of spectrum X, peak over RMS (needs the angles); .peak, .rms",
 			Formula: "CF = max|x(t)| / X,  x(t) = Σ √2·X_h·cos(h·ωt + φ_h)", Call: k.callCrest}),
-		sp(calc.Func{Name: "fhl", Args: "(I)", Min: 1, Max: 1,
+		sp(calc.Func{Name: "fhl", Params: []calc.Param{{Name: "I", Kind: calc.ParamWord, Doc: "the name of a current spectrum"}}, Args: "(I)", Min: 1, Max: 1,
 			Doc:     "harmonic loss factor F_HL of current spectrum I for transformer winding eddy-current loss (IEEE Std C57.110); .str the factor for other stray loss",
 			Formula: "F_HL = Σ (I_h/I_1)²·h² / Σ (I_h/I_1)²;  F_HL-STR = Σ (I_h/I_1)²·h^0.8 / Σ (I_h/I_1)²", Call: k.callFHL}),
-		sp(calc.Func{Name: "kfactor", Args: "(I[, IR])", Min: 1, Max: 2,
+		sp(calc.Func{Name: "kfactor", Params: []calc.Param{{Name: "I", Kind: calc.ParamWord, Doc: "the name of a current spectrum"}, {Name: "IR", Kind: calc.ParamAny, Doc: "the rated current in A (a plain number for a spectrum of fractions)", Optional: true}}, Args: "(I[, IR])", Min: 1, Max: 2,
 			Doc:     "K-factor of current spectrum I per unit of the rated current IR (UL 1561 definition); IR defaults to the RMS of I, where K = F_HL; .fhl",
 			Formula: "K = Σ (I_h/I_R)²·h² = F_HL·(I/I_R)²", Call: k.callK}),
-		sp(calc.Func{Name: "avgmeter", Args: "(X)", Min: 1, Max: 1,
+		sp(calc.Func{Name: "avgmeter", Params: []calc.Param{{Name: "X", Kind: calc.ParamWord, Doc: "the name of a spectrum with angles"}}, Args: "(X)", Min: 1, Max: 1,
 			Doc:     "what an average-responding meter calibrated for sine waves reads on spectrum X (needs the angles); .rms true RMS, .avg rectified average, .error reading/RMS − 1, .ff form factor",
 			Formula: "reading = π/(2√2)·mean|x(t)| ≈ 1.1107·mean|x(t)|", Call: k.callMeter}),
-		sp(calc.Func{Name: "hpower", Args: "(V, I)", Min: 2, Max: 2,
+		sp(calc.Func{Name: "hpower", Params: []calc.Param{{Name: "V", Kind: calc.ParamWord, Doc: "the name of a voltage spectrum"}, {Name: "I", Kind: calc.ParamWord, Doc: "the name of a current spectrum"}}, Args: "(V, I)", Min: 2, Max: 2,
 			Doc:     "IEEE Std 1459-2010 powers of voltage spectrum V and current spectrum I: S; .p .p1 .ph (W), .q1 .n .di .dv .dh (var), .s1 .sn .sh (VA), .pf true, .pf1 displacement, .thdv .thdi",
 			Formula: "S = V·I;  P = Σ V_h·I_h·cos θ_h;  N = √(S² − P²);  D_I = V_1·I_H;  D_V = V_H·I_1;  D_H = √(S_H² − P_H²)", Call: k.callPower}),
-		sp(calc.Func{Name: "bankcheck", Args: "(Ssc, Qc, X[, p])", Min: 3, Max: 4,
+		sp(calc.Func{Name: "bankcheck", Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Doc: "the supply's short-circuit power", Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower, Doc: "the bank's output at the supply voltage"}, {Name: "X", Kind: calc.ParamWord, Doc: "the name of a spectrum"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C", Optional: true}}, Args: "(Ssc, Qc, X[, p])", Min: 3, Max: 4,
 			Doc:     "resonance order of a capacitor bank (output Qc at the supply voltage, reactor ratio p) with a supply of short-circuit power Ssc, checked against the orders present in spectrum X; .f, .n tuned order",
 			Formula: "h_r = 1/√(Q_c·(1 − p)/S_sc + p);  amplification = |Z_bank/(Z_supply + Z_bank)|", Call: k.callCheck}),
-		{Name: "detune", Args: "(Qc, V, p, single|three[, Vr])", Min: 4, Max: 5, Words: []string{"single", "three"},
+		{Name: "detune", Params: []calc.Param{{Name: "Qc", Kind: calc.ParamReactivePower, Doc: "the bank's output at the supply voltage", Else: "a capacitor bank is sized by its reactive power in var"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage (line-to-line for three phases)"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C"}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "Vr", Kind: calc.ParamVoltage, Doc: "the capacitors' rated voltage", Optional: true}}, Args: "(Qc, V, p, single|three[, Vr])", Min: 4, Max: 5, Words: []string{"single", "three"},
 			Doc:     "detuned capacitor bank giving Qc at supply voltage V with reactor ratio p: the reactor's L per phase; .n tuned order, .fr, .rise, .uc capacitor voltage, .c (star), .cdelta, .xc, .xl, .qc, .ql, .i, .qr rating needed at Vr",
 			Formula: "X_C − X_L = V²/Q_c;  X_L = p·X_C;  n = 1/√p;  U_C = V/(1 − p);  Q_r = Q_C·(V_r/U_C)²", Call: callDetune},
-		{Name: "bankout", Args: "(Qr, Vr, V[, p])", Min: 3, Max: 4,
+		{Name: "bankout", Params: []calc.Param{{Name: "Qr", Kind: calc.ParamReactivePower, Doc: "the capacitors' rated output", Else: "a capacitor is rated by its reactive power in var"}, {Name: "Vr", Kind: calc.ParamVoltage, Doc: "the capacitors' rated voltage"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C (0 without)", Optional: true}}, Args: "(Qr, Vr, V[, p])", Min: 3, Max: 4,
 			Doc:     "output at supply voltage V of a bank of capacitors rated Qr at Vr, with reactor ratio p (0 without); .uc capacitor voltage, .qc, .ql",
 			Formula: "Q = Q_r·(V/V_r)²/(1 − p);  U_C = V/(1 − p)", Call: callBankOut},
-		{Name: "bankscan", Args: "(Ssc, Qc, V[, p[, X/R[, hmax]]])", Min: 3, Max: 6,
-			Doc:     "table and plot of the supply's impedance alone and with a capacitor bank (output Qc at V, reactor ratio p) over harmonic order up to hmax (25); X/R of the supply (0: lossless); value: resonance order",
+		{Name: "bankscan", Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Doc: "the supply's short-circuit power", Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower, Doc: "the bank's output at the supply voltage"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C (0 without)", Optional: true}, {Name: "xr", Kind: calc.ParamRatio, Doc: "the supply's X/R at the fundamental (0: lossless)", Optional: true}, {Name: "hmax", Kind: calc.ParamRatio, Doc: "the highest order (25)", Optional: true}}, Args: "(Ssc, Qc, V[, p[, X/R[, hmax]]])", Min: 3, Max: 6,
+			Doc:     "table and plot of the supply's impedance alone and with a capacitor bank (output Qc at V, reactor ratio p) over harmonic order up to hmax (25); xr the supply's X/R (0 or left out: lossless); value: resonance order",
 			Formula: "Z_s = V²/S_sc·(1/(X/R) + j·h);  Z_b = j·(h·X_L − X_C/h);  Z = Z_s·Z_b/(Z_s + Z_b)", Call: callScan},
 	}
+	for i := range fs {
+		// a spectrum holds what a harmonic analyser reports, the RMS value
+		// of each order; a bank is given by its ratings and the supply by
+		// its nominal voltage and fault level: all RMS by definition
+		what := "the spectra's values (the RMS of each order)"
+		if !spectrumFuncs[fs[i].Name] || fs[i].Name == "bankcheck" {
+			what = "ratings, nominal voltages and fault levels"
+		}
+		fs[i].Call = calc.RMSByDefinition(what, fs[i].Call)
+	}
+	return fs
 }
 
 // kit carries the spectrum lookup into the calls.
@@ -151,16 +162,22 @@ func source(fn string, args []calc.Arg) string {
 	return fn + "(" + strings.Join(t, ", ") + ")"
 }
 
-func num(x float64) calc.Quantity             { return calc.Number(complex(x, 0)) }
-func mag(x float64, d calc.Dim) calc.Quantity { return calc.Real(x, d) }
+func num(x float64) calc.Quantity { return calc.Number(complex(x, 0)) }
+
+// mag is a magnitude: an RMS value, a peak or a size, shown without angle.
+func mag(x float64, d calc.Dim) calc.Quantity {
+	return calc.Quantity{V: complex(x, 0), Dim: d, Kind: calc.KindMagnitude}
+}
 func watts(x float64) calc.Quantity {
 	return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindActive}
 }
 func vars(x float64) calc.Quantity {
 	return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindReactive}
 }
+
+// va is an apparent power |S| in VA: a magnitude, not a complex power.
 func va(x float64) calc.Quantity {
-	return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindApparent}
+	return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindMagnitude}
 }
 
 func pct(f calc.Format, ratio float64) string {
@@ -193,9 +210,6 @@ func (k kit) callRMS(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	if err := rmsBasis("hrms", c, s); err != nil {
-		return calc.Result{}, err
-	}
 	rms, h1, hh, thd := s.RMS(), s.Fundamental(), s.HarmonicRMS(), s.THD()
 	st := calc.Step{Kind: "harmonic", Source: source("hrms", args),
 		Rule:    "true RMS of a spectrum: the square root of the sum of the squares of every order",
@@ -204,15 +218,6 @@ func (k kit) callRMS(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Results: []calc.Operand{{Name: "X", Value: mag(rms, s.Dim)}, {Name: "X_1", Value: mag(h1, s.Dim)}, {Name: "X_H", Value: mag(hh, s.Dim)}, {Name: "THD", Value: num(thd)}},
 	}
 	return result(mag(rms, s.Dim), st, calc.Operand{Name: "h1", Value: mag(h1, s.Dim)}, calc.Operand{Name: "hh", Value: mag(hh, s.Dim)}, calc.Operand{Name: "thd", Value: num(thd)})
-}
-
-// rmsBasis refuses a result in volts or amperes under the peak basis: a
-// spectrum holds RMS values and its RMS is not a phasor's peak.
-func rmsBasis(fn string, c *calc.Context, s Spectrum) error {
-	if c != nil && c.Basis == calc.Peak && !s.Dim.IsDimensionless() {
-		return fmt.Errorf("%s: a spectrum holds the RMS value of each order and its results are RMS values; set basis rms to read them", fn)
-	}
-	return nil
 }
 
 func (k kit) callTHD(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -276,9 +281,6 @@ func (k kit) callCrest(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, err
 	}
 	if err := needAngles("crest", s); err != nil {
-		return calc.Result{}, err
-	}
-	if err := rmsBasis("crest", c, s); err != nil {
 		return calc.Result{}, err
 	}
 	pk := s.wave().Peak()
@@ -357,9 +359,6 @@ func (k kit) callMeter(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err := needAngles("avgmeter", s); err != nil {
 		return calc.Result{}, err
 	}
-	if err := rmsBasis("avgmeter", c, s); err != nil {
-		return calc.Result{}, err
-	}
 	avg := s.wave().RectifiedAverage()
 	rms := s.RMS()
 	if !(avg > 0) {
@@ -394,9 +393,6 @@ func (k kit) callPower(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	i, in, err := k.spectrum("hpower", args, 1, "I")
 	if err != nil {
 		return calc.Result{}, err
-	}
-	if c != nil && c.Basis == calc.Peak {
-		return calc.Result{}, fmt.Errorf("hpower: spectra hold RMS values and these powers are defined on them; set basis rms to read them")
 	}
 	p, err := PowersOf(v, i)
 	if err != nil {

@@ -64,14 +64,14 @@ func TestCalls(t *testing.T) {
 		kind    calc.Kind
 		caution bool
 	}{
-		{"hrms", []calc.Arg{w("Iload")}, iload.RMS(), calc.DimCurrent, calc.KindPlain, false},
+		{"hrms", []calc.Arg{w("Iload")}, iload.RMS(), calc.DimCurrent, calc.KindMagnitude, false},
 		{"thd", []calc.Arg{w("Iload")}, iload.THD(), calc.Dim{}, calc.KindPlain, false},
 		{"tdd", []calc.Arg{w("Iload"), q(150, calc.DimCurrent)}, iload.HarmonicRMS() / 150, calc.Dim{}, calc.KindPlain, false},
 		{"crest", []calc.Arg{w("Iload")}, iload.wave().Peak() / iload.RMS(), calc.Dim{}, calc.KindPlain, false},
 		{"fhl", []calc.Arg{w("Iload")}, iload.FHL(), calc.Dim{}, calc.KindPlain, false},
 		{"kfactor", []calc.Arg{w("Iload")}, iload.FHL(), calc.Dim{}, calc.KindPlain, false},
 		{"kfactor", []calc.Arg{w("Iload"), q(120, calc.DimCurrent)}, iload.KFactor(120), calc.Dim{}, calc.KindPlain, false},
-		{"avgmeter", []calc.Arg{w("Iload")}, SineFormFactor * iload.wave().RectifiedAverage(), calc.DimCurrent, calc.KindPlain, true},
+		{"avgmeter", []calc.Arg{w("Iload")}, SineFormFactor * iload.wave().RectifiedAverage(), calc.DimCurrent, calc.KindMagnitude, true},
 		{"bankcheck", []calc.Arg{powerArg(10e6, calc.KindApparent), powerArg(400e3, calc.KindReactive), w("Iload")}, 5, calc.Dim{}, calc.KindPlain, true},
 		{"bankcheck", []calc.Arg{powerArg(10e6, calc.KindApparent), powerArg(400e3, calc.KindReactive), w("Iload"), plainArg(0.07)},
 			Bank{Ssc: 10e6, Q: 400e3, P: 0.07}.ResonanceOrder(), calc.Dim{}, calc.KindPlain, true},
@@ -123,10 +123,10 @@ func TestCallPowers(t *testing.T) {
 		"p": {p.P, calc.KindActive}, "p1": {p.P1, calc.KindActive}, "ph": {p.PH, calc.KindActive},
 		"q1": {p.Q1, calc.KindReactive}, "n": {p.N, calc.KindReactive}, "di": {p.DI, calc.KindReactive},
 		"dv": {p.DV, calc.KindReactive}, "dh": {p.DH, calc.KindReactive},
-		"s1": {p.S1, calc.KindApparent}, "sn": {p.SN, calc.KindApparent}, "sh": {p.SH, calc.KindApparent},
+		"s1": {p.S1, calc.KindMagnitude}, "sn": {p.SN, calc.KindMagnitude}, "sh": {p.SH, calc.KindMagnitude},
 		"pf": {p.PF, calc.KindPlain}, "pf1": {p.PF1, calc.KindPlain},
 	}
-	if r.Value.Kind != calc.KindApparent || real(r.Value.V) != p.S {
+	if r.Value.Kind != calc.KindMagnitude || real(r.Value.V) != p.S {
 		t.Errorf("S = %v kind %d", r.Value.V, r.Value.Kind)
 	}
 	for key, want := range kinds {
@@ -143,8 +143,6 @@ func TestCallPowers(t *testing.T) {
 
 func TestCallErrors(t *testing.T) {
 	fs := testFuncs(t)
-	peak := ctx()
-	peak.Basis = calc.Peak
 	cs := []struct {
 		fn   string
 		c    *calc.Context
@@ -159,7 +157,6 @@ func TestCallErrors(t *testing.T) {
 		{"tdd", ctx(), []calc.Arg{w("Iload"), q(cmplx.Rect(10, 1), calc.DimCurrent)}, "greater than 0"},
 		{"crest", ctx(), []calc.Arg{w("Inoangle")}, "give the angle of order 5"},
 		{"avgmeter", ctx(), []calc.Arg{w("Inoangle")}, "angle"},
-		{"hrms", peak, []calc.Arg{w("Iload")}, "basis rms"},
 		{"hpower", ctx(), []calc.Arg{w("Iload"), w("Vbus")}, "voltage spectrum in V first"},
 		{"hpower", ctx(), []calc.Arg{w("Vbus"), w("Inoangle")}, "angle"},
 		{"fhl", ctx(), []calc.Arg{w("Vbus")}, "voltage spectrum"},
@@ -177,6 +174,27 @@ func TestCallErrors(t *testing.T) {
 		_, err := fs[c.fn].Call(c.c, c.args)
 		if err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%s%v: error %v, want one containing %q", c.fn, c.args, err, c.want)
+		}
+	}
+}
+
+// TestPeakBasis: a spectrum holds RMS values by definition, so the
+// results are the same on the peak basis and the step says why.
+func TestPeakBasis(t *testing.T) {
+	fs := testFuncs(t)
+	peak := ctx()
+	peak.Basis = calc.Peak
+	for _, fn := range []string{"hrms", "crest", "avgmeter"} {
+		a, err := fs[fn].Call(ctx(), []calc.Arg{w("Iload")})
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := fs[fn].Call(peak, []calc.Arg{w("Iload")})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if a.Value != b.Value || !strings.Contains(strings.Join(b.Notes, " "), "RMS by definition") {
+			t.Errorf("%s on basis peak: %v (rms: %v), notes %q", fn, b.Value, a.Value, b.Notes)
 		}
 	}
 }

@@ -42,6 +42,17 @@ var samples = map[string]string{
 	"qseries": "qseries(10 Ω, 10 mH, 10 uF)", "qparallel": "qparallel(10 kΩ, 10 mH, 10 uF)",
 	"bandwidth": "bandwidth(1 kHz, 10)", "tank": "tank(10 mH, 1 Ω, 10 uF)", "db": "db(0.5)",
 	"transfer": "transfer(1∠-45 V, 2 V)",
+	"hrms":     "hrms(Ib)", "thd": "thd(Ib)", "tdd": "tdd(Ib, 150 A)", "crest": "crest(Ib)", "fhl": "fhl(Ib)",
+	"kfactor": "kfactor(Ib, 120 A)", "avgmeter": "avgmeter(Ib)", "hpower": "hpower(Ub, Ib)",
+	"bankcheck": "bankcheck(10 MVA, 400 kvar, Ib, 7 %)", "detune": "detune(50 kvar, 400 V, 7 %, three, 440 V)",
+	"bankout": "bankout(60 kvar, 440 V, 400 V, 7 %)", "bankscan": "bankscan(10 MVA, 400 kvar, 400 V, 7 %, 8, 13)",
+}
+
+// before holds statements a sample call needs first: the spectra that the
+// harmonic functions read (invented example data).
+var before = []string{
+	"spectrum Ib h1 100 A ∠ -20, h3 35 % ∠ 60, h5 22 % ∠ 170, h7 12 % ∠ -40",
+	"spectrum Ub h1 230 V, h3 2 % ∠ 160, h5 3 % ∠ -60",
 }
 
 // TestEveryFunctionBothBases: every function has parameters and runs on
@@ -63,8 +74,10 @@ func TestEveryFunctionBothBases(t *testing.T) {
 		var mixes bool
 		for _, basis := range []string{"rms", "peak"} {
 			s := New()
-			if _, err := s.Exec("basis " + basis); err != nil {
-				t.Fatal(err)
+			for _, l := range append([]string{"basis " + basis}, before...) {
+				if _, err := s.Exec(l); err != nil {
+					t.Fatal(err)
+				}
 			}
 			steps, err := s.Exec("x = " + src)
 			if err != nil {

@@ -109,7 +109,6 @@ func TestSpectrumErrors(t *testing.T) {
 		{[]string{"x = 3"}, "thd(x)", 1, "name of a spectrum"},
 		{nil, "thd(I)", 5, "unknown name"},
 		{[]string{"spectrum I h1 10 A, h5 2 A"}, "crest(I)", 1, "angle of order 5"},
-		{[]string{"spectrum I h1 10 A ∠ 0, h5 2 A ∠ 10", "basis peak"}, "hrms(I)", 1, "basis rms"},
 		{[]string{"spectrum I h1 10 A", "y = thd(I)"}, "forget I", 8, "y depends on it"},
 	}
 	for _, c := range cs {
