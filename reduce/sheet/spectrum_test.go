@@ -211,3 +211,30 @@ func TestSpectrumKinds(t *testing.T) {
 		}
 	}
 }
+
+// TestSpectrumNamedArguments: the harmonic and bank functions take their
+// arguments by name in any order, and refuse an argument of the wrong kind
+// before they run.
+func TestSpectrumNamedArguments(t *testing.T) {
+	s := New()
+	runOn(t, s, "spectrum I h1 100 A ∠ -20, h5 22 % ∠ 170",
+		"a = tdd(I, 150 A)", "b = tdd(IL = 150 A, I = I)",
+		"c = bankcheck(10 MVA, 400 kvar, I, 7 %)", "d = bankcheck(Qc = 400 kvar, X = I, p = 7 %, Ssc = 10 MVA)",
+		"e1 = detune(50 kvar, 400 V, 7 %, three)", "g = detune(phases = three, p = 7 %, V = 400 V, Qc = 50 kvar)")
+	for _, pair := range [][2]string{{"a", "b"}, {"c", "d"}, {"e1", "g"}} {
+		if x, y := value(t, s, pair[0]), value(t, s, pair[1]); x != y {
+			t.Errorf("%s = %v but %s = %v", pair[0], x.V, pair[1], y.V)
+		}
+	}
+	for _, c := range []struct{ line, want string }{
+		{"tdd(I, 150 V)", "IL takes a current in A"},
+		{"bankcheck(10 kW, 400 kvar, I)", "Ssc takes an apparent power in VA"},
+		{"detune(50 kW, 400 V, 7 %, three)", "Qc takes a reactive power in var"},
+		{"bankout(60 kvar, 440 V, 400 A)", "V takes a voltage in V"},
+	} {
+		_, err := s.Exec(c.line)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: %v, want %q", c.line, err, c.want)
+		}
+	}
+}
