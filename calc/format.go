@@ -277,8 +277,8 @@ func (f Format) Polar(q Quantity) string {
 	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() {
 		return f.AngleValue(real(q.V))
 	}
-	if q.IsReal() && q.Kind.noAngle() {
-		// a magnitude or signed real has no angle to show
+	if q.Scalar() {
+		// a magnitude, a signed real or a real ratio has no angle to show
 		return f.Rect(q)
 	}
 	m := cmplx.Abs(q.V)
