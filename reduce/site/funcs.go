@@ -103,6 +103,7 @@ func Funcs() []calc.Func {
 		"fromvip":      "meter readings of V, I and P",
 		"frompf":       "the voltage reading",
 	}
+	fs = append(fs, shortFuncs()...)
 	for i := range fs {
 		fs[i].Call = guard(fs[i])
 		if what, ok := rated[fs[i].Name]; ok {
