@@ -62,7 +62,7 @@ func Funcs() []calc.Func {
 			Call:    callXfmr},
 		{Name: "faultcurrent", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage}, {Name: "V2", Kind: calc.ParamVoltage}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamRatio, Doc: "X/R"}, {Name: "source", Kind: calc.ParamPowerOrImpedance, Doc: "Ssc or Zs"}, {Name: "Rlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "Xlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "length", Kind: calc.ParamLength, Optional: true}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z, X/R, Ssc or Zs[, R', X', length][, single|three])", Min: 6, Max: 10, Words: []string{"single", "three"},
 			Doc:     "prospective symmetrical fault current at the end of a cable fed by a transformer (Ssc = 0 for an infinite bus); .terminals .infinite .z",
-			Formula: "I = V2/(√3·|Zs/a² + Zt + Zc|)",
+			Formula: "I = V2/(k·|Zs/a² + Zt + Zc|), k = √3 three-phase, 1 single-phase (cable loop 2·Zc)",
 			Call:    callFault},
 		{Name: "pubase", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V", Kind: calc.ParamVoltage}}, Args: "(S, V)", Min: 2, Max: 2,
 			Doc:     "per-unit impedance base for a three-phase S and line-to-line V; .ibase",
@@ -498,14 +498,29 @@ func callXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 func callFault(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "faultcurrent"
 	qs, words := split(args)
+	var srcXR float64
+	if len(qs) > 6 && qs[6].Q.Dim == calc.Dimensionless {
+		if qs[5].Q.Dim != calc.DimPower {
+			return calc.Result{}, fmt.Errorf("%s: a source X/R goes with a source fault level in VA; an impedance Zs carries its own angle", fn)
+		}
+		xr, err := realArg(fn, "source X/R", qs[6], calc.Dimensionless)
+		if err != nil {
+			return calc.Result{}, err
+		}
+		if xr <= 0 {
+			return calc.Result{}, fmt.Errorf("%s: the source X/R must be positive, got %s", fn, qs[6].Text)
+		}
+		srcXR = xr
+		qs = append(qs[:6:6], qs[7:]...)
+	}
 	if len(qs) != 6 && len(qs) != 9 {
-		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, Ssc or Zs[, R', X', length][, single|three])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, Ssc or Zs[, source X/R][, R', X', length][, single|three])", fn)
 	}
 	n, err := nameplateArgs(fn, qs[:5], words)
 	if err != nil {
 		return calc.Result{}, err
 	}
-	f := Fault{Xfmr: n}
+	f := Fault{Xfmr: n, SourceXR: srcXR}
 	src := qs[5]
 	switch src.Q.Dim {
 	case calc.DimPower:

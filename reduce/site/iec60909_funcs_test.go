@@ -19,8 +19,12 @@ func wa(w string) calc.Arg { return calc.Arg{Word: w, Text: w} }
 // as transcribed in an open-source test suite), then a fault through them.
 func TestShortFuncs(t *testing.T) {
 	ctx := &calc.Context{Freq: 50, Sequence: 1}
-	kw := func(x float64) calc.Quantity { return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindActive} }
-	kva := func(x float64) calc.Quantity { return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindApparent} }
+	kw := func(x float64) calc.Quantity {
+		return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindActive}
+	}
+	kva := func(x float64) calc.Quantity {
+		return calc.Quantity{V: complex(x, 0), Dim: calc.DimPower, Kind: calc.KindApparent}
+	}
 	zq, err := findFunc(t, "zfeeder").Call(ctx, []calc.Arg{qa("20 kV", 20e3, calc.DimVoltage), qa("10 kA", 10e3, calc.DimCurrent),
 		qa("0.1", 0.1, calc.Dimensionless), qa("20 kV", 20e3, calc.DimVoltage), qa("410 V", 410, calc.DimVoltage)})
 	if err != nil {

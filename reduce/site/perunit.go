@@ -80,9 +80,13 @@ const (
 	TransformerSection
 	LineSection
 	LoadSection
+	// SeriesSection is a series impedance whose nature was not given (a
+	// per-unit value or an impedance in Ω typed into a chain): it may be a
+	// transformer, a line or a reactor, so it is not called any of them.
+	SeriesSection
 )
 
-var sectionWords = [...]string{"source", "transformer", "line", "load"}
+var sectionWords = [...]string{"source", "transformer", "line", "load", "series element"}
 
 func (k SectionKind) String() string {
 	if int(k) < len(sectionWords) {

@@ -31,7 +31,7 @@ func radialFunc() calc.Func {
 			}
 			sys := Radial{SBase: real(s.V), VBase: real(v.V), Fault: args[2].Word == "fault"}
 			for i, a := range args[3:] {
-				sec := Section{Name: fmt.Sprintf("Z%d (%s)", i+1, a.Text), Kind: LineSection}
+				sec := Section{Name: fmt.Sprintf("Z%d (%s)", i+1, a.Text), Kind: SeriesSection}
 				switch q := a.Q; q.Dim {
 				case calc.Dimensionless:
 					sec.Z, sec.PU, sec.SRated, sec.VRated = q.V, true, sys.SBase, sys.VBase

@@ -220,9 +220,14 @@ func FaultLevel(f Fault) (FaultResult, error) {
 	}
 	a := n.V1 / n.V2
 	var zs1 complex128
+	var srcNotes []string
 	src := "infinite bus (no source impedance)"
 	switch {
 	case f.SourceVA > 0:
+		if f.SourceXR <= 0 {
+			srcNotes = append(srcNotes, "source X/R not given: the source is taken as a pure reactance (X/R infinite); "+
+				"give its X/R after the fault level, or use zfeeder and ik3 for the IEC 60909-0 method (R_Q/X_Q, voltage factor c)")
+		}
 		zs1 = cmplx.Rect(n.V1*n.V1/f.SourceVA, zAngle(f.SourceXR))
 		src = "source from its fault level: Zs = V1²/S_sc ∠ atan(X/R)"
 		if n.SinglePhase {
@@ -267,6 +272,7 @@ func FaultLevel(f Fault) (FaultResult, error) {
 			Formula: "Z = Zs/a² + Zt + Zc,  a = V1/V2",
 			Inputs:  []calc.Operand{op("Zs (primary)", cq(zs1, calc.DimImpedance)), op("a", num(a)), op("Zt", r.Zxfmr), op("Zc", r.Zcable)},
 			Results: []calc.Operand{op("Zs (secondary)", r.Zsource), op("Z total", r.Ztotal)},
+			Notes:   srcNotes,
 		},
 		calc.Step{
 			Kind:    "fault",
