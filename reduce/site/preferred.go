@@ -15,7 +15,9 @@ type Series struct {
 	values    []int   // one decade, in units of the last significant figure
 }
 
-// The tables of IEC 60063:2015, from memory. E6, E12 and E24 are the
+// The tables of IEC 60063:2015. E6, E12 and E24 are checked in the tests
+// against a published tabulation that follows the standard; E48 and E96
+// against the rounding rule it states. E6, E12 and E24 are the
 // historical values, which are not rounded powers of 10^(1/n): E24 has 2.7,
 // 3.0, 3.3, 3.6, 3.9, 4.3, 4.7 and 8.2 where rounding would give 2.6, 2.9,
 // 3.2, 3.5, 3.8, 4.2, 4.6 and 8.3. E48 is every other value of E96.
