@@ -3,6 +3,7 @@ package site
 import (
 	"math"
 	"math/cmplx"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -265,4 +266,21 @@ func TestRunHot(t *testing.T) {
 		t.Errorf("hot Z = %v, want %v", r.Hot.V, want)
 	}
 	var _ calc.Quantity = r.Hot
+}
+
+// The work grows linearly with the elements of the path.
+func BenchmarkThreePhaseShort(b *testing.B) {
+	for _, n := range []int{10, 100, 1000} {
+		path := make([]NamedZ, n)
+		for i := range path {
+			path[i] = NamedZ{Name: "Z", Z: complex(1e-4, 3e-4)}
+		}
+		b.Run(strconv.Itoa(n), func(b *testing.B) {
+			for range b.N {
+				if _, err := ThreePhaseShort(Short{Un: 400, Path: path}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
 }
