@@ -380,11 +380,14 @@ func callZsLoop(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
+	if r.Checked {
+		// the verdict leads, so it is seen before the cautions
+		notes = append([]string{r.Verdict}, notes...)
+	}
 	out := calc.Result{Value: r.Zs, Steps: r.Steps, Notes: append(notes, LoopCaution, FaultCaution), Extra: []calc.Operand{
 		op("if", r.If), op("factor", r.Factor), op("r12", r.R12)}}
 	if r.Checked {
 		out.Extra = append(out.Extra, op("ok", num(b2f(r.Within))))
-		out.Notes = append(out.Notes, r.Steps[1].Notes[0])
 	}
 	return out, nil
 }

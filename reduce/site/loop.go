@@ -38,6 +38,7 @@ type LoopResult struct {
 	// was given.
 	Within  bool
 	Checked bool
+	Verdict string // one line: met or not, for the summary of a call
 	Steps   []calc.Step
 }
 
@@ -112,6 +113,10 @@ func EarthLoop(l Loop) (LoopResult, error) {
 		if !r.Within {
 			verdict = "|Z_s| = " + sig(mag) + " Ω EXCEEDS the maximum " + sig(l.MaxZs) + " Ω you gave"
 		}
+		r.Verdict = "verdict: limit met, |Z_s| ≤ your maximum Z_s"
+		if !r.Within {
+			r.Verdict = "verdict: limit NOT met, |Z_s| > your maximum Z_s"
+		}
 		last.Inputs = append(last.Inputs, op("Z_s max (yours)", rq(l.MaxZs, calc.DimImpedance)))
 		last.Notes = append(last.Notes, verdict)
 	case l.MinI > 0:
@@ -119,6 +124,10 @@ func EarthLoop(l Loop) (LoopResult, error) {
 		verdict := "I_f = " + sig(ifault) + " A reaches the minimum " + sig(l.MinI) + " A you gave"
 		if !r.Within {
 			verdict = "I_f = " + sig(ifault) + " A is BELOW the minimum " + sig(l.MinI) + " A you gave"
+		}
+		r.Verdict = "verdict: limit met, I_f ≥ your minimum current"
+		if !r.Within {
+			r.Verdict = "verdict: limit NOT met, I_f < your minimum current"
 		}
 		last.Inputs = append(last.Inputs, op("I min (yours)", rq(l.MinI, calc.DimCurrent)))
 		last.Notes = append(last.Notes, verdict)
