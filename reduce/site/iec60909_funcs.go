@@ -275,7 +275,7 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	out := calc.Result{Value: r.Ik, Steps: r.Steps, Notes: []string{FaultCaution}}
+	out := calc.Result{Value: r.Ik, Steps: r.Steps, Notes: []string{"U_n, I\"_k and S\"_k are RMS values by definition, whatever the worksheet's basis; i_p is the instantaneous peak", FaultCaution}}
 	if !s.Min {
 		out.Extra = append(out.Extra, op("ip", r.Ip), op("kappa", r.Kappa))
 	}
@@ -322,10 +322,20 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 			if err != nil {
 				return calc.Result{}, fmt.Errorf("%s: %v", name, err)
 			}
-			return calc.Result{Value: r.Ik, Steps: r.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
-				op("ia", r.Iabc[0]), op("ib", r.Iabc[1]), op("ic", r.Iabc[2]),
-				op("va", r.Vabc[0]), op("vb", r.Vabc[1]), op("vc", r.Vabc[2]),
-				op("i0", r.I012[0]), op("i1", r.I012[1]), op("i2", r.I012[2]), op("ie", r.Ie), op("c", r.C)}}, nil
+			notes := []string{"U_n and I\"_k are RMS values by definition, whatever the worksheet's basis"}
+			// The phasors follow the worksheet's basis; the steps show RMS.
+			k := complex(1, 0)
+			if ctx.Basis == calc.Peak {
+				k = complex(math.Sqrt2, 0)
+				notes = append(notes, "basis peak: the phasors .ia … .ie are the steps' RMS values times √2")
+			}
+			ph := func(name string, q calc.Quantity) calc.Operand {
+				return op(name, calc.Quantity{V: q.V * k, Dim: q.Dim, Kind: q.Kind})
+			}
+			return calc.Result{Value: r.Ik, Steps: r.Steps, Notes: append(notes, FaultCaution), Extra: []calc.Operand{
+				ph("ia", r.Iabc[0]), ph("ib", r.Iabc[1]), ph("ic", r.Iabc[2]),
+				ph("va", r.Vabc[0]), ph("vb", r.Vabc[1]), ph("vc", r.Vabc[2]),
+				ph("i0", r.I012[0]), ph("i1", r.I012[1]), ph("i2", r.I012[2]), ph("ie", r.Ie), op("c", r.C)}}, nil
 		}}
 }
 

@@ -92,3 +92,24 @@ func TestShortFuncErrors(t *testing.T) {
 		}
 	}
 }
+
+// Under basis peak the phasors of an unsymmetrical fault are peak values
+// (√2 times RMS); I"_k stays the RMS value the standard defines.
+func TestUnsymFuncPeak(t *testing.T) {
+	args := []calc.Arg{qa("400 V", 400, calc.DimVoltage), qa("Z1", complex(3e-3, 11e-3), calc.DimImpedance),
+		qa("Z2", complex(3e-3, 11e-3), calc.DimImpedance), qa("Z0", complex(9e-3, 14e-3), calc.DimImpedance)}
+	rms, err := findFunc(t, "ik1").Call(&calc.Context{Freq: 50, Sequence: 1}, args)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pk, err := findFunc(t, "ik1").Call(&calc.Context{Freq: 50, Sequence: 1, Basis: calc.Peak}, args)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if pk.Value.V != rms.Value.V {
+		t.Errorf("I\"_k changed with the basis: %v, %v", pk.Value.V, rms.Value.V)
+	}
+	if got, want := pk.Extra[0].Value.V, rms.Extra[0].Value.V*complex(math.Sqrt2, 0); got != want {
+		t.Errorf("peak .ia = %v, want %v", got, want)
+	}
+}
