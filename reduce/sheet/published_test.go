@@ -106,11 +106,15 @@ ic80 = 240 V / xc80
 sc80 = power(240 V, ic80)
 after = loads(load(1.5 kW, meas.pf, lagging), sc80)
 iafter = current(after, 240 V, single)
+fp = frompf(1.5 kW, 0.65, 240 V, lagging)
 `
 	runPublished(t, ws, []printed{
 		{"meas.s", "mag", 2.308e3, 0.0005e3, "S 2.308 kVA"},
 		{"meas.pf", "re", 0.65, 0.005, "PF 0.65"},
 		{"meas.q", "re", 1.754e3, 0.0005e3, "Q 1.754 kvar"},
+		// backwards from the printed PF 0.65: the ammeter's 9.615 A and S
+		{"fp.i", "mag", 9.615, 0.0005, "ammeter 9.615 A (from P and the printed PF 0.65)"},
+		{"fp.s", "mag", 2.308e3, 0.0005e3, "S 2.308 kVA (from P and the printed PF 0.65)"},
 		// The book prints 32.845 Ω, which follows from its rounded
 		// intermediate figures; unrounded V²/Q = 32.8472 Ω. Tested to
 		// 0.01 % (0.0033 Ω), not to the printed digit.
