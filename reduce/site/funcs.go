@@ -498,29 +498,14 @@ func callXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 func callFault(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "faultcurrent"
 	qs, words := split(args)
-	var srcXR float64
-	if len(qs) > 6 && qs[6].Q.Dim == calc.Dimensionless {
-		if qs[5].Q.Dim != calc.DimPower {
-			return calc.Result{}, fmt.Errorf("%s: a source X/R goes with a source fault level in VA; an impedance Zs carries its own angle", fn)
-		}
-		xr, err := realArg(fn, "source X/R", qs[6], calc.Dimensionless)
-		if err != nil {
-			return calc.Result{}, err
-		}
-		if xr <= 0 {
-			return calc.Result{}, fmt.Errorf("%s: the source X/R must be positive, got %s", fn, qs[6].Text)
-		}
-		srcXR = xr
-		qs = append(qs[:6:6], qs[7:]...)
-	}
 	if len(qs) != 6 && len(qs) != 9 {
-		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, Ssc or Zs[, source X/R][, R', X', length][, single|three])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, Ssc or Zs[, R', X', length][, single|three])", fn)
 	}
 	n, err := nameplateArgs(fn, qs[:5], words)
 	if err != nil {
 		return calc.Result{}, err
 	}
-	f := Fault{Xfmr: n, SourceXR: srcXR}
+	f := Fault{Xfmr: n}
 	src := qs[5]
 	switch src.Q.Dim {
 	case calc.DimPower:

@@ -47,40 +47,24 @@ func TestRadialFunc(t *testing.T) {
 	}
 }
 
-// faultcurrent says when it takes the source as a pure reactance, and
-// takes the source X/R when given: Z_s = (V1²/S_sc)∠atan(X/R) referred by
-// 1/a² (common practice).
-func TestFaultCurrentSourceXR(t *testing.T) {
+// faultcurrent says that it takes the source as a pure reactance with
+// c = 1 when the source is given by its fault level, rather than doing so
+// silently.
+func TestFaultCurrentSourceNote(t *testing.T) {
 	f := findFunc(t, "faultcurrent")
-	base := []calc.Arg{pw(1e6), q(11e3, calc.DimVoltage), q(415, calc.DimVoltage), n(5), n(6), pw(250e6)}
-	r, err := f.Call(&calc.Context{Freq: 50}, base)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var notes []string
-	for _, st := range r.Steps {
-		notes = append(notes, st.Notes...)
-	}
-	if !strings.Contains(strings.Join(notes, " "), "pure reactance (X/R infinite)") {
-		t.Error("no note that the source is taken as a pure reactance")
-	}
-	withXR := append(append([]calc.Arg{}, base...), n(10), q(0.32e-3, perMetre), q(0.08e-3, perMetre), q(60, calc.DimLength))
-	r, err = f.Call(&calc.Context{Freq: 50}, withXR)
-	if err != nil {
-		t.Fatal(err)
-	}
-	a := 11e3 / 415
-	want := cmplx.Rect(11e3*11e3/250e6, math.Atan(10)) / complex(a*a, 0)
-	var zs complex128
-	for _, e := range r.Extra {
-		if e.Name == "zsource" {
-			zs = e.Value.V
+	for _, src := range []calc.Arg{pw(250e6), q(0.5, calc.DimImpedance)} {
+		args := []calc.Arg{pw(1e6), q(11e3, calc.DimVoltage), q(415, calc.DimVoltage), n(5), n(6), src}
+		r, err := f.Call(&calc.Context{Freq: 50}, args)
+		if err != nil {
+			t.Fatal(err)
 		}
-	}
-	if cmplx.Abs(zs-want) > 1e-12*cmplx.Abs(want) {
-		t.Errorf("source on the secondary = %v, want %v", zs, want)
-	}
-	if _, err := f.Call(&calc.Context{Freq: 50}, append(base[:5:5], q(1, calc.DimImpedance), n(10))); err == nil {
-		t.Error("a source X/R beside an impedance Zs: no error")
+		var notes []string
+		for _, st := range r.Steps {
+			notes = append(notes, st.Notes...)
+		}
+		said := strings.Contains(strings.Join(notes, " "), "pure reactance (X/R infinite)")
+		if said != (src.Q.Dim == calc.DimPower) {
+			t.Errorf("source %v: pure-reactance note %v", src.Q, said)
+		}
 	}
 }

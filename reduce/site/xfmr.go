@@ -225,8 +225,8 @@ func FaultLevel(f Fault) (FaultResult, error) {
 	switch {
 	case f.SourceVA > 0:
 		if f.SourceXR <= 0 {
-			srcNotes = append(srcNotes, "source X/R not given: the source is taken as a pure reactance (X/R infinite); "+
-				"give its X/R after the fault level, or use zfeeder and ik3 for the IEC 60909-0 method (R_Q/X_Q, voltage factor c)")
+			srcNotes = append(srcNotes, "the source fault level is taken as a pure reactance (X/R infinite) and c = 1; "+
+				"for the IEC 60909-0 method with R_Q/X_Q and the voltage factor c use zfeeder and ik3")
 		}
 		zs1 = cmplx.Rect(n.V1*n.V1/f.SourceVA, zAngle(f.SourceXR))
 		src = "source from its fault level: Zs = V1²/S_sc ∠ atan(X/R)"
