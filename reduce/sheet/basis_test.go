@@ -46,6 +46,11 @@ var samples = map[string]string{
 	"kfactor": "kfactor(Ib, 120 A)", "avgmeter": "avgmeter(Ib)", "hpower": "hpower(Ub, Ib)",
 	"bankcheck": "bankcheck(10 MVA, 400 kvar, Ib, 7 %)", "detune": "detune(50 kvar, 400 V, 7 %, three, 440 V)",
 	"bankout": "bankout(60 kvar, 440 V, 400 V, 7 %)", "bankscan": "bankscan(10 MVA, 400 kvar, 400 V, 7 %, 8, 13)",
+	"zfeeder": "zfeeder(20 kV, 10 kA, 20 kV, 410 V)", "zxfmr": "zxfmr(630 kVA, 20 kV, 410 V, 4, 6.5 kW)",
+	"zcable": "zcable(0.077 Ω/km, 0.079 Ω/km, 10 m, 2, 80)", "ik3": "ik3(400 V, 0.05+j0.53 mΩ, 2.7+j10 mΩ)",
+	"ik1": "ik1(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ)", "ik2": "ik2(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ)",
+	"ik2e":   "ik2e(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ, 50 mΩ)",
+	"zsloop": "zsloop(230 V, 0.35 Ω, 19.5 mΩ/m, 25 m, 70, 1.2 Ω)",
 }
 
 // before holds statements a sample call needs first: the spectra that the

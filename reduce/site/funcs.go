@@ -102,6 +102,10 @@ func Funcs() []calc.Func {
 		"fromvi":       "meter readings of V and I",
 		"fromvip":      "meter readings of V, I and P",
 		"frompf":       "the voltage reading",
+		"zfeeder":      "the nominal voltage and the feeder's short-circuit current",
+		"zxfmr":        "the transformer's rating",
+		"ik3":          "the nominal voltage and the short-circuit currents",
+		"zsloop":       "the nominal voltage to earth and the fault current",
 	}
 	fs = append(fs, shortFuncs()...)
 	for i := range fs {

@@ -131,7 +131,7 @@ func FeederZ(f Feeder) (ElementZ, error) {
 	form := "Z_Q = c_Q·U_nQ/(√3·I\"_kQ)"
 	if f.IkQ > 0 {
 		zq = c * f.UnQ / (math.Sqrt(3) * f.IkQ)
-		in = op("I\"_kQ", rq(f.IkQ, calc.DimCurrent))
+		in = op("I\"_kQ", kq(f.IkQ, calc.DimCurrent, calc.KindMagnitude))
 	} else {
 		zq = c * f.UnQ * f.UnQ / f.SkQ
 		in = op("S\"_kQ", power(f.SkQ, calc.KindApparent))
@@ -306,7 +306,7 @@ func RunZ(c Run) (ElementZ, error) {
 		Rule:    "cable or line impedance at 20 °C, " + strconv.Itoa(n) + " run(s) in parallel (IEC 60909-0)",
 		Formula: "Z_L = (R' + jX')·l/n",
 		Inputs: []calc.Operand{op("R'", rq(c.R, perMetre)), op("X'", rq(c.X, perMetre)), op("l", rq(c.Length, calc.DimLength)),
-			op("n", num(float64(n)))},
+			op("n", kq(float64(n), calc.Dimensionless, calc.KindCount))},
 		Results: []calc.Operand{op("Z_L", r.Z)},
 		Notes:   []string{FaultCaution},
 	}
@@ -356,7 +356,7 @@ type ShortResult struct {
 	Ik    calc.Quantity // I"_k, A (a magnitude)
 	Sk    calc.Quantity // S"_k = √3·U_n·I"_k, VA
 	Kappa calc.Quantity // κ (maximum only)
-	Ip    calc.Quantity // i_p = κ·√2·I"_k, A (maximum only)
+	Ip    calc.Quantity // i_p = κ·√2·I"_k, A, an instantaneous value (maximum only)
 	Steps []calc.Step
 }
 
@@ -395,7 +395,7 @@ func ThreePhaseShort(s Short) (ShortResult, error) {
 		}
 		zk += e.Z
 		sum.Rows = append(sum.Rows, calc.Row{Name: e.Name, Values: []calc.Operand{
-			op("z", cq(e.Z, calc.DimImpedance)), op("r", rq(real(e.Z), calc.DimImpedance)), op("x", rq(imag(e.Z), calc.DimImpedance))}})
+			op("z", cq(e.Z, calc.DimImpedance)), op("r", kq(real(e.Z), calc.DimImpedance, calc.KindResistive)), op("x", kq(imag(e.Z), calc.DimImpedance, calc.KindSigned))}})
 	}
 	if cmplx.Abs(zk) == 0 {
 		return ShortResult{}, errf("the short-circuit impedance is zero: the current is unbounded")
@@ -410,7 +410,7 @@ func ThreePhaseShort(s Short) (ShortResult, error) {
 	if s.Min {
 		which, cname = "minimum", "c_min"
 	}
-	r := ShortResult{Zk: cq(zk, calc.DimImpedance), C: num(c), Ik: rq(ik, calc.DimCurrent), Sk: power(sk, calc.KindApparent)}
+	r := ShortResult{Zk: cq(zk, calc.DimImpedance), C: num(c), Ik: kq(ik, calc.DimCurrent, calc.KindMagnitude), Sk: power(sk, calc.KindApparent)}
 	cur := calc.Step{
 		Kind:    "fault",
 		Rule:    which + " initial symmetrical short-circuit current, three-phase (IEC 60909-0, equivalent voltage source at the fault); " + csrc,
@@ -431,12 +431,12 @@ func ThreePhaseShort(s Short) (ShortResult, error) {
 			kappa = 1.02 + 0.98*math.Exp(-3*real(zk)/imag(zk))
 		}
 		ip := kappa * math.Sqrt2 * ik
-		r.Kappa, r.Ip = num(kappa), rq(ip, calc.DimCurrent)
+		r.Kappa, r.Ip = num(kappa), kq(ip, calc.DimCurrent, calc.KindMagnitude)
 		steps = append(steps, calc.Step{
 			Kind:    "fault",
 			Rule:    "peak short-circuit current, κ from R/X of Z_k at the fault (IEC 60909-0, a non-meshed network: one series path)",
 			Formula: "κ = 1.02 + 0.98·e^(−3R/X);  i_p = κ·√2·I\"_k",
-			Inputs:  []calc.Operand{op("R_k", rq(real(zk), calc.DimImpedance)), op("X_k", rq(imag(zk), calc.DimImpedance)), op("I\"_k", r.Ik)},
+			Inputs:  []calc.Operand{op("R_k", kq(real(zk), calc.DimImpedance, calc.KindResistive)), op("X_k", kq(imag(zk), calc.DimImpedance, calc.KindSigned)), op("I\"_k", r.Ik)},
 			Results: []calc.Operand{op("κ", r.Kappa), op("i_p", r.Ip)},
 		})
 	}

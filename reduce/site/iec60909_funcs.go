@@ -11,19 +11,36 @@ import (
 // worksheet language.
 func shortFuncs() []calc.Func {
 	return []calc.Func{
-		{Name: "zfeeder", Args: "(UnQ, IkQ or SkQ[, RQ/XQ[, cQ]][, UrHV, UrLV])", Min: 2, Max: 6,
+		{Name: "zfeeder", Params: []calc.Param{{Name: "UnQ", Kind: calc.ParamVoltage},
+			{Name: "Ik", Kind: calc.ParamAny, Doc: "I\"_kQ in A, or the fault level S\"_kQ in VA"},
+			{Name: "UrHV", Kind: calc.ParamAny, Optional: true, Doc: "transformer HV rating, V (with UrLV: refer to the LV side)"},
+			{Name: "UrLV", Kind: calc.ParamAny, Optional: true, Doc: "transformer LV rating, V"},
+			{Name: "rx", Kind: calc.ParamAny, Optional: true, Doc: "R_Q/X_Q, 0.1 when not given"},
+			{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "c_Q, c_max of the table when not given"}},
+			Args: "(UnQ, IkQ or SkQ[, UrHV, UrLV][, RQ/XQ[, cQ]])", Min: 2, Max: 6,
 			Doc:     "network feeder impedance from its short-circuit current or fault level (IEC 60909-0), R_Q/X_Q 0.1 when not given, optionally referred to a transformer's LV side; .r .x .c",
 			Formula: "Z_Q = c_Q·U_nQ/(√3·I\"_kQ) = c_Q·U_nQ²/S\"_kQ; X_Q = Z_Q/√(1 + (R/X)²); Z_Qt = Z_Q/t_r²",
 			Call:    callZFeeder},
-		{Name: "zxfmr", Args: "(SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv][, lv10])", Min: 4, Max: 8, Words: []string{"lv", "hv", "lv10"},
+		{Name: "zxfmr", Params: []calc.Param{{Name: "SrT", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"},
+			{Name: "UrHV", Kind: calc.ParamVoltage}, {Name: "UrLV", Kind: calc.ParamVoltage}, {Name: "ukr", Kind: calc.ParamRatio, Doc: "per cent"},
+			{Name: "loss", Kind: calc.ParamAny, Optional: true, Doc: "P_krT in W, or u_Rr in per cent"},
+			{Name: "cmax", Kind: calc.ParamRatio, Optional: true, Doc: "c_max of the LV side, from the table when not given"},
+			{Name: "side", Kind: calc.ParamWord, Optional: true, Doc: "lv|hv"},
+			{Name: "tol", Kind: calc.ParamWord, Optional: true, Doc: "lv10|lv"}},
+			Args: "(SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv][, lv10])", Min: 4, Max: 8, Words: []string{"lv", "hv", "lv10"},
 			Doc:     "network transformer impedance with the correction factor K_T (IEC 60909-0), on the LV side unless hv; ukr and uRr in per cent, PkrT in W; .kt .zt (uncorrected) .xt_pu",
 			Formula: "Z_T = (u_kr/100)·U_rT²/S_rT; R_T = P_krT·U_rT²/S_rT²; K_T = 0.95·c_max/(1 + 0.6·x_T); Z_TK = K_T·Z_T",
 			Call:    callZXfmr},
-		{Name: "zcable", Args: "(R', X', length[, n][, θe])", Min: 3, Max: 5,
+		{Name: "zcable", Params: []calc.Param{{Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' at 20 °C"}, {Name: "Xlen", Kind: calc.ParamPerLength},
+			{Name: "length", Kind: calc.ParamLength}, {Name: "n", Kind: calc.ParamRatio, Optional: true, Doc: "runs in parallel"},
+			{Name: "thetae", Kind: calc.ParamTemperature, Optional: true, Doc: "conductor temperature at the end of the fault"}},
+			Args: "(R', X', length[, n][, θe])", Min: 3, Max: 5,
 			Doc:     "cable or line impedance at 20 °C from R' and X' per length of one conductor, n runs in parallel; with θe (°C) also .hot at the end-of-fault temperature for the minimum current",
 			Formula: "Z_L = (R' + jX')·l/n; R_L(θe) = [1 + 0.004·(θe − 20)]·R_L20",
 			Call:    callZCable},
-		{Name: "ik3", Args: "(Un, Z1[, Z2, ...][, c][, max|min][, lv10])", Min: 2, Max: 2 + maxPath,
+		{Name: "ik3", Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
+			{Name: "Z", Kind: calc.ParamAny, Doc: "the impedances of the path in Ω, then optionally c, max|min, lv10"}},
+			Args: "(Un, Z1[, Z2, ...][, c][, max|min][, lv10])", Min: 2, Max: 2 + maxPath,
 			Words:   []string{"max", "min", "lv10"},
 			Doc:     "three-phase short-circuit current I\"_k (IEC 60909-0) through the series impedances given, c_max by default; .ip .kappa (max) .sk .zk .c",
 			Formula: "I\"_k = c·U_n/(√3·|ΣZ|); i_p = κ·√2·I\"_k, κ = 1.02 + 0.98·e^(−3R/X); S\"_k = √3·U_n·I\"_k",
@@ -31,7 +48,12 @@ func shortFuncs() []calc.Func {
 		unsymFunc("ik1", LineToEarth, "line-to-earth short-circuit current I\"_k1 = |I_a| (phase a to earth through Zf)"),
 		unsymFunc("ik2", LineToLine, "line-to-line short-circuit current I\"_k2 = |I_b| (phases b and c through Zf)"),
 		unsymFunc("ik2e", LineLineEarth, "line-to-line short circuit with earth: earth current I\"_kE2E = |I_b + I_c| (phases b and c joined, to earth through Zf)"),
-		{Name: "zsloop", Args: "(U0, Ze, (R1+R2)', L, θ[, copper|aluminium][, Zsmax or Imin])", Min: 5, Max: 7,
+		{Name: "zsloop", Params: []calc.Param{{Name: "U0", Kind: calc.ParamVoltage, Doc: "nominal voltage to earth"},
+			{Name: "Ze", Kind: calc.ParamImpedance}, {Name: "R12", Kind: calc.ParamPerLength, Doc: "(R1 + R2) per length at 20 °C"},
+			{Name: "L", Kind: calc.ParamLength}, {Name: "theta", Kind: calc.ParamTemperature, Doc: "conductor operating temperature"},
+			{Name: "limit", Kind: calc.ParamAny, Optional: true, Doc: "your maximum Z_s in Ω or minimum fault current in A"},
+			{Name: "material", Kind: calc.ParamWord, Optional: true, Doc: "copper|aluminium"}},
+			Args: "(U0, Ze, (R1+R2)', L, θ[, Zsmax or Imin][, copper|aluminium])", Min: 5, Max: 7,
 			Words:   []string{"copper", "aluminium", "aluminum"},
 			Doc:     "earth fault loop impedance of a final circuit, (R1+R2)' per length at 20 °C corrected to θ (°C), and the prospective fault current; compared with your Zsmax or Imin; .if .factor .r12 .ok",
 			Formula: "Z_s = Z_e + (R1 + R2)·L·F, F = 1 + α20·(θ − 20); I_f = U0/|Z_s|",
@@ -54,7 +76,7 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "zfeeder"
 	qs, words := split(args)
 	if len(words) > 0 {
-		return calc.Result{}, fmt.Errorf("%s takes values only: (UnQ, IkQ or SkQ[, RQ/XQ[, cQ]][, UrHV, UrLV])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes values only: (UnQ, IkQ or SkQ[, UrHV, UrLV][, RQ/XQ[, cQ]])", fn)
 	}
 	var f Feeder
 	var err error
@@ -79,9 +101,6 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	for _, a := range qs[2:] {
 		switch a.Q.Dim {
 		case calc.Dimensionless:
-			if len(volts) > 0 {
-				return calc.Result{}, fmt.Errorf("%s: RQ/XQ and cQ come before the transformer voltages", fn)
-			}
 			nums = append(nums, a)
 		case calc.DimVoltage:
 			volts = append(volts, a)
@@ -90,7 +109,7 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		}
 	}
 	if len(nums) > 2 || (len(volts) != 0 && len(volts) != 2) {
-		return calc.Result{}, fmt.Errorf("%s takes (UnQ, IkQ or SkQ[, RQ/XQ[, cQ]][, UrHV, UrLV]): the transformer needs both rated voltages", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (UnQ, IkQ or SkQ[, UrHV, UrLV][, RQ/XQ[, cQ]]): the transformer needs both rated voltages", fn)
 	}
 	if len(nums) > 0 {
 		if f.RX, err = realArg(fn, "RQ/XQ", nums[0], calc.Dimensionless); err != nil {
@@ -116,7 +135,7 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
 	return calc.Result{Value: r.Z, Steps: r.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
-		op("r", rq(real(r.Z.V), calc.DimImpedance)), op("x", rq(imag(r.Z.V), calc.DimImpedance)), op("c", r.Factor)}}, nil
+		op("r", kq(real(r.Z.V), calc.DimImpedance, calc.KindResistive)), op("x", kq(imag(r.Z.V), calc.DimImpedance, calc.KindSigned)), op("c", r.Factor)}}, nil
 }
 
 func callZXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -284,7 +303,13 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 }
 
 func unsymFunc(name string, ft FaultType, doc string) calc.Func {
-	return calc.Func{Name: name, Args: "(Un, Z1, Z2, Z0[, Zf][, c][, max|min][, lv10])", Min: 4, Max: 8,
+	return calc.Func{Name: name, Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
+		{Name: "Z1", Kind: calc.ParamImpedance}, {Name: "Z2", Kind: calc.ParamImpedance}, {Name: "Z0", Kind: calc.ParamImpedance},
+		{Name: "Zf", Kind: calc.ParamAny, Optional: true, Doc: "fault impedance in Ω, 0 when not given"},
+		{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "voltage factor, from the table when not given"},
+		{Name: "limit", Kind: calc.ParamWord, Optional: true, Doc: "max|min"},
+		{Name: "tol", Kind: calc.ParamWord, Optional: true, Doc: "lv10|max|min"}},
+		Args: "(Un, Z1, Z2, Z0[, Zf][, c][, max|min][, lv10])", Min: 4, Max: 8,
 		Words: []string{"max", "min", "lv10"},
 		Doc:   doc + ", from the sequence impedances at the fault (IEC 60909-0 voltage source); .ia .ib .ic .va .vb .vc .i0 .i1 .i2 .ie .c",
 		Formula: map[FaultType]string{
@@ -343,7 +368,7 @@ func callZsLoop(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "zsloop"
 	qs, words := split(args)
 	if len(qs) < 5 || len(qs) > 6 || len(words) > 1 {
-		return calc.Result{}, fmt.Errorf("%s takes (U0, Ze, (R1+R2)', L, θ[, copper|aluminium][, Zsmax or Imin])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (U0, Ze, (R1+R2)', L, θ[, Zsmax or Imin][, copper|aluminium])", fn)
 	}
 	var l Loop
 	var err error
@@ -397,7 +422,7 @@ func callZsLoop(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	out := calc.Result{Value: r.Zs, Steps: r.Steps, Notes: append(notes, LoopCaution, FaultCaution), Extra: []calc.Operand{
 		op("if", r.If), op("factor", r.Factor), op("r12", r.R12)}}
 	if r.Checked {
-		out.Extra = append(out.Extra, op("ok", num(b2f(r.Within))))
+		out.Extra = append(out.Extra, op("ok", kq(b2f(r.Within), calc.Dimensionless, calc.KindCount)))
 	}
 	return out, nil
 }

@@ -81,7 +81,11 @@ func EarthLoop(l Loop) (LoopResult, error) {
 	zs := l.Ze + complex(r12, 0)
 	mag := cmplx.Abs(zs)
 	ifault := l.U0 / mag
-	r := LoopResult{Factor: num(f), R12: rq(r12, calc.DimImpedance), Zs: cq(zs, calc.DimImpedance), If: rq(ifault, calc.DimCurrent)}
+	zsq := cq(zs, calc.DimImpedance)
+	if imag(zs) == 0 {
+		zsq.Kind = calc.KindMagnitude // Z_e was a measured magnitude
+	}
+	r := LoopResult{Factor: num(f), R12: kq(r12, calc.DimImpedance, calc.KindResistive), Zs: zsq, If: kq(ifault, calc.DimCurrent, calc.KindMagnitude)}
 	zeNote := "Z_e given as a magnitude: added arithmetically to R1 + R2, which slightly overstates Z_s (common practice)"
 	if imag(l.Ze) != 0 {
 		zeNote = "Z_e given as a complex impedance: added to R1 + R2 as a phasor"
@@ -92,7 +96,7 @@ func EarthLoop(l Loop) (LoopResult, error) {
 			Rule: "earth fault loop impedance of a final circuit; conductor resistance from 20 °C to the operating temperature θ, " + m.Name +
 				" α20 = " + sig(m.Alpha20) + " /K (IEC 60228 / IEC 60287-1-1, from memory)",
 			Formula: "F = 1 + α20·(θ − 20 °C);  Z_s = Z_e + (R1 + R2)·L·F",
-			Inputs: []calc.Operand{op("Z_e", cq(l.Ze, calc.DimImpedance)), op("(R1 + R2)/L at 20 °C", rq(l.R12, perMetre)),
+			Inputs: []calc.Operand{op("Z_e", cq(l.Ze, calc.DimImpedance)), op("(R1 + R2)/L at 20 °C", kq(l.R12, perMetre, calc.KindResistive)),
 				op("L", rq(l.Length, calc.DimLength)), op("θ (°C)", num(l.Theta))},
 			Results: []calc.Operand{op("F", r.Factor), op("(R1 + R2)·L·F", r.R12), op("Z_s", r.Zs)},
 			Notes:   []string{zeNote},
@@ -101,7 +105,7 @@ func EarthLoop(l Loop) (LoopResult, error) {
 			Kind:    "loop",
 			Rule:    "prospective earth fault current at the end of the circuit (common practice)",
 			Formula: "I_f = U0/|Z_s|",
-			Inputs:  []calc.Operand{op("U0", rq(l.U0, calc.DimVoltage)), op("|Z_s|", rq(mag, calc.DimImpedance))},
+			Inputs:  []calc.Operand{op("U0", rq(l.U0, calc.DimVoltage)), op("|Z_s|", kq(mag, calc.DimImpedance, calc.KindMagnitude))},
 			Results: []calc.Operand{op("I_f", r.If)},
 		},
 	}
@@ -117,7 +121,7 @@ func EarthLoop(l Loop) (LoopResult, error) {
 		if !r.Within {
 			r.Verdict = "verdict: limit NOT met, |Z_s| > your maximum Z_s"
 		}
-		last.Inputs = append(last.Inputs, op("Z_s max (yours)", rq(l.MaxZs, calc.DimImpedance)))
+		last.Inputs = append(last.Inputs, op("Z_s max (yours)", kq(l.MaxZs, calc.DimImpedance, calc.KindMagnitude)))
 		last.Notes = append(last.Notes, verdict)
 	case l.MinI > 0:
 		r.Checked, r.Within = true, ifault >= l.MinI
@@ -129,7 +133,7 @@ func EarthLoop(l Loop) (LoopResult, error) {
 		if !r.Within {
 			r.Verdict = "verdict: limit NOT met, I_f < your minimum current"
 		}
-		last.Inputs = append(last.Inputs, op("I min (yours)", rq(l.MinI, calc.DimCurrent)))
+		last.Inputs = append(last.Inputs, op("I min (yours)", kq(l.MinI, calc.DimCurrent, calc.KindMagnitude)))
 		last.Notes = append(last.Notes, verdict)
 	default:
 		last.Notes = append(last.Notes, "no limit given: nothing compared")

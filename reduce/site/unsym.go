@@ -153,7 +153,7 @@ func UnsymFault(u Unsym) (UnsymResult, error) {
 		Iabc: [3]calc.Quantity{cur(ia), cur(ib), cur(ic)},
 		Vabc: [3]calc.Quantity{vol(va), vol(vb), vol(vc)},
 		Ie:   cur(ie),
-		Ik:   rq(ik, calc.DimCurrent),
+		Ik:   kq(ik, calc.DimCurrent, calc.KindMagnitude),
 	}
 	which := "c_max"
 	if u.Min {
