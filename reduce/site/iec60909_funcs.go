@@ -25,9 +25,8 @@ func shortFuncs() []calc.Func {
 			{Name: "UrHV", Kind: calc.ParamVoltage}, {Name: "UrLV", Kind: calc.ParamVoltage}, {Name: "ukr", Kind: calc.ParamRatio, Doc: "per cent"},
 			{Name: "loss", Kind: calc.ParamAny, Optional: true, Doc: "P_krT in W, or u_Rr in per cent"},
 			{Name: "cmax", Kind: calc.ParamRatio, Optional: true, Doc: "c_max of the LV side, from the table when not given"},
-			{Name: "side", Kind: calc.ParamWord, Optional: true, Doc: "lv|hv"},
-			{Name: "tol", Kind: calc.ParamWord, Optional: true, Doc: "lv10|lv"}},
-			Args: "(SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv][, lv10])", Min: 4, Max: 8, Words: []string{"lv", "hv", "lv10"},
+			{Name: "side", Kind: calc.ParamWord, Optional: true, Doc: "lv|hv"}},
+			Args: "(SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv])", Min: 4, Max: 7, Words: []string{"lv", "hv"},
 			Doc:     "network transformer impedance with the correction factor K_T (IEC 60909-0), on the LV side unless hv; ukr and uRr in per cent, PkrT in W; .kt .zt (uncorrected) .xt_pu",
 			Formula: "Z_T = (u_kr/100)·U_rT²/S_rT; R_T = P_krT·U_rT²/S_rT²; K_T = 0.95·c_max/(1 + 0.6·x_T); Z_TK = K_T·Z_T",
 			Call:    callZXfmr},
@@ -39,9 +38,9 @@ func shortFuncs() []calc.Func {
 			Formula: "Z_L = (R' + jX')·l/n; R_L(θe) = [1 + 0.004·(θe − 20)]·R_L20",
 			Call:    callZCable},
 		{Name: "ik3", Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
-			{Name: "Z", Kind: calc.ParamAny, Doc: "the impedances of the path in Ω, then optionally c, max|min, lv10"}},
-			Args: "(Un, Z1[, Z2, ...][, c][, max|min][, lv10])", Min: 2, Max: 2 + maxPath,
-			Words:   []string{"max", "min", "lv10"},
+			{Name: "Z", Kind: calc.ParamAny, Doc: "the impedances of the path in Ω, then optionally c and max|min"}},
+			Args: "(Un, Z1[, Z2, ...][, c][, max|min])", Min: 2, Max: 2 + maxPath,
+			Words:   []string{"max", "min"},
 			Doc:     "three-phase short-circuit current I\"_k (IEC 60909-0) through the series impedances given, c_max by default; .ip .kappa (max) .sk .zk .c",
 			Formula: "I\"_k = c·U_n/(√3·|ΣZ|); i_p = κ·√2·I\"_k, κ = 1.02 + 0.98·e^(−3R/X); S\"_k = √3·U_n·I\"_k",
 			Call:    callIK3},
@@ -142,12 +141,12 @@ func callZXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "zxfmr"
 	qs, words := split(args)
 	if len(qs) < 4 || len(qs) > 6 {
-		return calc.Result{}, fmt.Errorf("%s takes (SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv][, lv10])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv])", fn)
 	}
 	if has(words, "lv") && has(words, "hv") {
 		return calc.Result{}, fmt.Errorf("%s: lv or hv, not both", fn)
 	}
-	t := NetTransformer{HVSide: has(words, "hv"), Tol10: has(words, "lv10")}
+	t := NetTransformer{HVSide: has(words, "hv")}
 	var err error
 	if t.S, err = realArg(fn, "SrT", qs[0], calc.DimPower); err != nil {
 		return calc.Result{}, err
@@ -238,34 +237,34 @@ func callZCable(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return out, nil
 }
 
-// faultWordsArgs reads the trailing options of a fault function: an
-// optional plain-number c and the words max|min and lv10.
-func faultOptions(fn string, rest []calc.Arg, words []string) (c float64, min, tol10 bool, err error) {
+// faultOptions reads the trailing options of a fault function: an
+// optional plain-number c and the word max or min.
+func faultOptions(fn string, rest []calc.Arg, words []string) (c float64, min bool, err error) {
 	if has(words, "max") && has(words, "min") {
-		return 0, false, false, fmt.Errorf("%s: max or min, not both", fn)
+		return 0, false, fmt.Errorf("%s: max or min, not both", fn)
 	}
 	for _, a := range rest {
 		if a.Q.Dim != calc.Dimensionless {
-			return 0, false, false, fmt.Errorf("%s: %s is neither an impedance in Ω nor a voltage factor c", fn, a.Text)
+			return 0, false, fmt.Errorf("%s: %s is neither an impedance in Ω nor a voltage factor c", fn, a.Text)
 		}
 		if c != 0 {
-			return 0, false, false, fmt.Errorf("%s: give the voltage factor c once", fn)
+			return 0, false, fmt.Errorf("%s: give the voltage factor c once", fn)
 		}
 		if c, err = realArg(fn, "c", a, calc.Dimensionless); err != nil {
-			return 0, false, false, err
+			return 0, false, err
 		}
 		if c == 0 {
-			return 0, false, false, fmt.Errorf("%s: c = 0 is not a voltage factor", fn)
+			return 0, false, fmt.Errorf("%s: c = 0 is not a voltage factor", fn)
 		}
 	}
-	return c, has(words, "min"), has(words, "lv10"), nil
+	return c, has(words, "min"), nil
 }
 
 func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "ik3"
 	qs, words := split(args)
 	if len(qs) < 2 {
-		return calc.Result{}, fmt.Errorf("%s takes (Un, Z1[, Z2, ...][, c][, max|min][, lv10])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (Un, Z1[, Z2, ...][, c][, max|min])", fn)
 	}
 	s := Short{}
 	var err error
@@ -287,7 +286,7 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 		}
 		s.Path = append(s.Path, NamedZ{Name: name, Z: a.Q.V})
 	}
-	if s.C, s.Min, s.Tol10, err = faultOptions(fn, rest, words); err != nil {
+	if s.C, s.Min, err = faultOptions(fn, rest, words); err != nil {
 		return calc.Result{}, err
 	}
 	r, err := ThreePhaseShort(s)
@@ -307,10 +306,9 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 		{Name: "Z1", Kind: calc.ParamImpedance}, {Name: "Z2", Kind: calc.ParamImpedance}, {Name: "Z0", Kind: calc.ParamImpedance},
 		{Name: "Zf", Kind: calc.ParamAny, Optional: true, Doc: "fault impedance in Ω, 0 when not given"},
 		{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "voltage factor, from the table when not given"},
-		{Name: "limit", Kind: calc.ParamWord, Optional: true, Doc: "max|min"},
-		{Name: "tol", Kind: calc.ParamWord, Optional: true, Doc: "lv10|max|min"}},
-		Args: "(Un, Z1, Z2, Z0[, Zf][, c][, max|min][, lv10])", Min: 4, Max: 8,
-		Words: []string{"max", "min", "lv10"},
+		{Name: "limit", Kind: calc.ParamWord, Optional: true, Doc: "max|min"}},
+		Args: "(Un, Z1, Z2, Z0[, Zf][, c][, max|min])", Min: 4, Max: 7,
+		Words: []string{"max", "min"},
 		Doc:   doc + ", from the sequence impedances at the fault (IEC 60909-0 voltage source); .ia .ib .ic .va .vb .vc .i0 .i1 .i2 .ie .c",
 		Formula: map[FaultType]string{
 			LineToEarth:   "I1 = I2 = I0 = E/(Z1 + Z2 + Z0 + 3Zf), E = c·U_n/√3; I_a = 3·I0",
@@ -320,7 +318,7 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 		Call: func(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 			qs, words := split(args)
 			if len(qs) < 4 {
-				return calc.Result{}, fmt.Errorf("%s takes (Un, Z1, Z2, Z0[, Zf][, c][, max|min][, lv10])", name)
+				return calc.Result{}, fmt.Errorf("%s takes (Un, Z1, Z2, Z0[, Zf][, c][, max|min])", name)
 			}
 			u := Unsym{Type: ft, ACB: ctx.Sequence == -1}
 			var err error
@@ -340,7 +338,7 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 				}
 				rest = rest[1:]
 			}
-			if u.C, u.Min, u.Tol10, err = faultOptions(name, rest, words); err != nil {
+			if u.C, u.Min, err = faultOptions(name, rest, words); err != nil {
 				return calc.Result{}, err
 			}
 			r, err := UnsymFault(u)
