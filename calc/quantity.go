@@ -143,6 +143,31 @@ type Quantity struct {
 	V    complex128
 	Dim  Dim
 	Kind Kind
+	Ref  Between // set only by a marking function; arithmetic drops it
+}
+
+// Between marks which two points of a three-phase supply a voltage was
+// stated between, when the user said so with a marking function (l2l and
+// l2n of package reduce/threephase). Three-phase functions check it
+// against their parameter and convert or refuse a mismatch. Arithmetic
+// drops it: the marking describes a value as entered, and 1.1·V or V/2 is
+// a new value whose meaning the user states afresh.
+type Between uint8
+
+const (
+	Unmarked      Between = iota
+	LineToLine            // between two lines: V_ab
+	LineToNeutral         // between a line and the neutral or star point: V_an
+)
+
+func (b Between) String() string {
+	switch b {
+	case LineToLine:
+		return "line-to-line"
+	case LineToNeutral:
+		return "line-to-neutral"
+	}
+	return "unmarked"
 }
 
 // Q returns a quantity of dimension d.

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/reduce/threephase"
 )
 
 // Funcs returns the worksheet functions of this package. Each checks the
@@ -74,8 +75,8 @@ func funcs() []calc.Func {
 			Call:    callLoadVA,
 		},
 		{
-			Name: "motor", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Else: "a motor is rated by its output power in W or hp"}, {Name: "eff", Kind: calc.ParamRatio}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "Vline", Kind: calc.ParamVoltage}}, Args: "(Pout, eff, pf, single|three, Vline)", Min: 5, Max: 5, Words: []string{"single", "three"},
-			Doc:     "complex power and line current a machine draws from its nameplate (output in W or hp, lagging PF); .p .q .s .pf .i .pin",
+			Name: "motor", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Else: "a motor is rated by its output power in W or hp"}, {Name: "eff", Kind: calc.ParamRatio}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "VLL", Kind: calc.ParamVoltage, Doc: "line-to-line voltage for three-phase"}}, Args: "(Pout, eff, pf, single|three, VLL)", Min: 5, Max: 5, Words: []string{"single", "three"},
+			Doc:     "complex power and line current a machine draws from its nameplate (output in W or hp, lagging PF; VLL the line-to-line voltage for three-phase); .p .q .s .pf .i .pin",
 			Formula: "P_in = P_out/η; |S| = P_in/PF; I = |S|/V or |S|/(√3·V_L)",
 			Call:    callMotor,
 		},
@@ -86,22 +87,22 @@ func funcs() []calc.Func {
 			Call:    callLoads,
 		},
 		{
-			Name: "current", Params: []calc.Param{{Name: "S", Kind: calc.ParamSPower, Else: "for an active power give the load as load(P, pf, lagging)"}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}}, Args: "(S, V, single|three)", Min: 3, Max: 3, Words: []string{"single", "three"},
-			Doc:     "line current drawn by a power from a supply (V is the line voltage for three-phase)",
+			Name: "current", Params: []calc.Param{{Name: "S", Kind: calc.ParamSPower, Else: "for an active power give the load as load(P, pf, lagging)"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase"}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}}, Args: "(S, V, single|three)", Min: 3, Max: 3, Words: []string{"single", "three"},
+			Doc:     "line current drawn by a power from a supply (V is line-to-line for three-phase)",
 			Formula: "I = (S/V)* where S and V have angles, else |I| = |S|/V; three-phase I_a = (S/(3·V_an))*, |I| = |S|/(√3·V_L); peak basis: twice these (S = ½·V·I*)",
 			Call:    callCurrent,
 		},
 		{
-			Name: "pfc", Params: []calc.Param{{Name: "P", Kind: calc.ParamActivePower, Else: "for a load given as a complex power use pfcload"}, {Name: "pf1", Kind: calc.ParamRatio}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(P, pf1, pf2, V, single|three[, lagging|leading])", Min: 5, Max: 6,
+			Name: "pfc", Params: []calc.Param{{Name: "P", Kind: calc.ParamActivePower, Else: "for a load given as a complex power use pfcload"}, {Name: "pf1", Kind: calc.ParamRatio}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase"}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(P, pf1, pf2, V, single|three[, lagging|leading])", Min: 5, Max: 6,
 			Words:   []string{"single", "three", "lagging", "leading"},
-			Doc:     "capacitors to raise a lagging (inductive) load's power factor pf1 to pf2 at the working frequency; the optional word is the sense of the target pf2; for a load given as complex S (leading or lagging) use pfcload; .qc .c .cy .cdelta .i1 .i2",
+			Doc:     "capacitors to raise a lagging (inductive) load's power factor pf1 to pf2 at the working frequency (V line-to-line for three-phase); the optional word is the sense of the target pf2; for a load given as complex S (leading or lagging) use pfcload; .qc .c .cy .cdelta .i1 .i2",
 			Formula: "Q_c = P·(tan φ₁ − tan φ₂); C = Q_c/(ω·V²); C_Y = Q_c/(ω·V_L²); C_Δ = Q_c/(3·ω·V_L²)",
 			Call:    callPFC,
 		},
 		{
-			Name: "pfcload", Params: []calc.Param{{Name: "S", Kind: calc.ParamComplexPower, Else: "for an apparent power give the load as loadva(|S|, pf, lagging)"}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(S, pf2, V, single|three[, lagging|leading])", Min: 4, Max: 5,
+			Name: "pfcload", Params: []calc.Param{{Name: "S", Kind: calc.ParamComplexPower, Else: "for an apparent power give the load as loadva(|S|, pf, lagging)"}, {Name: "pf2", Kind: calc.ParamRatio}, {Name: "V", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase"}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading", Optional: true}}, Args: "(S, pf2, V, single|three[, lagging|leading])", Min: 4, Max: 5,
 			Words:   []string{"single", "three", "lagging", "leading"},
-			Doc:     "capacitors to bring a load of complex power S to power factor pf2 at the working frequency; .qc .c .cy .cdelta .i1 .i2",
+			Doc:     "capacitors to bring a load of complex power S to power factor pf2 at the working frequency (V line-to-line for three-phase); .qc .c .cy .cdelta .i1 .i2",
 			Formula: "Q_c = Q₁ − P·tan φ₂; C = Q_c/(ω·V²); C_Y = Q_c/(ω·V_L²); C_Δ = Q_c/(3·ω·V_L²)",
 			Call:    callPFCLoad,
 		},
@@ -225,6 +226,23 @@ func sense(fn string, args []calc.Arg, i int) (Sense, error) {
 		return Leading, err
 	}
 	return Lagging, err
+}
+
+// lineVoltage reads a supply voltage for a three-phase load in place: it
+// is line-to-line. A value marked line-to-neutral (l2n) is converted, by
+// √3 and, where the phasor is used, the ±30° shift; the step shows both
+// forms. A single-phase supply takes the value as given, whichever way it
+// is marked.
+func lineVoltage(c *calc.Context, v *calc.Quantity, ph Phases, what string, phasor bool) ([]calc.Step, error) {
+	if ph != ThreePhase {
+		return nil, nil
+	}
+	q, st, err := threephase.Voltage(*v, calc.LineToLine, what, threephase.SequenceOf(c), phasor)
+	if err != nil {
+		return nil, err
+	}
+	*v = q
+	return st, nil
 }
 
 func phases(fn string, args []calc.Arg, i int) (Phases, error) {
@@ -352,7 +370,7 @@ func callLoadVA(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return powerResult(pw, steps, source("loadva", args)), nil
 }
 
-func callMotor(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
+func callMotor(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	var n Nameplate
 	var err error
 	if n.Output, err = quantity("motor", args, 0, "Pout", calc.DimPower, "a power (W or hp)"); err != nil {
@@ -367,14 +385,18 @@ func callMotor(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if n.Phases, err = phases("motor", args, 3); err != nil {
 		return calc.Result{}, err
 	}
-	if n.VLine, err = quantity("motor", args, 4, "Vline", calc.DimVoltage, "a voltage"); err != nil {
+	if n.VLine, err = quantity("motor", args, 4, "VLL", calc.DimVoltage, "a voltage"); err != nil {
 		return calc.Result{}, err
+	}
+	pre, err := lineVoltage(c, &n.VLine, n.Phases, "VLL", false)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("motor: %v", err)
 	}
 	m, steps, err := Motor(n)
 	if err != nil {
 		return calc.Result{}, err
 	}
-	r := powerResult(m.Power, steps, source("motor", args))
+	r := powerResult(m.Power, append(pre, steps...), source("motor", args))
 	r.Extra = append(r.Extra, calc.Operand{Name: "i", Value: m.Current}, calc.Operand{Name: "pin", Value: m.Input})
 	r.Notes = append(r.Notes, Caution)
 	return r, nil
@@ -416,11 +438,15 @@ func callCurrent(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if c != nil && c.Sequence < 0 {
 		seq = -1
 	}
+	pre, err := lineVoltage(c, &v, ph, "V", true)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("current: %v", err)
+	}
 	i, steps, err := Current(s, v, ph, basisOf(c), seq)
 	if err != nil {
 		return calc.Result{}, err
 	}
-	r := calc.Result{Value: i, Steps: withSource(steps, source("current", args))}
+	r := calc.Result{Value: i, Steps: withSource(append(pre, steps...), source("current", args))}
 	if ph == ThreePhase {
 		r.Notes = []string{Caution}
 	}
@@ -472,23 +498,28 @@ func correctionResult(c *calc.Context, fn string, args []calc.Arg, t Target, pre
 }
 
 // targetTail reads V, single|three and the optional target sense starting
-// at argument i.
-func targetTail(fn string, args []calc.Arg, i int, t *Target) error {
+// at argument i. For three-phase, V is line-to-line; the step that shows
+// both forms is returned.
+func targetTail(c *calc.Context, fn string, args []calc.Arg, i int, t *Target) ([]calc.Step, error) {
 	var err error
 	if t.V, err = quantity(fn, args, i, "V", calc.DimVoltage, "a voltage"); err != nil {
-		return err
+		return nil, err
 	}
 	if t.Phases, err = phases(fn, args, i+1); err != nil {
-		return err
+		return nil, err
 	}
 	if len(args) > i+2 {
 		s, err := sense(fn, args, i+2)
 		if err != nil {
-			return err
+			return nil, err
 		}
 		t.Leading = s == Leading
 	}
-	return nil
+	pre, err := lineVoltage(c, &t.V, t.Phases, "V", false)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %v", fn, err)
+	}
+	return pre, nil
 }
 
 func callPFC(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -507,7 +538,8 @@ func callPFC(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if t.PF, err = fraction("pfc", args, 2, "pf2", false); err != nil {
 		return calc.Result{}, err
 	}
-	if err := targetTail("pfc", args, 3, &t); err != nil {
+	vsteps, err := targetTail(c, "pfc", args, 3, &t)
+	if err != nil {
 		return calc.Result{}, err
 	}
 	load, pre, err := FromPF(p, pf1, Lagging)
@@ -515,7 +547,7 @@ func callPFC(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, fmt.Errorf("pfc: %w", err)
 	}
 	t.Load = load.S
-	return correctionResult(c, "pfc", args, t, pre)
+	return correctionResult(c, "pfc", args, t, append(vsteps, pre...))
 }
 
 func callPFCLoad(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -527,10 +559,11 @@ func callPFCLoad(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if t.PF, err = fraction("pfcload", args, 1, "pf2", false); err != nil {
 		return calc.Result{}, err
 	}
-	if err := targetTail("pfcload", args, 2, &t); err != nil {
+	vsteps, err := targetTail(c, "pfcload", args, 2, &t)
+	if err != nil {
 		return calc.Result{}, err
 	}
-	return correctionResult(c, "pfcload", args, t, nil)
+	return correctionResult(c, "pfcload", args, t, vsteps)
 }
 
 func callRerate(_ *calc.Context, args []calc.Arg) (calc.Result, error) {

@@ -530,6 +530,9 @@ func Current(s, v calc.Quantity, ph Phases, basis calc.Basis, seq int) (calc.Qua
 		}
 		// peak phasors: |S| = ½·V·I, so I = 2·|S|/V
 		q.V *= 2
+		if _, err := q.Check("current"); err != nil {
+			return calc.Quantity{}, nil, err
+		}
 		st[0].Formula = strings.Replace(st[0].Formula, "I = |S|/", "I = 2·|S|/", 1) + " (peak basis: |S| = ½·V·I)"
 		st[0].Results[0].Value = q
 		return q, st, nil

@@ -25,6 +25,10 @@ var sheetSeeds = []string{
 	"spectrum I h1 100 %, h5 20 %, h5 3 %", "spectrum I from /nonexistent", "spectrum I from .",
 	"detune(50 kvar, 400 V, 7 %, three, 440 V)\nbankout(60 kvar, 440 V, 400 V, 7 %)",
 	"spectrum I h1 100 A, h5 22 %\nbankcheck(10 MVA, 400 kvar, I, 7 %)\nbankscan(10 MVA, 400 kvar, 400 V, 0.07, 8, 15)",
+	"inductor L1 = 10 mH\ncapacitor C1 = 1 µF\nZ = 20 Ω + L1 + C1\nsweep Z from 500 Hz to 5 kHz points 21 db ref 1 Ω",
+	"sweep 1/(1+j*f/(1 kHz)) from 10 Hz to 10 kHz points 9 db", "sweep 5 V from 1 Hz to 2 Hz points 2 db ref 0 V",
+	"u = wye(l2l(400 V), 10 Ω, 20 Ω, 30 Ω, 2+j1 Ω)\nv = seq(u.va, u.vb, u.vc)\nv.vuf",
+	"wyeunbal(l2n(230 V), 225∠-118 V, 236∠121 V, 10 Ω, 0 Ω, 30 Ω, floating)", "l2n(l2l(1 V))",
 }
 
 // FuzzSheet runs arbitrary lines through the worksheet interpreter. An

@@ -16,6 +16,7 @@ type SweepResult struct {
 	Source string
 	Table  *sweep.Table
 	DB     bool
+	Ref    calc.Quantity // the dB reference when DB is set: levels are 20·log10(|x|/|Ref|)
 }
 
 // Sweeps returns the sweeps run so far.
@@ -116,7 +117,9 @@ type pointError struct {
 func (e *pointError) Error() string { return e.msg }
 func (e *pointError) Unwrap() error { return e.err }
 
-// stmtSweep runs: sweep EXPR from F1 to F2 [points N] [log|linear] [db].
+// stmtSweep runs: sweep EXPR from F1 to F2 [points N] [log|linear] [db [ref R]].
+// After the table it records what the sweep found (sweep.Find): extremes,
+// resonances and half-power bands, each located between the points.
 func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	p.Next()
 	if p.Peek().Tok == calc.TokEOF {
@@ -136,6 +139,7 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	f2E := p.Expr()
 	n, logScale, db := 41, true, false
 	given := false
+	var refE calc.Expr
 	for p.Err() == nil && p.Peek().Tok != calc.TokEOF {
 		switch {
 		case p.IsWord("points"):
@@ -156,8 +160,14 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		case p.IsWord("db"), p.IsWord("dB"):
 			p.Next()
 			db = true
+			if p.IsWord("ref") {
+				p.Next()
+				if refE = p.Expr(); p.Err() != nil {
+					return p.Err()
+				}
+			}
 		default:
-			return perr(p, "sweep options are points N, log, linear and db; found %q", p.Peek().Text)
+			return perr(p, "sweep options are points N, log, linear and db [ref R]; found %q", p.Peek().Text)
 		}
 	}
 	if err := p.Err(); err != nil {
@@ -197,6 +207,15 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, e)}, "points", "use fewer points"); msg != "" {
 		return lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
 	}
+	var ref calc.Quantity
+	refText := ""
+	if refE != nil {
+		r, err := s.eval(p, refE)
+		if err != nil {
+			return err
+		}
+		ref, refText = r.Value, p.Text(refE)
+	}
 	if s.dry {
 		// the value at the working frequency stands for the sweep
 		if _, err := s.eval(p, e); err != nil {
@@ -220,21 +239,75 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		_, _, col := e.Span()
 		return lineErr(s.line, col, width(p, e), "%v", err)
 	}
-	s.sweeps = append(s.sweeps, &SweepResult{Source: src, Table: tab, DB: db})
+	var dbs []float64
+	var hasDB []bool
+	plotTab := tab
+	if db {
+		if refE == nil {
+			if !tab.Dim.IsDimensionless() {
+				return perr(p, "a level in dB is a ratio to a stated reference: write db ref 1 %s", calc.UnitSymbol(tab.Dim, tab.Kind, s.ctx.Format.ASCII))
+			}
+			ref, refText = calc.Number(1), "1"
+		}
+		if dbs, hasDB, err = tab.Decibels(ref); err != nil {
+			at := e
+			if refE != nil {
+				at = refE
+			}
+			_, _, col := at.Span()
+			return lineErr(s.line, col, width(p, at), "%v", err)
+		}
+		plotTab = relativeTo(tab, ref)
+	}
+	// read what the sweep found before changing the worksheet, so that a
+	// cancelled search leaves it as it was
+	fd := sweep.Find(tab, func(hz float64) (calc.Quantity, error) {
+		if err := c.stopped(); err != nil {
+			return calc.Quantity{}, err
+		}
+		return c.evalAt(src, e, hz)
+	})
+	if err := c.stopped(); err != nil {
+		return err
+	}
+	s.sweeps = append(s.sweeps, &SweepResult{Source: src, Table: tab, DB: db, Ref: ref})
 	st := calc.Step{Kind: "sweep", Source: src, Rule: "frequency sweep of " + p.Text(e) + " (" + strconv.Itoa(len(pts)) + " points)",
 		Formula: "each point re-evaluates every frequency-dependent value at f"}
-	for _, pt := range tab.Points {
+	if db {
+		st.Formula += ";  level = 20·log10(|x|/|" + refText + "|) dB"
+		st.Inputs = []calc.Operand{{Name: "dB reference", Value: ref}}
+	}
+	for k, pt := range tab.Points {
 		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0)}
 		if pt.Mark != "" {
 			row.Name += ": " + pt.Mark // no value to show
 		} else {
 			row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
+			if db && hasDB[k] {
+				row.Values = append(row.Values, calc.Operand{Name: "dB", Value: calc.Number(complex(dbs[k], 0))})
+			}
 		}
 		st.Rows = append(st.Rows, row)
 	}
-	st.Notes = append(st.Notes, "plot:\n"+sweep.Plot(tab, 64, 10, db, s.ctx.Format.ASCII))
+	head := "plot:\n"
+	if db {
+		head = "plot (levels in dB re " + refText + "):\n"
+	}
+	st.Notes = append(st.Notes, head+sweep.Plot(plotTab, 64, 10, db, s.ctx.Format.ASCII))
 	s.record(st)
+	s.record(fd.Step(src, s.ctx.Format))
 	return nil
+}
+
+// relativeTo returns the sweep divided by a reference, for a plot in dB
+// of the ratio to that reference.
+func relativeTo(t *sweep.Table, ref calc.Quantity) *sweep.Table {
+	r := complex(cmplx.Abs(ref.V), 0)
+	out := &sweep.Table{Points: make([]sweep.Point, len(t.Points)), Log: t.Log}
+	for k, pt := range t.Points {
+		out.Points[k] = sweep.Point{Freq: pt.Freq, Mark: pt.Mark, Value: calc.Number(pt.Value.V / r)}
+	}
+	return out
 }
 
 // stmtTolerance runs: tolerance NAME P% — the named value may lie within

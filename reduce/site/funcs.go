@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/reduce/threephase"
 )
 
 // Funcs returns the worksheet functions of this package. Each checks the
@@ -43,9 +44,9 @@ func Funcs() []calc.Func {
 			Doc:     "nearest IEC 60063 preferred value to x; .below .above with .errpct .belowpct .abovepct in per cent",
 			Formula: "error = (preferred − x)/x",
 			Call:    callPreferred},
-		{Name: "cabledrop", Params: []calc.Param{{Name: "Vs", Kind: calc.ParamVoltage}, {Name: "I", Kind: calc.ParamCurrent}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}, {Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' per length of one conductor"}, {Name: "Xlen", Kind: calc.ParamPerLength, Doc: "X' per length of one conductor"}, {Name: "length", Kind: calc.ParamLength}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "Vnom", Kind: calc.ParamVoltage, Optional: true}}, Args: "(Vs, I, pf, lagging|leading, R', X', length, single|three[, Vnom])", Min: 8, Max: 9,
+		{Name: "cabledrop", Params: []calc.Param{{Name: "Vs", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase"}, {Name: "I", Kind: calc.ParamCurrent}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}, {Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' per length of one conductor"}, {Name: "Xlen", Kind: calc.ParamPerLength, Doc: "X' per length of one conductor"}, {Name: "length", Kind: calc.ParamLength}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "Vnom", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase", Optional: true}}, Args: "(Vs, I, pf, lagging|leading, R', X', length, single|three[, Vnom])", Min: 8, Max: 9,
 			Words:   []string{"lagging", "leading", "single", "three"},
-			Doc:     "voltage at the load end of a cable run (R', X' per length of one conductor; Vs line-to-line for three-phase); .drop .pct .approx .diff .z",
+			Doc:     "voltage at the load end of a cable run (R', X' per length of one conductor; Vs and Vnom line-to-line for three-phase); .drop .pct .approx .diff .z",
 			Formula: "Vs = Vload + Z·I (exact);  ΔV ≈ k·I·(R'·cos φ + X'·sin φ)·L, k = 2 single-phase, √3 three-phase",
 			Call:    callCableDrop},
 		{Name: "rtemp", Params: []calc.Param{{Name: "R1", Kind: calc.ParamAny, Doc: "a resistance, or a resistance per length"}, {Name: "T1", Kind: calc.ParamTemperature}, {Name: "T2", Kind: calc.ParamTemperature}, {Name: "metal", Kind: calc.ParamWord, Doc: "copper|aluminium"}}, Args: "(R1, T1, T2, copper|aluminium)", Min: 4, Max: 4, Words: []string{"copper", "aluminium", "aluminum"},
@@ -56,20 +57,20 @@ func Funcs() []calc.Func {
 			Doc:     "an impedance, voltage or current referred to the named side of an ideal transformer of turns ratio N1/N2",
 			Formula: "to the primary: Z·a², V·a, I/a (a = N1/N2); to the secondary the inverse",
 			Call:    callRefer},
-		{Name: "xfmr", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage}, {Name: "V2", Kind: calc.ParamVoltage}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamRatio, Doc: "X/R", Optional: true}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z[, X/R][, single|three])", Min: 4, Max: 6, Words: []string{"single", "three"},
-			Doc:     "transformer impedance referred to the secondary from its nameplate; .z1 .zbase1 .zbase2 .i1 .i2 .isc1 .isc2",
+		{Name: "xfmr", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage, Doc: "rated, line-to-line for three-phase"}, {Name: "V2", Kind: calc.ParamVoltage, Doc: "rated, line-to-line for three-phase"}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamRatio, Doc: "X/R", Optional: true}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z[, X/R][, single|three])", Min: 4, Max: 6, Words: []string{"single", "three"},
+			Doc:     "transformer impedance referred to the secondary from its nameplate (V1, V2 rated line-to-line for three-phase); .z1 .zbase1 .zbase2 .i1 .i2 .isc1 .isc2",
 			Formula: "Z_base = V²/S, Z = (%Z/100)·Z_base ∠ atan(X/R); I_sc = I_rated/(%Z/100)",
 			Call:    callXfmr},
-		{Name: "faultcurrent", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage}, {Name: "V2", Kind: calc.ParamVoltage}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamRatio, Doc: "X/R"}, {Name: "source", Kind: calc.ParamPowerOrImpedance, Doc: "Ssc or Zs"}, {Name: "Rlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "Xlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "length", Kind: calc.ParamLength, Optional: true}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z, X/R, Ssc or Zs[, R', X', length][, single|three])", Min: 6, Max: 10, Words: []string{"single", "three"},
-			Doc:     "prospective symmetrical fault current at the end of a cable fed by a transformer (Ssc = 0 for an infinite bus); .terminals .infinite .z",
+		{Name: "faultcurrent", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage, Doc: "rated, line-to-line for three-phase"}, {Name: "V2", Kind: calc.ParamVoltage, Doc: "rated, line-to-line for three-phase"}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamRatio, Doc: "X/R"}, {Name: "source", Kind: calc.ParamPowerOrImpedance, Doc: "Ssc or Zs"}, {Name: "Rlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "Xlen", Kind: calc.ParamPerLength, Optional: true}, {Name: "length", Kind: calc.ParamLength, Optional: true}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z, X/R, Ssc or Zs[, R', X', length][, single|three])", Min: 6, Max: 10, Words: []string{"single", "three"},
+			Doc:     "prospective symmetrical fault current at the end of a cable fed by a transformer (V1, V2 rated line-to-line for three-phase; Ssc = 0 for an infinite bus); .terminals .infinite .z",
 			Formula: "I = V2/(k·|Zs/a² + Zt + Zc|), k = √3 three-phase, 1 single-phase (cable loop 2·Zc)",
 			Call:    callFault},
-		{Name: "pubase", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V", Kind: calc.ParamVoltage}}, Args: "(S, V)", Min: 2, Max: 2,
+		{Name: "pubase", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "VLL", Kind: calc.ParamVoltage, Doc: "line-to-line base voltage"}}, Args: "(S, VLL)", Min: 2, Max: 2,
 			Doc:     "per-unit impedance base for a three-phase S and line-to-line V; .ibase",
 			Formula: "Z_base = V²/S, I_base = S/(√3·V)",
 			Call:    callPUBase},
-		{Name: "rebase", Params: []calc.Param{{Name: "Z", Kind: calc.ParamNumber, Doc: "per unit"}, {Name: "Sold", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vold", Kind: calc.ParamVoltage}, {Name: "Snew", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vnew", Kind: calc.ParamVoltage}}, Args: "(Z, Sold, Vold, Snew, Vnew)", Min: 5, Max: 5,
-			Doc:     "per-unit impedance on a new base",
+		{Name: "rebase", Params: []calc.Param{{Name: "Z", Kind: calc.ParamNumber, Doc: "per unit"}, {Name: "Sold", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vold", Kind: calc.ParamVoltage, Doc: "line-to-line"}, {Name: "Snew", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vnew", Kind: calc.ParamVoltage, Doc: "line-to-line"}}, Args: "(Z, Sold, Vold, Snew, Vnew)", Min: 5, Max: 5,
+			Doc:     "per-unit impedance on a new base (three-phase bases: S total, Vold and Vnew line-to-line)",
 			Formula: "Z_new = Z_old·(V_old/V_new)²·(S_new/S_old)",
 			Call:    callRebase},
 		{Name: "ct", Params: []calc.Param{{Name: "I", Kind: calc.ParamCurrent}, {Name: "Ip", Kind: calc.ParamCurrent}, {Name: "Is", Kind: calc.ParamCurrent}}, Args: "(I, Ip, Is)", Min: 3, Max: 3,
@@ -133,6 +134,38 @@ func guard(f calc.Func) func(*calc.Context, []calc.Arg) (calc.Result, error) {
 }
 
 // split separates bare words from quantities, keeping the order of each.
+// lineVoltage reads a three-phase rating or supply voltage in place: every
+// such parameter here is line-to-line. A value marked line-to-neutral
+// (l2n) is converted by √3; the step shows both forms.
+func lineVoltage(c *calc.Context, a *calc.Arg, what string) ([]calc.Step, error) {
+	if a.Word != "" {
+		return nil, nil
+	}
+	v, st, err := threephase.Voltage(a.Q, calc.LineToLine, what, threephase.SequenceOf(c), false)
+	if err != nil {
+		return nil, err
+	}
+	a.Q = v
+	return st, nil
+}
+
+// ratedVoltages reads V1 and V2 of a three-phase transformer nameplate
+// (arguments 1 and 2) as line-to-line ratings.
+func ratedVoltages(c *calc.Context, fn string, qs []calc.Arg, words []string) ([]calc.Step, error) {
+	if has(words, "single") {
+		return nil, nil
+	}
+	var pre []calc.Step
+	for _, k := range []int{1, 2} {
+		st, err := lineVoltage(c, &qs[k], "V"+string(rune('0'+k)))
+		if err != nil {
+			return nil, fmt.Errorf("%s: %v", fn, err)
+		}
+		pre = append(pre, st...)
+	}
+	return pre, nil
+}
+
 func split(args []calc.Arg) (qs []calc.Arg, words []string) {
 	for _, a := range args {
 		if a.Word != "" {
@@ -366,6 +399,18 @@ func callCableDrop(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	var cb Cable
 	var err error
+	var pre []calc.Step
+	if has(words, "three") {
+		for _, k := range []int{0, 6} {
+			if k < len(qs) {
+				st, err := lineVoltage(c, &qs[k], map[int]string{0: "Vs", 6: "Vnom"}[k])
+				if err != nil {
+					return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+				}
+				pre = append(pre, st...)
+			}
+		}
+	}
 	fields := []struct {
 		p    *float64
 		name string
@@ -401,7 +446,7 @@ func callCableDrop(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: r.Vload, Steps: r.Steps, Notes: notes, Extra: []calc.Operand{
+	return calc.Result{Value: r.Vload, Steps: append(pre, r.Steps...), Notes: notes, Extra: []calc.Operand{
 		op("drop", r.Drop), op("pct", num(r.DropPct)), op("approx", r.Approx), op("diff", r.Diff), op("z", r.Zloop)}}, nil
 }
 
@@ -486,6 +531,10 @@ func callXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if len(qs) < 4 || len(qs) > 5 {
 		return calc.Result{}, fmt.Errorf("xfmr takes (S, V1, V2, %%Z[, X/R][, single|three])")
 	}
+	pre, err := ratedVoltages(c, "xfmr", qs, words)
+	if err != nil {
+		return calc.Result{}, err
+	}
 	n, err := nameplateArgs("xfmr", qs, words)
 	if err != nil {
 		return calc.Result{}, err
@@ -494,7 +543,7 @@ func callXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("xfmr: %v", err)
 	}
-	return calc.Result{Value: x.Z2, Steps: x.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: x.Z2, Steps: append(pre, x.Steps...), Notes: []string{FaultCaution}, Extra: []calc.Operand{
 		op("z1", x.Z1), op("zbase1", x.Zbase1), op("zbase2", x.Zbase2), op("i1", x.I1), op("i2", x.I2),
 		op("isc1", x.Isc1), op("isc2", x.Isc2), op("ratio", x.Ratio)}}, nil
 }
@@ -504,6 +553,10 @@ func callFault(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	qs, words := split(args)
 	if len(qs) != 6 && len(qs) != 9 {
 		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, Ssc or Zs[, R', X', length][, single|three])", fn)
+	}
+	pre, err := ratedVoltages(c, fn, qs, words)
+	if err != nil {
+		return calc.Result{}, err
 	}
 	n, err := nameplateArgs(fn, qs[:5], words)
 	if err != nil {
@@ -536,7 +589,7 @@ func callFault(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: r.IscEnd, Steps: r.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.IscEnd, Steps: append(pre, r.Steps...), Notes: []string{FaultCaution}, Extra: []calc.Operand{
 		op("terminals", r.IscTerminals), op("infinite", r.IscInfinite), op("z", r.Ztotal),
 		op("zsource", r.Zsource), op("zxfmr", r.Zxfmr), op("zcable", r.Zcable)}}, nil
 }
@@ -546,7 +599,11 @@ func callPUBase(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	v, err := realArg("pubase", "V", args[1], calc.DimVoltage)
+	pre, err := lineVoltage(c, &args[1], "VLL")
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("pubase: %v", err)
+	}
+	v, err := realArg("pubase", "VLL", args[1], calc.DimVoltage)
 	if err != nil {
 		return calc.Result{}, err
 	}
@@ -554,7 +611,7 @@ func callPUBase(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("pubase: %v", err)
 	}
-	return calc.Result{Value: b.Z, Steps: []calc.Step{b.Step}, Extra: []calc.Operand{op("ibase", b.I)}}, nil
+	return calc.Result{Value: b.Z, Steps: append(pre, b.Step), Extra: []calc.Operand{op("ibase", b.I)}}, nil
 }
 
 func callRebase(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -563,6 +620,14 @@ func callRebase(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, fmt.Errorf("%s: Z must be a per-unit value (a plain number)", fn)
 	}
 	var x [4]float64
+	var pre []calc.Step
+	for _, k := range []int{2, 4} {
+		st, err := lineVoltage(c, &args[k], map[int]string{2: "Vold", 4: "Vnew"}[k])
+		if err != nil {
+			return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+		}
+		pre = append(pre, st...)
+	}
 	for k, spec := range []struct {
 		n string
 		d calc.Dim
@@ -576,7 +641,7 @@ func callRebase(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: z, Steps: []calc.Step{st}}, nil
+	return calc.Result{Value: z, Steps: append(pre, st)}, nil
 }
 
 func ratioCall(fn string, d calc.Dim, up bool) func(*calc.Context, []calc.Arg) (calc.Result, error) {

@@ -14,11 +14,15 @@ import (
 // the base voltage, or, for the source, as its fault level in VA (taken as
 // a pure reactance, the usual assumption when X/R is not known).
 func radialFunc() calc.Func {
-	return calc.Func{Name: "radial", Params: []calc.Param{{Name: "Sbase", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vbase", Kind: calc.ParamVoltage}, {Name: "case", Kind: calc.ParamWord, Doc: "fault|load"}, {Name: "Z", Kind: calc.ParamAny, Doc: "pu, Ω at Vbase, or a fault level in VA"}}, Args: "(Sbase, Vbase, fault|load, Z1, Z2, ...)", Min: 4, Max: 3 + maxSections,
+	return calc.Func{Name: "radial", Params: []calc.Param{{Name: "Sbase", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "Vbase", Kind: calc.ParamVoltage, Doc: "line-to-line"}, {Name: "case", Kind: calc.ParamWord, Doc: "fault|load"}, {Name: "Z", Kind: calc.ParamAny, Doc: "pu, Ω at Vbase, or a fault level in VA"}}, Args: "(Sbase, Vbase, fault|load, Z1, Z2, ...)", Min: 4, Max: 3 + maxSections,
 		Words:   []string{"fault", "load"},
-		Doc:     "a radial chain solved in per unit on the base Sbase, Vbase: each Z in pu on that base, in Ω at Vbase, or a source fault level in VA; value is the current in pu; .i (A) .ztot .v1 .v2 ... (pu after each section)",
+		Doc:     "a radial chain solved in per unit on the base Sbase, Vbase (line-to-line): each Z in pu on that base, in Ω at Vbase, or a source fault level in VA; value is the current in pu; .i (A) .ztot .v1 .v2 ... (pu after each section)",
 		Formula: "Z_pu = Z/Z_base, Z_base = V_base²/S_base; source Z_pu = j·S_base/S_sc; I = E/ΣZ_pu (E = 1 pu)",
 		Call: func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+			pre, err := lineVoltage(c, &args[1], "Vbase")
+			if err != nil {
+				return calc.Result{}, err
+			}
 			s, v := args[0].Q, args[1].Q
 			if s.Dim != calc.DimPower || !s.IsReal() || real(s.V) <= 0 {
 				return calc.Result{}, fmt.Errorf("argument 1 (Sbase) must be a positive power in VA, got %s", args[0].Text)
@@ -52,7 +56,7 @@ func radialFunc() calc.Func {
 				return calc.Result{}, err
 			}
 			ib := sys.SBase / (math.Sqrt(3) * sys.VBase)
-			out := calc.Result{Value: r.Ipu, Steps: r.Steps}
+			out := calc.Result{Value: r.Ipu, Steps: append(pre, r.Steps...)}
 			out.Extra = append(out.Extra, calc.Operand{Name: "i", Value: calc.Q(r.Ipu.V*complex(ib, 0), calc.DimCurrent)},
 				calc.Operand{Name: "ztot", Value: r.Ztot})
 			acc := complex(0, 0)

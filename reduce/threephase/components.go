@@ -51,6 +51,51 @@ func ToSequence(xa, xb, xc calc.Quantity) ([3]calc.Quantity, []calc.Step, error)
 	return r, []calc.Step{st}, nil
 }
 
+// Unbalance is the ratio of the negative- and zero-sequence components to
+// the positive-sequence component of three phasors.
+type Unbalance struct {
+	Neg, Zero calc.Quantity // |X2|/|X1| and |X0|/|X1|, plain numbers
+}
+
+// UnbalanceOf returns the unbalance factors of sequence components r (zero,
+// positive, negative, as ToSequence returns them): u2 = |X2|/|X1| and
+// u0 = |X0|/|X1|. For voltages u2 is the voltage unbalance factor as
+// IEC 61000-4-30 defines it (negative- over positive-sequence magnitude,
+// usually given in per cent; from memory). It fails when the positive
+// sequence is zero, where the ratio has no value.
+//
+// The components are always taken with positive sequence = ABC rotation;
+// on a supply whose own rotation is ACB (seq ACB) the roles of X1 and X2
+// swap, so the factor is |X1|/|X2|.
+func UnbalanceOf(r [3]calc.Quantity, seq Sequence) (Unbalance, calc.Step, error) {
+	own, other, formula := r[1], r[2], "u2 = |X2|/|X1|;  u0 = |X0|/|X1|"
+	if seq == ACB {
+		own, other, formula = r[2], r[1], "ACB supply: u2 = |X1|/|X2|;  u0 = |X0|/|X2|"
+	}
+	p := cmplx.Abs(own.V)
+	if p == 0 {
+		return Unbalance{}, calc.Step{}, fmt.Errorf("the component of the supply's own rotation (%s) is zero: no unbalance factor", seq)
+	}
+	u := Unbalance{Neg: calc.Number(complex(cmplx.Abs(other.V)/p, 0)), Zero: calc.Number(complex(cmplx.Abs(r[0].V)/p, 0))}
+	if err := checkAll("unbalance factor", u.Neg, u.Zero); err != nil {
+		return Unbalance{}, calc.Step{}, err
+	}
+	word := "unbalance factor"
+	if r[1].Dim == calc.DimVoltage {
+		word = "voltage unbalance factor"
+	}
+	st := calc.Step{
+		Kind:    "components",
+		Rule:    word + ": negative- (and zero-) sequence magnitude over positive-sequence magnitude (IEC 61000-4-30)",
+		Formula: formula,
+		Inputs:  []calc.Operand{op("X0", r[0]), op("X1", r[1]), op("X2", r[2])},
+		Results: []calc.Operand{op("u2", u.Neg), op("u0", u.Zero)},
+		Notes: []string{fmt.Sprintf("u2 = %.4g %%, u0 = %.4g %%", 100*real(u.Neg.V), 100*real(u.Zero.V)),
+			"other definitions of unbalance (the largest deviation of a line voltage from the mean of the three, over that mean) give different figures: say which one a limit uses"},
+	}
+	return u, st, nil
+}
+
 // FromSequence is the inverse of ToSequence:
 //
 //	Xa = X0 + X1 + X2

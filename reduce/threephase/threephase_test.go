@@ -641,3 +641,60 @@ func TestASCIIText(t *testing.T) {
 		}
 	}
 }
+
+// The voltage unbalance factor u2 = |V2|/|V1| read from the symmetrical
+// components agrees with the closed form from the three line-to-line
+// magnitudes alone (IEC 61000-4-30, from memory):
+//
+//	β = (U12⁴ + U23⁴ + U31⁴)/(U12² + U23² + U31²)²,  u2 = √((1 − √(3 − 6β))/(1 + √(3 − 6β)))
+//
+// The line voltages of any set hold no zero sequence, so the two must
+// agree for any supply. The closed form loses half its digits near balance
+// (a square root of a difference near zero), hence the absolute 1e-7.
+func TestVoltageUnbalanceFactor(t *testing.T) {
+	sets := [][3]complex128{
+		{polar(230, 0), polar(225, -118), polar(236, 121)},
+		{polar(230, 0), polar(230, -120), polar(230, 120)},
+		{polar(240, 0), polar(200, -125), polar(220, 118)},
+		{polar(230, 10), polar(115, -110), polar(230, 130)},
+	}
+	for _, ph := range sets {
+		l := [3]complex128{ph[0] - ph[1], ph[1] - ph[2], ph[2] - ph[0]}
+		r, _, err := ToSequence(V(l[0]), V(l[1]), V(l[2]))
+		if err != nil {
+			t.Fatal(err)
+		}
+		u, st, err := UnbalanceOf(r, ABC)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var s2, s4 float64
+		for _, v := range l {
+			m2 := real(v)*real(v) + imag(v)*imag(v)
+			s2 += m2
+			s4 += m2 * m2
+		}
+		beta := s4 / (s2 * s2)
+		root := math.Sqrt(math.Max(0, 3-6*beta))
+		want := math.Sqrt(math.Max(0, (1-root)/(1+root)))
+		if math.Abs(real(u.Neg.V)-want) > 1e-7 {
+			t.Errorf("%v: u2 = %v, from line magnitudes %v", ph, real(u.Neg.V), want)
+		}
+		if real(u.Zero.V) != 0 {
+			t.Errorf("%v: line voltages have zero sequence %v", ph, u.Zero.V)
+		}
+		if !strings.Contains(st.Rule, "IEC 61000-4-30") {
+			t.Errorf("the step names no source: %q", st.Rule)
+		}
+		// an ACB supply: the same set with b and c swapped has the same
+		// unbalance when read in its own rotation
+		ra, _, _ := ToSequence(V(l[0]), V(l[2]), V(l[1]))
+		ua, _, err := UnbalanceOf(ra, ACB)
+		if err != nil || math.Abs(real(ua.Neg.V)-real(u.Neg.V)) > 1e-12 {
+			t.Errorf("ACB: %v, %v; want %v", ua.Neg.V, err, u.Neg.V)
+		}
+	}
+	if _, _, err := UnbalanceOf([3]calc.Quantity{V(1), V(0), V(1)}, ABC); err == nil {
+		t.Error("no positive sequence: no error")
+	}
+}

@@ -64,6 +64,10 @@ statements
   angles deg | rad       angle unit shown and read
   digits N               significant figures shown
   sequence abc | acb     phase sequence
+  l2l(400 V)  l2n(230 V) mark a three-phase voltage line-to-line or
+                         line-to-neutral: each three-phase function names
+                         which it takes (VLL, VLN), converts a value marked
+                         the other way with a note, and shows both forms
   resistor R1 = 10 Ω     element values that remember their kind:
   inductor L1 = 10 mH      an inductor's or capacitor's impedance follows
   capacitor C1 = 1 µF      the working frequency
@@ -74,7 +78,11 @@ statements
   spread [NAME =] EXPR   range of EXPR over the tolerances (sampled)
   check EXPR reads 98.2 Ω within 1% + 2 digits of 0.1 Ω
                          does a meter reading fit what the parts allow?
-  sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db]
+  sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db [ref R]]
+                         table, plot, and what it found: smallest and largest
+                         |x|, resonances (angle crosses 0), half-power bands
+                         (peak/√2; √2·minimum at a dip); db: 20·log10(|x|/|R|),
+                         R = 1 for a ratio, stated for a value with a unit
   budget 60 s            bound on a sweep's, spread's or reading check's
                            estimated work (10 s until set); past it the
                            statement is refused with the estimate
@@ -182,7 +190,11 @@ func FunctionList() string {
 			if p.Kind == calc.ParamWord || p.Kind == calc.ParamAny {
 				continue
 			}
-			ps = append(ps, p.Name+": "+p.Kind.String())
+			d := p.Name + ": " + p.Kind.String()
+			if p.Doc != "" {
+				d += ", " + p.Doc // such as "line-to-line voltage V_ab"
+			}
+			ps = append(ps, d)
 		}
 		if len(ps) > 0 {
 			for _, l := range wrap(strings.Join(ps, "; "), 80-6) {
