@@ -51,7 +51,7 @@ var samples = map[string]string{
 	"ik1": "ik1(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ)", "ik2": "ik2(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ)",
 	"ik2e":   "ik2e(400 V, 3+j11 mΩ, 3+j11 mΩ, 9+j14 mΩ, 50 mΩ)",
 	"zsloop": "zsloop(230 V, 0.35 Ω, 19.5 mΩ/m, 25 m, 70, 1.2 Ω)",
-	"l2l": "l2l(400 V)", "l2n": "l2n(230 V)",
+	"l2l":    "l2l(400 V)", "l2n": "l2n(230 V)",
 	"wyeunbal":   "wyeunbal(232 V, 221∠-121 V, 236∠118 V, 8 Ω, 15 Ω, 40 Ω, 0.8+j0.2 Ω)",
 	"deltaunbal": "deltaunbal(400 V, 395∠-121 V, -(400 V + 395∠-121 V), 10 Ω, 12 Ω, 15 Ω)",
 }
