@@ -46,6 +46,10 @@ func TestKindRules(t *testing.T) {
 		{"sqrt(re(800+j600 VA)^2 + im(800+j600 VA)^2)", "apparent-power", "VA", ""},
 		{"Vs", "phasor", "V", ""},
 		{"3+j4 Ω", "impedance", "Ω", ""},
+		// a rectangular form shown with a zero imaginary part reads back
+		// as the complex value it was, not as a lone real of its unit
+		{"10 + j0 VA", "complex-power", "VA", ""},
+		{"10 + j0 Ω", "impedance", "Ω", ""},
 		{"50 Ω", "resistance", "Ω", ""},
 		{"j50 Ω", "impedance", "Ω", ""},
 		{"10 mH", "signed-real", "H", ""},

@@ -202,7 +202,9 @@ func distribute(x, y Expr) {
 	if xl == nil || xl.hasUnit || imag(xl.Val) != 0 {
 		return
 	}
-	xl.hasUnit, xl.distrib = true, true
+	// both parts of the rectangular literal are one complex value, so
+	// neither is read as a lone real of its unit (j0 VA is not an |S|)
+	xl.hasUnit, xl.distrib, yl.distrib = true, true, true
 	xl.Unit, xl.scale, xl.dim, xl.kind = yl.Unit, yl.scale, yl.dim, yl.kind
 }
 
