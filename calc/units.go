@@ -54,6 +54,10 @@ var units = map[string]unitDef{
 	// mechanical horsepower, 550 ft·lbf/s = 745.699 871 582 270 22 W
 	// (NIST SP 811, appendix B.8, from memory)
 	"hp": {745.69987158227022, DimPower, KindActive, false},
+	// metric horsepower, 75 kgf·m/s = 75 × 9.806 65 W = 735.498 75 W
+	// (NIST SP 811, appendix B.8, "horsepower, metric", from memory); a
+	// name of its own so that the two are never confused
+	"hp_metric": {735.49875, DimPower, KindActive, false},
 }
 
 // prefixes are the SI prefixes argand reads (SI Brochure, 9th ed., table 7).

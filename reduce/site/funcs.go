@@ -94,6 +94,7 @@ func Funcs() []calc.Func {
 			Formula: "band = |x| ± (pct/100·|x| + digits·resolution)",
 			Call:    callReadCheck},
 	}
+	fs = append(fs, loadingFuncs()...)
 	rated := map[string]string{
 		"xfmr":         "the nameplate S, V1, V2",
 		"faultcurrent": "the nameplate S, V1, V2 and the fault level",

@@ -1,0 +1,377 @@
+package site
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"argand/calc"
+)
+
+// loadingFuncs are the worksheet functions for motor starting and for
+// transformers under load.
+func loadingFuncs() []calc.Func {
+	return []calc.Func{
+		{Name: "lrmultiple", Args: "(Ir, k, V)", Min: 3, Max: 3,
+			Doc:     "locked-rotor current of a three-phase motor as k times its rated current Ir at rated line voltage V; .s (starting |S|)",
+			Formula: "I_LR = k·I_r, |S_LR| = √3·V·I_LR",
+			Call:    callLRMultiple},
+		{Name: "lrkva", Args: "(Pout, r, V)", Min: 3, Max: 3,
+			Doc:     "locked-rotor current from the maker's starting apparent power per unit of rated output r (6 kVA/kW, 5 kVA/hp, 5 kVA/hp_metric); .s",
+			Formula: "|S_LR| = r·P_out, I_LR = |S_LR|/(√3·V)",
+			Call:    callLRKVA},
+		{Name: "motorstart", Args: "(Ilr, pfLR, V, Zs, Zt, Zc[, direct|stardelta|autotransformer|limit[, tap or Ilim]])", Min: 6, Max: 8,
+			Words:   []string{"direct", "stardelta", "autotransformer", "limit"},
+			Doc:     "voltage at the motor while a three-phase motor starts through source, transformer and cable (Ω per phase at the motor's voltage; Zs may be a fault level in VA); .dip .vbus .dipbus .vsupply .dipsupply .approx .approxbus .approxsupply .i .s .torque .zeq",
+			Formula: "I = (V/√3)/(Zs + Zt + Zc + m·Z_LR), m = 1, 3, 1/tap² or set by the limit; dip ≈ Σ|Z_up|/Σ|Z| (kVA method)",
+			Call:    callMotorStart},
+		{Name: "xfmrreg", Args: "(S, V1, V2, %Z, X/R, load, pf, lagging|leading[, single|three])", Min: 8, Max: 9,
+			Words:   []string{"lagging", "leading", "single", "three"},
+			Doc:     "regulation of a transformer at a load (per unit, %, A or VA) and power factor, primary at rated voltage; value in per cent of the no-load voltage; .v .i .approx .second",
+			Formula: "E = V_load + Z2·I (exact);  ε ≈ n·(u_r·cos φ + u_x·sin φ) [+ n²·(u_x·cos φ − u_r·sin φ)²/200]",
+			Call:    callXfmrReg},
+		{Name: "xfmreff", Args: "(S, P0, Pk, load, pf)", Min: 5, Max: 5,
+			Doc:     "efficiency of a transformer at a load (per unit, % or VA) from no-load loss P0 and load loss Pk at rated current; .nmax .smax .etamax .pout .loss",
+			Formula: "η = n·S·PF/(n·S·PF + P0 + n²·Pk), n_max = √(P0/Pk)",
+			Call:    callXfmrEff},
+		{Name: "xfmrshare", Args: "(V2, SA, %ZA, X/RA, SB, %ZB, X/RB, Sload, pf, lagging|leading[, ΔV%])", Min: 10, Max: 11,
+			Words:   []string{"lagging", "leading"},
+			Doc:     "load sharing of two three-phase transformers in parallel by their impedances, ΔV% = A's open-circuit voltage above B's; value S of A; .sb .pcta .pctb .approxa .approxb .ia .ib .il .ic .vbus",
+			Formula: "I_k = (E_k − V_bus)/Z_k, I_c = (E_A − E_B)/(Z_A + Z_B);  S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
+			Call:    callXfmrShare},
+		{Name: "vgroup", Args: "(x, clock, tolv|tohv[, V_HV/V_LV][, negative])", Min: 3, Max: 5,
+			Words:   []string{"tolv", "tohv", "negative"},
+			Doc:     "a voltage or current phasor referred across a transformer of vector-group clock number (Dyn11: 11); the LV phasor lags the HV one by clock·30° (IEC 60076-1); .turn",
+			Formula: "x' = x·∠(−clock·30°) HV to LV, ∠(+clock·30°) LV to HV; opposite for the negative sequence",
+			Call:    callVGroup},
+	}
+}
+
+// pctArg reads a per-cent figure written as a plain number of per cent
+// (4.5) or with the per-cent sign (4.5 %, which the language reads as
+// 0.045): both mean 4.5 per cent.
+func pctArg(fn, what string, a calc.Arg) (float64, error) {
+	x, err := realArg(fn, what, a, calc.Dimensionless)
+	if err != nil {
+		return 0, err
+	}
+	if strings.HasSuffix(strings.TrimSpace(a.Text), "%") {
+		x *= 100
+	}
+	return x, nil
+}
+
+// loadArg reads a load as a fraction of the rating: a plain number (0.75
+// or 75 %), an apparent power in VA over the rating sRated, or, when
+// iRated > 0, a current in A over the rated current.
+func loadArg(fn string, a calc.Arg, sRated, iRated float64) (float64, error) {
+	if a.Word != "" {
+		return 0, fmt.Errorf("%s: the load must be a value, not the word %q", fn, a.Word)
+	}
+	q := a.Q
+	if !q.IsReal() {
+		return 0, fmt.Errorf("%s: the load %s must be a real value (its magnitude); the power factor is a separate argument", fn, a.Text)
+	}
+	x := real(q.V)
+	switch {
+	case q.Dim.IsDimensionless():
+		return x, nil
+	case q.Dim == calc.DimPower && q.Kind == calc.KindActive:
+		return 0, fmt.Errorf("%s: the load %s is an active power; give the apparent power in VA (or the current), the power factor is a separate argument", fn, a.Text)
+	case q.Dim == calc.DimPower:
+		return x / sRated, nil
+	case q.Dim == calc.DimCurrent && iRated > 0:
+		return x / iRated, nil
+	}
+	want := "a per-unit load (0.75 or 75 %) or an apparent power in VA"
+	if iRated > 0 {
+		want = "a per-unit load (0.75 or 75 %), an apparent power in VA or a current in A"
+	}
+	return 0, fmt.Errorf("%s: the load %s must be %s, not %s", fn, a.Text, want, calc.DimName(q.Dim, false))
+}
+
+func callLRMultiple(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "lrmultiple"
+	ir, err := realArg(fn, "Ir", args[0], calc.DimCurrent)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	k, err := realArg(fn, "k", args[1], calc.Dimensionless)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	v, err := realArg(fn, "V", args[2], calc.DimVoltage)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	r, err := LockedRotorFromMultiple(ir, k, v)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
+		Extra: []calc.Operand{op("s", r.S)}}, nil
+}
+
+func callLRKVA(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "lrkva"
+	if args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind != calc.KindActive && args[0].Q.Kind != calc.KindPlain {
+		return calc.Result{}, fmt.Errorf("%s: Pout is the rated shaft output in W, kW, hp or hp_metric, not %s", fn, args[0].Text)
+	}
+	p, err := realArg(fn, "Pout", args[0], calc.DimPower)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	ratio, err := realArg(fn, "r", args[1], calc.Dimensionless)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	v, err := realArg(fn, "V", args[2], calc.DimVoltage)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	r, err := LockedRotorFromKVA(p, ratio, v)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
+		Extra: []calc.Operand{op("s", r.S)}}, nil
+}
+
+func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "motorstart"
+	var st Start
+	var err error
+	if st.ILR, err = realArg(fn, "Ilr", args[0], calc.DimCurrent); err != nil {
+		return calc.Result{}, err
+	}
+	if st.PFLR, err = realArg(fn, "pfLR", args[1], calc.Dimensionless); err != nil {
+		return calc.Result{}, err
+	}
+	if st.V, err = realArg(fn, "V", args[2], calc.DimVoltage); err != nil {
+		return calc.Result{}, err
+	}
+	var notes []string
+	for k, z := range []*complex128{&st.Zs, &st.Zt, &st.Zc} {
+		a := args[3+k]
+		what := [3]string{"Zs", "Zt", "Zc"}[k]
+		if a.Word != "" {
+			return calc.Result{}, fmt.Errorf("%s: %s must be an impedance, not the word %q", fn, what, a.Word)
+		}
+		switch {
+		case a.Q.Dim == calc.DimImpedance:
+			*z = a.Q.V
+		case k == 0 && a.Q.Dim == calc.DimPower && a.Q.IsReal() && real(a.Q.V) > 0 && a.Q.Kind != calc.KindActive && a.Q.Kind != calc.KindReactive:
+			*z = complex(0, st.V*st.V/real(a.Q.V))
+			notes = append(notes, "the source is taken from its fault level as a pure reactance Zs = j·V²/S_sc at the motor's voltage")
+		default:
+			want := "an impedance in Ω per phase at the motor's voltage"
+			if k == 0 {
+				want += " or a fault level in VA"
+			}
+			return calc.Result{}, fmt.Errorf("%s: %s must be %s, got %s", fn, argName(a, what), want, calc.DimName(a.Q.Dim, false))
+		}
+	}
+	if len(args) > 6 {
+		w, err := wordArg(fn, args[6], "direct", "stardelta", "autotransformer", "limit")
+		if err != nil {
+			return calc.Result{}, err
+		}
+		switch w {
+		case "stardelta":
+			st.Method = StarDelta
+		case "autotransformer":
+			st.Method = AutoTransformer
+		case "limit":
+			st.Method = CurrentLimit
+		}
+		need := st.Method == AutoTransformer || st.Method == CurrentLimit
+		if need != (len(args) == 8) {
+			if need {
+				return calc.Result{}, fmt.Errorf("%s: %s needs its value after it: the tap (0.65 or 65 %%) or the current limit in A", fn, w)
+			}
+			return calc.Result{}, fmt.Errorf("%s: %s takes no value after it", fn, w)
+		}
+		switch st.Method {
+		case AutoTransformer:
+			if st.Tap, err = realArg(fn, "tap", args[7], calc.Dimensionless); err != nil {
+				return calc.Result{}, err
+			}
+		case CurrentLimit:
+			if st.Limit, err = realArg(fn, "Ilim", args[7], calc.DimCurrent); err != nil {
+				return calc.Result{}, err
+			}
+		}
+	}
+	r, err := MotorStart(st)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	if len(notes) > 0 {
+		r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
+	}
+	return calc.Result{Value: r.Vmotor, Steps: r.Steps, Notes: []string{MotorCaution}, Extra: []calc.Operand{
+		op("dip", num(r.Dip)), op("vbus", r.Vbus), op("dipbus", num(r.DipBus)), op("vsupply", r.Vsupply), op("dipsupply", num(r.DipSup)),
+		op("approx", num(r.Approx)), op("approxbus", num(r.ApproxBus)), op("approxsupply", num(r.ApproxSup)),
+		op("i", r.I), op("s", r.S), op("torque", num(r.Torque)), op("zeq", r.Zeq)}}, nil
+}
+
+func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "xfmrreg"
+	qs, words := split(args)
+	if len(qs) != 7 {
+		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, load, pf, lagging|leading[, single|three])", fn)
+	}
+	if has(words, "lagging") == has(words, "leading") {
+		return calc.Result{}, fmt.Errorf("%s: give one of lagging or leading", fn)
+	}
+	n, err := nameplateArgs(fn, qs[:5], words)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	if n.PctZ, err = pctArg(fn, "%Z", qs[3]); err != nil {
+		return calc.Result{}, err
+	}
+	k := math.Sqrt(3)
+	if n.SinglePhase {
+		k = 1
+	}
+	load, err := loadArg(fn, qs[5], n.S, n.S/(k*n.V2))
+	if err != nil {
+		return calc.Result{}, err
+	}
+	pf, err := realArg(fn, "pf", qs[6], calc.Dimensionless)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	r, err := Regulation(n, load, pf, has(words, "leading"))
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
+		op("v", r.Vload), op("i", r.I), op("approx", num(r.Approx)), op("second", num(r.Second))}}, nil
+}
+
+func callXfmrEff(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "xfmreff"
+	if args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind == calc.KindActive {
+		return calc.Result{}, fmt.Errorf("%s: the rating S is an apparent power in VA, not %s", fn, args[0].Text)
+	}
+	s, err := realArg(fn, "S", args[0], calc.DimPower)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	var p [2]float64
+	for k, what := range []string{"P0", "Pk"} {
+		a := args[1+k]
+		if a.Word == "" && a.Q.Dim == calc.DimPower && a.Q.Kind != calc.KindActive && a.Q.Kind != calc.KindPlain {
+			return calc.Result{}, fmt.Errorf("%s: %s is a loss, an active power in W, not %s", fn, what, a.Text)
+		}
+		if p[k], err = realArg(fn, what, a, calc.DimPower); err != nil {
+			return calc.Result{}, err
+		}
+	}
+	load, err := loadArg(fn, args[3], s, 0)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	pf, err := realArg(fn, "pf", args[4], calc.Dimensionless)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	r, err := Efficiency(s, p[0], p[1], load, pf)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: num(r.Eta), Steps: r.Steps, Extra: []calc.Operand{
+		op("nmax", num(r.NMax)), op("smax", r.SMax), op("etamax", num(r.EtaMax)), op("pout", r.Pout), op("loss", r.Losses)}}, nil
+}
+
+func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "xfmrshare"
+	qs, words := split(args)
+	if len(qs) < 9 || len(qs) > 10 || len(words) != 1 {
+		return calc.Result{}, fmt.Errorf("%s takes (V2, SA, %%ZA, X/RA, SB, %%ZB, X/RB, Sload, pf, lagging|leading[, ΔV%%])", fn)
+	}
+	var p Parallel
+	var err error
+	if p.V2, err = realArg(fn, "V2", qs[0], calc.DimVoltage); err != nil {
+		return calc.Result{}, err
+	}
+	for k, u := range []*Unit{&p.A, &p.B} {
+		name := [2]string{"A", "B"}[k]
+		b := qs[1+3*k:]
+		if u.S, err = realArg(fn, "S"+name, b[0], calc.DimPower); err != nil {
+			return calc.Result{}, err
+		}
+		if u.PctZ, err = pctArg(fn, "%Z"+name, b[1]); err != nil {
+			return calc.Result{}, err
+		}
+		if u.XR, err = realArg(fn, "X/R"+name, b[2], calc.Dimensionless); err != nil {
+			return calc.Result{}, err
+		}
+	}
+	if qs[7].Q.Dim == calc.DimPower && qs[7].Q.Kind == calc.KindActive {
+		return calc.Result{}, fmt.Errorf("%s: Sload %s is an active power; give the apparent power in VA, the power factor is a separate argument", fn, qs[7].Text)
+	}
+	if p.Load, err = realArg(fn, "Sload", qs[7], calc.DimPower); err != nil {
+		return calc.Result{}, err
+	}
+	if p.PF, err = realArg(fn, "pf", qs[8], calc.Dimensionless); err != nil {
+		return calc.Result{}, err
+	}
+	if len(qs) == 10 {
+		if p.DeltaV, err = pctArg(fn, "ΔV%", qs[9]); err != nil {
+			return calc.Result{}, err
+		}
+	}
+	p.Lead = has(words, "leading")
+	if !p.Lead && !has(words, "lagging") {
+		return calc.Result{}, fmt.Errorf("%s: give lagging or leading", fn)
+	}
+	r, err := ShareLoad(p)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: r.SA, Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
+		op("sb", r.SB), op("pcta", num(r.PctA)), op("pctb", num(r.PctB)), op("approxa", num(r.ApproxA)), op("approxb", num(r.ApproxB)),
+		op("ia", r.IA), op("ib", r.IB), op("il", r.IL), op("ic", r.Ic), op("vbus", r.Vbus)}}, nil
+}
+
+func callVGroup(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	const fn = "vgroup"
+	qs, words := split(args)
+	if len(qs) < 2 || len(qs) > 3 {
+		return calc.Result{}, fmt.Errorf("%s takes (x, clock, tolv|tohv[, V_HV/V_LV][, negative])", fn)
+	}
+	if has(words, "tolv") == has(words, "tohv") {
+		return calc.Result{}, fmt.Errorf("%s: give one of tolv or tohv", fn)
+	}
+	if qs[0].Q.Dim != calc.DimVoltage && qs[0].Q.Dim != calc.DimCurrent {
+		return calc.Result{}, fmt.Errorf("%s: %s must be a voltage or a current phasor, got %s", fn, argName(qs[0], "x"), calc.DimName(qs[0].Q.Dim, false))
+	}
+	h, err := realArg(fn, "clock", qs[1], calc.Dimensionless)
+	if err != nil {
+		return calc.Result{}, err
+	}
+	if h != math.Trunc(h) || h < 0 || h > 11 {
+		return calc.Result{}, fmt.Errorf("%s: the clock number must be a whole number from 0 to 11 (Dyn11 is 11), got %s", fn, qs[1].Text)
+	}
+	ratio := 0.0
+	if len(qs) == 3 {
+		if ratio, err = realArg(fn, "V_HV/V_LV", qs[2], calc.Dimensionless); err != nil {
+			return calc.Result{}, err
+		}
+		if ratio <= 0 {
+			return calc.Result{}, fmt.Errorf("%s: the ratio V_HV/V_LV must be positive, got %s", fn, qs[2].Text)
+		}
+	}
+	seq := c.Sequence
+	if seq == 0 {
+		seq = 1
+	}
+	x, st, err := VectorShift(qs[0].Q, int(h), has(words, "tolv"), has(words, "negative"), seq, ratio)
+	if err != nil {
+		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	return calc.Result{Value: x, Steps: []calc.Step{st}, Notes: []string{XfmrCaution}, Extra: []calc.Operand{op("turn", st.Results[1].Value)}}, nil
+}
