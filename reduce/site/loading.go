@@ -98,7 +98,7 @@ func Regulation(n Nameplate, load, pf float64, leading bool) (RegResult, error) 
 	r := RegResult{
 		Vload:  cq(v*complex(k, 0), calc.DimVoltage),
 		I:      cq(i, calc.DimCurrent),
-		Reg:    (e - cmplx.Abs(v)) / e * 100,
+		Reg:    dipPct(cmplx.Abs(v), e),
 		Approx: a1,
 		Second: a1 + b1*b1/200,
 	}

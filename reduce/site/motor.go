@@ -240,9 +240,9 @@ func MotorStart(st Start) (StartResult, error) {
 		Vsupply: cq(vsup*k3, calc.DimVoltage),
 		I:       cq(i, calc.DimCurrent),
 		S:       power(3*cmplx.Abs(vm)*cmplx.Abs(i), calc.KindApparent),
-		Dip:     (1 - cmplx.Abs(vm)/e) * 100,
-		DipBus:  (1 - cmplx.Abs(vbus)/e) * 100,
-		DipSup:  (1 - cmplx.Abs(vsup)/e) * 100,
+		Dip:     dipPct(cmplx.Abs(vm), e),
+		DipBus:  dipPct(cmplx.Abs(vbus), e),
+		DipSup:  dipPct(cmplx.Abs(vsup), e),
 		Zeq:     cq(zeq, calc.DimImpedance),
 	}
 	// torque ∝ (voltage on the winding)²: the voltage ratio at the motor
@@ -296,4 +296,14 @@ func MotorStart(st Start) (StartResult, error) {
 		return StartResult{}, err
 	}
 	return res, nil
+}
+
+// dipPct returns the fall of v below e in per cent of e, with a
+// difference at the level of rounding (a stiff supply) shown as 0.
+func dipPct(v, e float64) float64 {
+	d := (e - v) / e
+	if math.Abs(d) < 1e-12 {
+		return 0
+	}
+	return d * 100
 }
