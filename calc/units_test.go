@@ -464,3 +464,22 @@ func TestPowerQuadrature(t *testing.T) {
 		t.Errorf("100 var + 50 var = %v kind %v", q.V, q.Kind)
 	}
 }
+
+// TestHorsepowers: the mechanical horsepower, 550 ft·lbf/s, and the metric
+// one, 75 kgf·m/s with g_n = 9.806 65 m/s², have names of their own
+// (NIST SP 811, appendix B.8: 7.456 999 E+02 W and 7.354 988 E+02 W,
+// from memory); both are active powers.
+func TestHorsepowers(t *testing.T) {
+	for _, c := range []struct {
+		src  string
+		want float64
+	}{{"1 hp", 550 * 0.3048 * 0.45359237 * 9.80665}, {"1 hp_metric", 75 * 9.80665}, {"10 hp_metric", 7354.9875}} {
+		q := mustEval(t, c.src)
+		if q.Dim != DimPower || q.Kind != KindActive || math.Abs(real(q.V)-c.want) > 1e-12*c.want {
+			t.Errorf("%s = %v (dim %v, kind %v), want %.12g W", c.src, q.V, q.Dim, q.Kind, c.want)
+		}
+	}
+	if got, want := real(mustEval(t, "1 hp/hp_metric").V), 550*0.3048*0.45359237/75; math.Abs(got-want) > 1e-12 {
+		t.Errorf("hp/hp_metric = %.14g", got)
+	}
+}
