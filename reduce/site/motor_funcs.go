@@ -15,11 +15,11 @@ func loadingFuncs() []calc.Func {
 		{Name: "lrmultiple", Args: "(Ir, k, V)", Min: 3, Max: 3,
 			Doc:     "locked-rotor current of a three-phase motor as k times its rated current Ir at rated line voltage V; .s (starting |S|)",
 			Formula: "I_LR = k·I_r, |S_LR| = √3·V·I_LR",
-			Call:    callLRMultiple},
+			Call:    lrCall("lrmultiple", "Ir", calc.DimCurrent, "k", LockedRotorFromMultiple)},
 		{Name: "lrkva", Args: "(Pout, r, V)", Min: 3, Max: 3,
 			Doc:     "locked-rotor current from the maker's starting apparent power per unit of rated output r (6 kVA/kW, 5 kVA/hp, 5 kVA/hp_metric); .s",
 			Formula: "|S_LR| = r·P_out, I_LR = |S_LR|/(√3·V)",
-			Call:    callLRKVA},
+			Call:    lrCall("lrkva", "Pout", calc.DimPower, "r", LockedRotorFromKVA)},
 		{Name: "motorstart", Args: "(Ilr, pfLR, V, Zs, Zt, Zc[, direct|stardelta|autotransformer|limit[, tap or Ilim]])", Min: 6, Max: 8,
 			Words:   []string{"direct", "stardelta", "autotransformer", "limit"},
 			Doc:     "voltage at the motor while a three-phase motor starts through source, transformer and cable (Ω per phase at the motor's voltage; Zs may be a fault level in VA); .dip .vbus .dipbus .vsupply .dipsupply .approx .approxbus .approxsupply .i .s .torque .zeq",
@@ -90,64 +90,52 @@ func loadArg(fn string, a calc.Arg, sRated, iRated float64) (float64, error) {
 	return 0, fmt.Errorf("%s: the load %s must be %s, not %s", fn, a.Text, want, calc.DimName(q.Dim, false))
 }
 
-func callLRMultiple(c *calc.Context, args []calc.Arg) (calc.Result, error) {
-	const fn = "lrmultiple"
-	ir, err := realArg(fn, "Ir", args[0], calc.DimCurrent)
-	if err != nil {
-		return calc.Result{}, err
-	}
-	k, err := realArg(fn, "k", args[1], calc.Dimensionless)
-	if err != nil {
-		return calc.Result{}, err
-	}
-	v, err := realArg(fn, "V", args[2], calc.DimVoltage)
-	if err != nil {
-		return calc.Result{}, err
-	}
-	r, err := LockedRotorFromMultiple(ir, k, v)
-	if err != nil {
-		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
-	}
-	return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
-		Extra: []calc.Operand{op("s", r.S)}}, nil
+// real1 names one real argument for readReals: where its value goes,
+// its name in messages and its dimension.
+type real1 struct {
+	p    *float64
+	name string
+	d    calc.Dim
 }
 
-func callLRKVA(c *calc.Context, args []calc.Arg) (calc.Result, error) {
-	const fn = "lrkva"
-	if args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind != calc.KindActive && args[0].Q.Kind != calc.KindPlain {
-		return calc.Result{}, fmt.Errorf("%s: Pout is the rated shaft output in W, kW, hp or hp_metric, not %s", fn, args[0].Text)
+// readReals reads args[k] into specs[k] in order, stopping at the first
+// argument of the wrong kind.
+func readReals(fn string, args []calc.Arg, specs ...real1) error {
+	for k, s := range specs {
+		x, err := realArg(fn, s.name, args[k], s.d)
+		if err != nil {
+			return err
+		}
+		*s.p = x
 	}
-	p, err := realArg(fn, "Pout", args[0], calc.DimPower)
-	if err != nil {
-		return calc.Result{}, err
+	return nil
+}
+
+// lrCall is a locked-rotor function of (rating, figure, V): the rating is a
+// current or an output power as dim says.
+func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v float64) (LockedRotor, error)) func(*calc.Context, []calc.Arg) (calc.Result, error) {
+	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+		if dim == calc.DimPower && args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind != calc.KindActive && args[0].Q.Kind != calc.KindPlain {
+			return calc.Result{}, fmt.Errorf("%s: %s is the rated shaft output in W, kW, hp or hp_metric, not %s", fn, rating, args[0].Text)
+		}
+		var a, b, v float64
+		if err := readReals(fn, args, real1{&a, rating, dim}, real1{&b, figure, calc.Dimensionless}, real1{&v, "V", calc.DimVoltage}); err != nil {
+			return calc.Result{}, err
+		}
+		r, err := solve(a, b, v)
+		if err != nil {
+			return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+		}
+		return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
+			Extra: []calc.Operand{op("s", r.S)}}, nil
 	}
-	ratio, err := realArg(fn, "r", args[1], calc.Dimensionless)
-	if err != nil {
-		return calc.Result{}, err
-	}
-	v, err := realArg(fn, "V", args[2], calc.DimVoltage)
-	if err != nil {
-		return calc.Result{}, err
-	}
-	r, err := LockedRotorFromKVA(p, ratio, v)
-	if err != nil {
-		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
-	}
-	return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
-		Extra: []calc.Operand{op("s", r.S)}}, nil
 }
 
 func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "motorstart"
 	var st Start
-	var err error
-	if st.ILR, err = realArg(fn, "Ilr", args[0], calc.DimCurrent); err != nil {
-		return calc.Result{}, err
-	}
-	if st.PFLR, err = realArg(fn, "pfLR", args[1], calc.Dimensionless); err != nil {
-		return calc.Result{}, err
-	}
-	if st.V, err = realArg(fn, "V", args[2], calc.DimVoltage); err != nil {
+	err := readReals(fn, args, real1{&st.ILR, "Ilr", calc.DimCurrent}, real1{&st.PFLR, "pfLR", calc.Dimensionless}, real1{&st.V, "V", calc.DimVoltage})
+	if err != nil {
 		return calc.Result{}, err
 	}
 	var notes []string
