@@ -114,7 +114,7 @@ func Regulation(n Nameplate, load, pf float64, leading bool) (RegResult, error) 
 		calc.Step{
 			Kind:    "regulation",
 			Rule:    "secondary voltage under load from the equivalent circuit referred to the secondary, primary at rated voltage (" + phase + ")",
-			Formula: "E = V_load + Z2·I,  I = n·I2 ∠(∓acos PF) from V_load;  ε = (E − |V_load|)/E",
+			Formula: "E = V_load + Z2·I,  I = n·I2 at −acos PF (lagging) or +acos PF (leading) from V_load;  ε = (E − |V_load|)/E",
 			Inputs: []calc.Operand{op("E (no load, phase)", magq(e, calc.DimVoltage)), op("Z2", t.Z2), op("n", num(load)),
 				op("I2 rated", magq(real(t.I2.V), calc.DimCurrent)), op("PF ("+sense+")", num(pf))},
 			Results: []calc.Operand{op("V_load", r.Vload), op("I", r.I), op("regulation %", num(r.Reg))},
@@ -394,7 +394,7 @@ func VectorShift(x calc.Quantity, clock int, toLV, negative bool, seq int, ratio
 	}
 	d := sign * 30 * float64(clock)
 	scale := 1.0
-	formula := "x' = x·∠(∓h·30°)"
+	formula := "x' = x·∠(−h·30°) HV to LV, x·∠(+h·30°) LV to HV"
 	if ratio > 0 {
 		switch {
 		case x.Dim == calc.DimVoltage && toLV, x.Dim == calc.DimCurrent && !toLV:

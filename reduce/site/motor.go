@@ -279,7 +279,7 @@ func MotorStart(st Start) (StartResult, error) {
 				op("|S| at the starter", res.S), op("torque / T_LR", num(res.Torque))},
 			Notes: []string{"line-to-line values are √3 times the phase values and shown at the phase angle, so the e.m.f. is the 0° reference",
 				"dips are per cent of V, the no-load voltage before the start; loads already on the bus and the source's own regulation are left out",
-				"torque is the fraction of the locked-rotor torque at rated voltage direct on line, T ∝ (winding voltage)² (common practice)"},
+				"torque is the fraction of the locked-rotor torque at rated voltage direct on line, T proportional to (winding voltage)² (common practice)"},
 		},
 		{
 			Kind:    "motorstart",

@@ -15,7 +15,11 @@ const Safety = `argand is a calculation aid, not a substitute for measurement, i
 procedures or a qualified person. Work on energised or mains equipment only
 if qualified, under local electrical codes and licensed practice. Capacitors
 can hold a lethal charge after disconnection: discharge and verify before
-touching. Verify every result by measurement before relying on it.`
+touching. Verify every result by measurement before relying on it.
+Starting a large motor, loading or paralleling transformers and referring
+quantities across a vector group are work on mains plant: the permitted
+voltage dip is set by the supply's rules, and vector groups, ratios and
+phasing are checked by measurement before any switch is closed.`
 
 const usage = `argand: AC circuit work with phasors, step by step.
 
@@ -42,7 +46,8 @@ const language = `worksheet language (one statement a line, # starts a comment)
 numbers and units
   4.7 kΩ   4.7 kohm   10 mH   100 nF   230 V   2.5 A   1.2 kW   300 var   5 kVA
   prefixes f p n µ (or u) m k M G T
-  units Ω ohm S H F V A W var VA J C Hz s m rad deg ° % hp
+  units Ω ohm S H F V A W var VA J C Hz s m rad deg ° % hp hp_metric
+  hp is 745.7 W (550 ft·lbf/s), hp_metric 735.5 W (75 kgf·m/s)
   A word right after a number is its unit. An exact unit wins over a prefix
   reading: 10 m is ten metres, 1 mS a millisiemens, 1 ms a millisecond.
   Units and prefixed units are reserved: no quantity can be named S, V or mS.
