@@ -327,4 +327,11 @@ func TestLoadingFuncs(t *testing.T) {
 	if err != nil || !nearC(r.Value.V, cmplx.Rect(230, math.Pi/6), 1e-15) {
 		t.Errorf("vgroup in an ACB worksheet: %v, %v; want 230 V ∠+30°", r.Value.V, err)
 	}
+	peak := &calc.Context{Freq: 50, Sequence: 1, Basis: calc.Peak}
+	if _, err := share.Call(peak, args); err == nil {
+		t.Error("xfmrshare under basis peak: no error")
+	}
+	if _, err := findFunc(t, "lrmultiple").Call(peak, []calc.Arg{q(100, calc.DimCurrent), n(7), q(400, calc.DimVoltage)}); err == nil {
+		t.Error("lrmultiple under basis peak: no error")
+	}
 }

@@ -47,6 +47,16 @@ func loadingFuncs() []calc.Func {
 	}
 }
 
+// rmsOnly refuses a peak-basis worksheet: these functions start from
+// ratings, which are RMS by definition, and give RMS phasors; mixing them
+// with peak phasors would be wrong by √2 without a word.
+func rmsOnly(c *calc.Context, fn string) error {
+	if c.Basis == calc.Peak {
+		return fmt.Errorf("%s works from RMS ratings and gives RMS values; the worksheet is set to basis peak: set basis rms for this work", fn)
+	}
+	return nil
+}
+
 // pctArg reads a per-cent figure written as a plain number of per cent
 // (4.5) or with the per-cent sign (4.5 %, which the language reads as
 // 0.045): both mean 4.5 per cent.
@@ -115,6 +125,9 @@ func readReals(fn string, args []calc.Arg, specs ...real1) error {
 // current or an output power as dim says.
 func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v float64) (LockedRotor, error)) func(*calc.Context, []calc.Arg) (calc.Result, error) {
 	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+		if err := rmsOnly(c, fn); err != nil {
+			return calc.Result{}, err
+		}
 		if dim == calc.DimPower && args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind != calc.KindActive && args[0].Q.Kind != calc.KindPlain {
 			return calc.Result{}, fmt.Errorf("%s: %s is the rated shaft output in W, kW, hp or hp_metric, not %s", fn, rating, args[0].Text)
 		}
@@ -133,6 +146,9 @@ func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v f
 
 func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "motorstart"
+	if err := rmsOnly(c, fn); err != nil {
+		return calc.Result{}, err
+	}
 	var st Start
 	err := readReals(fn, args, real1{&st.ILR, "Ilr", calc.DimCurrent}, real1{&st.PFLR, "pfLR", calc.Dimensionless}, real1{&st.V, "V", calc.DimVoltage})
 	if err != nil {
@@ -205,6 +221,9 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 
 func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "xfmrreg"
+	if err := rmsOnly(c, fn); err != nil {
+		return calc.Result{}, err
+	}
 	qs, words := split(args)
 	if len(qs) != 7 {
 		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, load, pf, lagging|leading[, single|three])", fn)
@@ -276,6 +295,9 @@ func callXfmrEff(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 
 func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "xfmrshare"
+	if err := rmsOnly(c, fn); err != nil {
+		return calc.Result{}, err
+	}
 	qs, words := split(args)
 	if len(qs) < 9 || len(qs) > 10 || len(words) != 1 {
 		return calc.Result{}, fmt.Errorf("%s takes (V2, SA, %%ZA, X/RA, SB, %%ZB, X/RB, Sload, pf, lagging|leading[, ΔV%%])", fn)

@@ -3,6 +3,7 @@ package site
 import (
 	"math"
 	"math/cmplx"
+	"math/rand/v2"
 	"testing"
 
 	"argand/calc"
@@ -281,6 +282,48 @@ func TestMotorStartFunc(t *testing.T) {
 	for k, args := range bad {
 		if _, err := f.Call(&calc.Context{Freq: 50}, args); err == nil {
 			t.Errorf("bad case %d: no error", k)
+		}
+	}
+}
+
+// Random inputs over wide ranges, valid and not: every result is finite
+// or an error, never a panic (checked by the steps' own guard too).
+func TestStartAndLoadingRandom(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 1))
+	pick := func(lo, hi float64) float64 { return lo * math.Pow(hi/lo, rng.Float64()) }
+	for k := 0; k < 5000; k++ {
+		z := func() complex128 { return complex(pick(1e-9, 10), pick(1e-9, 10)) }
+		st := Start{ILR: pick(1e-3, 1e6), PFLR: rng.Float64(), V: pick(1, 1e6), Zs: z(), Zt: z(), Zc: z(),
+			Method: StartMethod(rng.IntN(5)), Tap: rng.Float64() * 1.2, Limit: pick(1e-3, 1e7)}
+		if r, err := MotorStart(st); err == nil {
+			for _, x := range []float64{r.Dip, r.DipBus, r.DipSup, r.Approx, r.Torque} {
+				if math.IsNaN(x) || math.IsInf(x, 0) || x < -1e-9 || x > 100+1e-9 {
+					t.Fatalf("%+v: a dip or torque of %g", st, x)
+				}
+			}
+		}
+		np := Nameplate{S: pick(1, 1e9), V1: pick(1, 1e6), V2: pick(1, 1e6), PctZ: pick(0.01, 99), XR: pick(0.01, 100)}
+		if r, err := Regulation(np, pick(0.01, 10), rng.Float64(), rng.IntN(2) == 0); err == nil {
+			if math.IsNaN(r.Reg) || math.IsInf(r.Reg, 0) || r.Reg > 100 {
+				t.Fatalf("%+v: regulation %g", np, r.Reg)
+			}
+		}
+		p := Parallel{V2: pick(1, 1e6), A: Unit{pick(1, 1e9), pick(0.01, 99), pick(0.01, 100)}, B: Unit{pick(1, 1e9), pick(0.01, 99), pick(0.01, 100)},
+			Load: pick(1, 1e10), PF: rng.Float64(), DeltaV: rng.Float64()*10 - 5}
+		if r, err := ShareLoad(p); err == nil {
+			if math.IsNaN(r.PctA) || math.IsInf(r.PctA, 0) || math.IsNaN(r.PctB) {
+				t.Fatalf("%+v: loadings %g, %g", p, r.PctA, r.PctB)
+			}
+		}
+	}
+}
+
+func BenchmarkMotorStart(b *testing.B) {
+	st, _ := exampleStart()
+	st.Method, st.Limit = CurrentLimit, 900
+	for b.Loop() {
+		if _, err := MotorStart(st); err != nil {
+			b.Fatal(err)
 		}
 	}
 }
