@@ -87,7 +87,7 @@ func loadArg(fn string, a calc.Arg, sRated, iRated float64) (float64, error) {
 	case q.Dim.IsDimensionless():
 		return x, nil
 	case q.Dim == calc.DimPower && q.Kind == calc.KindActive:
-		return 0, fmt.Errorf("%s: the load %s is an active power; give the apparent power in VA (or the current), the power factor is a separate argument", fn, a.Text)
+		return 0, fmt.Errorf("%s: the load %s is in W; give it in VA, A or per unit (pf is separate)", fn, a.Text)
 	case q.Dim == calc.DimPower:
 		return x / sRated, nil
 	case q.Dim == calc.DimCurrent && iRated > 0:
@@ -190,8 +190,11 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		}
 		need := st.Method == AutoTransformer || st.Method == CurrentLimit
 		if need != (len(args) == 8) {
+			if st.Method == AutoTransformer {
+				return calc.Result{}, fmt.Errorf("%s: autotransformer needs the tap after it, such as 0.65 or 65 %%", fn)
+			}
 			if need {
-				return calc.Result{}, fmt.Errorf("%s: %s needs its value after it: the tap (0.65 or 65 %%) or the current limit in A", fn, w)
+				return calc.Result{}, fmt.Errorf("%s: limit needs the current limit after it, in A", fn)
 			}
 			return calc.Result{}, fmt.Errorf("%s: %s takes no value after it", fn, w)
 		}
