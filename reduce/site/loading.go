@@ -47,6 +47,23 @@ func pfAngle(pf float64, leading bool) (float64, error) {
 	return -math.Acos(pf), nil
 }
 
+// XRFromLoss returns a transformer's X/R from its load loss Pk at rated
+// current, as a test report gives it: u_r = 100·Pk/S, u_x = √(u_z² − u_r²),
+// X/R = u_x/u_r (common practice; the form of IEC 60909-0 for R_T).
+func XRFromLoss(s, pctZ, pk float64) (float64, error) {
+	if err := positive("rating", s); err != nil {
+		return 0, err
+	}
+	if err := positive("load loss", pk); err != nil {
+		return 0, err
+	}
+	ur := 100 * pk / s
+	if ur >= pctZ {
+		return 0, errf("a load loss of %s W is %s %% of the rating, not below the impedance voltage of %s %%: check the loss (W) and the rating (VA)", sig(pk), sig(ur), sig(pctZ))
+	}
+	return math.Sqrt((pctZ-ur)*(pctZ+ur)) / ur, nil
+}
+
 // RegResult is a transformer's secondary voltage under load.
 type RegResult struct {
 	Vload          calc.Quantity // secondary voltage phasor, the no-load voltage at 0° (line-to-line when three-phase)

@@ -335,3 +335,79 @@ func TestLoadingFuncs(t *testing.T) {
 		t.Error("lrmultiple under basis peak: no error")
 	}
 }
+
+// A transformer's impedance from its test-report figures (u_kr and the
+// load loss P_krT) against the published example network of IEC TR
+// 60909-4:2000, §3 and §6 (figures as transcribed in published-examples,
+// seen in an open-source test suite): the impedance there is multiplied by
+// the printed correction factor K_T, so Z/K_T is the nameplate impedance.
+// T1: 630 kVA, 20/0.41 kV, u_kr 4 %, P_krT 6.5 kW, K_T 0.974894,
+// Z_T1K = 2.684 + j10.054 mΩ (0.41 kV side). T2: 400 kVA, 4.6 kW,
+// K_T 0.975086, Z_T2K = 4.712 + j15.698 mΩ. Printed to 1 µΩ: the
+// resistances agree to half a unit of that. The reactances recompute to
+// 10.0530 and 15.6992 mΩ, 1.0 and 1.2 µΩ from the printed figures however
+// the steps are rounded (X = √(Z² − R²) before or after K_T), so they are
+// held to two units of the last printed digit.
+func TestXRFromLossPublished(t *testing.T) {
+	for _, c := range []struct {
+		name          string
+		s, pk, k, tol float64
+		want          complex128
+	}{
+		{"T1", 630e3, 6.5e3, 0.974894, 2e-6, complex(2.684e-3, 10.054e-3)},
+		{"T2", 400e3, 4.6e3, 0.975086, 2e-6, complex(4.712e-3, 15.698e-3)},
+	} {
+		xr, err := XRFromLoss(c.s, 4, c.pk)
+		if err != nil {
+			t.Fatal(err)
+		}
+		x, err := Transformer(Nameplate{S: c.s, V1: 20e3, V2: 410, PctZ: 4, XR: xr})
+		if err != nil {
+			t.Fatal(err)
+		}
+		got := x.Z2.V * complex(c.k, 0)
+		if math.Abs(real(got)-real(c.want)) > 0.5e-6 || math.Abs(imag(got)-imag(c.want)) > c.tol {
+			t.Errorf("%s: K_T·Z = %v Ω, printed %v Ω", c.name, got, c.want)
+		}
+	}
+	// T5 of §6: 31.5 MVA, 115/10.5 kV, u_kr 12 %, u_Rr 0.5 % (a load loss of
+	// 0.5 % of 31.5 MVA), K_T 0.974870, Z_T5K = 2.046454 + j49.072241 Ω on
+	// the 115 kV side, printed to 1 µΩ.
+	xr, err := XRFromLoss(31.5e6, 12, 0.005*31.5e6)
+	if err != nil {
+		t.Fatal(err)
+	}
+	x, err := Transformer(Nameplate{S: 31.5e6, V1: 115e3, V2: 10.5e3, PctZ: 12, XR: xr})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// K_T is printed to 6 decimals: its rounding (±5e-7) moves the product
+	// by up to |part|·5e-7/K_T, beside half a unit of the printed 1 µΩ.
+	got := x.Z1.V * complex(0.974870, 0)
+	tol := func(part float64) float64 { return math.Abs(part)*0.5e-6/0.974870 + 0.5e-6 }
+	if math.Abs(real(got)-2.046454) > tol(real(got)) || math.Abs(imag(got)-49.072241) > tol(imag(got)) {
+		t.Errorf("T5: K_T·Z = %v Ω, printed 2.046454 + j49.072241 Ω", got)
+	}
+	if _, err := XRFromLoss(630e3, 4, 30e3); err == nil {
+		t.Error("a load loss above the impedance voltage: no error")
+	}
+	// Through the worksheet function: X/R from the load loss gives the same
+	// regulation as the X/R itself.
+	reg := findFunc(t, "xfmrreg")
+	ctx := &calc.Context{Freq: 50, Sequence: 1}
+	va := calc.Arg{Q: calc.Quantity{V: 630e3, Dim: calc.DimPower, Kind: calc.KindApparent}, Text: "630 kVA"}
+	loss := calc.Arg{Q: calc.Quantity{V: 6.5e3, Dim: calc.DimPower, Kind: calc.KindActive}, Text: "6.5 kW"}
+	tail := []calc.Arg{n(1), n(0.8), w("lagging")}
+	a, err := reg.Call(ctx, append([]calc.Arg{va, q(20e3, calc.DimVoltage), q(410, calc.DimVoltage), n(4), loss}, tail...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	xr1, _ := XRFromLoss(630e3, 4, 6.5e3)
+	b, err := reg.Call(ctx, append([]calc.Arg{va, q(20e3, calc.DimVoltage), q(410, calc.DimVoltage), n(4), n(xr1)}, tail...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a.Value.V != b.Value.V {
+		t.Errorf("regulation from the load loss %v, from X/R %v", a.Value.V, b.Value.V)
+	}
+}

@@ -25,16 +25,16 @@ func loadingFuncs() []calc.Func {
 			Doc:     "voltage at the motor while a three-phase motor starts through source, transformer and cable (Ω per phase at the motor's voltage; Zs may be a fault level in VA); .dip .vbus .dipbus .vsupply .dipsupply .approx .approxbus .approxsupply .i .s .torque .zeq",
 			Formula: "I = (V/√3)/(Zs + Zt + Zc + m·Z_LR), m = 1, 3, 1/tap² or set by the limit; dip ≈ Σ|Z_up|/Σ|Z| (kVA method)",
 			Call:    callMotorStart},
-		{Name: "xfmrreg", Args: "(S, V1, V2, %Z, X/R, load, pf, lagging|leading[, single|three])", Min: 8, Max: 9,
+		{Name: "xfmrreg", Args: "(S, V1, V2, %Z, X/R or Pk, load, pf, lagging|leading[, single|three])", Min: 8, Max: 9,
 			Words:   []string{"lagging", "leading", "single", "three"},
-			Doc:     "regulation of a transformer at a load (per unit, %, A or VA) and power factor, primary at rated voltage; value in per cent of the no-load voltage; .v .i .approx .second",
+			Doc:     "regulation of a transformer at a load (per unit, %, A or VA) and power factor, primary at rated voltage; X/R, or the load loss Pk in W; value in per cent of the no-load voltage; .v .i .approx .second",
 			Formula: "E = V_load + Z2·I (exact);  ε ≈ n·(u_r·cos φ + u_x·sin φ) [+ n²·(u_x·cos φ − u_r·sin φ)²/200]",
 			Call:    callXfmrReg},
 		{Name: "xfmreff", Args: "(S, P0, Pk, load, pf)", Min: 5, Max: 5,
 			Doc:     "efficiency of a transformer at a load (per unit, % or VA) from no-load loss P0 and load loss Pk at rated current; .nmax .smax .etamax .pout .loss",
 			Formula: "η = n·S·PF/(n·S·PF + P0 + n²·Pk), n_max = √(P0/Pk)",
 			Call:    callXfmrEff},
-		{Name: "xfmrshare", Args: "(V2, SA, %ZA, X/RA, SB, %ZB, X/RB, Sload, pf, lagging|leading[, ΔV%])", Min: 10, Max: 11,
+		{Name: "xfmrshare", Args: "(V2, SA, %ZA, X/RA or PkA, SB, %ZB, X/RB or PkB, Sload, pf, lagging|leading[, ΔV%])", Min: 10, Max: 11,
 			Words:   []string{"lagging", "leading"},
 			Doc:     "load sharing of two three-phase transformers in parallel by their impedances, ΔV% = A's open-circuit voltage above B's; value S of A; .sb .pcta .pctb .approxa .approxb .ia .ib .il .ic .vbus",
 			Formula: "I_k = (E_k − V_bus)/Z_k, I_c = (E_A − E_B)/(Z_A + Z_B);  S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
@@ -69,6 +69,27 @@ func pctArg(fn, what string, a calc.Arg) (float64, error) {
 		x *= 100
 	}
 	return x, nil
+}
+
+// xrArg reads a transformer's X/R, or its load loss in W from which X/R
+// follows (XRFromLoss); the note says which.
+func xrArg(fn, what string, a calc.Arg, s, pctZ float64) (float64, string, error) {
+	if a.Word == "" && a.Q.Dim == calc.DimPower {
+		if a.Q.Kind != calc.KindActive && a.Q.Kind != calc.KindPlain {
+			return 0, "", fmt.Errorf("%s: %s is an X/R or a load loss in W, not %s", fn, what, a.Text)
+		}
+		pk, err := realArg(fn, what, a, calc.DimPower)
+		if err != nil {
+			return 0, "", err
+		}
+		xr, err := XRFromLoss(s, pctZ, pk)
+		if err != nil {
+			return 0, "", fmt.Errorf("%s: %v", fn, err)
+		}
+		return xr, "X/R = " + sig(xr) + " from the load loss " + a.Text + ": u_r = 100·Pk/S, u_x = √(u_z² − u_r²)", nil
+	}
+	xr, err := realArg(fn, what, a, calc.Dimensionless)
+	return xr, "", err
 }
 
 // loadArg reads a load as a fraction of the rating: a plain number (0.75
@@ -224,21 +245,26 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 
 func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "xfmrreg"
+	var note string
 	if err := rmsOnly(c, fn); err != nil {
 		return calc.Result{}, err
 	}
 	qs, words := split(args)
 	if len(qs) != 7 {
-		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R, load, pf, lagging|leading[, single|three])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R or Pk, load, pf, lagging|leading[, single|three])", fn)
 	}
 	if has(words, "lagging") == has(words, "leading") {
 		return calc.Result{}, fmt.Errorf("%s: give one of lagging or leading", fn)
 	}
-	n, err := nameplateArgs(fn, qs[:5], words)
+	n, err := nameplateArgs(fn, qs[:4], words)
 	if err != nil {
 		return calc.Result{}, err
 	}
 	if n.PctZ, err = pctArg(fn, "%Z", qs[3]); err != nil {
+		return calc.Result{}, err
+	}
+	n.XR, note, err = xrArg(fn, "X/R", qs[4], n.S, n.PctZ)
+	if err != nil {
 		return calc.Result{}, err
 	}
 	k := math.Sqrt(3)
@@ -256,6 +282,9 @@ func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	r, err := Regulation(n, load, pf, has(words, "leading"))
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
+	}
+	if note != "" {
+		r.Steps[0].Notes = append([]string{note}, r.Steps[0].Notes...)
 	}
 	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
 		op("v", r.Vload), op("i", r.I), op("approx", num(r.Approx)), op("second", num(r.Second))}}, nil
@@ -303,10 +332,11 @@ func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	qs, words := split(args)
 	if len(qs) < 9 || len(qs) > 10 || len(words) != 1 {
-		return calc.Result{}, fmt.Errorf("%s takes (V2, SA, %%ZA, X/RA, SB, %%ZB, X/RB, Sload, pf, lagging|leading[, ΔV%%])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (V2, SA, %%ZA, X/RA or PkA, SB, %%ZB, X/RB or PkB, Sload, pf, lagging|leading[, ΔV%%])", fn)
 	}
 	var p Parallel
 	var err error
+	var notes []string
 	if p.V2, err = realArg(fn, "V2", qs[0], calc.DimVoltage); err != nil {
 		return calc.Result{}, err
 	}
@@ -319,8 +349,12 @@ func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		if u.PctZ, err = pctArg(fn, "%Z"+name, b[1]); err != nil {
 			return calc.Result{}, err
 		}
-		if u.XR, err = realArg(fn, "X/R"+name, b[2], calc.Dimensionless); err != nil {
+		var note string
+		if u.XR, note, err = xrArg(fn, "X/R"+name, b[2], u.S, u.PctZ); err != nil {
 			return calc.Result{}, err
+		}
+		if note != "" {
+			notes = append(notes, name+": "+note)
 		}
 	}
 	if qs[7].Q.Dim == calc.DimPower && qs[7].Q.Kind == calc.KindActive {
@@ -345,6 +379,7 @@ func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
+	r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
 	return calc.Result{Value: r.SA, Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
 		op("sb", r.SB), op("pcta", num(r.PctA)), op("pctb", num(r.PctB)), op("approxa", num(r.ApproxA)), op("approxb", num(r.ApproxB)),
 		op("ia", r.IA), op("ib", r.IB), op("il", r.IL), op("ic", r.Ic), op("vbus", r.Vbus)}}, nil
