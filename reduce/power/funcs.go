@@ -75,8 +75,8 @@ func funcs() []calc.Func {
 			Call:    callLoadVA,
 		},
 		{
-			Name: "motor", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Else: "a motor is rated by its output power in W or hp"}, {Name: "eff", Kind: calc.ParamRatio}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "VLL", Kind: calc.ParamVoltage, Doc: "line-to-line voltage for three-phase"}}, Args: "(Pout, eff, pf, single|three, VLL)", Min: 5, Max: 5, Words: []string{"single", "three"},
-			Doc:     "complex power and line current a machine draws from its nameplate (output in W or hp, lagging PF; VLL the line-to-line voltage for three-phase); .p .q .s .pf .i .pin",
+			Name: "motor", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Else: "a motor is rated by its output power in W, hp or hp_metric"}, {Name: "eff", Kind: calc.ParamRatio}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three"}, {Name: "VLL", Kind: calc.ParamVoltage, Doc: "line-to-line voltage for three-phase"}}, Args: "(Pout, eff, pf, single|three, VLL)", Min: 5, Max: 5, Words: []string{"single", "three"},
+			Doc:     "complex power and line current a machine draws from its nameplate (output in W, hp or hp_metric, lagging PF; VLL the line-to-line voltage for three-phase); .p .q .s .pf .i .pin",
 			Formula: "P_in = P_out/η; |S| = P_in/PF; I = |S|/V or |S|/(√3·V_L)",
 			Call:    callMotor,
 		},

@@ -286,6 +286,9 @@ func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if note != "" {
 		r.Steps[0].Notes = append([]string{note}, r.Steps[0].Notes...)
 	}
+	if qs[5].Q.Dim == calc.DimPower {
+		r.Steps[1].Notes = append([]string{"the load in VA is taken at rated voltage: n = |S|/S_rated"}, r.Steps[1].Notes...)
+	}
 	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
 		op("v", r.Vload), op("i", r.I), op("approx", num(r.Approx)), op("second", num(r.Second))}}, nil
 }
