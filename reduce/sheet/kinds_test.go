@@ -25,6 +25,10 @@ func TestFieldMeanings(t *testing.T) {
 		"frompf(820 W, 0.85, 230 V, lagging)",
 		"wye(230 V, 10 Ω, 20 Ω, 10+j10 Ω, neutral)",
 		"delta(400 V, 10 Ω, 20 Ω, 10+j10 Ω)",
+		"lrmultiple(150 A, 7, 400 V)",
+		"lrkva(75 kW, 6 kVA/kW, 400 V)",
+		"motorstart(1 kA, 0.3, 400 V, 150 MVA, 1.3+j7.9 mΩ, 8+j6.4 mΩ)",
+		"xfmrshare(400 V, 1 MVA, 5, 6, 630 kVA, 4.5, 4, 1.4 MVA, 0.85, lagging, 0.5)",
 	}
 	want := map[string]string{"s": "complex-power", "sa": "apparent-power", "p": "active-power", "q": "reactive-power"}
 	for _, c := range calls {

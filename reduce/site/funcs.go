@@ -108,6 +108,12 @@ func Funcs() []calc.Func {
 		"zxfmr":        "the transformer's rating",
 		"ik3":          "the nominal voltage and the short-circuit currents",
 		"zsloop":       "the nominal voltage to earth and the fault current",
+		"lrmultiple":   "the rated current and voltage",
+		"lrkva":        "the rated output and voltage",
+		"motorstart":   "the locked-rotor current and the rated voltage",
+		"xfmrreg":      "the nameplate S, V1, V2 and the load",
+		"xfmreff":      "the rating, the losses and the load",
+		"xfmrshare":    "the ratings, V2 and the load",
 	}
 	fs = append(fs, shortFuncs()...)
 	for i := range fs {
@@ -512,7 +518,7 @@ func nameplateArgs(fn string, qs []calc.Arg, words []string) (Nameplate, error) 
 	if n.V2, err = realArg(fn, "V2", qs[2], calc.DimVoltage); err != nil {
 		return n, err
 	}
-	if n.PctZ, err = realArg(fn, "%Z", qs[3], calc.Dimensionless); err != nil {
+	if n.PctZ, err = pctArg(fn, "%Z", qs[3]); err != nil {
 		return n, err
 	}
 	if len(qs) > 4 {

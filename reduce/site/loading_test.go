@@ -3,6 +3,7 @@ package site
 import (
 	"math"
 	"math/cmplx"
+	"strings"
 	"testing"
 
 	"argand/calc"
@@ -103,7 +104,7 @@ func TestEfficiency(t *testing.T) {
 	if math.Abs(bestN-r.NMax) > 2e-5 || !near(r.EtaMax, best, 1e-9) {
 		t.Errorf("n_max = %g, η_max = %.12g; scan %g, %.12g", r.NMax, r.EtaMax, bestN, best)
 	}
-	if !near(real(r.SMax.V), r.NMax*s, 1e-15) || r.SMax.Kind != calc.KindApparent || r.Losses.Kind != calc.KindActive {
+	if !near(real(r.SMax.V), r.NMax*s, 1e-15) || r.SMax.Kind != calc.KindMagnitude || r.Losses.Kind != calc.KindActive {
 		t.Errorf("S at n_max %v (kind %v), losses kind %v", r.SMax.V, r.SMax.Kind, r.Losses.Kind)
 	}
 	for _, bad := range [][5]float64{{0, p0, pk, 1, pf}, {s, -1, pk, 1, pf}, {s, p0, 0, 1, pf}, {s, p0, pk, 0, pf},
@@ -327,12 +328,12 @@ func TestLoadingFuncs(t *testing.T) {
 	if err != nil || !nearC(r.Value.V, cmplx.Rect(230, math.Pi/6), 1e-15) {
 		t.Errorf("vgroup in an ACB worksheet: %v, %v; want 230 V ∠+30°", r.Value.V, err)
 	}
+	// Under basis peak the ratings are RMS by definition and so are the
+	// results: the same values, with a note that says so.
 	peak := &calc.Context{Freq: 50, Sequence: 1, Basis: calc.Peak}
-	if _, err := share.Call(peak, args); err == nil {
-		t.Error("xfmrshare under basis peak: no error")
-	}
-	if _, err := findFunc(t, "lrmultiple").Call(peak, []calc.Arg{q(100, calc.DimCurrent), n(7), q(400, calc.DimVoltage)}); err == nil {
-		t.Error("lrmultiple under basis peak: no error")
+	pr, err := share.Call(peak, args)
+	if err != nil || pr.Value.V != direct.SA.V || !strings.Contains(strings.Join(pr.Notes, " "), "RMS by definition") {
+		t.Errorf("xfmrshare under basis peak: %v, %v, notes %q", pr.Value.V, err, pr.Notes)
 	}
 }
 
@@ -409,5 +410,24 @@ func TestXRFromLossPublished(t *testing.T) {
 	}
 	if a.Value.V != b.Value.V {
 		t.Errorf("regulation from the load loss %v, from X/R %v", a.Value.V, b.Value.V)
+	}
+}
+
+// A %Z written with the per-cent sign (4.5 %, read by the language as
+// 0.045) means 4.5 per cent in every transformer function, not 0.045 %.
+func TestPercentSignOnImpedance(t *testing.T) {
+	ctx := &calc.Context{Freq: 50, Sequence: 1}
+	va := calc.Arg{Q: calc.Quantity{V: 500e3, Dim: calc.DimPower, Kind: calc.KindMagnitude}, Text: "500 kVA"}
+	f := findFunc(t, "xfmr")
+	a, err := f.Call(ctx, []calc.Arg{va, q(11e3, calc.DimVoltage), q(400, calc.DimVoltage), {Q: calc.Number(0.045), Text: "4.5 %"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := f.Call(ctx, []calc.Arg{va, q(11e3, calc.DimVoltage), q(400, calc.DimVoltage), {Q: calc.Number(4.5), Text: "4.5"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a.Value.V != b.Value.V {
+		t.Errorf("xfmr with 4.5 %%: %v; with 4.5: %v", a.Value.V, b.Value.V)
 	}
 }

@@ -14,7 +14,7 @@ const MotorCaution = "Motor starting: the permitted voltage dip, the starter and
 
 // magq returns a magnitude: a real, non-negative value whose angle means
 // nothing (a current read on a meter, a voltage on a rating plate).
-func magq(x float64, d calc.Dim) calc.Quantity { return calc.Real(x, d) }
+func magq(x float64, d calc.Dim) calc.Quantity { return kq(x, d, calc.KindMagnitude) }
 
 // LockedRotor is a motor's locked-rotor (starting) current at rated
 // voltage, three-phase.

@@ -12,49 +12,39 @@ import (
 // transformers under load.
 func loadingFuncs() []calc.Func {
 	return []calc.Func{
-		{Name: "lrmultiple", Args: "(Ir, k, V)", Min: 3, Max: 3,
-			Doc:     "locked-rotor current of a three-phase motor as k times its rated current Ir at rated line voltage V; .s (starting |S|)",
+		{Name: "lrmultiple", Params: []calc.Param{{Name: "Ir", Kind: calc.ParamCurrent, Doc: "rated current"}, {Name: "k", Kind: calc.ParamRatio, Doc: "I_LR/I_r"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "rated line voltage"}}, Args: "(Ir, k, V)", Min: 3, Max: 3,
+			Doc:     "locked-rotor current of a three-phase motor as k times its rated current Ir at rated line voltage V; .sa (starting |S|)",
 			Formula: "I_LR = k·I_r, |S_LR| = √3·V·I_LR",
 			Call:    lrCall("lrmultiple", "Ir", calc.DimCurrent, "k", LockedRotorFromMultiple)},
-		{Name: "lrkva", Args: "(Pout, r, V)", Min: 3, Max: 3,
-			Doc:     "locked-rotor current from the maker's starting apparent power per unit of rated output r (6 kVA/kW, 5 kVA/hp, 5 kVA/hp_metric); .s",
+		{Name: "lrkva", Params: []calc.Param{{Name: "Pout", Kind: calc.ParamActivePower, Doc: "rated shaft output", Else: "the rated output is in W, kW, hp or hp_metric"}, {Name: "r", Kind: calc.ParamRatio, Doc: "locked-rotor VA per W, as 6 kVA/kW or 5 kVA/hp"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "rated line voltage"}}, Args: "(Pout, r, V)", Min: 3, Max: 3,
+			Doc:     "locked-rotor current from the maker's starting apparent power per unit of rated output r (6 kVA/kW, 5 kVA/hp, 5 kVA/hp_metric); .sa",
 			Formula: "|S_LR| = r·P_out, I_LR = |S_LR|/(√3·V)",
 			Call:    lrCall("lrkva", "Pout", calc.DimPower, "r", LockedRotorFromKVA)},
-		{Name: "motorstart", Args: "(Ilr, pfLR, V, Zs, Zt, Zc[, direct|stardelta|autotransformer|limit[, tap or Ilim]])", Min: 6, Max: 8,
+		{Name: "motorstart", Params: []calc.Param{{Name: "Ilr", Kind: calc.ParamCurrent, Doc: "locked-rotor current at rated voltage"}, {Name: "pfLR", Kind: calc.ParamRatio, Doc: "locked-rotor power factor"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "rated line voltage"}, {Name: "Zs", Kind: calc.ParamPowerOrImpedance, Doc: "source: Ω per phase at V, or a fault level in VA"}, {Name: "Zt", Kind: calc.ParamImpedance, Doc: "transformer, Ω per phase at V"}, {Name: "Zc", Kind: calc.ParamImpedance, Doc: "cable, Ω per phase"}, {Name: "method", Kind: calc.ParamWord, Doc: "direct|stardelta|autotransformer|limit", Optional: true}, {Name: "setting", Kind: calc.ParamAny, Doc: "the tap (0.65 or 65 %) or the current limit in A", Optional: true}}, Args: "(Ilr, pfLR, V, Zs, Zt, Zc[, direct|stardelta|autotransformer|limit[, tap or Ilim]])", Min: 6, Max: 8,
 			Words:   []string{"direct", "stardelta", "autotransformer", "limit"},
-			Doc:     "voltage at the motor while a three-phase motor starts through source, transformer and cable (Ω per phase at the motor's voltage; Zs may be a fault level in VA); .dip .vbus .dipbus .vsupply .dipsupply .approx .approxbus .approxsupply .i .s .torque .zeq",
+			Doc:     "voltage at the motor while a three-phase motor starts through source, transformer and cable (Ω per phase at the motor's voltage; Zs may be a fault level in VA); .dip .vbus .dipbus .vsupply .dipsupply .approx .approxbus .approxsupply (dips in per cent) .i .sa .torque .zeq",
 			Formula: "I = (V/√3)/(Zs + Zt + Zc + m·Z_LR), m = 1, 3, 1/tap² or set by the limit; dip ≈ Σ|Z_up|/Σ|Z| (kVA method)",
 			Call:    callMotorStart},
-		{Name: "xfmrreg", Args: "(S, V1, V2, %Z, X/R or Pk, load, pf, lagging|leading[, single|three])", Min: 8, Max: 9,
+		{Name: "xfmrreg", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "V1", Kind: calc.ParamVoltage}, {Name: "V2", Kind: calc.ParamVoltage}, {Name: "z", Kind: calc.ParamRatio, Doc: "%Z"}, {Name: "xr", Kind: calc.ParamAny, Doc: "X/R, or the load loss Pk in W"}, {Name: "load", Kind: calc.ParamAny, Doc: "per unit (0.8 or 80 %), in A or in VA"}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}, {Name: "phases", Kind: calc.ParamWord, Doc: "single|three", Optional: true}}, Args: "(S, V1, V2, %Z, X/R or Pk, load, pf, lagging|leading[, single|three])", Min: 8, Max: 9,
 			Words:   []string{"lagging", "leading", "single", "three"},
 			Doc:     "regulation of a transformer at a load (per unit, %, A or VA) and power factor, primary at rated voltage; X/R, or the load loss Pk in W; value in per cent of the no-load voltage; .v .i .approx .second",
 			Formula: "E = V_load + Z2·I (exact);  ε ≈ n·(u_r·cos φ + u_x·sin φ) [+ n²·(u_x·cos φ − u_r·sin φ)²/200]",
 			Call:    callXfmrReg},
-		{Name: "xfmreff", Args: "(S, P0, Pk, load, pf)", Min: 5, Max: 5,
+		{Name: "xfmreff", Params: []calc.Param{{Name: "S", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "P0", Kind: calc.ParamActivePower, Doc: "no-load loss", Else: "a loss is an active power in W"}, {Name: "Pk", Kind: calc.ParamActivePower, Doc: "load loss at rated current", Else: "a loss is an active power in W"}, {Name: "load", Kind: calc.ParamAny, Doc: "per unit (0.8 or 80 %) or in VA"}, {Name: "pf", Kind: calc.ParamRatio}}, Args: "(S, P0, Pk, load, pf)", Min: 5, Max: 5,
 			Doc:     "efficiency of a transformer at a load (per unit, % or VA) from no-load loss P0 and load loss Pk at rated current; .nmax .smax .etamax .pout .loss",
 			Formula: "η = n·S·PF/(n·S·PF + P0 + n²·Pk), n_max = √(P0/Pk)",
 			Call:    callXfmrEff},
-		{Name: "xfmrshare", Args: "(V2, SA, %ZA, X/RA or PkA, SB, %ZB, X/RB or PkB, Sload, pf, lagging|leading[, ΔV%])", Min: 10, Max: 11,
+		{Name: "xfmrshare", Params: []calc.Param{{Name: "V2", Kind: calc.ParamVoltage}, {Name: "SA", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "zA", Kind: calc.ParamRatio, Doc: "%Z of A"}, {Name: "xrA", Kind: calc.ParamAny, Doc: "X/R of A, or its load loss in W"}, {Name: "SB", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"}, {Name: "zB", Kind: calc.ParamRatio, Doc: "%Z of B"}, {Name: "xrB", Kind: calc.ParamAny, Doc: "X/R of B, or its load loss in W"}, {Name: "Sload", Kind: calc.ParamSPower, Doc: "the load at rated voltage", Else: "give the load as an apparent power in VA and its pf apart"}, {Name: "pf", Kind: calc.ParamRatio}, {Name: "sense", Kind: calc.ParamWord, Doc: "lagging|leading"}, {Name: "dv", Kind: calc.ParamRatio, Doc: "ΔV%: A's open-circuit voltage above B's", Optional: true}}, Args: "(V2, SA, %ZA, X/RA or PkA, SB, %ZB, X/RB or PkB, Sload, pf, lagging|leading[, ΔV%])", Min: 10, Max: 11,
 			Words:   []string{"lagging", "leading"},
 			Doc:     "load sharing of two three-phase transformers in parallel by their impedances, ΔV% = A's open-circuit voltage above B's; value S of A; .sb .pcta .pctb .approxa .approxb .ia .ib .il .ic .vbus",
 			Formula: "I_k = (E_k − V_bus)/Z_k, I_c = (E_A − E_B)/(Z_A + Z_B);  S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
 			Call:    callXfmrShare},
-		{Name: "vgroup", Args: "(x, clock, tolv|tohv[, V_HV/V_LV][, negative])", Min: 3, Max: 5,
+		{Name: "vgroup", Params: []calc.Param{{Name: "x", Kind: calc.ParamVoltageOrCurrent}, {Name: "clock", Kind: calc.ParamRatio, Doc: "clock number 0 to 11"}, {Name: "dir", Kind: calc.ParamWord, Doc: "tolv|tohv"}, {Name: "ratio", Kind: calc.ParamRatio, Doc: "V_HV/V_LV", Optional: true}, {Name: "seq", Kind: calc.ParamWord, Doc: "negative", Optional: true}}, Args: "(x, clock, tolv|tohv[, V_HV/V_LV][, negative])", Min: 3, Max: 5,
 			Words:   []string{"tolv", "tohv", "negative"},
 			Doc:     "a voltage or current phasor referred across a transformer of vector-group clock number (Dyn11: 11); the LV phasor lags the HV one by clock·30° (IEC 60076-1); .turn",
 			Formula: "x' = x·∠(−clock·30°) HV to LV, ∠(+clock·30°) LV to HV; opposite for the negative sequence",
 			Call:    callVGroup},
 	}
-}
-
-// rmsOnly refuses a peak-basis worksheet: these functions start from
-// ratings, which are RMS by definition, and give RMS phasors; mixing them
-// with peak phasors would be wrong by √2 without a word.
-func rmsOnly(c *calc.Context, fn string) error {
-	if c.Basis == calc.Peak {
-		return fmt.Errorf("%s works from RMS ratings and gives RMS values; the worksheet is set to basis peak: set basis rms for this work", fn)
-	}
-	return nil
 }
 
 // pctArg reads a per-cent figure written as a plain number of per cent
@@ -146,9 +136,6 @@ func readReals(fn string, args []calc.Arg, specs ...real1) error {
 // current or an output power as dim says.
 func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v float64) (LockedRotor, error)) func(*calc.Context, []calc.Arg) (calc.Result, error) {
 	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
-		if err := rmsOnly(c, fn); err != nil {
-			return calc.Result{}, err
-		}
 		if dim == calc.DimPower && args[0].Word == "" && args[0].Q.Dim == calc.DimPower && args[0].Q.Kind != calc.KindActive && args[0].Q.Kind != calc.KindPlain {
 			return calc.Result{}, fmt.Errorf("%s: %s is the rated shaft output in W, kW, hp or hp_metric, not %s", fn, rating, args[0].Text)
 		}
@@ -161,15 +148,12 @@ func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v f
 			return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 		}
 		return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
-			Extra: []calc.Operand{op("s", r.S)}}, nil
+			Extra: []calc.Operand{op("sa", r.S)}}, nil
 	}
 }
 
 func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "motorstart"
-	if err := rmsOnly(c, fn); err != nil {
-		return calc.Result{}, err
-	}
 	var st Start
 	err := readReals(fn, args, real1{&st.ILR, "Ilr", calc.DimCurrent}, real1{&st.PFLR, "pfLR", calc.Dimensionless}, real1{&st.V, "V", calc.DimVoltage})
 	if err != nil {
@@ -240,15 +224,12 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	return calc.Result{Value: r.Vmotor, Steps: r.Steps, Notes: []string{MotorCaution}, Extra: []calc.Operand{
 		op("dip", num(r.Dip)), op("vbus", r.Vbus), op("dipbus", num(r.DipBus)), op("vsupply", r.Vsupply), op("dipsupply", num(r.DipSup)),
 		op("approx", num(r.Approx)), op("approxbus", num(r.ApproxBus)), op("approxsupply", num(r.ApproxSup)),
-		op("i", r.I), op("s", r.S), op("torque", num(r.Torque)), op("zeq", r.Zeq)}}, nil
+		op("i", r.I), op("sa", r.S), op("torque", num(r.Torque)), op("zeq", r.Zeq)}}, nil
 }
 
 func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "xfmrreg"
 	var note string
-	if err := rmsOnly(c, fn); err != nil {
-		return calc.Result{}, err
-	}
 	qs, words := split(args)
 	if len(qs) != 7 {
 		return calc.Result{}, fmt.Errorf("%s takes (S, V1, V2, %%Z, X/R or Pk, load, pf, lagging|leading[, single|three])", fn)
@@ -330,9 +311,6 @@ func callXfmrEff(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 
 func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "xfmrshare"
-	if err := rmsOnly(c, fn); err != nil {
-		return calc.Result{}, err
-	}
 	qs, words := split(args)
 	if len(qs) < 9 || len(qs) > 10 || len(words) != 1 {
 		return calc.Result{}, fmt.Errorf("%s takes (V2, SA, %%ZA, X/RA or PkA, SB, %%ZB, X/RB or PkB, Sload, pf, lagging|leading[, ΔV%%])", fn)
