@@ -59,7 +59,9 @@ func XRFromLoss(s, pctZ, pk float64) (float64, error) {
 	}
 	ur := 100 * pk / s
 	if ur >= pctZ {
-		return 0, errf("a load loss of %s W is %s %% of the rating, not below the impedance voltage of %s %%: check the loss (W) and the rating (VA)", sig(pk), sig(ur), sig(pctZ))
+		var f calc.Format
+		return 0, errf("a load loss of %s is %s %% of the rating %s, not below the impedance voltage of %s %%: check the loss (W) and the rating (VA)",
+			f.Mag(pk, calc.DimPower, calc.KindActive), sig(ur), f.Mag(s, calc.DimPower, calc.KindMagnitude), sig(pctZ))
 	}
 	return math.Sqrt((pctZ-ur)*(pctZ+ur)) / ur, nil
 }
@@ -178,7 +180,9 @@ func Efficiency(s, p0, pk, load, pf float64) (EffResult, error) {
 		return EffResult{}, err
 	}
 	if p0+pk >= s {
-		return EffResult{}, errf("losses of %s W at a rating of %s VA: check that the rating is in VA and the losses in W", sig(p0+pk), sig(s))
+		var f calc.Format
+		return EffResult{}, errf("losses of %s at a rating of %s: check that the rating is in VA and the losses in W",
+			f.Mag(p0+pk, calc.DimPower, calc.KindActive), f.Mag(s, calc.DimPower, calc.KindMagnitude))
 	}
 	if err := positive("load (per unit of rating)", load); err != nil {
 		return EffResult{}, err
@@ -390,7 +394,7 @@ func VectorShift(x calc.Quantity, clock int, toLV, negative bool, seq int, ratio
 		return calc.Quantity{}, calc.Step{}, errf("clock number %d is not one of 0 to 11", clock)
 	}
 	if x.Dim != calc.DimVoltage && x.Dim != calc.DimCurrent {
-		return calc.Quantity{}, calc.Step{}, errf("a vector group turns a voltage or a current phasor, not %s (an impedance or a power keeps its angle: use refer)", calc.DimName(x.Dim, false))
+		return calc.Quantity{}, calc.Step{}, errf("a vector group turns a voltage or a current phasor, not %s (an impedance or a power keeps its angle: use refer)", calc.QuantityWord(x))
 	}
 	if err := finiteC("value", x.V); err != nil {
 		return calc.Quantity{}, calc.Step{}, err

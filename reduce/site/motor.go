@@ -211,7 +211,9 @@ func MotorStart(st Start) (StartResult, error) {
 		disc := b*b - zs2 + k*k
 		r := -b + math.Sqrt(math.Max(disc, 0))
 		if disc < 0 || r <= 0 {
-			return StartResult{}, errf("a current limit of %s A is more than the supply can deliver into a short circuit at the motor (%s A)", sig(st.Limit), sig(e/cmplx.Abs(zsys)))
+			var f calc.Format
+			return StartResult{}, errf("a current limit of %s is more than the supply can deliver into a short circuit at the motor (%s)",
+				f.Mag(st.Limit, calc.DimCurrent, calc.KindMagnitude), f.Mag(e/cmplx.Abs(zsys), calc.DimCurrent, calc.KindMagnitude))
 		}
 		m = r / cmplx.Abs(zlr)
 		if m < 1 {

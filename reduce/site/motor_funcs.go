@@ -39,8 +39,8 @@ func loadingFuncs() []calc.Func {
 			Doc:     "load sharing of two three-phase transformers in parallel by their impedances, ΔV% = A's open-circuit voltage above B's; value S of A; .sb .pcta .pctb .approxa .approxb .ia .ib .il .ic .vbus",
 			Formula: "I_k = (E_k − V_bus)/Z_k, I_c = (E_A − E_B)/(Z_A + Z_B);  S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
 			Call:    callXfmrShare},
-		{Name: "vgroup", Params: []calc.Param{{Name: "x", Kind: calc.ParamVoltageOrCurrent}, {Name: "clock", Kind: calc.ParamRatio, Doc: "clock number 0 to 11"}, {Name: "dir", Kind: calc.ParamWord, Doc: "tolv|tohv"}, {Name: "ratio", Kind: calc.ParamRatio, Doc: "V_HV/V_LV", Optional: true}, {Name: "seq", Kind: calc.ParamWord, Doc: "negative", Optional: true}}, Args: "(x, clock, tolv|tohv[, V_HV/V_LV][, negative])", Min: 3, Max: 5,
-			Words:   []string{"tolv", "tohv", "negative"},
+		{Name: "vgroup", Params: []calc.Param{{Name: "x", Kind: calc.ParamVoltageOrCurrent}, {Name: "clock", Kind: calc.ParamRatio, Doc: "clock number 0 to 11"}, {Name: "dir", Kind: calc.ParamWord, Doc: "tolv|tohv"}, {Name: "ratio", Kind: calc.ParamRatio, Doc: "V_HV/V_LV", Optional: true}, {Name: "seq", Kind: calc.ParamWord, Doc: "positive|negative sequence", Optional: true}}, Args: "(x, clock, tolv|tohv[, V_HV/V_LV][, positive|negative])", Min: 3, Max: 5,
+			Words:   []string{"tolv", "tohv", "positive", "negative"},
 			Doc:     "a voltage or current phasor referred across a transformer of vector-group clock number (Dyn11: 11); the LV phasor lags the HV one by clock·30° (IEC 60076-1); .turn",
 			Formula: "x' = x·∠(−clock·30°) HV to LV, ∠(+clock·30°) LV to HV; opposite for the negative sequence",
 			Call:    callVGroup},
@@ -108,7 +108,7 @@ func loadArg(fn string, a calc.Arg, sRated, iRated float64) (float64, error) {
 	if iRated > 0 {
 		want = "a per-unit load (0.75 or 75 %), an apparent power in VA or a current in A"
 	}
-	return 0, fmt.Errorf("%s: the load %s must be %s, not %s", fn, a.Text, want, calc.DimName(q.Dim, false))
+	return 0, fmt.Errorf("%s: the load %s must be %s, not %s", fn, a.Text, want, calc.QuantityWord(q))
 }
 
 // real1 names one real argument for readReals: where its value goes,
@@ -177,7 +177,7 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 			if k == 0 {
 				want += " or a fault level in VA"
 			}
-			return calc.Result{}, fmt.Errorf("%s: %s must be %s, got %s", fn, argName(a, what), want, calc.DimName(a.Q.Dim, false))
+			return calc.Result{}, fmt.Errorf("%s: %s must be %s, got %s", fn, argName(a, what), want, calc.QuantityWord(a.Q))
 		}
 	}
 	if len(args) > 6 {
@@ -370,13 +370,13 @@ func callVGroup(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	const fn = "vgroup"
 	qs, words := split(args)
 	if len(qs) < 2 || len(qs) > 3 {
-		return calc.Result{}, fmt.Errorf("%s takes (x, clock, tolv|tohv[, V_HV/V_LV][, negative])", fn)
+		return calc.Result{}, fmt.Errorf("%s takes (x, clock, tolv|tohv[, V_HV/V_LV][, positive|negative])", fn)
 	}
 	if has(words, "tolv") == has(words, "tohv") {
 		return calc.Result{}, fmt.Errorf("%s: give one of tolv or tohv", fn)
 	}
 	if qs[0].Q.Dim != calc.DimVoltage && qs[0].Q.Dim != calc.DimCurrent {
-		return calc.Result{}, fmt.Errorf("%s: %s must be a voltage or a current phasor, got %s", fn, argName(qs[0], "x"), calc.DimName(qs[0].Q.Dim, false))
+		return calc.Result{}, fmt.Errorf("%s: %s must be a voltage or a current phasor, got %s", fn, argName(qs[0], "x"), calc.QuantityWord(qs[0].Q))
 	}
 	h, err := realArg(fn, "clock", qs[1], calc.Dimensionless)
 	if err != nil {
