@@ -20,7 +20,18 @@ type Lit struct {
 	kind    Kind
 	hasUnit bool
 	distrib bool // unit given by the imaginary part of a rectangular literal
+	// bare marks a number scaled by a prefix alone (4.7k): a plain number
+	// that takes Ω when combined with an impedance.
+	bare bool
+	// Note says how the number was read when not exactly as written;
+	// since is the language version that introduced that reading.
+	Note  string
+	since int
 }
+
+// Since returns the language version that introduced the reading of the
+// literal, 0 when it reads as every version reads it.
+func (l *Lit) Since() int { return l.since }
 
 // Name is a reference to a named quantity or constant.
 type Name struct {

@@ -25,6 +25,9 @@ type Evaluator struct {
 	// Steps collects the steps of function calls met on the way.
 	Steps []Step
 	Notes []string
+	// Since is the newest language version whose reading the evaluation
+	// used (a part value turned into its impedance), 0 if none.
+	Since int
 }
 
 // Eval evaluates e. A call at the root returns the function's whole result,
@@ -140,6 +143,9 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 	switch n := e.(type) {
 	case *Lit:
 		v := n.Val
+		if n.Note != "" {
+			ev.note(n.Note)
+		}
 		if n.hasUnit {
 			v *= complex(n.scale, 0)
 			q, err := Quantity{V: v, Dim: n.dim, Kind: literalKind(n, v)}.Check("number")
@@ -164,6 +170,9 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		if _, ok := ev.Env.Func(n.Name); ok || builtin(n.Name) != nil {
 			return Quantity{}, ev.errAt(n, fmt.Errorf("%s is a function: write %s(…)", n.Name, n.Name))
 		}
+		if IsUnit(n.Name) {
+			return Quantity{}, ev.errAt(n, fmt.Errorf("unknown name %q (as a unit it follows a number: 1 %s)", n.Name, n.Name))
+		}
 		return Quantity{}, ev.errAt(n, fmt.Errorf("unknown name %q", n.Name))
 	case *Unary:
 		x, err := ev.eval(n.X)
@@ -182,6 +191,11 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		y, err := ev.eval(n.Y)
 		if err != nil {
 			return Quantity{}, err
+		}
+		if n.Op == "+" || n.Op == "-" || n.Op == "||" {
+			if x, y, err = ev.asImpedances(n, x, y); err != nil {
+				return Quantity{}, err
+			}
 		}
 		var r Quantity
 		var e2 error
@@ -292,6 +306,75 @@ func literalKind(n *Lit, v complex128) Kind {
 		return KindMagnitude
 	}
 	return k
+}
+
+// asImpedances brings the operands of + − || to impedances where one of
+// them is an impedance: a number scaled by a prefix alone (10k) takes Ω,
+// and an inductance or capacitance becomes its impedance at the working
+// frequency (X_L = ωL, X_C = −1/(ωC), common practice). Each reading is
+// said in a note. Two inductances or two capacitances add as they are.
+func (ev *Evaluator) asImpedances(n *Binary, x, y Quantity) (Quantity, Quantity, *Error) {
+	bare := func(e Expr, q Quantity) bool {
+		l := litOf(e)
+		return l != nil && l.bare && q.Dim.IsDimensionless()
+	}
+	part := func(q Quantity) bool { return q.Dim == DimInductance || q.Dim == DimCapacitance }
+	zish := func(q Quantity) bool { return q.Dim == DimImpedance || part(q) }
+	if bare(n.Y, y) && zish(x) || bare(n.X, x) && zish(y) {
+		ev.Since = max(ev.Since, 2)
+	}
+	if bare(n.Y, y) && zish(x) {
+		y.Dim = DimImpedance
+		ev.note(fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.Y), ev.Env.Context().Format.Rect(y)))
+	}
+	if bare(n.X, x) && zish(y) {
+		x.Dim = DimImpedance
+		ev.note(fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.X), ev.Env.Context().Format.Rect(x)))
+	}
+	var err *Error
+	if (part(x) || part(y)) && (x.Dim == DimImpedance || y.Dim == DimImpedance) {
+		ev.Since = max(ev.Since, 2)
+	}
+	if part(x) && y.Dim == DimImpedance {
+		x, err = ev.partZ(n.X, x)
+	} else if part(y) && x.Dim == DimImpedance {
+		y, err = ev.partZ(n.Y, y)
+	}
+	return x, y, err
+}
+
+// partZ is the impedance of an inductance or capacitance at the working
+// frequency, with a note that shows it.
+func (ev *Evaluator) partZ(e Expr, q Quantity) (Quantity, *Error) {
+	c := ev.Env.Context()
+	if c.Freq <= 0 {
+		return Quantity{}, ev.errAt(e, fmt.Errorf("%s is a part value: set a working frequency to use its impedance (as in frequency 50 Hz)", ev.text(e)))
+	}
+	var z Quantity
+	var err error
+	if !q.IsReal() {
+		return Quantity{}, ev.errAt(e, fmt.Errorf("a part value must be real to give an impedance"))
+	}
+	if q.Dim == DimInductance {
+		z, err = InductorZ(q.V, c.Freq)
+	} else {
+		z, err = CapacitorZ(q.V, c.Freq)
+	}
+	if err != nil {
+		return Quantity{}, ev.errAt(e, err)
+	}
+	ev.note(fmt.Sprintf("%s at %s: %s", c.Format.Rect(q), c.Format.Mag(c.Freq, DimFrequency, KindPlain), c.Format.Rect(z)))
+	return z, nil
+}
+
+// note adds a remark to the statement's step once.
+func (ev *Evaluator) note(s string) {
+	for _, n := range ev.Notes {
+		if n == s {
+			return
+		}
+	}
+	ev.Notes = append(ev.Notes, s)
 }
 
 func isDimErr(err error) bool {

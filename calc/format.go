@@ -150,6 +150,10 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 		return 0, decimals, "", ""
 	}
 	p, ok := prefixFor[exp3]
+	if ok && sym == "var" && p == "m" {
+		// "mvar" is refused on input (mega or milli?), so it is never shown
+		return 0, decimals + 3, " " + sym, ""
+	}
 	if ok && sym != "" && prefixable(d) && !strings.HasPrefix(sym, "/") {
 		if p == "µ" && f.ASCII {
 			p = "u"

@@ -27,7 +27,13 @@ type Parser struct {
 	tok   Item
 	depth int
 	err   *Error
+	since int // the newest language version whose reading a literal used
 }
+
+// Since returns the newest language version (see Language) whose reading
+// of a number or unit the statement used so far, 0 when every version
+// reads it alike.
+func (p *Parser) Since() int { return p.since }
 
 // NewParser returns a parser over one statement.
 func NewParser(src string, line int) *Parser {
@@ -125,9 +131,9 @@ func (p *Parser) ExpectEnd() {
 	case t.Tok == TokOp && t.Text == ")":
 		p.Failf(t, "unbalanced parentheses: ')' without a matching '('")
 	case t.Tok == TokIdent && IsUnit(t.Text):
-		p.Failf(t, "unit %q must follow a number directly (as in 10 %s)", t.Text, t.Text)
+		p.Failf(t, "unit %q must follow a number (as in 10 %s)", t.Text, t.Text)
 	case t.Tok == TokIdent && prefixes[t.Text] != 0:
-		p.Failf(t, "prefix %q needs a unit right after it (as in 10 %sΩ)", t.Text, t.Text)
+		p.Failf(t, "prefix %q must follow the number directly (as in 10%s) or come before a unit (as in 10 %sΩ)", t.Text, t.Text, t.Text)
 	case t.Tok == TokIdent || t.Tok == TokNumber || t.Tok == TokImag || t.Tok == TokRect:
 		p.Failf(t, "unexpected %q: missing operator? (write * to multiply)", t.Text)
 	default:
@@ -274,7 +280,7 @@ func (p *Parser) polarAfter(x Expr) Expr {
 	n := &Polar{span: spanOf(x, ang), Mag: x, Ang: ang, OpCol: op.Col}
 	// a physical unit written on the angle literal ("230∠-30 V") belongs
 	// to the whole phasor
-	if l := litOf(ang); l != nil && l.hasUnit && l.kind != KindAngle {
+	if l := litOf(ang); l != nil && l.hasUnit && !l.bare && l.kind != KindAngle {
 		n.Unit, n.scale, n.dim, n.kind = l.Unit, l.scale, l.dim, l.kind
 		l.hasUnit, l.Unit, l.scale, l.dim, l.kind = false, "", 1, Dimensionless, KindPlain
 	}
@@ -291,7 +297,7 @@ func (p *Parser) polarAfter(x Expr) Expr {
 		}
 	}
 	if n.Unit != "" {
-		if l := litOf(x); l != nil && l.hasUnit {
+		if l := litOf(x); l != nil && l.hasUnit && !l.bare {
 			p.FailAt(n.col, utf8.RuneCountInString(p.src[n.pos:n.end]), "two units on one phasor: %s and %s", l.Unit, n.Unit)
 		}
 	}
@@ -338,10 +344,8 @@ func (p *Parser) primary() Expr {
 		return p.literal(t)
 	case TokIdent:
 		p.next()
-		if IsUnit(t.Text) && !p.IsOp("(") && !isConstant(t.Text) {
-			p.Failf(t, "unit %q without a number before it (write 1 %s)", t.Text, t.Text)
-			return p.bad(t)
-		}
+		// a unit symbol standing alone is a name: units only ever follow
+		// a number, so V, A, S and C are free for quantities
 		if p.IsOp("(") {
 			return p.call(t)
 		}
@@ -538,7 +542,7 @@ func splitRect(text string) (re, im float64, ok bool) {
 
 // unit reads the unit written after a number, if any.
 func (p *Parser) unit(l *Lit) Expr {
-	t := Item{Text: p.src[l.pos:l.end]}
+	defer func() { p.since = max(p.since, l.since) }()
 	if p.IsOp("/") {
 		// "50 /s": a unit word after a slash is a unit, since no name can
 		// be a unit word; this is how a rate per second is written back
@@ -556,20 +560,33 @@ func (p *Parser) unit(l *Lit) Expr {
 		return l
 	}
 	word := p.tok
-	u, ok := lookupUnit(word.Text)
+	num := p.src[l.pos:l.end]
+	if _, exact := lookupUnit(word.Text); !exact && !word.Space {
+		if p.code(l, num, word) || p.barePrefix(l, num, word) {
+			return l
+		}
+		if p.Err() != nil {
+			return l
+		}
+	}
+	u, sym, rd, refuse, ok := readUnit(word.Text)
+	if refuse != "" {
+		p.Failf(word, "%s", refuse)
+		return l
+	}
 	if !ok {
 		if !word.Space {
-			if _, isPrefix := prefixes[word.Text]; isPrefix {
-				p.Failf(word, "prefix %q needs a unit after it (as in %s%s%s)", word.Text, t.Text, word.Text, "Ω")
-			} else {
-				p.Failf(word, "unknown unit %q", word.Text)
-			}
+			p.Failf(word, "%s", unknownUnit(num, word.Text))
 		}
 		return l
 	}
 	p.next()
 	l.hasUnit, l.Unit, l.scale, l.dim, l.kind = true, word.Text, u.scale, u.dim, u.kind
 	l.end = word.End
+	if rd.since > 0 {
+		l.Unit, l.since = sym, rd.since
+		l.Note = readNote(p.src[l.pos:l.end], num, sym, rd.why)
+	}
 	// compound units: Ω/km, rad/s, V·A
 	for (p.IsOp("/") || p.IsOp("*")) && p.Err() == nil {
 		save := p.tok
@@ -602,4 +619,99 @@ func (p *Parser) unit(l *Lit) Expr {
 		l.end = nt.End
 	}
 	return l
+}
+
+// readNote is the line a step shows for a number read other than exactly
+// as written, such as: read "230 v" as 230 V.
+func readNote(typed, num, sym, why string) string {
+	n := fmt.Sprintf("read %q as %s %s", typed, num, sym)
+	if why != "" {
+		n += " (" + why + ")"
+	}
+	return n
+}
+
+// code reads a letter-and-digit code written directly after whole digits
+// (IEC 60062): 4K7 is 4.7 kΩ, 0R1 is 0.1 Ω, 4n7 is 4.7 nF.
+func (p *Parser) code(l *Lit, num string, word Item) bool {
+	if !allDigits(num) {
+		return false
+	}
+	scale, pre, sym, frac, ok := readCode(word.Text)
+	if !ok {
+		return false
+	}
+	text := num
+	if frac != "" {
+		text += "." + frac
+	}
+	x, err := strconv.ParseFloat(text, 64)
+	if err != nil {
+		p.Failf(word, "malformed code %q", num+word.Text)
+		return true
+	}
+	p.next()
+	l.Val = complex(x, 0)
+	l.hasUnit, l.Unit, l.scale, l.kind, l.end, l.since = true, pre+sym, scale, KindPlain, word.End, 2
+	l.dim = DimImpedance
+	if sym == "F" {
+		l.dim = DimCapacitance
+	}
+	l.Note = fmt.Sprintf("read %q as %s %s%s (IEC 60062 code)", num+word.Text, text, pre, sym)
+	return true
+}
+
+// barePrefix reads a prefix written directly after a number with no unit:
+// 4.7k is 4700, a plain number. Written "1.2k ohm", the unit after a space
+// completes it: 1.2 kΩ.
+func (p *Parser) barePrefix(l *Lit, num string, word Item) bool {
+	f, ok := bareOK[word.Text]
+	if !ok {
+		return false
+	}
+	p.next()
+	l.end = word.End
+	l.since = 2
+	if p.tok.Tok == TokIdent && p.tok.Space {
+		if u, sym, _, refuse, ok := readUnit(p.tok.Text); ok && refuse == "" && u.prefixable {
+			ut := p.Next()
+			l.hasUnit, l.Unit, l.scale, l.dim, l.kind, l.end = true, word.Text+sym, u.scale*f, u.dim, u.kind, ut.End
+			pre := word.Text
+			if pre == "u" {
+				pre = "µ"
+			}
+			l.Note = readNote(p.src[l.pos:l.end], num, pre+symbolOf(sym), "")
+			return true
+		}
+	}
+	l.hasUnit, l.bare, l.Unit, l.scale, l.dim, l.kind = true, true, word.Text, f, Dimensionless, KindPlain
+	return true
+}
+
+func allDigits(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if !isDigit(rune(s[i])) {
+			return false
+		}
+	}
+	return s != ""
+}
+
+// unknownUnit explains a word written straight after a number that reads
+// as nothing.
+func unknownUnit(num, w string) string {
+	switch w {
+	case "R":
+		return fmt.Sprintf("R after a number is the code letter for Ω (IEC 60062), written where the decimal sign goes: write %s Ω or a code such as 4R7", num)
+	case "K":
+		return fmt.Sprintf("K is no SI prefix: write %sk for kilo (a plain number), %s kΩ, or a code such as 4K7", num, num)
+	case "a", "z", "y", "r", "q", "E", "P", "Z", "Y", "Q":
+		return fmt.Sprintf("%q is not read as a prefix on input (only f p n u µ m k M G T are): write the power of ten, as in %se3", w, num)
+	}
+	if _, ok := prefixes[w[:1]]; ok {
+		if _, sym, _, _, ok := readUnit(w[1:]); ok {
+			return fmt.Sprintf("unit %q cannot take a prefix (write the value in %s)", w[1:], sym)
+		}
+	}
+	return fmt.Sprintf("unknown unit %q", w)
 }

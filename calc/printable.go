@@ -13,7 +13,9 @@ import (
 // is \x1b); C1 controls (U+0080 to U+009F, among them U+009B, the
 // one-character form of CSI), the bidirectional formatting characters
 // (U+202A to U+202E, U+2066 to U+2069, U+200E, U+200F, U+061C) and the
-// Unicode line and paragraph separators become \uHHHH. A tab becomes a
+// Unicode line and paragraph separators, and the invisible zero-width
+// characters (U+200B to U+200D, U+2060, and U+FEFF, the byte-order mark)
+// become \uHHHH. A tab becomes a
 // space. The line feed stays: it is the line break of every text argand
 // writes. Text from input passes through here on every human-readable
 // output path, so that a worksheet cannot move the cursor, clear the
@@ -79,7 +81,8 @@ func escapeOf(r rune, n int, b byte) string {
 		r >= 0x202a && r <= 0x202e,
 		r >= 0x2066 && r <= 0x2069,
 		r == 0x200e, r == 0x200f, r == 0x061c,
-		r == 0x2028, r == 0x2029:
+		r == 0x2028, r == 0x2029,
+		r >= 0x200b && r <= 0x200d, r == 0x2060, r == 0xfeff:
 		return hexEscape(`\u`, uint32(r), 4)
 	}
 	return ""

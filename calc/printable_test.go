@@ -24,9 +24,12 @@ func TestPrintable(t *testing.T) {
 		{"\u202a\u202b\u202c\u202d\u202e", `\u202a\u202b\u202c\u202d\u202e`},
 		{"\u2066\u2067\u2068\u2069", `\u2066\u2067\u2068\u2069`},
 		{"\u200e\u200f\u061c\u2028\u2029", `\u200e\u200f\u061c\u2028\u2029`},
-		{"\u00a0\u200b\u2070", "\u00a0\u200b\u2070"}, // printable, kept
-		{"ok\xff\x9b", `ok\xff\x9b`},                 // bytes that are not UTF-8
-		{"\xc2", `\xc2`},                             // a cut sequence
+		{"\u00a0\u2070", "\u00a0\u2070"}, // printable, kept
+		// zero-width characters and the byte-order mark cannot be seen, so
+		// a line that holds one would show nothing where the caret points
+		{"\u200b\u200c\u200d\u2060\ufeff", `\u200b\u200c\u200d\u2060\ufeff`},
+		{"ok\xff\x9b", `ok\xff\x9b`}, // bytes that are not UTF-8
+		{"\xc2", `\xc2`},             // a cut sequence
 		{`back\slash`, `back\slash`},
 	}
 	for _, tt := range tests {

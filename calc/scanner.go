@@ -1,6 +1,8 @@
 package calc
 
 import (
+	"fmt"
+	"strings"
 	"unicode"
 	"unicode/utf8"
 )
@@ -86,7 +88,7 @@ func (s *Scanner) Scan() Item {
 	space := false
 	for s.off < len(s.src) {
 		r, w := s.peekRune(s.off)
-		if r == ' ' || r == '\t' || r == '\r' || r == '\n' || r == '\u00a0' {
+		if isSpace(r) {
 			s.off += w
 			s.col++
 			space = true
@@ -148,9 +150,9 @@ func (s *Scanner) Scan() Item {
 		if text == "j" || text == "i" {
 			return item(TokImag, "j1")
 		}
-		if text == "Ω" { // U+2126 OHM SIGN reads as the letter omega
-			text = "Ω"
-		}
+		// U+2126 OHM SIGN, which phones and older programs send, reads as
+		// the letter omega (Unicode gives it as the canonical equivalent)
+		text = strings.ReplaceAll(text, "\u2126", "\u03a9")
 		return item(TokIdent, text)
 	}
 	switch r {
@@ -191,15 +193,35 @@ func (s *Scanner) Scan() Item {
 		return item(TokOp, s.src[start:s.off])
 	}
 	adv(1)
-	s.fail(col, 1, "unexpected character "+quoteRune(r))
+	s.fail(col, 1, "unexpected "+quoteRune(r))
 	return item(TokIllegal, string(r))
 }
 
-func quoteRune(r rune) string {
-	if r < 0x20 || r == 0x7f {
-		return "U+" + hex4(int(r))
+// isSpace reports the characters read as a space between tokens: the
+// ASCII ones and the no-break (U+00A0), narrow no-break (U+202F) and thin
+// (U+2009) spaces that phones and word processors put between a number
+// and its unit.
+func isSpace(r rune) bool {
+	switch r {
+	case ' ', '\t', '\r', '\n', '\u00a0', '\u202f', '\u2009':
+		return true
 	}
-	return "'" + string(r) + "'"
+	return false
+}
+
+// quoteRune names a refused character for a message: by code point when
+// it cannot be seen (controls, format characters such as a zero-width
+// space or a byte-order mark, other spaces), else quoted.
+func quoteRune(r rune) string {
+	if r < 0x20 || r == 0x7f || unicode.IsControl(r) || unicode.Is(unicode.Cf, r) || unicode.IsSpace(r) ||
+		unicode.Is(unicode.Zs, r) || unicode.Is(unicode.Co, r) || !unicode.IsGraphic(r) {
+		name := "U+" + hex4(int(r))
+		if r > 0xffff {
+			name = fmt.Sprintf("U+%X", r)
+		}
+		return "invisible character " + name
+	}
+	return "character '" + string(r) + "'"
 }
 
 func hex4(n int) string {

@@ -374,19 +374,17 @@ func TestNamesAndUnits(t *testing.T) {
 			t.Errorf("IsUnit(%q) = true, want false", w)
 		}
 	}
-	// a prefix alone after a number is an error naming the prefix
-	for _, src := range []string{"10k", "3.3µ", "5m*2"} {
+	// a prefix alone after a number scales a plain number (issue 10); the
+	// rare prefixes are never read alone and say so
+	for _, src := range []string{"10E", "3P", "2q"} {
 		_, err := evalString(newTestEnv(), src)
-		if src == "5m*2" {
-			// "m" is the metre: 5 m × 2 = 10 m, no error
-			if err != nil {
-				t.Errorf("%s: %v", src, err)
-			}
-			continue
-		}
 		if err == nil || !strings.Contains(err.Msg, "prefix") {
 			t.Errorf("%s: error %v, want a prefix message", src, err)
 		}
+	}
+	// "m" after a number is the metre, an exact unit before a prefix
+	if q := mustEval(t, "5m*2"); q.Dim != DimLength || real(q.V) != 10 {
+		t.Errorf("5 m*2 = %v %v, want 10 m", q.V, q.Dim)
 	}
 }
 

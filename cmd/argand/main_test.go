@@ -96,7 +96,7 @@ func TestCommandLine(t *testing.T) {
 		{"eval bad", []string{"eval", "1 V + 1 Ω"}, 2, "", "argument:1:5: cannot combine V + Ω"},
 		{"run ok", []string{"run", ws("motor.argand")}, 0, "checks: 3 passed, 0 failed", ""},
 		{"run check fails", []string{"run", ws("checkfail.argand")}, 1, "checks: 1 passed, 1 failed", ""},
-		{"run bad input", []string{"run", ws("error.argand")}, 2, "→ I = ", "error.argand:6:18:"},
+		{"run bad input", []string{"run", ws("error.argand")}, 2, "→ I = ", "error.argand:7:18:"},
 		{"run missing file", []string{"run", "no/such/file.argand"}, 2, "", "no such file"},
 		{"run no file", []string{"run"}, 2, "", "run takes one"},
 		{"run json", []string{"--json", "run", ws("motor.argand")}, 0, `"unit":"Ω"`, ""},

@@ -27,7 +27,8 @@ func TestForgetAndRename(t *testing.T) {
 		{[]string{"x = thevenin(10 V, 1 Ω, 1 Ω)", "forget x.z"}, "result of x"},
 		{[]string{"Z1 = 3+j4 Ω", "rename Z1 to Zq"}, ""},
 		{[]string{"Z1 = 3+j4 Ω", "Z2 = 1 Ω", "rename Z1 to Z2"}, "already defined"},
-		{[]string{"Z1 = 3+j4 Ω", "rename Z1 to S"}, "reserved"},
+		{[]string{"Z1 = 3+j4 Ω", "rename Z1 to pi"}, "reserved"},
+		{[]string{"Z1 = 3+j4 Ω", "rename Z1 to S"}, ""}, // a unit symbol may name a value
 		{[]string{"forget nothing"}, "no value named"},
 		{[]string{"network n reference gnd", "voltage source V1 = 1 V from gnd to a", "resistor R1 = 1 Ω from a to gnd", "end", "forget R1"}, "element of network n"},
 	}

@@ -83,6 +83,16 @@ type Sheet struct {
 	// lenient, when set, collects the definitions that fail to re-evaluate
 	// instead of failing the propagation (used at sweep points).
 	lenient map[string]error
+	// lang is the language version the worksheet declared (0: none, read
+	// as this build reads); since is the newest version whose reading the
+	// current line used, and changedLine the last line whose reading
+	// changed since lang.
+	lang, since, changedLine int
+	// changed lists those lines, for the session and the app.
+	changed []int
+	// shadow is the note for a new name that is also a unit symbol, said
+	// on the line that defines it
+	shadow string
 	// autoNext is the next number to try for each letter of an automatic
 	// name, so naming stays linear in a long worksheet.
 	autoNext map[string]int
@@ -225,14 +235,16 @@ var reservedWords = map[string]string{
 	"spread": "a statement keyword", "deltay": "a statement keyword",
 	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
 	"spectrum": "a statement keyword",
+	"language": "a statement keyword",
 	"f":        "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",
 }
 
 // Reserved reports why name cannot name a quantity, or "" when it can.
-// Units (with any prefix), constants, functions and keywords are reserved,
-// so that "10 mS" and a quantity called mS can never be confused.
+// Constants, functions, statement keywords, f and w/ω are reserved. Unit
+// symbols are not: a unit only ever follows a number, so "10 S" is ten
+// siemens whatever S names, and S = 230 V * 6.2 A reads as written.
 func (s *Sheet) Reserved(name string) string {
 	if why, ok := reservedWords[name]; ok {
 		return why
@@ -274,6 +286,9 @@ func (s *Sheet) validName(p *calc.Parser, t calc.Item) bool {
 	if strings.Contains(t.Text, ".") {
 		p.Failf(t, "a name cannot contain '.': dotted names are results (such as T1.z)")
 		return false
+	}
+	if _, defined := s.byName[t.Text]; !defined && calc.IsUnit(t.Text) {
+		s.shadow = fmt.Sprintf("%s is also a unit symbol: written after a number (10 %s) it is still the unit; alone it is this name", t.Text, t.Text)
 	}
 	return true
 }

@@ -31,13 +31,77 @@ func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 	s.line = n
 	s.noteSeen = nil
 	before := len(s.steps)
+	s.since, s.shadow = 0, ""
 	err := s.exec(src, n)
 	if err != nil {
 		s.steps = s.steps[:before]
 		return nil, err
 	}
-	s.stmts = append(s.stmts, src)
+	if s.lang > 0 && s.since > s.lang && len(s.steps) > before {
+		// the worksheet was written for an older reading of input: say
+		// that this line reads differently now, on its own step
+		s.changedLine = n
+		s.changed = append(s.changed, n)
+		last := &s.steps[len(s.steps)-1]
+		last.Notes = append(last.Notes, fmt.Sprintf("this line reads differently since language %d (the worksheet declares language %d; this argand reads language %d)", s.since, s.lang, calc.Language))
+	}
+	if s.shadow != "" && len(s.steps) > before {
+		last := &s.steps[len(s.steps)-1]
+		last.Notes = append(last.Notes, s.shadow)
+	}
+	if !isLanguageLine(src) {
+		s.stmts = append(s.stmts, src)
+	}
 	return s.steps[before:len(s.steps):len(s.steps)], nil
+}
+
+// Changed returns the lines whose reading changed since the language
+// version the worksheet declared.
+func (s *Sheet) Changed() []int { return append([]int(nil), s.changed...) }
+
+// Language returns the language version the worksheet declared, 0 if none.
+func (s *Sheet) Language() int { return s.lang }
+
+// LanguageLine is the first line of a saved or exported worksheet: the
+// version of the input language it was written in.
+func LanguageLine() string { return fmt.Sprintf("language %d", calc.Language) }
+
+// isLanguageLine reports a "language N" statement, which a saved
+// worksheet gets afresh rather than keeping the one it was read with.
+func isLanguageLine(src string) bool {
+	f := strings.Fields(src)
+	return len(f) >= 1 && f[0] == "language"
+}
+
+// stmtLanguage reads "language N": the version of the input language the
+// worksheet was written in. Lines read differently since then are noted.
+func (s *Sheet) stmtLanguage(p *calc.Parser) error {
+	p.Next()
+	t := p.Peek()
+	if t.Tok != calc.TokNumber {
+		return perr(p, "language takes a whole number from 1 to %d", calc.Language)
+	}
+	p.Next()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	v, err := strconv.Atoi(t.Text)
+	if err != nil || v < 1 {
+		p.Failf(t, "language takes a whole number from 1 to %d", calc.Language)
+		return p.Err()
+	}
+	if v > calc.Language {
+		p.Failf(t, "this worksheet is written in language %d; this argand reads up to language %d: use a newer argand", v, calc.Language)
+		return p.Err()
+	}
+	s.lang = v
+	rule := fmt.Sprintf("worksheet written in language %d", v)
+	if v < calc.Language {
+		rule += fmt.Sprintf("; this argand reads language %d, and lines that now read differently are noted", calc.Language)
+	}
+	s.record(calc.Step{Kind: "setting", Source: p.Source(), Rule: rule})
+	return nil
 }
 
 // Validate parses one statement without running it and returns its first
@@ -116,6 +180,7 @@ func (s *Sheet) Clone() *Sheet {
 	for k, v := range s.spectra {
 		c.spectra[k] = v
 	}
+	c.changed = s.changed[:len(s.changed):len(s.changed)]
 	return &c
 }
 
@@ -143,6 +208,7 @@ func (s *Sheet) exec(src string, n int) error {
 		return nil
 	}
 	p := calc.NewParser(body, n)
+	defer func() { s.since = max(s.since, p.Since()) }()
 	first := p.Peek()
 	if s.open != nil {
 		return s.blockLine(p, first)
@@ -159,6 +225,8 @@ func (s *Sheet) exec(src string, n int) error {
 			return s.stmtDigits(p)
 		case "sequence":
 			return s.stmtSequence(p)
+		case "language":
+			return s.stmtLanguage(p)
 		case "check":
 			return s.stmtCheck(p)
 		case "resistor", "inductor", "capacitor", "impedance":
@@ -261,6 +329,7 @@ func word(p *calc.Parser, context string, choices ...string) (string, bool) {
 func (s *Sheet) eval(p *calc.Parser, e calc.Expr) (calc.Result, error) {
 	ev := s.evaluator(p.Source(), s.line)
 	r, err := ev.Eval(e)
+	s.since = max(s.since, ev.Since)
 	if err != nil {
 		return calc.Result{}, err
 	}

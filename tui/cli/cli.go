@@ -163,8 +163,10 @@ func EvalContext(ctx context.Context, args []string, w, ew io.Writer, o Options)
 	return ExitOK
 }
 
-// Run runs a worksheet, printing each line's steps as it completes, then
-// the checks' summary.
+// Run runs a worksheet, printing each line's steps as it completes and
+// each bad or skipped line in its place, then a summary: errors, skipped
+// lines and failed checks with their line numbers. The exit code is 2 if
+// any line failed, else 1 if a check failed.
 func Run(r io.Reader, file string, w, ew io.Writer, o Options) int {
 	return RunContext(context.Background(), r, file, w, ew, o)
 }
@@ -182,9 +184,12 @@ func RunContext(ctx context.Context, r io.Reader, file string, w, ew io.Writer, 
 	bw := bufio.NewWriter(w)
 	p.W = bw
 	defer bw.Flush()
-	sum, err := s.RunJob(sheet.Job{Ctx: ctx}, stoppable(ctx, r), func(steps []calc.Step) {
+	sum, err := s.RunAll(sheet.Job{Ctx: ctx}, stoppable(ctx, r), func(steps []calc.Step) {
 		p.Steps(s, steps)
 		bw.Flush()
+	}, func(pr sheet.Problem) {
+		bw.Flush() // the error in its place among the steps
+		p.Problem(pr, file)
 	})
 	if sum.Interrupted > 0 {
 		bw.Flush()
@@ -195,13 +200,11 @@ func RunContext(ctx context.Context, r io.Reader, file string, w, ew io.Writer, 
 		fmt.Fprintf(ew, "error: %s: %s\n", calc.Printable(file), calc.Printable(err.Error()))
 		return ExitBadInput
 	}
-	if sum.Err != nil {
-		bw.Flush()
-		p.Error(sum.Err, sum.ErrSrc, file)
+	p.RunSummary(sum)
+	switch {
+	case sum.Errors() > 0:
 		return ExitBadInput
-	}
-	p.Summary(sum.Pass, sum.Fail)
-	if sum.Fail > 0 {
+	case sum.Fail > 0:
 		return ExitCheckFail
 	}
 	return ExitOK
@@ -244,4 +247,96 @@ func (c *ctxReader) Read(p []byte) (int, error) {
 	case <-c.ctx.Done():
 		return 0, c.ctx.Err()
 	}
+}
+
+// Problem writes a failed line as an error, or a skipped one as a line
+// that says which line it depends on.
+func (p *Printer) Problem(pr sheet.Problem, file string) {
+	if pr.DependsOn == 0 {
+		p.Error(pr.Err, pr.Src, file)
+		return
+	}
+	if p.O.JSON {
+		fmt.Fprintf(p.W, "{\"kind\":\"skipped\",\"line\":%d,\"depends_on\":%d,\"error_line\":%d}\n", pr.Err.Line, pr.DependsOn, pr.Root)
+		return
+	}
+	where := fmt.Sprintf("line %d", pr.Err.Line)
+	if file != "" {
+		where = fmt.Sprintf("%s:%d", calc.Printable(file), pr.Err.Line)
+	}
+	fmt.Fprintf(p.Err, "%s: %s\n", where, calc.Printable(pr.Err.Msg))
+	if pr.Src != "" {
+		src := calc.Printable(pr.Src)
+		if p.O.ASCII {
+			src = calc.ASCIIOnly(src)
+		}
+		fmt.Fprintln(p.Err, "  "+src)
+	}
+}
+
+// RunSummary writes the outcome of a worksheet run: the checks, and when
+// anything went wrong, the lines of each error, skipped line and failed
+// check, so a reader sees every mistake of the run at once.
+func (p *Printer) RunSummary(sum sheet.Summary) {
+	var errs, skipped []int
+	for _, pr := range sum.Problems {
+		if pr.DependsOn == 0 {
+			errs = append(errs, pr.Err.Line)
+		} else {
+			skipped = append(skipped, pr.Err.Line)
+		}
+	}
+	if len(errs)+len(skipped)+len(sum.Changed) == 0 {
+		p.Summary(sum.Pass, sum.Fail)
+		return
+	}
+	if p.O.JSON {
+		fmt.Fprintf(p.W, "{\"kind\":\"summary\",\"checks_passed\":%d,\"checks_failed\":%d,\"failed_checks\":%s,\"errors\":%s,\"skipped\":%s,\"reading_changed\":%s}\n",
+			sum.Pass, sum.Fail, jsonInts(sum.Failed), jsonInts(errs), jsonInts(skipped), jsonInts(sum.Changed))
+		return
+	}
+	fmt.Fprintln(p.W, "summary:")
+	if len(errs) > 0 {
+		fmt.Fprintf(p.W, "  %s: %s\n", plural(len(errs), "error", "errors"), lineList(errs))
+	}
+	if len(skipped) > 0 {
+		fmt.Fprintf(p.W, "  %s skipped (depending on a line in error): %s\n", plural(len(skipped), "line", "lines"), lineList(skipped))
+	}
+	if sum.Pass+sum.Fail > 0 {
+		fmt.Fprintf(p.W, "  checks: %d passed, %d failed", sum.Pass, sum.Fail)
+		if len(sum.Failed) > 0 {
+			fmt.Fprintf(p.W, " (%s)", lineList(sum.Failed))
+		}
+		fmt.Fprintln(p.W)
+	}
+	if len(sum.Changed) > 0 {
+		fmt.Fprintf(p.W, "  read differently since the worksheet's language version: %s\n", lineList(sum.Changed))
+	}
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
+}
+
+// lineList writes line numbers as "line 3" or "lines 3, 7, 12".
+func lineList(ls []int) string {
+	parts := make([]string, len(ls))
+	for i, l := range ls {
+		parts[i] = fmt.Sprint(l)
+	}
+	if len(ls) == 1 {
+		return "line " + parts[0]
+	}
+	return "lines " + strings.Join(parts, ", ")
+}
+
+func jsonInts(xs []int) string {
+	parts := make([]string, len(xs))
+	for i, x := range xs {
+		parts[i] = fmt.Sprint(x)
+	}
+	return "[" + strings.Join(parts, ",") + "]"
 }

@@ -68,8 +68,9 @@ func TestCaretUnderEscapes(t *testing.T) {
 		{"φé = \r1 + \x01", `\x01`},     // characters of two bytes before
 	}
 	for _, c := range cases {
+		// as an argument: in a file a lone CR ends the line (issue 10)
 		var out, errb bytes.Buffer
-		Run(strings.NewReader(c.src+"\n"), "f", &out, &errb, Options{})
+		Eval([]string{c.src}, &out, &errb, Options{})
 		lines := strings.Split(strings.TrimRight(errb.String(), "\n"), "\n")
 		if len(lines) != 3 {
 			t.Errorf("%q: stderr %q", c.src, errb.String())
