@@ -20,6 +20,30 @@ func needPlain(name string, a Quantity) error {
 	return nil
 }
 
+// inverseTrig is an inverse trigonometric function of a real plain number,
+// giving an angle. acos and asin take −1 … 1; outside that range there is
+// no real angle, which is said rather than returned as NaN.
+func inverseTrig(name string, a Quantity, f func(float64) float64) (Quantity, error) {
+	if !a.Dim.IsDimensionless() || a.Kind == KindAngle {
+		return Quantity{}, fmt.Errorf("%s needs a plain number (a ratio such as a power factor), not %s", name, kindName(a))
+	}
+	if !a.IsReal() {
+		return Quantity{}, fmt.Errorf("%s needs a real number", name)
+	}
+	x := real(a.V)
+	if name != "atan" && (x < -1 || x > 1) {
+		return Quantity{}, fmt.Errorf("%s takes a number from −1 to 1 (got %g): no real angle has that %s", name, x, map[string]string{"acos": "cosine", "asin": "sine"}[name])
+	}
+	return Angle(f(x)).Check(name)
+}
+
+func kindName(a Quantity) string {
+	if a.Kind == KindAngle {
+		return "an angle"
+	}
+	return DimName(a.Dim, false)
+}
+
 // trigArg is the angle in radians of a trigonometric argument: an angle as
 // is, a plain number in the worksheet's angle unit (degrees by default).
 func trigArg(c *Context, name string, a Quantity) (complex128, error) {
@@ -121,6 +145,12 @@ var builtins = [...]Func{
 			}
 			return Number(exactTrig(cmplx.Tan, x, 2)).Check("tan")
 		})},
+	{Name: "asin", Params: []Param{{Name: "x", Kind: ParamRatio}}, Args: "(x)", Doc: "angle whose sine is x (−90° to 90°)", Formula: "θ = asin x", Min: 1, Max: 1,
+		Call: one(func(c *Context, a Quantity) (Quantity, error) { return inverseTrig("asin", a, math.Asin) })},
+	{Name: "acos", Params: []Param{{Name: "x", Kind: ParamRatio}}, Args: "(x)", Doc: "angle whose cosine is x (0° to 180°), such as acos(pf)", Formula: "θ = acos x", Min: 1, Max: 1,
+		Call: one(func(c *Context, a Quantity) (Quantity, error) { return inverseTrig("acos", a, math.Acos) })},
+	{Name: "atan", Params: []Param{{Name: "x", Kind: ParamRatio}}, Args: "(x)", Doc: "angle whose tangent is x (−90° to 90°)", Formula: "θ = atan x", Min: 1, Max: 1,
+		Call: one(func(c *Context, a Quantity) (Quantity, error) { return inverseTrig("atan", a, math.Atan) })},
 	{Name: "atan2", Params: []Param{{Name: "y", Kind: ParamAny}, {Name: "x", Kind: ParamAny}}, Args: "(y, x)", Doc: "angle of the point (x, y)", Formula: "atan2(y, x)", Min: 2, Max: 2,
 		Call: func(c *Context, args []Arg) (Result, error) {
 			y, x := args[0].Q, args[1].Q
