@@ -213,6 +213,29 @@ func (m *Model) submit() {
 		m.mode = modeRows
 		return
 	}
+	if word, arg, _ := strings.Cut(src, " "); word == "help" || word == "?" {
+		// help on a name, in the app as in the line mode
+		name := strings.TrimSpace(arg)
+		if name != "" {
+			if _, ok := cli.Topic(name); !ok {
+				m.note(true, fmt.Sprintf("no help on %q: try a function name or a statement word (f1: all help)", name))
+				return
+			}
+		}
+		l.history = append(l.history, src)
+		l.hpos = len(l.history)
+		l.f.clear()
+		m.openHelp()
+		m.helpTopic = name
+		return
+	}
+	if src == "new session" {
+		l.history = append(l.history, src)
+		l.hpos = len(l.history)
+		l.f.clear()
+		m.blankStart()
+		return
+	}
 	m.runThen("", func() {
 		l.history = append(l.history, src)
 		l.hpos = len(l.history)
@@ -311,6 +334,15 @@ func (m *Model) copyCmd(what, text string) tea.Cmd {
 // help, then the safety caution.
 func (m *Model) helpLines() []string {
 	var out []string
+	if m.helpTopic != "" {
+		if t, ok := cli.Topic(m.helpTopic); ok {
+			out = append(out, m.th.label.Render("help "+m.helpTopic)+"   (esc closes; ↑↓ scroll)")
+			for _, l := range strings.Split(strings.TrimRight(t, "\n"), "\n") {
+				out = append(out, wrapLine(l, m.width, 4)...)
+			}
+			out = append(out, "")
+		}
+	}
 	out = append(out, m.th.label.Render("argand: AC phasor work, step by step")+"   (esc closes; ↑↓ scroll)")
 	intro := "Rows are named values, newest at the top. Operations take the marked rows in the " +
 		"order marked, else the two newest (older first). Each becomes a worksheet statement. " +

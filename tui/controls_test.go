@@ -14,7 +14,7 @@ import (
 
 // TestControlsOnScreen pushes each control sequence of the catalogue
 // through the app: a worksheet opened with it in comments, in an
-// accepted line (a carriage return is read as a space) and in its file
+// accepted line (a lone carriage return ends a line) and in its file
 // name; the trail, the table, the trail in full and help; the entry line
 // echoing a paste; the message of a refused statement; the exports as
 // text and Markdown; and the line mode. The screen may hold the app's own
@@ -47,7 +47,10 @@ func TestControlsOnScreen(t *testing.T) {
 				}
 				m := newModel(t, Options{Dir: state, File: file, ASCII: ascii, Color: true})
 				check("opened worksheet", m.View(), true)
-				if !strings.Contains(m.msg, "line 3") && !strings.Contains(m.msg, "line 1: invalid UTF-8") {
+				// the bad line is named (a lone CR in the text ends a line
+				// of its own, which moves the bad one)
+				if !strings.Contains(m.msg, "line 3") && !strings.Contains(m.msg, "line 4") && !strings.Contains(m.msg, "line 1: invalid UTF-8") &&
+					!(strings.Contains(c.Text, "\r") && strings.Contains(m.msg, "line 2: ")) {
 					t.Errorf("the bad line is not named: %q", m.msg)
 				}
 				press(m, "T")

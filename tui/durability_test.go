@@ -109,7 +109,7 @@ func TestDurability(t *testing.T) {
 		if err != nil {
 			t.Fatalf("run %d: %v", run, err)
 		}
-		sh, _, err := decode(data, false)
+		sh, _, _, err := decode(data, false)
 		if err != nil {
 			t.Fatalf("run %d: session does not load: %v", run, err)
 		}

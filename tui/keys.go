@@ -36,7 +36,7 @@ type KeyMap struct {
 	Raise, Lower                  key.Binding
 	Freq, Form, Fewer, More       key.Binding
 	Basis, Angles                 key.Binding
-	Undo, Redo                    key.Binding
+	Undo, Redo, Blank             key.Binding
 	Networks, Export              key.Binding
 	Clip, ClipTrail               key.Binding
 	TrailBack, TrailOn, TrailLast key.Binding
@@ -116,6 +116,7 @@ func DefaultKeyMap() KeyMap {
 		Angles:    kb([]string{"a"}, "a", "switch angles degrees ↔ radians"),
 		Undo:      kb([]string{"u", "ctrl+z"}, "u", "undo the last change"),
 		Redo:      kb([]string{"U", "ctrl+y"}, "U", "redo"),
+		Blank:     kb([]string{"b"}, "b", "a new, empty session (the old one kept as a file)"),
 		Networks:  kb([]string{"N"}, "N", "open a network: structure, reduction, branch values"),
 		Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text) or save as worksheet"),
 		Clip:      kb([]string{"y"}, "y", "copy the selected value to the clipboard (OSC 52)"),
@@ -202,7 +203,7 @@ func (k KeyMap) Mode(m mode) []key.Binding {
 			k.Add, k.Sub, k.Mul, k.Div, k.Recip, k.Conj, k.Neg, k.Series, k.Parallel,
 			k.VDiv, k.IDiv, k.Thevenin, k.DeltaY, k.YDelta,
 			k.Rename, k.Copy, k.Delete, k.Raise, k.Lower,
-			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Undo, k.Redo,
+			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Undo, k.Redo, k.Blank,
 			k.Networks, k.Export, k.Clip, k.ClipTrail, k.TrailBack, k.TrailOn, k.TrailLast, k.TrailFull, k.Help, k.Quit}
 	case modeLine:
 		return []key.Binding{k.Run, k.Leave, k.Left, k.Right, k.Home, k.End, k.Back, k.Del, k.Kill, k.Clear, k.Prev, k.Next, k.LineHelp, k.LineQuit}

@@ -44,6 +44,9 @@ type Options struct {
 	PolarFirst bool   // show the polar form first on a new session
 	Digits     int    // significant figures for a new session; 0 keeps the worksheet's
 	File       string // worksheet to open; "" restores the last session
+	// New starts a blank session (--new); the last one is kept as a
+	// worksheet file beside the session file.
+	New bool
 	Dir        string // state directory; "" is store.Dir()
 	// Out receives clipboard requests (OSC 52), written outside the
 	// screen renderer; nil discards them.
@@ -82,6 +85,9 @@ type Model struct {
 	ask     *questions
 	net     *netView
 	helpTop int
+	// helpTopic is the name asked about with help NAME, shown at the top
+	// of the help screen; "" for the general help
+	helpTopic string
 
 	msg    string // last outcome, shown under the entry line
 	msgErr bool
@@ -200,12 +206,33 @@ func (m *Model) restore() {
 		m.lock = nil
 		m.fresh()
 		m.note(true, "read-only: "+note+"; showing a fresh worksheet, nothing is saved")
+	case ok && m.opt.New:
+		if note != "" {
+			note += "; "
+		}
+		msg := note + m.blankStart()
+		if m.opt.File != "" {
+			m.fresh()
+			m.s.save()
+		}
+		m.note(false, msg)
+	case m.opt.New:
+		m.s.loadWorksheet("")
+		if m.opt.File != "" {
+			m.fresh()
+		}
+		m.note(false, "a new, empty session")
+		m.s.save()
 	case ok:
 		if m.opt.File != "" {
-			m.note(false, "restored your session on "+m.opt.File+" (the file itself is unchanged until you save with x w)")
+			m.note(note != "", "restored your session on "+m.opt.File+" (the file itself is unchanged until you save with x w)")
 		} else {
-			m.note(false, fmt.Sprintf("session restored: %d rows, %d steps", len(m.s.rows()), len(m.s.sh.Steps())))
+			m.note(note != "", fmt.Sprintf("session restored: %d rows, %d steps", len(m.s.rows()), len(m.s.sh.Steps())))
 		}
+		if note != "" {
+			m.msg += "; " + note
+		}
+		m.s.save()
 	default:
 		m.fresh()
 		if note != "" {
@@ -216,6 +243,37 @@ func (m *Model) restore() {
 	if notes := m.lock.Notes(); len(notes) > 0 {
 		m.msg += "; " + strings.Join(notes, "; ")
 	}
+}
+
+// blankStart starts a new, empty session: the one in use is kept as a
+// worksheet file beside the session file (argand FILE opens it) and is one
+// undo away. It returns what to tell the user.
+func (m *Model) blankStart() string {
+	if m.s.readOnly {
+		return m.s.errReadOnly().Error()
+	}
+	kept := ""
+	if len(m.s.sh.Statements()) > 0 && m.s.path != "" {
+		name := strings.TrimSuffix(m.s.path, filepath.Ext(m.s.path)) + ".before-new-" + time.Now().UTC().Format("20060102-150405") + ".argand"
+		if err := store.Save(name, []byte(m.worksheetText())); err != nil {
+			return "no new session: the one in use could not be kept as a file (" + err.Error() + ")"
+		}
+		kept = name
+	}
+	m.s.checkpoint()
+	pf := m.s.v.PolarFirst
+	m.s.sh, m.s.v, m.s.worksheet = newSheet(m.s.ascii), view{PolarFirst: pf}, ""
+	m.s.tidy()
+	m.s.save()
+	msg := "a new, empty session"
+	switch {
+	case kept != "":
+		msg += "; the previous one is kept in " + kept + " (argand FILE opens it; undo brings it back)"
+	case len(m.s.undo) > 0 && len(m.s.undo[len(m.s.undo)-1].sh.Statements()) > 0:
+		msg += "; undo brings the previous one back (it is not kept as a file: no place to keep it)"
+	}
+	m.note(false, msg)
+	return msg
 }
 
 // fresh opens the worksheet file or the built-in example.
@@ -268,10 +326,14 @@ func (m *Model) chooseLocked(readOnly bool) {
 		if err == nil {
 			var sh *sheet.Sheet
 			var f file
-			if sh, f, err = decode(data, m.s.ascii); err == nil {
+			var left []leftOut
+			if sh, f, left, err = decode(data, m.s.ascii); err == nil {
 				m.s.sh, m.s.v, m.s.worksheet = sh, f.View, f.Worksheet
 				m.s.tidy()
 				m.note(false, "read-only: "+whose+"; nothing you do here is kept")
+				if len(left) > 0 {
+					m.msg += fmt.Sprintf("; %d statement(s) of it could not be shown", len(left))
+				}
 				return
 			}
 		}
@@ -402,6 +464,7 @@ func (m *Model) openHelp() {
 	m.back = m.mode
 	m.mode = modeHelp
 	m.helpTop = 0
+	m.helpTopic = ""
 }
 
 // View implements tea.Model.

@@ -583,9 +583,9 @@ func TestExportAndClipboard(t *testing.T) {
 	}
 	// the saved worksheet replays to the same values
 	b, _ := os.ReadFile(filepath.Join(dir, "s.argand"))
-	sh, err := replay(strings.Split(strings.TrimSpace(string(b)), "\n"), false)
-	if err != nil {
-		t.Fatal(err)
+	sh, sum := replay(strings.Split(strings.TrimSpace(string(b)), "\n"), false)
+	if len(sum.Problems) != 0 {
+		t.Fatal(sum.Problems[0].Err)
 	}
 	for _, e := range m.s.sh.Entries() {
 		q, ok := sh.Lookup(e.Name)
@@ -794,5 +794,51 @@ func TestPasteInRows(t *testing.T) {
 	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("Zp2 = 2 Ω\n"), Paste: true})
 	if _, ok := m.s.sh.Lookup("Zp2"); !ok {
 		t.Errorf("pasted lines in rows not run: %q", m.msg)
+	}
+}
+
+// TestRestorePartial: a session whose statements do not all replay (here
+// written by hand with two bad ones and one that reads a bad one) is
+// restored with every statement that runs; the others are kept in a file
+// beside it, as a worksheet with each reason, and the note says where.
+func TestRestorePartial(t *testing.T) {
+	dir := t.TempDir()
+	m := newModel(t, Options{Dir: dir})
+	path := m.s.path
+	m.Close()
+	data := `{"argand_session":1,"statements":["Za = 3+j4 Ω","Zb = Za / 0","Zc = Zb * 2","Zd = 10 Ω","nosuch + 1","Ze = Zd || Za"],"view":{}}`
+	if err := os.WriteFile(path, []byte(data), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	m2 := newModel(t, Options{Dir: dir})
+	defer m2.Close()
+	for _, n := range []string{"Za", "Zd", "Ze"} {
+		if _, ok := m2.s.sh.Lookup(n); !ok {
+			t.Errorf("%s not restored", n)
+		}
+	}
+	if _, ok := m2.s.sh.Lookup("R1"); ok {
+		t.Errorf("the example was started instead of the session")
+	}
+	kept, _ := filepath.Glob(strings.TrimSuffix(path, filepath.Ext(path)) + ".not-restored-*.argand")
+	if len(kept) != 1 {
+		t.Fatalf("kept files %v, want one", kept)
+	}
+	b, _ := os.ReadFile(kept[0])
+	for _, want := range []string{"language ", "Zb = Za / 0", "Zc = Zb * 2", "nosuch + 1", "division by zero", "skipped: depends on line 2"} {
+		if !strings.Contains(string(b), want) {
+			t.Errorf("kept file lacks %q:\n%s", want, b)
+		}
+	}
+	if strings.Contains(string(b), "Zd = 10 Ω") {
+		t.Errorf("kept file holds a restored statement:\n%s", b)
+	}
+	if !strings.Contains(m2.msg, "3 statement(s) could not be restored (2, 3, 5") || !strings.Contains(m2.msg, filepath.Base(kept[0])) {
+		t.Errorf("note %q does not list them and the file", m2.msg)
+	}
+	// the session file now holds what was restored, in the current language
+	b, _ = os.ReadFile(path)
+	if !strings.Contains(string(b), `"language": `) || strings.Contains(string(b), "nosuch") {
+		t.Errorf("session file after restore:\n%s", b)
 	}
 }

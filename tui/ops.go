@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/reduce/sheet"
 	"argand/reduce/power"
 	"argand/reduce/sheet"
 	"argand/reduce/site"
@@ -520,6 +521,8 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 		m.openFull()
 	case key.Matches(k, km.Help):
 		m.openHelp()
+	case key.Matches(k, km.Blank):
+		m.blankStart()
 	case key.Matches(k, km.Quit):
 		m.quitting = true
 		return tea.Quit
@@ -706,6 +709,9 @@ func (m *Model) trailMarkdown() string {
 // which argand run replays to the same values.
 func (m *Model) worksheetText() string {
 	var b strings.Builder
+	// the first line says which reading of input the statements were
+	// accepted in, so a later argand can list lines that read differently
+	b.WriteString(sheet.LanguageLine() + "\n")
 	b.WriteString("# argand worksheet saved from a session\n")
 	for _, s := range m.s.sh.Statements() {
 		b.WriteString(s + "\n")

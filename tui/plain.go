@@ -16,7 +16,7 @@ import (
 )
 
 // plainCommands are the words of the line mode besides statements.
-const plainCommands = "help, list, trail, undo, redo, save FILE, quit"
+const plainCommands = "? or help [NAME], list, trail, undo, redo, save FILE, new session, quit"
 
 // Plain is the line mode, for terminals that cannot address the screen
 // (TERM=dumb, or --plain): a prompt, then each statement's steps or its
@@ -107,9 +107,25 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 			continue
 		case "quit", "exit":
 			return cli.ExitOK
-		case "help":
+		case "help", "?":
+			if name := strings.TrimSpace(arg); name != "" {
+				t, ok := cli.Topic(name)
+				if !ok {
+					say(fmt.Sprintf("no help on %q: try a function name (help functions lists them) or a statement word", calc.Printable(name)))
+					continue
+				}
+				fmt.Fprint(w, m.tr(t))
+				continue
+			}
 			cli.Help(nil, w, w, p.O)
 			say("line mode: " + plainCommands + "; the session is saved after every change.")
+			continue
+		case "new":
+			if strings.TrimSpace(arg) != "session" {
+				break
+			}
+			say(m.blankStart())
+			m.plainSaveErr(say)
 			continue
 		case "list":
 			m.plainList(say)

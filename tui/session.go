@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
+	"time"
 
 	"argand/calc"
 	"argand/reduce/sheet"
@@ -44,6 +45,9 @@ type file struct {
 	Worksheet  string   `json:"worksheet,omitempty"` // the file opened, if any
 	Statements []string `json:"statements"`
 	View       view     `json:"view"`
+	// Language is the version of the input language the statements were
+	// accepted in (calc.Language when saved); 0 in files saved before it.
+	Language int `json:"language,omitempty"`
 }
 
 // snapshot is one point of the undo history. Sheets are cloned, so a
@@ -81,16 +85,12 @@ func newSheet(ascii bool) *sheet.Sheet {
 	return sh
 }
 
-// replay runs statements on a fresh sheet, stopping at the first that
-// fails.
-func replay(stmts []string, ascii bool) (*sheet.Sheet, error) {
+// replay runs statements on a fresh sheet by the rules of a worksheet run:
+// every statement that runs is restored, and the summary lists the others
+// (those that fail, and those that read a name a failed one defined).
+func replay(stmts []string, ascii bool) (*sheet.Sheet, sheet.Summary) {
 	sh := newSheet(ascii)
-	for i, st := range stmts {
-		if _, err := sh.Exec(st); err != nil {
-			return sh, fmt.Errorf("statement %d (%q): %v", i+1, short(st, 40), err)
-		}
-	}
-	return sh, nil
+	return sh, sh.Replay(stmts)
 }
 
 func short(s string, n int) string {
@@ -101,25 +101,60 @@ func short(s string, n int) string {
 	return string(r[:n-1]) + "…"
 }
 
-// decode reads a session file and replays it.
-func decode(data []byte, ascii bool) (*sheet.Sheet, file, error) {
+// decode reads a session file and replays it. Statements that do not
+// replay are returned in left, each with its reason, so that nothing
+// entered is lost.
+func decode(data []byte, ascii bool) (*sheet.Sheet, file, []leftOut, error) {
 	var f file
 	if err := json.Unmarshal(data, &f); err != nil {
-		return nil, f, fmt.Errorf("not a session file: %v", err)
+		return nil, f, nil, fmt.Errorf("not a session file: %v", err)
 	}
 	if f.Version != sessionVersion {
-		return nil, f, fmt.Errorf("session file version %d, expected %d", f.Version, sessionVersion)
+		return nil, f, nil, fmt.Errorf("session file version %d, expected %d", f.Version, sessionVersion)
 	}
-	sh, err := replay(f.Statements, ascii)
-	if err != nil {
-		return nil, f, err
+	stmts := f.Statements
+	if f.Language > 0 && f.Language != calc.Language {
+		// the statements were accepted under another reading of input:
+		// the replay says which of them read differently now
+		stmts = append([]string{fmt.Sprintf("language %d", f.Language)}, stmts...)
 	}
-	return sh, f, nil
+	sh, sum := replay(stmts, ascii)
+	off := len(stmts) - len(f.Statements)
+	var left []leftOut
+	for _, p := range sum.Problems {
+		k := p.Err.Line - 1 - off
+		if k < 0 || k >= len(f.Statements) {
+			continue
+		}
+		left = append(left, leftOut{n: k + 1, stmt: f.Statements[k], why: p.Err.Msg})
+	}
+	return sh, f, left, nil
+}
+
+// leftOut is a statement of a session that did not replay.
+type leftOut struct {
+	n    int // its place among the session's statements
+	stmt string
+	why  string
+}
+
+// keepLeft writes the statements that did not replay to a file beside the
+// session, as a worksheet with each reason as a comment, and returns its
+// name. Nothing a user entered is dropped without a copy.
+func keepLeft(path string, left []leftOut, now time.Time) (string, error) {
+	var b strings.Builder
+	b.WriteString(sheet.LanguageLine() + "\n")
+	b.WriteString("# statements of the session that could not be restored, with the reason for each\n")
+	for _, l := range left {
+		fmt.Fprintf(&b, "# statement %d: %s\n%s\n", l.n, strings.ReplaceAll(l.why, "\n", " "), l.stmt)
+	}
+	name := strings.TrimSuffix(path, filepath.Ext(path)) + ".not-restored-" + now.UTC().Format("20060102-150405") + ".argand"
+	return name, store.Save(name, []byte(b.String()))
 }
 
 // encode writes the session file's content.
 func (s *session) encode() []byte {
-	f := file{Version: sessionVersion, Worksheet: s.worksheet, Statements: s.sh.Statements(), View: s.v}
+	f := file{Version: sessionVersion, Worksheet: s.worksheet, Statements: s.sh.Statements(), View: s.v, Language: calc.Language}
 	if f.Statements == nil {
 		f.Statements = []string{}
 	}
@@ -142,9 +177,10 @@ func (s *session) save() {
 func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) {
 	var sh *sheet.Sheet
 	var f file
+	var left []leftOut
 	_, err := store.LoadChecked(path, func(b []byte) error {
 		var err error
-		sh, f, err = decode(b, s.ascii)
+		sh, f, left, err = decode(b, s.ascii)
 		return err
 	})
 	if err != nil {
@@ -161,11 +197,29 @@ func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) 
 	}
 	s.sh, s.v, s.worksheet = sh, f.View, f.Worksheet
 	s.tidy()
-	return true, "", false
+	if len(left) > 0 {
+		nums := make([]string, len(left))
+		for i, l := range left {
+			nums[i] = fmt.Sprint(l.n)
+		}
+		what := fmt.Sprintf("%d statement(s) could not be restored (%s: %s)", len(left), strings.Join(nums, ", "), short(left[0].why, 60))
+		name, err := keepLeft(path, left, time.Now())
+		if err != nil {
+			// keep the session file as it is, so nothing is lost
+			s.readOnly, s.roWhy = true, "the statements that could not be restored could not be kept aside ("+err.Error()+")"
+			return true, what + "; they could not be kept aside, so the session is read-only", false
+		}
+		note = what + "; kept in " + name
+	}
+	if ch := sh.Changed(); len(ch) > 0 {
+		note = strings.TrimPrefix(note+fmt.Sprintf("; %d statement(s) read differently since the session was saved (see their notes)", len(ch)), "; ")
+	}
+	return true, note, false
 }
 
-// loadWorksheet runs a worksheet text into a fresh sheet. Lines up to the
-// first bad one are kept; the error names the bad line.
+// loadWorksheet runs a worksheet text into a fresh sheet by the rules of
+// argand run: every line that runs is kept, and the error names each line
+// that did not (the first with its reason).
 func (s *session) loadWorksheet(text string) error {
 	sh := newSheet(s.ascii)
 	sum, err := sh.Run(strings.NewReader(text), nil)
@@ -175,10 +229,18 @@ func (s *session) loadWorksheet(text string) error {
 	if err != nil {
 		return err
 	}
-	if sum.Err != nil {
-		return fmt.Errorf("line %d: %s; the lines before it were kept", sum.Err.Line, sum.Err.Msg)
+	if len(sum.Problems) == 0 {
+		return nil
 	}
-	return nil
+	first := sum.Problems[0].Err
+	if len(sum.Problems) == 1 {
+		return fmt.Errorf("line %d: %s; the other lines were kept", first.Line, first.Msg)
+	}
+	var ls []string
+	for _, p := range sum.Problems[1:] {
+		ls = append(ls, fmt.Sprint(p.Err.Line))
+	}
+	return fmt.Errorf("line %d: %s; lines %s did not run either (argand run FILE lists why); the other lines were kept", first.Line, first.Msg, strings.Join(ls, ", "))
 }
 
 // checkpoint records the state before a change, for undo.

@@ -18,13 +18,13 @@ func FuzzDecode(f *testing.F) {
 		if len(data) > 1<<16 {
 			return
 		}
-		sh, file, err := decode(data, false)
+		sh, file, _, err := decode(data, false)
 		if err != nil {
 			return
 		}
 		s := newSession(false)
 		s.sh, s.v = sh, file.View
-		again, _, err := decode(s.encode(), false)
+		again, _, _, err := decode(s.encode(), false)
 		if err != nil {
 			t.Fatalf("a decoded session does not decode again: %v", err)
 		}

@@ -9,8 +9,8 @@
 //	argand help [TOPIC]    print help
 //	argand --version
 //
-// Flags: --json, --digits N, --ascii, --plain. Exit codes: 0 ok, 1 a check
-// failed, 2 bad input or usage, 130 interrupted (ctrl+c).
+// Flags: --json, --digits N, --ascii, --plain, --new. Exit codes: 0 ok, 1 a
+// check failed, 2 bad input or usage, 130 interrupted (ctrl+c).
 package main
 
 import (
@@ -40,6 +40,7 @@ const version = "0.1.0"
 type flags struct {
 	opt     cli.Options
 	plain   bool
+	fresh   bool // --new: a blank session
 	version bool
 	help    bool
 	args    []string
@@ -70,6 +71,8 @@ func parse(argv []string) (flags, error) {
 			f.opt.ASCII = true
 		case "plain":
 			f.plain = true
+		case "new":
+			f.fresh = true
 		case "polar":
 			f.opt.PolarFirst = true
 		case "version":
@@ -181,6 +184,7 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 		PolarFirst: f.opt.PolarFirst,
 		Digits:     f.opt.Digits,
 		File:       file,
+		New:        f.fresh,
 	}
 	if f.plain || os.Getenv("TERM") == "dumb" || os.Getenv("TERM") == "" {
 		// the line mode works on the same session as the app

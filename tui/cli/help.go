@@ -28,7 +28,8 @@ usage:
   argand FILE            open a worksheet in the app
   argand eval EXPR...    evaluate each argument; print every step
   argand run FILE        run a worksheet (- for standard input), every step
-  argand help [TOPIC]    topics: language, functions, networks, safety
+  argand help [TOPIC]    topics: language, functions, networks, safety, or a
+                         function or statement name (argand help acos)
   argand --version
 
 flags:
@@ -37,6 +38,8 @@ flags:
   --ascii      ASCII only: ohm, u, @, deg (automatic in a non-UTF-8 locale)
   --polar      show the polar form first
   --plain      line-by-line mode instead of the full-screen app (also TERM=dumb)
+  --new        start a new, empty session; the last one is kept as a worksheet
+               file beside the session file, and the app says where
 
 exit codes: 0 ok, 1 a check failed, 2 bad input or usage.
 `
@@ -141,8 +144,12 @@ func Help(args []string, w, ew io.Writer, o Options) int {
 		case "functions":
 			text = FunctionList()
 		default:
-			fmt.Fprintf(ew, "argand: no help topic %q; topics: language, functions, networks, safety\n", args[0])
-			return ExitBadInput
+			t, ok := Topic(args[0])
+			if !ok {
+				fmt.Fprintf(ew, "argand: no help on %q; topics: language, functions, networks, safety, or a function or statement name\n", calc.Printable(args[0]))
+				return ExitBadInput
+			}
+			text = t
 		}
 	}
 	if o.ASCII {
@@ -169,6 +176,60 @@ var Fields = [][2]string{
 	{"xs", "series reactance in Ω (signed)"},
 	{"rp", "parallel resistance in Ω"},
 	{"xp", "parallel reactance in Ω (signed)"},
+}
+
+// Topic returns help on one name: a function (its parameters, what it
+// computes and its formula) or a statement keyword (the lines of the
+// language help that show it). ok is false when the name is neither.
+func Topic(name string) (text string, ok bool) {
+	name = strings.TrimSpace(name)
+	for _, f := range sheet.Functions() {
+		if f.Name != name {
+			continue
+		}
+		var b strings.Builder
+		b.WriteString(f.Name + f.ArgList() + "\n")
+		for _, l := range wrap(f.Doc, 80-4) {
+			b.WriteString("    " + l + "\n")
+		}
+		for _, p := range f.Params {
+			line := p.Name
+			if p.Kind != calc.ParamAny {
+				line += ": " + p.Kind.String()
+			}
+			if p.Optional {
+				line += " (optional)"
+			}
+			if p.Doc != "" {
+				line += "; " + p.Doc
+			}
+			for i, l := range wrap(line, 80-6) {
+				if i == 0 {
+					b.WriteString("    " + l + "\n")
+				} else {
+					b.WriteString("      " + l + "\n")
+				}
+			}
+		}
+		if f.Formula != "" {
+			b.WriteString("    formula: " + f.Formula + "\n")
+		}
+		if len(f.Words) > 0 {
+			b.WriteString("    words it takes: " + strings.Join(f.Words, ", ") + "\n")
+		}
+		return b.String(), true
+	}
+	var lines []string
+	for _, l := range strings.Split(language+"\n"+networks, "\n") {
+		f := strings.Fields(l)
+		if len(f) > 0 && (f[0] == name || len(f) > 1 && f[0]+" "+f[1] == name) {
+			lines = append(lines, strings.TrimSpace(l))
+		}
+	}
+	if len(lines) > 0 {
+		return "statement " + name + "\n    " + strings.Join(lines, "\n    ") + "\n", true
+	}
+	return "", false
 }
 
 // FunctionList lists every function with its arguments and what it does,
