@@ -47,7 +47,7 @@ type Options struct {
 	// New starts a blank session (--new); the last one is kept as a
 	// worksheet file beside the session file.
 	New bool
-	Dir        string // state directory; "" is store.Dir()
+	Dir string // state directory; "" is store.Dir()
 	// Out receives clipboard requests (OSC 52), written outside the
 	// screen renderer; nil discards them.
 	Out    io.Writer

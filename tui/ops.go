@@ -8,7 +8,6 @@ import (
 	"strings"
 
 	"argand/calc"
-	"argand/reduce/sheet"
 	"argand/reduce/power"
 	"argand/reduce/sheet"
 	"argand/reduce/site"
