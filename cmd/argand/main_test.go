@@ -89,7 +89,7 @@ func TestCommandLine(t *testing.T) {
 		{"version", []string{"--version"}, 0, "argand ", ""},
 		{"help", []string{"help"}, 0, "exit codes: 0 ok, 1 a check failed, 2 bad input or usage", ""},
 		{"help topic", []string{"help", "functions"}, 0, "zl", ""},
-		{"help unknown topic", []string{"help", "nosuch"}, 2, "", "no help topic"},
+		{"help unknown topic", []string{"help", "nosuch"}, 2, "", "no help on"},
 		{"--help", []string{"--help"}, 0, "usage", ""},
 		{"unknown flag", []string{"--frobnicate", "eval", "1"}, 2, "", "unknown flag"},
 		{"eval nothing", []string{"eval"}, 2, "", "eval needs"},
