@@ -346,25 +346,42 @@ func (ev *Evaluator) asImpedances(n *Binary, x, y Quantity) (Quantity, Quantity,
 // partZ is the impedance of an inductance or capacitance at the working
 // frequency, with a note that shows it.
 func (ev *Evaluator) partZ(e Expr, q Quantity) (Quantity, *Error) {
-	c := ev.Env.Context()
+	z, note, err := PartImpedance(ev.Env.Context(), q)
+	if err != nil {
+		if c := ev.Env.Context(); c.Freq <= 0 {
+			err = fmt.Errorf("%s is a part value: %v", ev.text(e), err)
+		}
+		return Quantity{}, ev.errAt(e, err)
+	}
+	ev.note(note)
+	return z, nil
+}
+
+// PartImpedance is the impedance of an inductance or capacitance at the
+// working frequency (X_L = ωL, X_C = −1/(ωC), common practice), with the
+// note a step shows for it, such as "10.00 µF at 50.00 Hz: -j318.3 Ω".
+// With no working frequency it says to set one.
+func PartImpedance(c *Context, q Quantity) (Quantity, string, error) {
 	if c.Freq <= 0 {
-		return Quantity{}, ev.errAt(e, fmt.Errorf("%s is a part value: set a working frequency to use its impedance (as in frequency 50 Hz)", ev.text(e)))
+		return Quantity{}, "", fmt.Errorf("set a working frequency to use its impedance (as in frequency 50 Hz)")
+	}
+	if !q.IsReal() {
+		return Quantity{}, "", fmt.Errorf("a part value must be real to give an impedance")
 	}
 	var z Quantity
 	var err error
-	if !q.IsReal() {
-		return Quantity{}, ev.errAt(e, fmt.Errorf("a part value must be real to give an impedance"))
-	}
-	if q.Dim == DimInductance {
+	switch q.Dim {
+	case DimInductance:
 		z, err = InductorZ(q.V, c.Freq)
-	} else {
+	case DimCapacitance:
 		z, err = CapacitorZ(q.V, c.Freq)
+	default:
+		return Quantity{}, "", fmt.Errorf("%s is not a part value (H or F)", DimName(q.Dim, false))
 	}
 	if err != nil {
-		return Quantity{}, ev.errAt(e, err)
+		return Quantity{}, "", err
 	}
-	ev.note(fmt.Sprintf("%s at %s: %s", c.Format.Rect(q), c.Format.Mag(c.Freq, DimFrequency, KindPlain), c.Format.Rect(z)))
-	return z, nil
+	return z, fmt.Sprintf("%s at %s: %s", c.Format.Rect(q), c.Format.Mag(c.Freq, DimFrequency, KindPlain), c.Format.Rect(z)), nil
 }
 
 // note adds a remark to the statement's step once.

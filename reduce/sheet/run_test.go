@@ -2,6 +2,7 @@ package sheet
 
 import (
 	"bufio"
+	"fmt"
 	"math"
 	"reflect"
 	"strings"
@@ -129,5 +130,35 @@ func TestPowerFromAcos(t *testing.T) {
 	}
 	if !ok || math.Abs(real(q.V)-1112.28) > 1e-9*1112.28 {
 		t.Errorf("P = %v, want 1112.28 W", q.V)
+	}
+}
+
+// TestPartValuesInSeries: series(22 mH, 150 Ω) uses the inductor's
+// impedance at the working frequency, X_L = ωL = 2π·50 Hz·22 mH (common
+// practice), and says so in a note; the same at 60 Hz follows the setting.
+func TestPartValuesInSeries(t *testing.T) {
+	for _, f := range []float64{50, 60} {
+		s := New()
+		if _, err := s.Exec(fmt.Sprintf("frequency %g Hz", f)); err != nil {
+			t.Fatal(err)
+		}
+		steps, err := s.Exec("Zs = series(22 mH, 150 Ω)")
+		if err != nil {
+			t.Fatal(err)
+		}
+		q, _ := s.Lookup("Zs")
+		want := complex(150, 2*math.Pi*f*22e-3)
+		if q.Dim != calc.DimImpedance || math.Abs(real(q.V)-real(want)) > 1e-9 || math.Abs(imag(q.V)-imag(want)) > 1e-9*imag(want) {
+			t.Errorf("at %g Hz: Zs = %v, want %v Ω", f, q.V, want)
+		}
+		noted := false
+		for _, st := range steps {
+			for _, n := range st.Notes {
+				noted = noted || strings.Contains(n, "22.00 mH at ")
+			}
+		}
+		if !noted {
+			t.Errorf("at %g Hz: no note on the inductor's impedance", f)
+		}
 	}
 }
