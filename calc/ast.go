@@ -27,6 +27,11 @@ type Lit struct {
 	// since is the language version that introduced that reading.
 	Note  string
 	since int
+	// num is the number as written (digits, point, exponent), so that a
+	// power-of-ten scale is applied in decimal rather than by a binary
+	// multiplication: 333.33333333333331 mΩ is the float64 nearest that
+	// decimal value, as 17 digits shown promise.
+	num string
 }
 
 // Since returns the language version that introduced the reading of the

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 )
@@ -147,7 +148,7 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 			ev.note(n.Note)
 		}
 		if n.hasUnit {
-			v *= complex(n.scale, 0)
+			v = n.scaled()
 			q, err := Quantity{V: v, Dim: n.dim, Kind: literalKind(n, v)}.Check("number")
 			if err != nil {
 				return Quantity{}, ev.errAt(n, err)
@@ -382,6 +383,46 @@ func PartImpedance(c *Context, q Quantity) (Quantity, string, error) {
 		return Quantity{}, "", err
 	}
 	return z, fmt.Sprintf("%s at %s: %s", c.Format.Rect(q), c.Format.Mag(c.Freq, DimFrequency, KindPlain), c.Format.Rect(z)), nil
+}
+
+// scaled is the literal's value times its unit's scale. A power-of-ten
+// scale (a prefix, %) is applied to the decimal text, so the value is the
+// float64 nearest the decimal number written, as exact as without a unit.
+func (l *Lit) scaled() complex128 {
+	v := l.Val * complex(l.scale, 0)
+	if l.num == "" || real(l.Val) != 0 && imag(l.Val) != 0 {
+		return v
+	}
+	k, ok := pow10(l.scale)
+	if !ok {
+		return v
+	}
+	mant, exp := l.num, 0
+	if i := strings.IndexAny(mant, "eE"); i >= 0 {
+		e, err := strconv.Atoi(mant[i+1:])
+		if err != nil || e > 1000 || e < -1000 {
+			return v
+		}
+		mant, exp = mant[:i], e
+	}
+	x, err := strconv.ParseFloat(mant+"e"+strconv.Itoa(exp+k), 64)
+	if err != nil && !errors.Is(err, strconv.ErrRange) || math.IsInf(x, 0) {
+		return v
+	}
+	if imag(l.Val) != 0 {
+		return complex(0, x)
+	}
+	return complex(x, 0)
+}
+
+// pow10 reports whether s is 10^k for a whole k within the prefixes' reach.
+func pow10(s float64) (int, bool) {
+	for k := -30; k <= 30; k++ {
+		if math.Pow10(k) == s {
+			return k, true
+		}
+	}
+	return 0, false
 }
 
 // note adds a remark to the statement's step once.

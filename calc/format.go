@@ -2,6 +2,7 @@ package calc
 
 import (
 	"math"
+	"math/big"
 	"math/cmplx"
 	"strconv"
 	"strings"
@@ -17,9 +18,11 @@ type Format struct {
 // DefaultDigits is the number of significant figures shown when none is set.
 const DefaultDigits = 4
 
-// MaxDigits bounds the significant figures: beyond 15 a float64 no longer
-// carries them.
-const MaxDigits = 15
+// MaxDigits bounds the significant figures. 17 are enough to tell any two
+// float64 values apart, so a value shown at 17 digits parses back exactly;
+// beyond 15 the last figures show the binary value's decimal expansion
+// rather than anything measured.
+const MaxDigits = 17
 
 func (f Format) digits() int {
 	if f.Digits <= 0 {
@@ -105,6 +108,13 @@ func decExp(x float64, digits int) int {
 	return e
 }
 
+func abs(n int) int {
+	if n < 0 {
+		return -n
+	}
+	return n
+}
+
 // scale10 returns x/10^e, in two steps where 10^e alone would be subnormal
 // and lose digits.
 func scale10(x float64, e int) float64 {
@@ -118,8 +128,21 @@ var prefixFor = map[int]string{-30: "q", -27: "r", -24: "y", -21: "z", -18: "a",
 	0: "", 3: "k", 6: "M", 9: "G", 12: "T", 15: "P", 18: "E", 21: "Z", 24: "Y", 27: "R", 30: "Q"}
 
 // fixed formats x/10^exp3 with the given decimals, never as "-0.000".
+// Beyond 15 significant figures the division by 10^exp3 would round in
+// binary first, so there the exact decimal value of x is scaled instead,
+// and the figures shown are those of x itself.
 func fixed(x float64, exp3, decimals int) string {
-	s := strconv.FormatFloat(scale10(x, exp3), 'f', decimals, 64)
+	var s string
+	if exp3 != 0 && decimals+max(0, decExp(math.Abs(x), 15)-exp3+1) > 15 && x != 0 {
+		r := new(big.Rat).SetFloat64(x)
+		p := new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(abs(exp3))), nil))
+		if exp3 < 0 {
+			p.Inv(p)
+		}
+		s = r.Mul(r, p).FloatString(decimals)
+	} else {
+		s = strconv.FormatFloat(scale10(x, exp3), 'f', decimals, 64)
+	}
 	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
 		s = s[1:]
 	}
@@ -247,7 +270,9 @@ func (f Format) Rect(q Quantity) string {
 			return dec
 		}
 		d := f.digits() - 1 - (decExp(math.Abs(x), f.digits()) - exp3)
-		if d > dec+3 {
+		if d > dec+3 && f.digits() < MaxDigits {
+			// (at the most figures every part shows its own, so that what
+			// is shown is the value itself)
 			return dec // too small to show its figures: it reads as 0
 		}
 		return max(d, dec)

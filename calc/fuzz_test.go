@@ -1,7 +1,10 @@
 package calc
 
 import (
+	"math"
 	"math/cmplx"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"unicode/utf8"
@@ -20,6 +23,12 @@ var fuzzSeeds = []string{
 	"10 m", "1 hp", "2 rad/s", "1∠0.5 rad", "3.3 kohm", "1 W + 1 var", "2 VA * 0.5", "1.5e3 Ω", ".5",
 	"mag(z = Z)", "mag(z = Z, z = Z)", "mag(y = 1)", "sin(θ = 30)", "atan2(x = 3, y = 4)", "atan2(3, x = 4)",
 	"atan2(y = 4, 3)", "mag(z =)", "mag(= 3)", "mag(2 A)^2 * 50 Ω", "1 kW + 1 kVA", "230 V * 10 A",
+	// as technicians type them
+	"4.7k || 10k", "330n * 2", "1M", "1.2k ohm", "47R", "0R1", "4K7", "4k7", "2M2", "4n7", "2µ2", "2u2",
+	"4k7 || 10k", "230 v", "6.2 a", "50 hz", "2.2 mh", "1.2 kw", "5 kva", "300 VAr", "2 kVAr", "3 Ohm",
+	"2 kOhm", "10 uf", "4.7 KΩ", "2 mw", "2 mva", "2 mvar", "2 mhz", "10E", "3P", "4.7K", "4.7R",
+	"10 µF || 4.7 kΩ", "4.7 kΩ + 10 mH", "10\u00a0V", "10\u202fkΩ", "10\u2009V", "10 k\u2126", "4.7 \u00b5F",
+	"3\u200b+4", "\ufeff3", "acos(0.78)", "asin(0.5)", "atan(1)", "acos(2)", "1/3 Ω", "2/3 kV", "1e-7 F",
 }
 
 // checkErr asserts an error's place lies inside its line.
@@ -127,8 +136,84 @@ func FuzzEval(f *testing.F) {
 			fm := Format{Digits: d}
 			roundTripT(t, fm.Rect(q), q, d)
 			roundTripT(t, fm.Polar(q), q, d)
+			halfUnit(t, fm.Rect(q), q)
+			// at 17 figures what is shown is the value itself
+			halfUnit(t, Format{Digits: 17}.Rect(q), q)
+			exact17(t, q)
 		}
 	})
+}
+
+// rectText splits a rectangular form as shown ("3.000 + j4.000 kΩ",
+// "-j318.3 Ω", "4.700e-6") into its numbers and unit word.
+var rectText = regexp.MustCompile(`^(-?)(j?)(\d+)(?:\.(\d+))?(e-?\d+)?(?: ([+-]) j(\d+)(?:\.(\d+))?(e-?\d+)?)?(?: (.+))?$`)
+
+// halfUnit checks the round-trip invariant of what is shown: each part of
+// the rectangular form parses back to within half a unit in its last shown
+// digit of the value (plus a few ulps of the magnitude for the binary
+// arithmetic of parsing and scaling). The unit of the last digit is read
+// from the text itself: its decimals, its exponent and its prefix.
+func halfUnit(t *testing.T, text string, q Quantity) {
+	t.Helper()
+	m := rectText.FindStringSubmatch(text)
+	if m == nil {
+		return // a form this check does not read (an angle, a per-second rate)
+	}
+	prefix := 1.0
+	if m[10] != "" {
+		u, ok := lookupUnit(m[10])
+		base, ok2 := lookupUnit(UnitSymbol(q.Dim, q.Kind, false))
+		if !ok || !ok2 {
+			return
+		}
+		prefix = u.scale / base.scale
+	}
+	unit := func(frac, exp string) float64 {
+		e := 0
+		if exp != "" {
+			e, _ = strconv.Atoi(exp[1:])
+		}
+		return math.Pow10(e-len(frac)) * prefix
+	}
+	re, im := cleanParts(q.V)
+	slack := 8 * 2.220446049250313e-16 * cmplx.Abs(q.V)
+	back, err := evalString(newTestEnv(), text)
+	if err != nil {
+		t.Fatalf("%q does not parse back: %v", text, err)
+	}
+	if m[2] == "j" { // the imaginary part alone
+		if d := math.Abs(imag(back.V) - im); d > unit(m[4], m[5])/2+slack {
+			t.Fatalf("%q: imaginary part %v off %v by %g, more than half a unit (%g)", text, imag(back.V), im, d, unit(m[4], m[5])/2)
+		}
+		return
+	}
+	if d := math.Abs(real(back.V) - re); d > unit(m[4], m[5])/2+slack {
+		t.Fatalf("%q: real part %v off %v by %g, more than half a unit (%g)", text, real(back.V), re, d, unit(m[4], m[5])/2)
+	}
+	if m[7] != "" {
+		if d := math.Abs(imag(back.V) - im); d > unit(m[8], m[9])/2+slack {
+			t.Fatalf("%q: imaginary part %v off %v by %g, more than half a unit (%g)", text, imag(back.V), im, d, unit(m[8], m[9])/2)
+		}
+	}
+}
+
+// exact17: at digits 17 the rectangular form parses back to the very same
+// float64 parts, unless a part is below 1e-12 of the magnitude, which is
+// shown as 0 by design (rounding noise, as in 3∠90°).
+func exact17(t *testing.T, q Quantity) {
+	t.Helper()
+	re, im := cleanParts(q.V)
+	if re != real(q.V) || im != imag(q.V) {
+		return
+	}
+	text := Format{Digits: 17}.Rect(q)
+	back, err := evalString(newTestEnv(), text)
+	if err != nil {
+		t.Fatalf("%q does not parse back: %v", text, err)
+	}
+	if back.V != q.V {
+		t.Fatalf("digits 17: %q parses back as %v, not %v", text, back.V, q.V)
+	}
 }
 
 // parsesBack reports whether the display unit of q is one the parser reads

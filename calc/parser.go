@@ -509,6 +509,7 @@ func (p *Parser) literal(t Item) Expr {
 	} else {
 		l.Val = complex(x, 0)
 	}
+	l.num = text
 	return p.unit(l)
 }
 
@@ -651,7 +652,7 @@ func (p *Parser) code(l *Lit, num string, word Item) bool {
 		return true
 	}
 	p.next()
-	l.Val = complex(x, 0)
+	l.Val, l.num = complex(x, 0), text
 	l.hasUnit, l.Unit, l.scale, l.kind, l.end, l.since = true, pre+sym, scale, KindPlain, word.End, 2
 	l.dim = DimImpedance
 	if sym == "F" {

@@ -6,8 +6,8 @@ import (
 	"testing"
 )
 
-// evalNotes evaluates src and returns its value and the notes said.
-func evalNotes(t *testing.T, env Env, src string) (Quantity, []string, *Error) {
+// evalRead evaluates src and returns its value and the notes said.
+func evalRead(t *testing.T, env Env, src string) (Quantity, []string, *Error) {
 	t.Helper()
 	x, err := ParseExpr(src, 1)
 	if err != nil {
@@ -105,7 +105,7 @@ func TestReadAsTyped(t *testing.T) {
 		{"10 mH + 5 mH", 15e-3, DimInductance, "", "common practice: inductances in series add"},
 	}
 	for _, tc := range tests {
-		q, notes, err := evalNotes(t, newTestEnv(), tc.src)
+		q, notes, err := evalRead(t, newTestEnv(), tc.src)
 		if err != nil {
 			t.Errorf("%s (%s): %v", tc.src, tc.source, err)
 			continue
@@ -126,7 +126,7 @@ func par(a, b complex128) complex128 { return a * b / (a + b) }
 // it reads without any note, so notes only ever flag a guess.
 func TestReadExactNoNote(t *testing.T) {
 	for _, src := range []string{"230 V", "4.7 kΩ", "10 µF", "2.2 mH", "5 kVA", "300 var", "50 Hz", "5 mW", "1.2 kW", "10 ohm", "3 kohm"} {
-		_, notes, err := evalNotes(t, newTestEnv(), src)
+		_, notes, err := evalRead(t, newTestEnv(), src)
 		if err != nil || len(notes) != 0 {
 			t.Errorf("%s: notes %q, error %v; want none", src, notes, err)
 		}
@@ -166,7 +166,7 @@ func TestReadRefused(t *testing.T) {
 		{"10 k", "must follow the number directly", 4},
 	}
 	for _, tc := range tests {
-		_, _, err := evalNotes(t, newTestEnv(), tc.src)
+		_, _, err := evalRead(t, newTestEnv(), tc.src)
 		if err == nil || !strings.Contains(err.Msg, tc.msg) || err.Col != tc.col {
 			t.Errorf("%q: error %v, want %q at col %d", tc.src, err, tc.msg, tc.col)
 		}
@@ -181,7 +181,7 @@ func TestReadRefused(t *testing.T) {
 func TestPartValueNeedsFrequency(t *testing.T) {
 	env := newTestEnv()
 	env.ctx.Freq = 0
-	_, _, err := evalNotes(t, env, "10 µF || 4.7 kΩ")
+	_, _, err := evalRead(t, env, "10 µF || 4.7 kΩ")
 	if err == nil || !strings.Contains(err.Msg, "set a working frequency") || err.Col != 1 {
 		t.Errorf("error %v, want one saying to set a working frequency at col 1", err)
 	}
@@ -216,7 +216,7 @@ func TestInverseTrig(t *testing.T) {
 		{"atan(sqrt(3))", 60}, {"cos(acos(0.78))*100", 78},
 	}
 	for _, tc := range tests {
-		q, _, err := evalNotes(t, newTestEnv(), tc.src)
+		q, _, err := evalRead(t, newTestEnv(), tc.src)
 		if err != nil {
 			t.Errorf("%s: %v", tc.src, err)
 			continue
@@ -232,7 +232,7 @@ func TestInverseTrig(t *testing.T) {
 		}
 	}
 	for src, msg := range map[string]string{"acos(2)": "from −1 to 1", "asin(-1.5)": "from −1 to 1", "acos(1 V)": "plain number", "atan(j)": "real number", "acos(30°)": "not an angle"} {
-		_, _, err := evalNotes(t, newTestEnv(), src)
+		_, _, err := evalRead(t, newTestEnv(), src)
 		if err == nil || !strings.Contains(err.Msg, strings.TrimPrefix(msg, "not ")) {
 			t.Errorf("%s: error %v, want %q", src, err, msg)
 		}

@@ -82,14 +82,14 @@ func parse(argv []string) (flags, error) {
 		case "digits":
 			if !hasVal {
 				if i+1 >= len(argv) {
-					return f, fmt.Errorf("--digits needs a number from 1 to 15")
+					return f, fmt.Errorf("--digits needs a number from 1 to %d", calc.MaxDigits)
 				}
 				i++
 				val = argv[i]
 			}
 			n, err := strconv.Atoi(val)
-			if err != nil || n < 1 || n > 15 {
-				return f, fmt.Errorf("--digits takes a whole number from 1 to 15, not %q", val)
+			if err != nil || n < 1 || n > calc.MaxDigits {
+				return f, fmt.Errorf("--digits takes a whole number from 1 to %d, not %q", calc.MaxDigits, val)
 			}
 			f.opt.Digits = n
 		default:

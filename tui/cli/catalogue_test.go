@@ -69,7 +69,7 @@ var catalogue = []struct {
 	{"frequency zero", nil, "frequency 0 Hz", "greater than 0", 11},
 	{"frequency negative", nil, "frequency -50 Hz", "greater than 0", 11},
 	{"frequency wrong unit", nil, "frequency 10 Ω", "Hz or rad/s", 11},
-	{"digits out of range", nil, "digits 99", "1 to 15", 8},
+	{"digits out of range", nil, "digits 99", "1 to 17", 8},
 	{"basis unknown", nil, "basis wobble", "rms or peak", 7},
 	{"too many arguments", nil, "mag(1, 2)", "takes 1 argument", 1},
 	{"too few arguments", nil, "atan2(1)", "takes 2 argument", 1},

@@ -34,7 +34,7 @@ usage:
 
 flags:
   --json       one JSON object per line (same in every locale)
-  --digits N   significant figures shown (1 to 15, default 4)
+  --digits N   significant figures shown (1 to 17, default 4)
   --ascii      ASCII only: ohm, u, @, deg (automatic in a non-UTF-8 locale)
   --polar      show the polar form first
   --plain      line-by-line mode instead of the full-screen app (also TERM=dumb)
