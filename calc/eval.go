@@ -483,6 +483,11 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		if err != nil {
 			return Result{}, err
 		}
+		if params[i] != nil {
+			if q, err = ev.asParam(a, q, *params[i]); err != nil {
+				return Result{}, err
+			}
+		}
 		args[i].Q = q
 		if params[i] != nil {
 			if e2 := checkParam(f, *params[i], args[i]); e2 != nil {
@@ -513,6 +518,59 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 		}
 	}
 	return r, nil
+}
+
+// paramUnit is the unit a parameter kind expects, for a number scaled by
+// a prefix alone (10k) given to it; ok is false where the kind has no one
+// unit (a ratio, a power of any kind).
+func paramUnit(k ParamKind) (d Dim, kind Kind, ok bool) {
+	switch k {
+	case ParamVoltage:
+		return DimVoltage, KindPlain, true
+	case ParamCurrent:
+		return DimCurrent, KindPlain, true
+	case ParamImpedance, ParamImpedanceOrAdmittance, ParamResistance:
+		return DimImpedance, KindPlain, true
+	case ParamInductance:
+		return DimInductance, KindPlain, true
+	case ParamCapacitance:
+		return DimCapacitance, KindPlain, true
+	case ParamFrequency:
+		return DimFrequency, KindPlain, true
+	case ParamTime:
+		return DimTime, KindPlain, true
+	case ParamLength:
+		return DimLength, KindPlain, true
+	case ParamActivePower:
+		return DimPower, KindActive, true
+	case ParamReactivePower:
+		return DimPower, KindReactive, true
+	case ParamApparentPower, ParamSPower:
+		return DimPower, KindApparent, true
+	}
+	return Dimensionless, KindPlain, false
+}
+
+// asParam reads an argument as its parameter expects: a number scaled by a
+// prefix alone takes the parameter's unit (series(10k, 4K7) is in Ω,
+// zc(100n) in F), and a part value given for an impedance becomes its
+// impedance at the working frequency. Each reading is said in a note.
+func (ev *Evaluator) asParam(a Expr, q Quantity, p Param) (Quantity, *Error) {
+	if l := litOf(a); l != nil && l.bare && q.Dim.IsDimensionless() {
+		if d, k, ok := paramUnit(p.Kind); ok {
+			l2 := *l
+			l2.dim, l2.kind = d, k
+			q = Quantity{V: q.V, Dim: d, Kind: literalKind(&l2, q.V)}
+			ev.Since = max(ev.Since, 2)
+			ev.note(fmt.Sprintf("read %q as %s (the unit %s takes)", ev.text(a), ev.Env.Context().Format.Rect(q), p.Name))
+			return q, nil
+		}
+	}
+	if (p.Kind == ParamImpedance || p.Kind == ParamImpedanceOrAdmittance) && (q.Dim == DimInductance || q.Dim == DimCapacitance) {
+		ev.Since = max(ev.Since, 2)
+		return ev.partZ(a, q)
+	}
+	return q, nil
 }
 
 // word reports an argument written as one of the function's bare words

@@ -231,10 +231,59 @@ func TestInverseTrig(t *testing.T) {
 			t.Errorf("%s = %.12g, want %g", tc.src, got, tc.deg)
 		}
 	}
-	for src, msg := range map[string]string{"acos(2)": "from −1 to 1", "asin(-1.5)": "from −1 to 1", "acos(1 V)": "plain number", "atan(j)": "real number", "acos(30°)": "not an angle"} {
+	for src, msg := range map[string]string{"acos(2)": "from −1 to 1", "asin(-1.5)": "from −1 to 1", "acos(1 V)": "plain real number", "atan(j)": "real number", "acos(30°)": "plain real number"} {
 		_, _, err := evalRead(t, newTestEnv(), src)
 		if err == nil || !strings.Contains(err.Msg, strings.TrimPrefix(msg, "not ")) {
 			t.Errorf("%s: error %v, want %q", src, err, msg)
 		}
+	}
+}
+
+// funcEnv adds one function to the test environment.
+type funcEnv struct {
+	*testEnv
+	f Func
+}
+
+func (e funcEnv) Func(name string) (*Func, bool) {
+	if name == e.f.Name {
+		return &e.f, true
+	}
+	return nil, false
+}
+
+// TestArgumentsAsParamsExpect: a number scaled by a prefix alone takes the
+// unit its parameter expects, and a part value given for an impedance is
+// its impedance at the working frequency (X_L = ωL, common practice);
+// with no working frequency that is an error saying to set one.
+func TestArgumentsAsParamsExpect(t *testing.T) {
+	sum := Func{Name: "zsum", Params: []Param{{Name: "Z", Kind: ParamImpedance}}, Min: 1, Max: -1,
+		Call: func(c *Context, args []Arg) (Result, error) {
+			var v complex128
+			for _, a := range args {
+				v += a.Q.V
+			}
+			return Value(Quantity{V: v, Dim: DimImpedance}), nil
+		}}
+	env := funcEnv{newTestEnv(), sum}
+	q, notes, err := evalRead(t, env, "zsum(22 mH, 150 Ω, 10k)")
+	want := complex(150+10e3, 2*math.Pi*50*22e-3)
+	if err != nil || !closeC(q.V, want, 1e-12) {
+		t.Fatalf("zsum(22 mH, 150 Ω, 10k) = %v (%v), want %v", q.V, err, want)
+	}
+	all := strings.Join(notes, " | ")
+	for _, n := range []string{"22.00 mH at 50.00 Hz: j6.912 Ω", `read "10k" as 10.00 kΩ (the unit Z takes)`} {
+		if !strings.Contains(all, n) {
+			t.Errorf("notes %q lack %q", all, n)
+		}
+	}
+	// zc takes a capacitance: 100n is 100 nF, X_C = −1/(ωC) (common practice)
+	q, _, err = evalRead(t, newTestEnv(), "zc(100n)")
+	if err != nil || !closeC(q.V, complex(0, -1/(2*math.Pi*50*100e-9)), 1e-12) {
+		t.Errorf("zc(100n) = %v (%v)", q.V, err)
+	}
+	env.ctx.Freq = 0
+	if _, _, err := evalRead(t, env, "zsum(22 mH, 150 Ω)"); err == nil || !strings.Contains(err.Msg, "set a working frequency") || err.Col != 6 {
+		t.Errorf("with no frequency: %v, want an error at col 6 saying to set one", err)
 	}
 }

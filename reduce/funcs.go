@@ -168,48 +168,16 @@ func operands(args []calc.Arg) []calc.Operand {
 }
 
 func callList(f func(...calc.Operand) (calc.Quantity, []calc.Step, error)) func(*calc.Context, []calc.Arg) (calc.Result, error) {
-	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+	return func(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 		if len(args) == 0 {
 			return calc.Result{}, fmt.Errorf("no arguments given")
-		}
-		args, notes, err := partsAsImpedances(c, args)
-		if err != nil {
-			return calc.Result{}, err
 		}
 		q, steps, err := f(operands(args)...)
 		if err != nil {
 			return calc.Result{}, err
 		}
-		return calc.Result{Value: q, Steps: steps, Notes: notes}, nil
+		return calc.Result{Value: q, Steps: steps}, nil
 	}
-}
-
-// partsAsImpedances gives the inductances and capacitances among impedances
-// their impedance at the working frequency, so series(22 mH, 150 Ω) reads
-// as meant; each is said in a note. Parts among parts stay as they are.
-func partsAsImpedances(c *calc.Context, args []calc.Arg) ([]calc.Arg, []string, error) {
-	hasZ := false
-	for _, a := range args {
-		hasZ = hasZ || a.Q.Dim == calc.DimImpedance
-	}
-	if !hasZ || c == nil {
-		return args, nil, nil
-	}
-	var notes []string
-	out := make([]calc.Arg, len(args))
-	copy(out, args)
-	for i, a := range args {
-		if a.Q.Dim != calc.DimInductance && a.Q.Dim != calc.DimCapacitance {
-			continue
-		}
-		z, note, err := calc.PartImpedance(c, a.Q)
-		if err != nil {
-			return nil, nil, fmt.Errorf("%s is a part value: %v", a.Text, err)
-		}
-		out[i].Q = z
-		notes = append(notes, note)
-	}
-	return out, notes, nil
 }
 
 // need guards a call made with fewer arguments than the function takes;

@@ -109,19 +109,3 @@ func TestFuncErrors(t *testing.T) {
 		t.Errorf("ideal source: %+v %v", res, err)
 	}
 }
-
-// TestPartsNeedFrequency: with no working frequency a part value among
-// impedances is an error that says to set one.
-func TestPartsNeedFrequency(t *testing.T) {
-	args := []calc.Arg{{Q: calc.Real(22e-3, calc.DimInductance), Text: "22 mH"}, {Q: calc.Real(150, calc.DimImpedance), Text: "150 Ω"}}
-	_, _, err := partsAsImpedances(&calc.Context{}, args)
-	if err == nil || !strings.Contains(err.Error(), "set a working frequency") || !strings.Contains(err.Error(), "22 mH") {
-		t.Errorf("error %v, want one naming 22 mH and saying to set a working frequency", err)
-	}
-	// two inductances in series stay an inductance (common practice)
-	same := []calc.Arg{{Q: calc.Real(22e-3, calc.DimInductance)}, {Q: calc.Real(10e-3, calc.DimInductance)}}
-	out, notes, err := partsAsImpedances(&calc.Context{Freq: 50}, same)
-	if err != nil || len(notes) != 0 || out[0].Q.Dim != calc.DimInductance {
-		t.Errorf("inductances among inductances changed: %v %v %v", out, notes, err)
-	}
-}

@@ -11,7 +11,7 @@ import (
 var samples = map[string]string{
 	"mag": "mag(3+j4 Ω)", "arg": "arg(3+j4 Ω)", "re": "re(3+j4 Ω)", "im": "im(3+j4 Ω)", "conj": "conj(3+j4 Ω)",
 	"recip": "recip(3+j4 Ω)", "sqrt": "sqrt(4)", "sin": "sin(30)", "cos": "cos(30)", "tan": "tan(30)",
-	"atan2": "atan2(1 V, 1 V)", "exp": "exp(1)", "ln": "ln(2)", "log10": "log10(2)", "deg": "deg(1 rad)",
+	"atan2": "atan2(1 V, 1 V)", "asin": "asin(0.5)", "acos": "acos(0.78)", "atan": "atan(1)", "exp": "exp(1)", "ln": "ln(2)", "log10": "log10(2)", "deg": "deg(1 rad)",
 	"rad": "rad(90)", "omega": "omega(50 Hz)", "zr": "zr(10 Ω)", "zl": "zl(10 mH)", "zc": "zc(10 uF)",
 	"admittance": "admittance(3+j4 Ω)", "series": "series(3 Ω, j4 Ω)", "parallel": "parallel(3 Ω, j4 Ω)",
 	"vdiv": "vdiv(230 V, 3 Ω, j4 Ω)", "idiv": "idiv(10 A, 3 Ω, j4 Ω)", "thevenin": "thevenin(230 V, 3 Ω, j4 Ω)",
