@@ -130,3 +130,47 @@ func TestPlainHelpAndNew(t *testing.T) {
 		}
 	}
 }
+
+// TestSignatureHint: typing a function name and "(" in the entry line
+// shows its parameters under the line with the one being typed marked, by
+// position and by name; outside a call nothing is shown.
+func TestSignatureHint(t *testing.T) {
+	m := newModel(t, Options{})
+	press(m, "tab")
+	typ := func(s string) {
+		for _, r := range s {
+			m.Update(keyMsg(string(r)))
+		}
+	}
+	hint := func() string {
+		lines := strings.Split(m.View(), "\n")
+		return lines[len(lines)-1]
+	}
+	typ("x = atan2(")
+	if h := hint(); !strings.Contains(h, "atan2(«y», x)") {
+		t.Errorf("after atan2(: hint %q", h)
+	}
+	typ("1 V, ")
+	if h := hint(); !strings.Contains(h, "atan2(y, «x»)") {
+		t.Errorf("after the first argument: hint %q", h)
+	}
+	press(m, "ctrl+u")
+	typ("x = atan2(x = 1 V, y = mag(")
+	if h := hint(); !strings.Contains(h, "mag(«") {
+		t.Errorf("inside a nested call: hint %q", h)
+	}
+	typ("3), ")
+	press(m, "ctrl+u")
+	typ("x = atan2(x = ")
+	if h := hint(); !strings.Contains(h, "atan2(y, «x»)") {
+		t.Errorf("by name: hint %q", h)
+	}
+	press(m, "ctrl+u")
+	typ("x = 3 + 4")
+	if h := hint(); strings.Contains(h, "«") {
+		t.Errorf("outside a call: hint %q", h)
+	}
+	if f, a, n, ok := callAt("series(1, fromvi(2, 3", len("series(1, fromvi(2, 3")); !ok || f != "fromvi" || a != 1 || n != "" {
+		t.Errorf("callAt = %q %d %q %v", f, a, n, ok)
+	}
+}

@@ -531,6 +531,11 @@ func (m *Model) hintView() string {
 	if m.job != nil {
 		return m.th.key.Render("esc") + m.tr(" or ") + m.th.key.Render("ctrl+c") + m.tr(" stops it; the session stays as it was")
 	}
+	if sig := m.signature(); sig != "" {
+		// inside a call the parameters matter more than the complaint
+		// that the call is not closed yet
+		return sig
+	}
 	if col, marks, msg, ok := m.caret(); ok {
 		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
 			// the message did not fit beside its caret: it has this line
