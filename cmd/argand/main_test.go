@@ -82,7 +82,7 @@ func TestCommandLine(t *testing.T) {
 		{"digits 6", []string{"--digits", "6", "eval", "3+j4 Ω"}, 0, "5.00000 Ω ∠53.1301°", ""},
 		{"digits=2", []string{"--digits=2", "eval", "3+j4 Ω"}, 0, "5.0 Ω ∠53°", ""},
 		{"digits 0", []string{"--digits", "0", "eval", "1"}, 2, "", "--digits"},
-		{"digits 16", []string{"--digits", "16", "eval", "1"}, 2, "", "--digits"},
+		{"digits 18", []string{"--digits", "18", "eval", "1"}, 2, "", "--digits"},
 		{"digits word", []string{"--digits", "many", "eval", "1"}, 2, "", "--digits"},
 		{"digits missing", []string{"eval", "1", "--digits"}, 2, "", "--digits"},
 		{"ascii", []string{"--ascii", "eval", "3+j4 kΩ", "10 µF"}, 0, "5.000 kohm @53.13 deg", ""},

@@ -51,9 +51,29 @@ numbers and units
   prefixes f p n µ (or u) m k M G T
   units Ω ohm S H F V A W var VA J C Hz s m rad deg ° % hp hp_metric
   hp is 745.7 W (550 ft·lbf/s), hp_metric 735.5 W (75 kgf·m/s)
-  A word right after a number is its unit. An exact unit wins over a prefix
-  reading: 10 m is ten metres, 1 mS a millisiemens, 1 ms a millisecond.
-  Units and prefixed units are reserved: no quantity can be named S, V or mS.
+  a word after a number is read, in this order, as
+    1 an exact unit               10 m is ten metres, 1 ms a millisecond
+    2 an exact prefix and unit    1 mS a millisiemens, 5 mW
+    3 a letter-and-digit code     (IEC 60062) the letter is the decimal sign:
+        R K M G T give Ω          47R  0R1  4R7  4K7  47K  2M2  1G5
+        p n µ m give F            4n7  6p8  2µ2  1m5
+        also 4k7 and 2u2 (common practice)
+    4 a prefix alone, only f p n u µ m k M G T, straight after the number:
+        4.7k || 10k, 330n * 2, 1M are plain numbers; one takes the unit its
+        parameter expects (zc(100n) is 100 nF) and Ω beside an impedance in
+        + − || series (4k7 || 10k, with a note); 1.2k ohm is 1.2 kΩ
+    5 a unit in another case, the prefix keeping its case, with a note:
+        230 v  6.2 a  50 hz  1.2 kw  5 kva  300 VAr  kVAr  Ohm  kOhm  10 uf
+        mh mv ma are milli; K before a unit is read as k (4.7 KΩ);
+        mw mva mvar mhz are refused: write mW or MW (milli or mega?)
+  a z y r q E P Z Y R Q alone are never prefixes: write 3e15, not 3P
+  10 µF || 4.7 kΩ, 4.7 kΩ + 10 mH, series(22 mH, 150 Ω): a part value beside
+  an impedance is its impedance at the working frequency (a step line says)
+  Ω may be typed as U+2126, µ as U+00B5; no-break, narrow and thin spaces are
+  spaces; a lone CR ends a line; a byte-order mark starting a file is ignored
+  A unit only follows a number, so a name may be a unit symbol: S = 230 V *
+  6.2 A, capacitor C = 22 µF, m = 3 (a note says so the first time).
+  Reserved: constants, function names, statement keywords, f, w and ω.
 complex values
   3+j4 Ω      rectangular; the unit applies to both parts
   3-j4 kΩ     (and 3+4j, 3+i4 are the same forms); written without spaces
@@ -101,6 +121,11 @@ statements
                          tdd crest fhl kfactor avgmeter hpower bankcheck
   spectrum I from FILE   the same from lines of: order, value, angle in
                          degrees (such as 5, 22 %, 170); # starts a comment
+  language 2             the input language a worksheet was written in; saved
+                           worksheets begin with it, and lines that read
+                           differently now are noted and listed
+  new session            (app and line mode) a new, empty session; the old
+                           one is kept as a worksheet file, said where
 `
 
 const networks = `networks
