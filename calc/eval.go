@@ -551,16 +551,27 @@ func paramUnit(k ParamKind) (d Dim, kind Kind, ok bool) {
 	return Dimensionless, KindPlain, false
 }
 
+// AsUnit gives a number scaled by a prefix alone (10k, 100n) the unit d
+// that an element or a parameter expects of it; ok is false for any other
+// expression, which keeps its own unit.
+func AsUnit(e Expr, q Quantity, d Dim, k Kind) (Quantity, bool) {
+	l := litOf(e)
+	if l == nil || !l.bare || !q.Dim.IsDimensionless() {
+		return q, false
+	}
+	l2 := *l
+	l2.dim, l2.kind = d, k
+	return Quantity{V: q.V, Dim: d, Kind: literalKind(&l2, q.V)}, true
+}
+
 // asParam reads an argument as its parameter expects: a number scaled by a
 // prefix alone takes the parameter's unit (series(10k, 4K7) is in Ω,
 // zc(100n) in F), and a part value given for an impedance becomes its
 // impedance at the working frequency. Each reading is said in a note.
 func (ev *Evaluator) asParam(a Expr, q Quantity, p Param) (Quantity, *Error) {
-	if l := litOf(a); l != nil && l.bare && q.Dim.IsDimensionless() {
-		if d, k, ok := paramUnit(p.Kind); ok {
-			l2 := *l
-			l2.dim, l2.kind = d, k
-			q = Quantity{V: q.V, Dim: d, Kind: literalKind(&l2, q.V)}
+	if d, k, ok := paramUnit(p.Kind); ok {
+		if q2, ok := AsUnit(a, q, d, k); ok {
+			q = q2
 			ev.Since = max(ev.Since, 2)
 			ev.note(fmt.Sprintf("read %q as %s (the unit %s takes)", ev.text(a), ev.Env.Context().Format.Rect(q), p.Name))
 			return q, nil

@@ -162,3 +162,35 @@ func TestPartValuesInSeries(t *testing.T) {
 		}
 	}
 }
+
+// TestElementTakesItsUnit: a number scaled by a prefix alone, or a
+// letter-and-digit code (IEC 60062), given to an element takes the
+// element's unit, with a note; a changed value too. X_C = −1/(ωC) at
+// 50 Hz (common practice).
+func TestElementTakesItsUnit(t *testing.T) {
+	s := New()
+	for _, l := range []string{"resistor R1 = 10k", "capacitor C1 = 100n", "inductor L1 = 2.2 mh", "resistor R2 = 4K7", "capacitor C2 = 4n7", "R1 = 12k"} {
+		steps, err := s.Exec(l)
+		if err != nil {
+			t.Fatalf("%s: %v", l, err)
+		}
+		if len(steps) == 0 || len(steps[len(steps)-1].Notes) == 0 && len(steps[0].Notes) == 0 {
+			t.Errorf("%s: no note on how the value was read", l)
+		}
+	}
+	want := map[string]complex128{
+		"R1": 12e3, "R2": 4.7e3,
+		"C1": complex(0, -1/(2*math.Pi*50*100e-9)), "C2": complex(0, -1/(2*math.Pi*50*4.7e-9)),
+		"L1": complex(0, 2*math.Pi*50*2.2e-3),
+	}
+	for n, v := range want {
+		q, _ := s.Lookup(n)
+		if q.Dim != calc.DimImpedance || cmplxAbs(q.V-v) > 1e-9*cmplxAbs(v) {
+			t.Errorf("%s = %v, want %v Ω", n, q.V, v)
+		}
+	}
+	_, err := s.Exec("inductor L2 = 2.2m")
+	if err == nil || !strings.Contains(err.Error(), "m after a number is the metre") {
+		t.Errorf("inductor L2 = 2.2m: %v", err)
+	}
+}

@@ -774,8 +774,14 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 	}
 	pos, end, col := e.Span()
 	n := utf8.RuneCountInString(p.Source()[pos:end])
+	if q, ok := calc.AsUnit(e, r.Value, want[kind], calc.KindPlain); ok {
+		// a number scaled by a prefix alone takes the element's unit
+		r.Value = q
+		r.Notes = append(r.Notes, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(kind.String()), kind))
+		s.since = max(s.since, 2)
+	}
 	if r.Value.Dim != want[kind] {
-		return lineErr(s.line, col, n, "%s %s takes a value in %s, got %s", article(kind.String()), kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false))
+		return lineErr(s.line, col, n, "%s %s takes a value in %s, got %s%s", article(kind.String()), kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false), metreHint(r.Value, want[kind]))
 	}
 	if (kind == reduce.Resistor || kind == reduce.Inductor || kind == reduce.Capacitor) && !r.Value.IsReal() {
 		return lineErr(s.line, col, n, "%s %s takes a real value; use impedance for a complex one", article(kind.String()), kind)
@@ -802,7 +808,7 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 	if err := s.setValue(d); err != nil {
 		return lineErr(s.line, nameTok.Col, 1, "%v", err)
 	}
-	st := calc.Step{Kind: "element", Source: p.Source(), Rule: kind.String()}
+	st := calc.Step{Kind: "element", Source: p.Source(), Rule: kind.String(), Notes: r.Notes}
 	switch kind {
 	case reduce.Inductor:
 		st.Formula = "Z = jωL, ω = 2π·f"
@@ -846,8 +852,14 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 	want := d.elem.raw.Dim
 	pos, end, col := e.Span()
 	n := utf8.RuneCountInString(p.Source()[pos:end])
+	var notes []string
+	if q, ok := calc.AsUnit(e, v, want, calc.KindPlain); ok {
+		v = q
+		notes = append(notes, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(d.elem.kind.String()), d.elem.kind))
+		s.since = max(s.since, 2)
+	}
 	if v.Dim != want {
-		return lineErr(s.line, col, n, "%s is a %s: its value is in %s, got %s", d.name, d.elem.kind, calc.UnitSymbol(want, 0, false), calc.DimName(v.Dim, false))
+		return lineErr(s.line, col, n, "%s is a %s: its value is in %s, got %s%s", d.name, d.elem.kind, calc.UnitSymbol(want, 0, false), calc.DimName(v.Dim, false), metreHint(v, want))
 	}
 	el := *d.elem
 	el.raw = v
@@ -857,11 +869,20 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 	}
 	*d.elem = el
 	d.value = z
-	s.record(calc.Step{Kind: "element", Source: p.Source(), Rule: d.elem.kind.String() + " value changed", Results: []calc.Operand{{Name: d.name, Value: z}}})
+	s.record(calc.Step{Kind: "element", Source: p.Source(), Rule: d.elem.kind.String() + " value changed", Results: []calc.Operand{{Name: d.name, Value: z}}, Notes: notes})
 	if err := s.reevaluate(map[string]bool{d.name: true}, d.name+" changed"); err != nil {
 		return err
 	}
 	return nil
+}
+
+// metreHint explains a length where a part value was wanted: m straight
+// after a number is the metre, an exact unit, not milli.
+func metreHint(q calc.Quantity, want calc.Dim) string {
+	if q.Dim != calc.DimLength || want == calc.DimLength {
+		return ""
+	}
+	return fmt.Sprintf(" (m after a number is the metre: for milli write the unit too, as in 2.2 m%s)", calc.UnitSymbol(want, 0, false))
 }
 
 // nodeName reads a node name: an identifier or a whole number.
