@@ -372,7 +372,7 @@ func (m *Model) helpLines() []string {
 	out = append(out, "")
 	out = append(out, wrapLine("Statements: see argand help language; functions: argand help functions.", m.width, 0)...)
 	for i := range out {
-		out[i] = m.tr(out[i])
+		out[i] = m.trStyled(out[i])
 	}
 	return out
 }

@@ -7,6 +7,8 @@ import (
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+	"github.com/muesli/termenv"
 )
 
 // keptFiles returns the worksheet files kept beside the session file by a
@@ -172,5 +174,22 @@ func TestSignatureHint(t *testing.T) {
 	}
 	if f, a, n, ok := callAt("series(1, fromvi(2, 3", len("series(1, fromvi(2, 3")); !ok || f != "fromvi" || a != 1 || n != "" {
 		t.Errorf("callAt = %q %d %q %v", f, a, n, ok)
+	}
+}
+
+// TestHelpStylesKept: the help screen's headings keep their style; they
+// are not shown as the escapes of their style sequences, in either
+// character set.
+func TestHelpStylesKept(t *testing.T) {
+	// styles as the app draws them without colour (NO_COLOR): bold and
+	// underline remain
+	lipgloss.SetColorProfile(termenv.ANSI)
+	defer lipgloss.SetColorProfile(termenv.Ascii)
+	for _, ascii := range []bool{false, true} {
+		m := newModel(t, Options{Color: true, ASCII: ascii})
+		press(m, "?")
+		if v := m.View(); strings.Contains(v, `\x1b`) {
+			t.Errorf("ascii %v: help shows style sequences as text:\n%s", ascii, v)
+		}
 	}
 }

@@ -376,7 +376,7 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	_ = kw
 	old := s.ctx.Freq
 	s.ctx.Freq = hz
-	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f",
+	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f", Notes: r.Notes,
 		Results: []calc.Operand{{Name: "f", Value: calc.Real(hz, calc.DimFrequency)}, {Name: "ω", Value: calc.Quantity{V: complex(s.ctx.Omega(), 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}}}}
 	s.record(st)
 	if old != hz {
