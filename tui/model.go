@@ -268,7 +268,7 @@ func (m *Model) blankStart() string {
 	msg := "a new, empty session"
 	switch {
 	case kept != "":
-		msg += "; the previous one is kept in " + kept + " (argand FILE opens it; undo brings it back)"
+		msg += " (u brings the old one back); the old one is kept in " + kept
 	case len(m.s.undo) > 0 && len(m.s.undo[len(m.s.undo)-1].sh.Statements()) > 0:
 		msg += "; undo brings the previous one back (it is not kept as a file: no place to keep it)"
 	}

@@ -202,14 +202,16 @@ func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) 
 		for i, l := range left {
 			nums[i] = fmt.Sprint(l.n)
 		}
-		what := fmt.Sprintf("%d statement(s) could not be restored (%s: %s)", len(left), strings.Join(nums, ", "), short(left[0].why, 60))
+		why := fmt.Sprintf("(%s: %s)", strings.Join(nums, ", "), short(left[0].why, 50))
 		name, err := keepLeft(path, left, time.Now())
 		if err != nil {
 			// keep the session file as it is, so nothing is lost
 			s.readOnly, s.roWhy = true, "the statements that could not be restored could not be kept aside ("+err.Error()+")"
-			return true, what + "; they could not be kept aside, so the session is read-only", false
+			return true, fmt.Sprintf("%d statement(s) not restored %s and not kept aside, so the session is read-only", len(left), why), false
 		}
-		note = what + "; kept in " + name
+		// the name first and short, so it is read whole at 80 columns: it
+		// lies beside the session file, in the state directory
+		note = fmt.Sprintf("%d statement(s) not restored, kept in %s %s", len(left), filepath.Base(name), why)
 	}
 	if ch := sh.Changed(); len(ch) > 0 {
 		note = strings.TrimPrefix(note+fmt.Sprintf("; %d statement(s) read differently since the session was saved (see their notes)", len(ch)), "; ")
