@@ -29,6 +29,11 @@ var sheetSeeds = []string{
 	"sweep 1/(1+j*f/(1 kHz)) from 10 Hz to 10 kHz points 9 db", "sweep 5 V from 1 Hz to 2 Hz points 2 db ref 0 V",
 	"u = wye(l2l(400 V), 10 Ω, 20 Ω, 30 Ω, 2+j1 Ω)\nv = seq(u.va, u.vb, u.vc)\nv.vuf",
 	"wyeunbal(l2n(230 V), 225∠-118 V, 236∠121 V, 10 Ω, 0 Ω, 30 Ω, floating)", "l2n(l2l(1 V))",
+	// as technicians type them, and the language line
+	"language 1\nresistor R1 = 4K7\ncapacitor C1 = 2u2\nZ = R1 || C1\nV = 230 v\nI = V / Z",
+	"language 2\nR = 10k\nresistor R2 = 10k\nR2 = 12k\nZ = 4k7 || 10k\nZs = series(22 mH, 150 Ω)",
+	"capacitor C = 22 µF\nS = 230 V * 6.2 A\nm = 3\nA = 2 * m\np = fromvi(230 V, 6.2 A, acos(0.78))",
+	"language 99", "inductor L1 = 2.2m", "x = 2 mw", "\ufeffx = 1", "x = 10\u202fkΩ || 10 k\u2126",
 }
 
 // FuzzSheet runs arbitrary lines through the worksheet interpreter. An
