@@ -249,9 +249,6 @@ func (s *Sheet) Reserved(name string) string {
 	if why, ok := reservedWords[name]; ok {
 		return why
 	}
-	if calc.IsUnit(name) {
-		return "a unit symbol"
-	}
 	if _, ok := s.spectra[name]; ok {
 		return "a spectrum"
 	}
