@@ -133,7 +133,8 @@ var prefixFor = map[int]string{-30: "q", -27: "r", -24: "y", -21: "z", -18: "a",
 // and the figures shown are those of x itself.
 func fixed(x float64, exp3, decimals int) string {
 	var s string
-	if exp3 != 0 && decimals+max(0, decExp(math.Abs(x), 15)-exp3+1) > 15 && x != 0 {
+	// (the scaled value has at most three figures before its point)
+	if exp3 != 0 && x != 0 && decimals > 12 && decimals+max(0, decExp(math.Abs(x), 15)-exp3+1) > 15 {
 		r := new(big.Rat).SetFloat64(x)
 		p := new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(abs(exp3))), nil))
 		if exp3 < 0 {
