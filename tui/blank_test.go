@@ -193,3 +193,17 @@ func TestHelpStylesKept(t *testing.T) {
 		}
 	}
 }
+
+// TestOpenOlderLanguage: a worksheet that declares an older language is
+// opened with a message listing the lines that read differently now.
+func TestOpenOlderLanguage(t *testing.T) {
+	dir := t.TempDir()
+	file := filepath.Join(dir, "old.argand")
+	if err := os.WriteFile(file, []byte("language 1\nR1 = 4k7\nR2 = 4.7 kΩ\nV1 = 230 v\n"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	m := newModel(t, Options{Dir: filepath.Join(dir, "state"), File: file})
+	if !strings.Contains(m.msg, "written in language 1, lines 2, 4 read differently now") {
+		t.Errorf("message %q does not list lines 2 and 4", m.msg)
+	}
+}

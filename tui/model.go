@@ -292,6 +292,15 @@ func (m *Model) fresh() {
 			} else {
 				m.note(false, "opened "+m.opt.File)
 			}
+			if ch := m.s.sh.Changed(); len(ch) > 0 {
+				// written for an older reading of input: say which lines
+				// read differently now (each has a note in the trail)
+				ls := make([]string, len(ch))
+				for i, l := range ch {
+					ls[i] = fmt.Sprint(l)
+				}
+				m.msg += fmt.Sprintf("; written in language %d, lines %s read differently now (see their notes)", m.s.sh.Language(), strings.Join(ls, ", "))
+			}
 		}
 	} else {
 		m.s.loadWorksheet(cli.Example)
