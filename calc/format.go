@@ -13,6 +13,19 @@ type Format struct {
 	Digits  int  // significant figures, 1 to 15; 0 means the default of 4
 	ASCII   bool // ASCII glyphs only: "ohm", "u", "@", "deg"
 	Radians bool // show angles in radians instead of degrees
+	// Comma writes the decimal comma (2,2 mH) instead of the point; the
+	// SI Brochure (9th ed. §5.4.4) allows either on the line. The input
+	// is read the same way (NewParserComma), so what is shown reads back.
+	Comma bool
+}
+
+// mark writes the decimal marker in force into a number formatted with a
+// point.
+func (f Format) mark(s string) string {
+	if f.Comma {
+		return strings.Replace(s, ".", ",", 1)
+	}
+	return s
 }
 
 // DefaultDigits is the number of significant figures shown when none is set.
@@ -281,17 +294,17 @@ func (f Format) Rect(q Quantity) string {
 	var b strings.Builder
 	switch {
 	case im == 0:
-		b.WriteString(fixed(re, exp3, dec) + expo)
+		b.WriteString(f.mark(fixed(re, exp3, dec)) + expo)
 	case re == 0:
-		s := fixed(im, exp3, dec)
+		s := f.mark(fixed(im, exp3, dec))
 		if strings.HasPrefix(s, "-") {
 			b.WriteString("-j" + s[1:] + expo)
 		} else {
 			b.WriteString("j" + s + expo)
 		}
 	default:
-		b.WriteString(fixed(re, exp3, partDec(re)) + expo)
-		s := fixed(im, exp3, partDec(im))
+		b.WriteString(f.mark(fixed(re, exp3, partDec(re))) + expo)
+		s := f.mark(fixed(im, exp3, partDec(im)))
 		if strings.HasPrefix(s, "-") {
 			b.WriteString(" - j" + s[1:] + expo)
 		} else {
@@ -313,7 +326,7 @@ func (f Format) Polar(q Quantity) string {
 	}
 	m := cmplx.Abs(q.V)
 	exp3, dec, unit, expo := f.scaled(m, q.Dim, q.Kind)
-	s := fixed(m, exp3, dec) + expo + unit
+	s := f.mark(fixed(m, exp3, dec)) + expo + unit
 	if f.ASCII {
 		return s + " @" + f.angle(Deg(q.V))
 	}
@@ -323,7 +336,7 @@ func (f Format) Polar(q Quantity) string {
 // Mag formats a real magnitude with unit: "5.000 Ω".
 func (f Format) Mag(x float64, d Dim, k Kind) string {
 	exp3, dec, unit, expo := f.scaled(math.Abs(x), d, k)
-	return fixed(x, exp3, dec) + expo + unit
+	return f.mark(fixed(x, exp3, dec)) + expo + unit
 }
 
 // angle formats an angle given in degrees in the display unit. An angle
@@ -333,15 +346,15 @@ func (f Format) angle(deg float64) string {
 	n := f.digits()
 	var s string
 	if f.Radians {
-		s = sigFixed(deg*math.Pi/180, n)
-		if s == sigFixed(-math.Pi, n) {
-			s = sigFixed(math.Pi, n)
+		s = f.mark(sigFixed(deg*math.Pi/180, n))
+		if s == f.mark(sigFixed(-math.Pi, n)) {
+			s = f.mark(sigFixed(math.Pi, n))
 		}
 		return s + " rad"
 	}
-	s = sigFixed(deg, n)
-	if s == sigFixed(-180, n) {
-		s = sigFixed(180, n)
+	s = f.mark(sigFixed(deg, n))
+	if s == f.mark(sigFixed(-180, n)) {
+		s = f.mark(sigFixed(180, n))
 	}
 	if f.ASCII {
 		return s + " deg"
@@ -359,7 +372,7 @@ func (f Format) AngleValue(rad float64) string {
 		if rad == -math.Pi {
 			return f.angle(180)
 		}
-		return sigFixed(rad, f.digits()) + " rad"
+		return f.mark(sigFixed(rad, f.digits())) + " rad"
 	}
 	return f.angle(rad * 180 / math.Pi)
 }

@@ -29,6 +29,9 @@ var fuzzSeeds = []string{
 	"2 kOhm", "10 uf", "4.7 KΩ", "2 mw", "2 mva", "2 mvar", "2 mhz", "10E", "3P", "4.7K", "4.7R",
 	"10 µF || 4.7 kΩ", "4.7 kΩ + 10 mH", "10\u00a0V", "10\u202fkΩ", "10\u2009V", "10 k\u2126", "4.7 \u00b5F",
 	"3\u200b+4", "\ufeff3", "acos(0.78)", "asin(0.5)", "atan(1)", "acos(2)", "1/3 Ω", "2/3 kV", "1e-7 F",
+	// the decimal comma and digit groups (SI Brochure 9th ed. §5.4.4)
+	"2,2 mH", "1,000 V", "1,000,000", "1,000.5", "atan2(4,3)", "atan2(4; 3)", "3+j4,5 Ω", ",5", "1 000 V",
+	"2,2e3", "j2,2", "2,2j", "1\u00a0000", "5,",
 }
 
 // checkErr asserts an error's place lies inside its line.
@@ -81,6 +84,10 @@ func FuzzParse(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, src string) {
+		// under the decimal comma too, errors lie inside the line
+		if _, err := ParseExprComma(src, 1, true); err != nil {
+			checkErr(t, src, err)
+		}
 		x, err := ParseExpr(src, 1)
 		if err != nil {
 			if x != nil {
@@ -133,9 +140,14 @@ func FuzzEval(f *testing.F) {
 			}
 		}
 		if parsesBack(q) {
+			// shown under either decimal marker, a value reads back under
+			// the same one
+			for _, comma := range []bool{false, true} {
+				fm := Format{Digits: d, Comma: comma}
+				roundTripT(t, fm.Rect(q), q, d, comma)
+				roundTripT(t, fm.Polar(q), q, d, comma)
+			}
 			fm := Format{Digits: d}
-			roundTripT(t, fm.Rect(q), q, d)
-			roundTripT(t, fm.Polar(q), q, d)
 			halfUnit(t, fm.Rect(q), q)
 			// at 17 figures what is shown is the value itself
 			halfUnit(t, Format{Digits: 17}.Rect(q), q)
@@ -236,9 +248,9 @@ func parsesBack(q Quantity) bool {
 	return sym == "" || IsUnit(sym) || sym == "rad/s"
 }
 
-func roundTripT(t *testing.T, text string, q Quantity, digits int) {
+func roundTripT(t *testing.T, text string, q Quantity, digits int, comma bool) {
 	t.Helper()
-	back, err := evalString(newTestEnv(), text)
+	back, err := evalStringComma(newTestEnv(), text, comma)
 	if err != nil {
 		t.Fatalf("%q (from %v %v) does not parse back: %v", text, q.V, q.Dim, err)
 	}

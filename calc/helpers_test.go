@@ -42,8 +42,12 @@ func (e *testEnv) Func(name string) (*Func, bool) { return nil, false }
 func (e *testEnv) Context() *Context              { return &e.ctx }
 
 // evalString parses and evaluates src against env.
-func evalString(env Env, src string) (Quantity, *Error) {
-	x, err := ParseExpr(src, 1)
+func evalString(env Env, src string) (Quantity, *Error) { return evalStringComma(env, src, false) }
+
+// evalStringComma parses src with the decimal comma when comma is set and
+// evaluates it against env.
+func evalStringComma(env Env, src string, comma bool) (Quantity, *Error) {
+	x, err := ParseExprComma(src, 1, comma)
 	if err != nil {
 		return Quantity{}, err
 	}

@@ -28,6 +28,7 @@ type Parser struct {
 	depth int
 	err   *Error
 	since int // the newest language version whose reading a literal used
+	comma bool
 }
 
 // Since returns the newest language version (see Language) whose reading
@@ -35,16 +36,20 @@ type Parser struct {
 // reads it alike.
 func (p *Parser) Since() int { return p.since }
 
-// NewParser returns a parser over one statement.
-func NewParser(src string, line int) *Parser {
-	p := &Parser{src: src, line: line}
+// NewParser returns a parser over one statement, with the decimal point.
+func NewParser(src string, line int) *Parser { return NewParserComma(src, line, false) }
+
+// NewParserComma returns a parser over one statement that reads the
+// decimal comma when comma is set: 2,2 mH, and ';' between arguments.
+func NewParserComma(src string, line int, comma bool) *Parser {
+	p := &Parser{src: src, line: line, comma: comma}
 	if len(src) > MaxLine {
 		p.err = &Error{Line: line, Col: 1, Len: 1, Msg: fmt.Sprintf("line too long: %d bytes (the limit is %d)", len(src), MaxLine)}
 		p.s = NewScanner("", line)
 		p.tok = Item{Tok: TokEOF, Col: 1}
 		return p
 	}
-	p.s = NewScanner(src, line)
+	p.s = NewScannerComma(src, line, comma)
 	p.next()
 	return p
 }
@@ -98,6 +103,18 @@ func (p *Parser) FailAt(col, n int, format string, args ...any) {
 	p.err = &Error{Line: p.line, Col: col, Len: n, Msg: fmt.Sprintf(format, args...)}
 }
 
+// Comma reports whether the parser reads the decimal comma.
+func (p *Parser) Comma() bool { return p.comma }
+
+// Sep is the separator of arguments as typed: ',' or, under the decimal
+// comma, ';'.
+func (p *Parser) Sep() string {
+	if p.comma {
+		return ";"
+	}
+	return ","
+}
+
 // IsOp reports whether the current token is the operator op.
 func (p *Parser) IsOp(op string) bool { return p.tok.Tok == TokOp && p.tok.Text == op }
 
@@ -110,8 +127,12 @@ func (p *Parser) EndCol() int {
 }
 
 // ParseExpr parses src as a single expression.
-func ParseExpr(src string, line int) (Expr, *Error) {
-	p := NewParser(src, line)
+func ParseExpr(src string, line int) (Expr, *Error) { return ParseExprComma(src, line, false) }
+
+// ParseExprComma parses src as a single expression, with the decimal
+// comma when comma is set.
+func ParseExprComma(src string, line int, comma bool) (Expr, *Error) {
+	p := NewParserComma(src, line, comma)
 	e := p.Expr()
 	p.ExpectEnd()
 	if err := p.Err(); err != nil {
@@ -449,7 +470,7 @@ func (p *Parser) call(name Item) Expr {
 		if p.tok.Tok == TokEOF {
 			p.Failf(open, "unbalanced parentheses: '(' of %s( is never closed", name.Text)
 		} else {
-			p.Failf(p.tok, "expected ',' or ')' in the arguments of %s, found %q", name.Text, p.tok.Text)
+			p.Failf(p.tok, "expected '%s' or ')' in the arguments of %s, found %q", p.Sep(), name.Text, p.src[p.tok.Off:p.tok.End])
 		}
 		return c.finish(name, open)
 	}

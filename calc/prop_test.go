@@ -189,7 +189,13 @@ func shownBound(m float64, digits int) float64 {
 // roundTrip parses a formatted value back and reports whether it lies
 // within the rounding of the digits shown.
 func roundTrip(t interface{ Fatalf(string, ...any) }, text string, q Quantity, digits int) {
-	back, err := evalString(newTestEnv(), text)
+	roundTripIn(t, text, q, digits, false)
+}
+
+// roundTripIn is roundTrip with the decimal comma when comma is set: what
+// is shown under a setting reads back under the same setting.
+func roundTripIn(t interface{ Fatalf(string, ...any) }, text string, q Quantity, digits int, comma bool) {
+	back, err := evalStringComma(newTestEnv(), text, comma)
 	if err != nil {
 		t.Fatalf("%q (from %v %v) does not parse back: %v", text, q.V, q.Dim, err)
 	}
@@ -209,9 +215,9 @@ func TestPropFormatRoundTrip(t *testing.T) {
 		if q.Dim == DimEnergy || q.Dim == DimCharge || q.Dim == DimAngularFrequency || q.Dim == DimLength {
 			q.Dim = DimVoltage // "J", "C", "m" are fine too, but keep the test to phasor units
 		}
-		f := Format{Digits: rapid.IntRange(1, 15).Draw(t, "digits"), ASCII: rapid.Bool().Draw(t, "ascii")}
-		roundTrip(t, f.Rect(q), q, f.Digits)
-		roundTrip(t, f.Polar(q), q, f.Digits)
+		f := Format{Digits: rapid.IntRange(1, 15).Draw(t, "digits"), ASCII: rapid.Bool().Draw(t, "ascii"), Comma: rapid.Bool().Draw(t, "comma")}
+		roundTripIn(t, f.Rect(q), q, f.Digits, f.Comma)
+		roundTripIn(t, f.Polar(q), q, f.Digits, f.Comma)
 	})
 }
 

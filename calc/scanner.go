@@ -16,7 +16,7 @@ const (
 	TokNumber        // 12, 4.7e3, .5
 	TokImag          // j4, 4j, i2.5, j (alone: the imaginary unit)
 	TokIdent         // a name, a unit word, a keyword; also ° and %
-	TokOp            // + - * / ^ ( ) , = ∠ || and their Unicode forms
+	TokOp            // + - * / ^ ( ) , = ∠ || and their Unicode forms; ";" reads "," under the decimal comma
 	TokRect          // 3+j4, 3-j4, 3+4j written without spaces: one complex number
 )
 
@@ -49,11 +49,32 @@ type Scanner struct {
 	col  int
 	line int
 	err  *Error
+	// comma selects the decimal comma: ',' marks the decimal and ';'
+	// separates arguments (SI Brochure 9th ed. §5.4.4 allows either marker)
+	comma bool
+	// parens counts the parentheses open, so that a refused "2,2" inside
+	// a call can also say how to write two arguments
+	parens int
 }
 
-// NewScanner returns a scanner over src, reporting errors on the given line.
+// NewScanner returns a scanner over src, reporting errors on the given
+// line, with the decimal point.
 func NewScanner(src string, line int) *Scanner {
 	return &Scanner{src: src, col: 1, line: line}
+}
+
+// NewScannerComma returns a scanner over src that reads the decimal comma
+// when comma is set: 2,2 is two point two and ';' separates arguments.
+func NewScannerComma(src string, line int, comma bool) *Scanner {
+	return &Scanner{src: src, col: 1, line: line, comma: comma}
+}
+
+// mark returns the decimal marker the scanner reads, and the other one.
+func (s *Scanner) mark() (own, other byte) {
+	if s.comma {
+		return ',', '.'
+	}
+	return '.', ','
 }
 
 // Err returns the first error met, or nil.
@@ -117,10 +138,14 @@ func (s *Scanner) Scan() Item {
 			s.col++
 		}
 	}
+	own, _ := s.mark()
 	switch {
-	case isDigit(r) || (r == '.' && s.digitAt(s.off+1)):
+	case isDigit(r) || (r == rune(own) && s.digitAt(s.off+1)):
 		s.number()
-		text := s.src[start:s.off]
+		if s.otherAt(s.off) {
+			return s.otherMark(start, col, space, s.off)
+		}
+		text := s.numText(s.src[start:s.off])
 		// 4j or 4.5i: an imaginary literal, unless a longer word follows.
 		// The text is normalised to the j4 form, which the parser reads.
 		if c, w := s.peekRune(s.off); (c == 'j' || c == 'i') && !s.identPartAt(s.off+w) {
@@ -129,14 +154,23 @@ func (s *Scanner) Scan() Item {
 			return item(TokImag, "j"+text)
 		}
 		if s.rect() {
-			return item(TokRect, s.src[start:s.off])
+			if s.otherAt(s.off) {
+				return s.otherMark(start, col, space, s.off)
+			}
+			return item(TokRect, s.numText(s.src[start:s.off]))
 		}
 		return item(TokNumber, text)
-	case (r == 'j' || r == 'i') && (s.digitAt(s.off+1) || (s.byteAt(s.off+1) == '.' && s.digitAt(s.off+2))):
+	case s.comma && r == '.' && s.digitAt(s.off+1):
+		// .5 under the decimal comma
+		return s.otherMark(start, col, space, s.off)
+	case (r == 'j' || r == 'i') && (s.digitAt(s.off+1) || (s.byteAt(s.off+1) == own && s.digitAt(s.off+2))):
 		s.off++
 		s.col++
 		s.number()
-		return item(TokImag, "j"+s.src[start+1:s.off])
+		if s.otherAt(s.off) {
+			return s.otherMark(start, col, space, s.off)
+		}
+		return item(TokImag, "j"+s.numText(s.src[start+1:s.off]))
 	case isIdentStart(r):
 		for s.off < len(s.src) {
 			c, w := s.peekRune(s.off)
@@ -159,9 +193,31 @@ func (s *Scanner) Scan() Item {
 	case '°', '%':
 		adv(1)
 		return item(TokIdent, string(r))
-	case '+', '*', '/', '^', '(', ')', ',', '=':
+	case '(':
+		s.parens++
+		adv(1)
+		return item(TokOp, "(")
+	case ')':
+		s.parens--
+		adv(1)
+		return item(TokOp, ")")
+	case '+', '*', '/', '^', '=':
 		adv(1)
 		return item(TokOp, string(r))
+	case ',':
+		adv(1)
+		if s.comma {
+			s.fail(col, 1, "with the decimal comma set, ',' marks the decimal: separate arguments with ';', as in parallel(2,2 kΩ; 4,7 kΩ)")
+			return item(TokIllegal, ",")
+		}
+		return item(TokOp, ",")
+	case ';':
+		adv(1)
+		if !s.comma {
+			s.fail(col, 1, "';' separates arguments only with the decimal comma set: write ',', as in parallel(2.2 kΩ, 4.7 kΩ)")
+			return item(TokIllegal, ";")
+		}
+		return item(TokOp, ",")
 	case '-', '−':
 		adv(1)
 		return item(TokOp, "-")
@@ -246,18 +302,24 @@ func (s *Scanner) identPartAt(i int) bool {
 // number scans digits, a fraction and an exponent. An "e" not followed by
 // digits is left for the next token (it may start a unit word).
 func (s *Scanner) number() {
+	own, _ := s.mark()
+	n := 0
 	for s.digitAt(s.off) {
 		s.off++
 		s.col++
+		n++
 	}
-	if s.byteAt(s.off) == '.' && s.digitAt(s.off+1) {
+	if n > 0 && n <= 3 {
+		s.groups()
+	}
+	if s.byteAt(s.off) == own && s.digitAt(s.off+1) {
 		s.off++
 		s.col++
 		for s.digitAt(s.off) {
 			s.off++
 			s.col++
 		}
-	} else if s.byteAt(s.off) == '.' && !s.identPartAt(s.off+1) {
+	} else if s.byteAt(s.off) == '.' && own == '.' && !s.identPartAt(s.off+1) {
 		s.off++ // "5." is five
 		s.col++
 	}
@@ -275,6 +337,135 @@ func (s *Scanner) number() {
 			}
 		}
 	}
+}
+
+// groups reads the digit groups of a whole number written with a space
+// between groups of three, as the SI Brochure (9th ed. §5.4.4) writes
+// 1 000 000: a space followed by exactly three digits continues the number.
+// The first group (already read) has one to three digits.
+func (s *Scanner) groups() {
+	for {
+		r, w := s.peekRune(s.off)
+		if r != ' ' && r != '\u00a0' && r != '\u202f' && r != '\u2009' {
+			return
+		}
+		at := s.off + w
+		if !s.digitAt(at) || !s.digitAt(at+1) || !s.digitAt(at+2) || s.digitAt(at+3) {
+			return
+		}
+		s.off = at + 3
+		s.col += 4
+	}
+}
+
+// otherAt reports the decimal marker not in force at byte i, with a digit
+// after it: 2,2 under the decimal point.
+func (s *Scanner) otherAt(i int) bool {
+	_, other := s.mark()
+	return s.byteAt(i) == other && s.digitAt(i+1)
+}
+
+// numText is the text of a number as the parser reads it: digit groups
+// joined and the decimal marker a point.
+func (s *Scanner) numText(t string) string {
+	if strings.ContainsAny(t, " \u00a0\u202f\u2009") {
+		t = strings.Map(func(r rune) rune {
+			if isSpace(r) {
+				return -1
+			}
+			return r
+		}, t)
+	}
+	if s.comma {
+		t = strings.ReplaceAll(t, ",", ".")
+	}
+	return t
+}
+
+// otherMark refuses a number written with the decimal marker not in force
+// (2,2 under the decimal point, 2.2 under the decimal comma), the marker
+// at byte at, and says what to type. A marker followed by exactly three
+// digits (1,000) may also be a digit group, so both readings are listed:
+// the SI Brochure (9th ed. §5.4.4) writes digit groups with a space, never
+// with a point or a comma.
+func (s *Scanner) otherMark(start, col int, space bool, at int) Item {
+	own, other := s.mark()
+	// the digits before the marker, and the text of the token before them
+	run := at
+	for run > start && s.digitAt(run-1) {
+		run--
+	}
+	head := s.src[start:run]
+	// the run of digits and markers as typed: 1,000,000 or 2,2 or 1,000.5
+	groups := []string{s.src[run:at]}
+	if groups[0] == "" {
+		groups[0] = "0"
+	}
+	var seps []byte
+	i := at
+	for {
+		c := s.byteAt(i)
+		if (c == other || c == own) && s.digitAt(i+1) {
+			seps = append(seps, c)
+			j := i + 1
+			for s.digitAt(j) {
+				j++
+			}
+			groups = append(groups, s.src[i+1:j])
+			i = j
+			continue
+		}
+		break
+	}
+	s.off = i
+	typed := s.src[start:s.off]
+	n := utf8.RuneCountInString(typed)
+	s.col = col + n
+	unit := ""
+	if sc := *s; true {
+		sc.err = nil
+		if t := sc.Scan(); t.Tok == TokIdent && isIdentStart([]rune(t.Text)[0]) {
+			unit = " " + t.Text
+		}
+	}
+	setting := "decimal comma"
+	if s.comma {
+		setting = "decimal point"
+	}
+	bad := Item{Tok: TokIllegal, Text: typed, Off: start, End: s.off, Col: col, Space: space}
+	// groups of three after the first, each marked with the other marker
+	// (the last may be the own marker, as in 1,000.5): digit groups
+	grouped := head == "" && len(groups[0]) <= 3
+	for k, sp := range seps {
+		if sp != other && k != len(seps)-1 || sp == other && len(groups[k+1]) != 3 {
+			grouped = false
+		}
+	}
+	switch {
+	case len(seps) == 1 && len(groups[1]) == 3 && head == "":
+		// 1,000: one, or one thousand
+		a, b := groups[0], groups[1]
+		s.fail(col, n, fmt.Sprintf("%q reads two ways: %s%c%s%s (a %s) or %s %s%s (a digit group, which is written with a space, SI Brochure §5.4.4): write one of them",
+			typed+unit, a, own, b, unit, setting, a, b, unit))
+	case grouped && len(seps) > 1:
+		whole := strings.Join(groups[:len(groups)-1], " ")
+		last := groups[len(groups)-1]
+		if seps[len(seps)-1] == own {
+			whole += string(own) + last
+		} else {
+			whole += " " + last
+		}
+		s.fail(col, n, fmt.Sprintf("digit groups are written with a space (SI Brochure §5.4.4): write %s%s", whole, unit))
+	default:
+		// 2,2: a decimal written with the other marker
+		a, b := groups[0], groups[1]
+		msg := fmt.Sprintf("%s? write %s%s%c%s%s, or set %s", setting, head, a, own, b, unit, setting)
+		if !s.comma && s.parens > 0 && head == "" {
+			msg += fmt.Sprintf(" (for two arguments write %s, %s)", a, b)
+		}
+		s.fail(col, n, msg)
+	}
+	return bad
 }
 
 // rect extends a number just scanned into a rectangular literal when a sign
