@@ -505,3 +505,42 @@ func (s *Scanner) imagSuffixAt(i int) bool {
 	c := s.byteAt(i)
 	return (c == 'j' || c == 'i') && !s.identPartAt(i+1)
 }
+
+// ChangeMarker rewrites a statement typed under one decimal marker for the
+// other: under the comma, 2.2 becomes 2,2 and the ',' between arguments
+// ';'; and back. Names, units and the rest, even what the scanner refuses,
+// are kept as typed: a number written with the other marker already stays
+// refused.
+func ChangeMarker(src string, fromComma bool) string {
+	s := NewScannerComma(src, 1, fromComma)
+	own, other := s.mark()
+	sep, osep := byte(','), byte(';')
+	if fromComma {
+		sep, osep = ';', ','
+	}
+	var b strings.Builder
+	last := 0
+	for i := 0; i <= MaxLine; i++ {
+		t := s.Scan()
+		if t.Tok == TokEOF {
+			break
+		}
+		b.WriteString(src[last:t.Off])
+		text := src[t.Off:t.End]
+		switch t.Tok {
+		case TokNumber, TokImag, TokRect:
+			if text[len(text)-1] == own {
+				text = text[:len(text)-1] // "5." is five
+			}
+			text = strings.ReplaceAll(text, string(own), string(other))
+		case TokOp:
+			if text == string(sep) {
+				text = string(osep)
+			}
+		}
+		b.WriteString(text)
+		last = t.End
+	}
+	b.WriteString(src[last:])
+	return b.String()
+}

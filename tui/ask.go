@@ -72,8 +72,7 @@ func (m *Model) askKey(k tea.KeyMsg) tea.Cmd {
 			a = cur.def
 		}
 		if cur.names && a != "" {
-			for _, n := range strings.Split(a, ",") {
-				n = strings.TrimSpace(n)
+			for _, n := range splitNames(a) {
 				if _, ok := m.s.sh.Lookup(n); !ok {
 					m.note(true, fmt.Sprintf("no row named %q; type a name from the table", n))
 					return nil

@@ -35,7 +35,7 @@ type KeyMap struct {
 	Rename, Copy, Delete          key.Binding
 	Raise, Lower                  key.Binding
 	Freq, Form, Fewer, More       key.Binding
-	Basis, Angles                 key.Binding
+	Basis, Angles, Decimal        key.Binding
 	Undo, Redo, Blank             key.Binding
 	Networks, Export              key.Binding
 	Clip, ClipTrail               key.Binding
@@ -114,6 +114,7 @@ func DefaultKeyMap() KeyMap {
 		More:      kb([]string{">"}, ">", "one significant figure more"),
 		Basis:     kb([]string{"B"}, "B", "switch phasor basis RMS ↔ peak"),
 		Angles:    kb([]string{"a"}, "a", "switch angles degrees ↔ radians"),
+		Decimal:   kb([]string{","}, ",", "switch the decimal marker point ↔ comma (2.2 ↔ 2,2)"),
 		Undo:      kb([]string{"u", "ctrl+z"}, "u", "undo the last change"),
 		Redo:      kb([]string{"U", "ctrl+y"}, "U", "redo"),
 		Blank:     kb([]string{"b"}, "b", "a new, empty session (the old one kept as a file)"),
@@ -203,7 +204,7 @@ func (k KeyMap) Mode(m mode) []key.Binding {
 			k.Add, k.Sub, k.Mul, k.Div, k.Recip, k.Conj, k.Neg, k.Series, k.Parallel,
 			k.VDiv, k.IDiv, k.Thevenin, k.DeltaY, k.YDelta,
 			k.Rename, k.Copy, k.Delete, k.Raise, k.Lower,
-			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Undo, k.Redo, k.Blank,
+			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Decimal, k.Undo, k.Redo, k.Blank,
 			k.Networks, k.Export, k.Clip, k.ClipTrail, k.TrailBack, k.TrailOn, k.TrailLast, k.TrailFull, k.Help, k.Quit}
 	case modeLine:
 		return []key.Binding{k.Run, k.Leave, k.Left, k.Right, k.Home, k.End, k.Back, k.Del, k.Kill, k.Clear, k.Prev, k.Next, k.LineHelp, k.LineQuit}

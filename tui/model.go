@@ -43,6 +43,9 @@ type Options struct {
 	Color      bool   // colour allowed (false under NO_COLOR)
 	PolarFirst bool   // show the polar form first on a new session
 	Digits     int    // significant figures for a new session; 0 keeps the worksheet's
+	// Comma sets the decimal comma (--decimal-comma): at once on a new
+	// session, and by the statement decimal comma on a restored one.
+	Comma bool
 	File       string // worksheet to open; "" restores the last session
 	// New starts a blank session (--new); the last one is kept as a
 	// worksheet file beside the session file.
@@ -170,6 +173,7 @@ func (m *Model) start() {
 	if err != nil {
 		m.note(true, "no place to keep the session ("+err.Error()+"): changes are not saved")
 		m.fresh()
+		m.decimalFlag()
 		return
 	}
 	lk, err := store.Lock(path)
@@ -240,9 +244,26 @@ func (m *Model) restore() {
 		}
 		m.s.save()
 	}
+	m.decimalFlag()
 	if notes := m.lock.Notes(); len(notes) > 0 {
 		m.msg += "; " + strings.Join(notes, "; ")
 	}
+}
+
+// decimalFlag applies --decimal-comma: at once to an empty session, and
+// to one with statements by the statement decimal comma, which the
+// session keeps, so that what was typed before still reads as typed.
+func (m *Model) decimalFlag() {
+	if !m.opt.Comma || m.s.sh.Settings().Comma || m.s.readOnly {
+		return
+	}
+	if !m.s.sh.SetDecimalComma(true) {
+		if _, err := m.s.exec(sheet.Job{}, "decimal comma"); err != nil {
+			m.note(true, "decimal comma not set: "+err.Error())
+			return
+		}
+	}
+	m.s.save()
 }
 
 // blankStart starts a new, empty session: the one in use is kept as a
@@ -262,7 +283,11 @@ func (m *Model) blankStart() string {
 	}
 	m.s.checkpoint()
 	pf := m.s.v.PolarFirst
+	comma := m.s.sh.Settings().Comma
 	m.s.sh, m.s.v, m.s.worksheet = newSheet(m.s.ascii), view{PolarFirst: pf}, ""
+	// the decimal marker is how the user writes numbers: a new session
+	// keeps it
+	m.s.sh.SetDecimalComma(comma)
 	m.s.tidy()
 	m.s.save()
 	msg := "a new, empty session"

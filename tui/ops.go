@@ -231,7 +231,7 @@ func (m *Model) combine(what, fn string) {
 		m.note(true, what+" needs two or more rows: mark another, or clear the mark (esc)")
 		return
 	}
-	expr := fn + "(" + strings.Join(ops, ", ") + ")"
+	expr := fn + "(" + strings.Join(ops, m.sep()) + ")"
 	if len(ops) == 2 && fn == "parallel" {
 		expr = ops[0] + " || " + ops[1]
 	}
@@ -292,7 +292,11 @@ func (m *Model) roles(title, fn string, names []string, dims []calc.Dim, listLas
 				return
 			}
 		}
-		m.define(title+":", fn+"("+strings.Join(ans, ", ")+")")
+		for i := range ans {
+			// a list of names answered with commas or semicolons
+			ans[i] = strings.Join(splitNames(ans[i]), m.sep())
+		}
+		m.define(title+":", fn+"("+strings.Join(ans, m.sep())+")")
 	})
 }
 
@@ -304,7 +308,25 @@ func (m *Model) threeOf(what, fn string, roles string) {
 		m.note(true, what+" needs three rows ("+roles+")")
 		return
 	}
-	m.define(what+" ("+roles+" = "+strings.Join(ops, ", ")+"):", fn+"("+strings.Join(ops, ", ")+")")
+	m.define(what+" ("+roles+" = "+strings.Join(ops, ", ")+"):", fn+"("+strings.Join(ops, m.sep())+")")
+}
+
+// sep is the separator of a function's arguments in the statements the
+// keys write: ", ", or "; " under the decimal comma.
+func (m *Model) sep() string {
+	if m.s.sh.Settings().Comma {
+		return "; "
+	}
+	return ", "
+}
+
+// splitNames splits a list of names typed with commas or semicolons.
+func splitNames(a string) []string {
+	f := strings.FieldsFunc(a, func(r rune) bool { return r == ',' || r == ';' })
+	for i := range f {
+		f[i] = strings.TrimSpace(f[i])
+	}
+	return f
 }
 
 // rowsKey handles a key while the entries table has the keyboard.
@@ -443,7 +465,7 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 		f := m.format().Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
 		m.startAsk("working frequency, in Hz or rad/s (inductors and capacitors follow it)", []question{{label: "frequency", def: f}}, func(a []string) {
 			v := strings.TrimSpace(a[0])
-			if _, err := strconv.ParseFloat(v, 64); err == nil {
+			if _, err := strconv.ParseFloat(strings.Replace(v, ",", ".", 1), 64); err == nil {
 				v += " Hz"
 			}
 			m.run("frequency", "frequency "+v)
@@ -473,6 +495,12 @@ func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
 			b = "rms"
 		}
 		m.run("basis (S = V·I* for RMS, ½·V·I* for peak)", "basis "+b)
+	case key.Matches(k, km.Decimal):
+		d := "decimal comma"
+		if m.s.sh.Settings().Comma {
+			d = "decimal point"
+		}
+		m.run(d, d)
 	case key.Matches(k, km.Angles):
 		a := "rad"
 		if m.s.sh.Settings().Radians {
@@ -710,9 +738,12 @@ func (m *Model) worksheetText() string {
 	var b strings.Builder
 	// the first line says which reading of input the statements were
 	// accepted in, so a later argand can list lines that read differently
-	b.WriteString(sheet.LanguageLine() + "\n")
+	// and the decimal marker they begin in, so it replays the same under
+	// any setting
+	w := m.s.sh.Worksheet()
+	b.WriteString(w[0] + "\n")
 	b.WriteString("# argand worksheet saved from a session\n")
-	for _, s := range m.s.sh.Statements() {
+	for _, s := range w[1:] {
 		b.WriteString(s + "\n")
 	}
 	return b.String()

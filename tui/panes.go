@@ -37,10 +37,14 @@ func (m *Model) statusView() string {
 	if m.s.v.PolarFirst {
 		first = "polar first"
 	}
+	dec := "point"
+	if st.Comma {
+		dec = "comma"
+	}
 	parts := []string{
 		f.Mag(st.Freq, calc.DimFrequency, 0),
 		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, calc.KindAngle),
-		ang, strconv.Itoa(st.Digits) + " digits", basis, first,
+		ang, strconv.Itoa(st.Digits) + " digits", basis, dec, first,
 	}
 	s := m.th.label.Render("argand") + "  "
 	var flags []string

@@ -126,16 +126,17 @@ func decode(data []byte, ascii bool) (*sheet.Sheet, file, []leftOut, error) {
 		if k < 0 || k >= len(f.Statements) {
 			continue
 		}
-		left = append(left, leftOut{n: k + 1, stmt: f.Statements[k], why: p.Err.Msg})
+		left = append(left, leftOut{n: k + 1, stmt: f.Statements[k], why: p.Err.Msg, comma: sheet.CommaAt(f.Statements, k)})
 	}
 	return sh, f, left, nil
 }
 
 // leftOut is a statement of a session that did not replay.
 type leftOut struct {
-	n    int // its place among the session's statements
-	stmt string
-	why  string
+	n     int // its place among the session's statements
+	stmt  string
+	why   string
+	comma bool // the decimal marker in force at it
 }
 
 // keepLeft writes the statements that did not replay to a file beside the
@@ -145,7 +146,13 @@ func keepLeft(path string, left []leftOut, now time.Time) (string, error) {
 	var b strings.Builder
 	b.WriteString(sheet.LanguageLine() + "\n")
 	b.WriteString("# statements of the session that could not be restored, with the reason for each\n")
+	written := ""
 	for _, l := range left {
+		// each statement under the decimal marker it was typed in
+		if d := sheet.DecimalLine(l.comma); d != written {
+			b.WriteString(d + "\n")
+			written = d
+		}
 		fmt.Fprintf(&b, "# statement %d: %s\n%s\n", l.n, strings.ReplaceAll(l.why, "\n", " "), l.stmt)
 	}
 	name := strings.TrimSuffix(path, filepath.Ext(path)) + ".not-restored-" + now.UTC().Format("20060102-150405") + ".argand"

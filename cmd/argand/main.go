@@ -9,7 +9,7 @@
 //	argand help [TOPIC]    print help
 //	argand --version
 //
-// Flags: --json, --digits N, --ascii, --plain, --new. Exit codes: 0 ok, 1 a
+// Flags: --json, --digits N, --ascii, --plain, --new, --decimal-comma. Exit codes: 0 ok, 1 a
 // check failed, 2 bad input or usage, 130 interrupted (ctrl+c).
 package main
 
@@ -75,6 +75,8 @@ func parse(argv []string) (flags, error) {
 			f.fresh = true
 		case "polar":
 			f.opt.PolarFirst = true
+		case "decimal-comma":
+			f.opt.Comma = true
 		case "version":
 			f.version = true
 		case "help":
@@ -183,6 +185,7 @@ func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 		Color:      tui.ColorWanted(os.Getenv),
 		PolarFirst: f.opt.PolarFirst,
 		Digits:     f.opt.Digits,
+		Comma:      f.opt.Comma,
 		File:       file,
 		New:        f.fresh,
 	}

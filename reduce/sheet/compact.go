@@ -125,7 +125,7 @@ func (s *Sheet) spTree(p *calc.Parser, e calc.Expr, depth int) (*reduce.SPNode, 
 // solveCompact reduces a compact network step by step and, when it is fed,
 // works back to every element's voltage, current and power.
 func (s *Sheet) solveCompact(nw *network, reason string) error {
-	p := calc.NewParser(nw.src, nw.line)
+	p := s.parser(nw.src, nw.line)
 	tree, err := s.spTree(p, nw.compact, 0)
 	if err != nil {
 		return err

@@ -59,6 +59,7 @@ type Settings struct {
 	Digits   int
 	Sequence int     // 1 ABC, −1 ACB
 	Budget   float64 // bound on a statement's estimated work, seconds
+	Comma    bool    // the decimal comma, on input and in the values shown
 }
 
 // Sheet is a worksheet being run.
@@ -110,6 +111,9 @@ type Sheet struct {
 	// spectra are the spectra defined by spectrum statements; a spectrum
 	// never changes once built, so copies of the worksheet share them.
 	spectra map[string]*spectrumDef
+	// startComma is the decimal marker the first statement was read with:
+	// saved worksheets state it after their language line.
+	startComma bool
 }
 
 // New returns an empty worksheet at the default settings with every
@@ -142,7 +146,7 @@ func (s *Sheet) funcTable() map[string]*calc.Func {
 
 // Settings returns the current settings.
 func (s *Sheet) Settings() Settings {
-	return Settings{Freq: s.ctx.Freq, Basis: s.ctx.Basis, Radians: s.ctx.Format.Radians, Digits: s.ctx.Format.Digits, Sequence: s.ctx.Sequence, Budget: s.budget}
+	return Settings{Freq: s.ctx.Freq, Basis: s.ctx.Basis, Radians: s.ctx.Format.Radians, Digits: s.ctx.Format.Digits, Sequence: s.ctx.Sequence, Budget: s.budget, Comma: s.ctx.Format.Comma}
 }
 
 // Context returns the evaluation context (settings) in force.
@@ -176,8 +180,75 @@ func (s *Sheet) Func(name string) (*calc.Func, bool) {
 func (s *Sheet) Steps() []calc.Step { return s.steps }
 
 // Statements returns the accepted statements in order: a worksheet that
-// replays to the same values.
-func (s *Sheet) Statements() []string { return append([]string(nil), s.stmts...) }
+// replays to the same values. A worksheet begun under the decimal comma
+// starts with the statement that sets it, so it replays the same wherever
+// it is run.
+func (s *Sheet) Statements() []string {
+	if s.startComma {
+		return append([]string{DecimalLine(true)}, s.stmts...)
+	}
+	return append([]string(nil), s.stmts...)
+}
+
+// Worksheet returns the worksheet to save or export: the language line,
+// the decimal marker the statements begin in, and the statements.
+func (s *Sheet) Worksheet() []string {
+	return append([]string{LanguageLine(), DecimalLine(s.startComma)}, s.stmts...)
+}
+
+// DecimalLine is the statement that sets the decimal marker.
+func DecimalLine(comma bool) string {
+	if comma {
+		return "decimal comma"
+	}
+	return "decimal point"
+}
+
+// ChangeMarker rewrites a worksheet line typed under one decimal marker for
+// the other (2.2 ↔ 2,2, and ',' ↔ ';' between arguments), its comment
+// kept as it is. The decimal statement itself is swapped too, so that the
+// rewritten worksheet reads the same.
+func ChangeMarker(line string, fromComma bool) string {
+	body, comment := line, ""
+	if i := strings.IndexByte(line, '#'); i >= 0 {
+		body, comment = line[:i], line[i:]
+	}
+	switch strings.TrimSpace(body) {
+	case DecimalLine(fromComma):
+		return DecimalLine(!fromComma) + comment
+	}
+	return calc.ChangeMarker(body, fromComma) + comment
+}
+
+// CommaAt reports whether the statement stmts[k] of a worksheet is read
+// under the decimal comma: the last decimal statement before it says so.
+func CommaAt(stmts []string, k int) bool {
+	comma := false
+	for _, st := range stmts[:min(k, len(stmts))] {
+		if f := strings.Fields(st); len(f) == 2 && f[0] == "decimal" {
+			comma = f[1] == "comma"
+		}
+	}
+	return comma
+}
+
+// SetDecimalComma sets the decimal marker before the first statement (as
+// the --decimal-comma flag does), without a step. Once statements have
+// been run, the marker changes only by the decimal statement, which the
+// worksheet keeps; then SetDecimalComma reports false and changes nothing.
+func (s *Sheet) SetDecimalComma(comma bool) bool {
+	if len(s.stmts) > 0 {
+		return false
+	}
+	s.startComma, s.ctx.Format.Comma = comma, comma
+	return true
+}
+
+// parser returns a parser over a statement with the worksheet's decimal
+// marker.
+func (s *Sheet) parser(src string, line int) *calc.Parser {
+	return calc.NewParserComma(src, line, s.ctx.Format.Comma)
+}
 
 // Checks returns how many check statements passed and failed.
 func (s *Sheet) Checks() (pass, fail int) { return s.pass, s.fail }
@@ -235,7 +306,7 @@ var reservedWords = map[string]string{
 	"spread": "a statement keyword", "deltay": "a statement keyword",
 	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
 	"spectrum": "a statement keyword",
-	"language": "a statement keyword",
+	"language": "a statement keyword", "decimal": "a statement keyword",
 	"f":        "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",

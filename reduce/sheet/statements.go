@@ -49,7 +49,13 @@ func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 		last := &s.steps[len(s.steps)-1]
 		last.Notes = append(last.Notes, s.shadow)
 	}
-	if !isLanguageLine(src) {
+	switch {
+	case isLanguageLine(src):
+	case isDecimalLine(src) && len(s.stmts) == 0:
+		// the marker the worksheet begins in, which Statements and
+		// Worksheet state first
+		s.startComma = s.ctx.Format.Comma
+	default:
 		s.stmts = append(s.stmts, src)
 	}
 	return s.steps[before:len(s.steps):len(s.steps)], nil
@@ -71,6 +77,26 @@ func LanguageLine() string { return fmt.Sprintf("language %d", calc.Language) }
 func isLanguageLine(src string) bool {
 	f := strings.Fields(src)
 	return len(f) >= 1 && f[0] == "language"
+}
+
+// isDecimalLine reports a "decimal comma" or "decimal point" statement.
+func isDecimalLine(src string) bool {
+	f := strings.Fields(src)
+	return len(f) >= 1 && f[0] == "decimal"
+}
+
+// stmtDecimal reads "decimal comma" or "decimal point": the decimal
+// marker of the numbers typed and shown from here on. The SI Brochure (9th
+// ed. §5.4.4) allows either on the line. Under the comma, ';' separates
+// the arguments of a function.
+func (s *Sheet) stmtDecimal(p *calc.Parser) error {
+	return s.setting(p, []string{"comma", "point"}, func(w string) calc.Step {
+		s.ctx.Format.Comma = w == "comma"
+		if s.ctx.Format.Comma {
+			return calc.Step{Rule: "decimal comma: numbers are typed and shown as 2,2 mH; arguments are separated by ';', as in parallel(2,2 kΩ; 4,7 kΩ)"}
+		}
+		return calc.Step{Rule: "decimal point: numbers are typed and shown as 2.2 mH; arguments are separated by ',', as in parallel(2.2 kΩ, 4.7 kΩ)"}
+	})
 }
 
 // stmtLanguage reads "language N": the version of the input language the
@@ -207,7 +233,7 @@ func (s *Sheet) exec(src string, n int) error {
 	if strings.TrimSpace(body) == "" {
 		return nil
 	}
-	p := calc.NewParser(body, n)
+	p := s.parser(body, n)
 	defer func() { s.since = max(s.since, p.Since()) }()
 	first := p.Peek()
 	if s.open != nil {
@@ -227,6 +253,8 @@ func (s *Sheet) exec(src string, n int) error {
 			return s.stmtSequence(p)
 		case "language":
 			return s.stmtLanguage(p)
+		case "decimal":
+			return s.stmtDecimal(p)
 		case "check":
 			return s.stmtCheck(p)
 		case "resistor", "inductor", "capacitor", "impedance":
@@ -275,7 +303,7 @@ func perr(p *calc.Parser, format string, a ...any) error {
 // calledAsFunction reports a line that starts with a word and "(", such as
 // thevenin(V, Z1, Z2): a function call, not the statement of that name.
 func calledAsFunction(body string) bool {
-	q := calc.NewParser(body, 0)
+	q := calc.NewParserComma(body, 0, true) // the first two tokens read alike under either marker
 	q.Next()
 	return q.IsOp("(")
 }
@@ -284,7 +312,7 @@ func calledAsFunction(body string) bool {
 // frequency = 2: an attempt to define a name, which the definition then
 // refuses with the reason when the word is reserved.
 func assignsTo(body string) bool {
-	q := calc.NewParser(body, 0)
+	q := calc.NewParserComma(body, 0, true) // as calledAsFunction
 	q.Next()
 	return q.IsOp("=")
 }
@@ -541,7 +569,7 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	var name string
 	var nameTok calc.Item
 	// NAME = EXPR: look for the '=' after a leading identifier
-	q := calc.NewParser(src, s.line)
+	q := s.parser(src, s.line)
 	if t := q.Next(); (t.Tok == calc.TokIdent || t.Tok == calc.TokImag) && q.IsOp("=") {
 		nameTok = p.Next()
 		p.Next() // =

@@ -467,7 +467,7 @@ func (s *Sheet) tolerancesUnder(e calc.Expr) []string {
 func (s *Sheet) stmtSpread(p *calc.Parser) error {
 	p.Next()
 	var name string
-	q := calc.NewParser(p.Source(), s.line)
+	q := s.parser(p.Source(), s.line)
 	q.Next()
 	if t := q.Next(); t.Tok == calc.TokIdent && q.IsOp("=") {
 		nt := p.Next()

@@ -36,6 +36,9 @@ type Options struct {
 	Digits     int // 0 keeps the worksheet's own setting
 	ASCII      bool
 	PolarFirst bool
+	// Comma starts the worksheet under the decimal comma (--decimal-comma);
+	// a worksheet's own decimal statement still rules from its line on.
+	Comma bool
 }
 
 // Printer writes steps and errors in one of the two output forms.
@@ -114,6 +117,7 @@ func NewSheet(o Options) (*sheet.Sheet, error) {
 	// text the worksheet draws itself (a sweep's plot) is drawn in ASCII
 	// from the start, not transliterated afterwards out of alignment
 	s.Context().Format.ASCII = o.ASCII
+	s.SetDecimalComma(o.Comma)
 	return s, nil
 }
 
