@@ -39,14 +39,14 @@ import (
 
 // Options configure the app.
 type Options struct {
-	ASCII      bool   // ASCII glyphs only (--ascii or a non-UTF-8 locale)
-	Color      bool   // colour allowed (false under NO_COLOR)
-	PolarFirst bool   // show the polar form first on a new session
-	Digits     int    // significant figures for a new session; 0 keeps the worksheet's
+	ASCII      bool // ASCII glyphs only (--ascii or a non-UTF-8 locale)
+	Color      bool // colour allowed (false under NO_COLOR)
+	PolarFirst bool // show the polar form first on a new session
+	Digits     int  // significant figures for a new session; 0 keeps the worksheet's
 	// Comma sets the decimal comma (--decimal-comma): at once on a new
 	// session, and by the statement decimal comma on a restored one.
 	Comma bool
-	File       string // worksheet to open; "" restores the last session
+	File  string // worksheet to open; "" restores the last session
 	// New starts a blank session (--new); the last one is kept as a
 	// worksheet file beside the session file.
 	New bool

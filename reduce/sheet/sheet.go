@@ -307,7 +307,7 @@ var reservedWords = map[string]string{
 	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
 	"spectrum": "a statement keyword",
 	"language": "a statement keyword", "decimal": "a statement keyword",
-	"f":        "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
+	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",
 }

@@ -88,13 +88,26 @@ var catalogue = []struct {
 	{"check of unlike units", nil, "check 1 Ω is 1 V", "the units differ", 14},
 	{"circular definition", []string{"p = 1", "q = p + 1"}, "p = q", "circular", 1},
 	{"value called", []string{"r = 2"}, "r(3)", "is a value, not a function", 1},
-	{"comma", nil, "1,2", "unexpected \",\"", 2},
+	{"comma", nil, "1,2", "decimal comma? write 1.2, or set decimal comma", 1},
+	{"comma alone", nil, "1,", "unexpected \",\"", 2},
 	{"invalid UTF-8", nil, "1 + \xff2", "invalid UTF-8", 5},
 	{"invalid UTF-8 after multibyte", nil, "Ω\xfe", "invalid UTF-8", 2},
 	{"10 MB line", nil, "1+" + strings.Repeat(" ", 10<<20) + "1", "line too long", 1},
 	{"100 000 nested parentheses", nil, strings.Repeat("(", 100000) + "1" + strings.Repeat(")", 100000), "line too long", 1},
 	{"deep nesting within the line limit", nil, strings.Repeat("(", 30000) + "1" + strings.Repeat(")", 30000), "nested too deeply", 200},
 	{"deep unary minus", nil, strings.Repeat("-", 30000) + "1", "nested too deeply", 200},
+	// the decimal marker (SI Brochure 9th ed. §5.4.4: the point or the
+	// comma on the line; digit groups written with a space)
+	{"decimal comma under the point", nil, "L = 2,2 mH", "decimal comma? write 2.2 mH, or set decimal comma", 5},
+	{"decimal comma in a call", nil, "max(2,2)", "(for two arguments write 2, 2)", 5},
+	{"decimal comma in a function of parts", nil, "parallel(2,2 kΩ, 4,7 kΩ)", "decimal comma? write 2.2 kΩ, or set decimal comma", 10},
+	{"comma and three digits", nil, "1,000 V", `"1,000 V" reads two ways: 1.000 V (a decimal comma) or 1 000 V (a digit group`, 1},
+	{"digit groups with commas", nil, "1,000,000 Ω", "digit groups are written with a space (SI Brochure §5.4.4): write 1 000 000 Ω", 1},
+	{"semicolon under the point", nil, "max(2; 3)", "';' separates arguments only with the decimal comma set", 6},
+	{"decimal point under the comma", []string{"decimal comma"}, "L = 2.2 mH", "decimal point? write 2,2 mH, or set decimal point", 5},
+	{"point and three digits under the comma", []string{"decimal comma"}, "1.000 V", "1,000 V (a decimal point) or 1 000 V", 1},
+	{"comma between arguments under the comma", []string{"decimal comma"}, "max(2, 3)", "separate arguments with ';'", 6},
+	{"decimal setting misspelt", nil, "decimal dot", "decimal takes comma or point", 9},
 }
 
 // good are the two lines every catalogue worksheet starts with; their
@@ -161,7 +174,7 @@ func TestCatalogue(t *testing.T) {
 			if code != ExitBadInput {
 				t.Errorf("exit code %d, want %d", code, ExitBadInput)
 			}
-			if !strings.Contains(out.String(), "→ a_ok = 230.0 V") || !strings.Contains(out.String(), "→ b_ok = ") {
+			if !strings.Contains(out.String(), "→ a_ok = 230.0 V") && !strings.Contains(out.String(), "→ a_ok = 230,0 V") || !strings.Contains(out.String(), "→ b_ok = ") {
 				t.Errorf("results before the bad line missing from the output:\n%.400s", out.String())
 			}
 			if !strings.Contains(out.String(), "c_after") {

@@ -40,6 +40,8 @@ flags:
   --plain      line-by-line mode instead of the full-screen app (also TERM=dumb)
   --new        start a new, empty session; the last one is kept as a worksheet
                file beside the session file, and the app says where
+  --decimal-comma  numbers typed and shown as 2,2 mH, ';' between arguments
+               (a worksheet's own decimal statement rules; JSON is unchanged)
 
 exit codes: 0 ok, 1 a check failed, 2 bad input or usage.
 `
@@ -74,6 +76,15 @@ numbers and units
   A unit only follows a number, so a name may be a unit symbol: S = 230 V *
   6.2 A, capacitor C = 22 µF, m = 3 (a note says so the first time).
   Reserved: constants, function names, statement keywords, f, w and ω.
+decimal marker: the point or the comma (SI Brochure 9th ed., §5.4.4)
+  decimal point (the default): 2.2 mH, parallel(2.2 kΩ, 4.7 kΩ); 2,2 is
+    refused with the exact fix (write 2.2, or 2, 2 for two arguments)
+  decimal comma (statement, --decimal-comma, or the key , in the app):
+    2,2 mH, 0,95, parallel(2,2 kΩ; 4,7 kΩ); 2.2 is refused likewise
+  1,000 (or 1.000 under the comma) is refused with both readings listed;
+    digit groups are written with a space: 1 000 000 V, 12 345,6 Ω
+  The setting is saved in the session and in worksheets (after the language
+  line), so they replay the same anywhere; JSON output never changes.
 complex values
   3+j4 Ω      rectangular; the unit applies to both parts
   3-j4 kΩ     (and 3+4j, 3+i4 are the same forms); written without spaces
@@ -92,6 +103,7 @@ statements
   angles deg | rad       angle unit shown and read
   digits N               significant figures shown
   sequence abc | acb     phase sequence
+  decimal comma | point  decimal marker typed and shown from here on
   l2l(400 V)  l2n(230 V) mark a three-phase voltage line-to-line or
                          line-to-neutral: each three-phase function names
                          which it takes (VLL, VLN), converts a value marked
