@@ -221,7 +221,7 @@ func (m *Model) restore() {
 		}
 		m.note(false, msg)
 	case m.opt.New:
-		m.s.loadWorksheet("")
+		m.s.loadWorksheet("", m.opt.Comma)
 		if m.opt.File != "" {
 			m.fresh()
 		}
@@ -309,10 +309,10 @@ func (m *Model) fresh() {
 		b, err := os.ReadFile(m.opt.File)
 		switch {
 		case err != nil:
-			m.s.loadWorksheet("")
+			m.s.loadWorksheet("", m.opt.Comma)
 			m.note(true, "could not open "+m.opt.File+": "+err.Error())
 		default:
-			if err := m.s.loadWorksheet(string(b)); err != nil {
+			if err := m.s.loadWorksheet(string(b), m.opt.Comma); err != nil {
 				m.note(true, m.opt.File+": "+err.Error())
 			} else {
 				m.note(false, "opened "+m.opt.File)
@@ -328,7 +328,7 @@ func (m *Model) fresh() {
 			}
 		}
 	} else {
-		m.s.loadWorksheet(cli.Example)
+		m.s.loadWorksheet(cli.ExampleIn(m.opt.Comma), m.opt.Comma)
 		m.note(false, "first start: the built-in example worksheet (invented example data). ? for help")
 	}
 	m.s.v.PolarFirst = pf

@@ -229,8 +229,11 @@ func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) 
 // loadWorksheet runs a worksheet text into a fresh sheet by the rules of
 // argand run: every line that runs is kept, and the error names each line
 // that did not (the first with its reason).
-func (s *session) loadWorksheet(text string) error {
+func (s *session) loadWorksheet(text string, comma bool) error {
 	sh := newSheet(s.ascii)
+	// a worksheet that states its marker reads by it; one that does not is
+	// read as the user said to read numbers
+	sh.SetDecimalComma(comma)
 	sum, err := sh.Run(strings.NewReader(text), nil)
 	s.sh = sh
 	s.v = view{}

@@ -22,7 +22,7 @@ func BatchContext(ctx context.Context, file string, in io.Reader, w, ew io.Write
 		if !o.JSON {
 			fmt.Fprintln(w, "# built-in example worksheet (example data, invented scenario)")
 		}
-		return RunContext(ctx, strings.NewReader(Example), "example", w, ew, o)
+		return RunContext(ctx, strings.NewReader(ExampleIn(o.Comma)), "example", w, ew, o)
 	}
 	f, err := os.Open(file)
 	if err != nil {
