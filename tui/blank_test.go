@@ -172,7 +172,11 @@ func TestSignatureHint(t *testing.T) {
 	if h := hint(); strings.Contains(h, "«") {
 		t.Errorf("outside a call: hint %q", h)
 	}
-	if f, a, n, ok := callAt("series(1, fromvi(2, 3", len("series(1, fromvi(2, 3")); !ok || f != "fromvi" || a != 1 || n != "" {
+	// under the decimal comma, ';' separates and 2,5 is one argument
+	if f, a, _, ok := callAt("series(1; fromvi(2,5; 3", len("series(1; fromvi(2,5; 3"), true); !ok || f != "fromvi" || a != 1 {
+		t.Errorf("callAt under the comma = %q %d %v", f, a, ok)
+	}
+	if f, a, n, ok := callAt("series(1, fromvi(2, 3", len("series(1, fromvi(2, 3"), false); !ok || f != "fromvi" || a != 1 || n != "" {
 		t.Errorf("callAt = %q %d %q %v", f, a, n, ok)
 	}
 }

@@ -11,14 +11,15 @@ import (
 // closed before pos, the index of the argument being typed, and the
 // parameter it names when written as "name = ". ok is false outside a
 // call. It reads tokens only, so it works on a line still being typed.
-func callAt(src string, pos int) (fun string, arg int, named string, ok bool) {
+// Under the decimal comma (comma set) ';' separates the arguments.
+func callAt(src string, pos int, comma bool) (fun string, arg int, named string, ok bool) {
 	type frame struct {
 		fun   string
 		arg   int
 		named string
 	}
 	var stack []frame
-	sc := calc.NewScanner(src[:pos], 0)
+	sc := calc.NewScannerComma(src[:pos], 0, comma)
 	var prev calc.Item
 	for n := 0; n < 10000; n++ {
 		t := sc.Scan()
@@ -67,7 +68,7 @@ func (m *Model) signature() string {
 	}
 	f := &m.line.f
 	src := string(f.text[:f.pos])
-	name, arg, named, ok := callAt(src, len(src))
+	name, arg, named, ok := callAt(src, len(src), m.s.sh.Settings().Comma)
 	if !ok {
 		return ""
 	}
