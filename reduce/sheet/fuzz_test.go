@@ -34,6 +34,9 @@ var sheetSeeds = []string{
 	"language 2\nR = 10k\nresistor R2 = 10k\nR2 = 12k\nZ = 4k7 || 10k\nZs = series(22 mH, 150 Ω)",
 	"capacitor C = 22 µF\nS = 230 V * 6.2 A\nm = 3\nA = 2 * m\np = fromvi(230 V, 6.2 A, acos(0.78))",
 	"language 99", "inductor L1 = 2.2m", "x = 2 mw", "\ufeffx = 1", "x = 10\u202fkΩ || 10 k\u2126",
+	// the decimal comma (SI Brochure 9th ed. §5.4.4), and back
+	"decimal comma\nL = 2,2 mH\nZ = parallel(2,2 kΩ; 4,7 kΩ)\ndecimal point\nx = 2,2\ny = max(2,2)",
+	"decimal comma\ncheck 1,5 kΩ is 1 500 Ω within 0,1%\nfrequency 50,5 Hz\nV = 230∠-30,5 V", "1,000 V", "decimal dot",
 }
 
 // FuzzSheet runs arbitrary lines through the worksheet interpreter. An
