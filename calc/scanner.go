@@ -445,8 +445,8 @@ func (s *Scanner) otherMark(start, col int, space bool, at int) Item {
 	case len(seps) == 1 && len(groups[1]) == 3 && head == "":
 		// 1,000: one, or one thousand
 		a, b := groups[0], groups[1]
-		s.fail(col, n, fmt.Sprintf("%q reads two ways: %s%c%s%s (a %s) or %s %s%s (a digit group, which is written with a space, SI Brochure §5.4.4): write one of them",
-			typed+unit, a, own, b, unit, setting, a, b, unit))
+		s.fail(col, n, fmt.Sprintf("%q reads two ways: %s%c%s%s with a %s, or %s %s%s with the %c grouping digits (digit groups are written with a space, SI Brochure §5.4.4): write the one you mean, or set %s for the first",
+			typed+unit, a, own, b, unit, setting, a, b, unit, other, setting))
 	case grouped && len(seps) > 1:
 		whole := strings.Join(groups[:len(groups)-1], " ")
 		last := groups[len(groups)-1]

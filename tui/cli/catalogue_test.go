@@ -101,11 +101,11 @@ var catalogue = []struct {
 	{"decimal comma under the point", nil, "L = 2,2 mH", "decimal comma? write 2.2 mH, or set decimal comma", 5},
 	{"decimal comma in a call", nil, "max(2,2)", "(for two arguments write 2, 2)", 5},
 	{"decimal comma in a function of parts", nil, "parallel(2,2 kΩ, 4,7 kΩ)", "decimal comma? write 2.2 kΩ, or set decimal comma", 10},
-	{"comma and three digits", nil, "1,000 V", `"1,000 V" reads two ways: 1.000 V (a decimal comma) or 1 000 V (a digit group`, 1},
+	{"comma and three digits", nil, "1,000 V", `"1,000 V" reads two ways: 1.000 V with a decimal comma, or 1 000 V with the , grouping digits`, 1},
 	{"digit groups with commas", nil, "1,000,000 Ω", "digit groups are written with a space (SI Brochure §5.4.4): write 1 000 000 Ω", 1},
 	{"semicolon under the point", nil, "max(2; 3)", "';' separates arguments only with the decimal comma set", 6},
 	{"decimal point under the comma", []string{"decimal comma"}, "L = 2.2 mH", "decimal point? write 2,2 mH, or set decimal point", 5},
-	{"point and three digits under the comma", []string{"decimal comma"}, "1.000 V", "1,000 V (a decimal point) or 1 000 V", 1},
+	{"point and three digits under the comma", []string{"decimal comma"}, "1.000 V", "1,000 V with a decimal point, or 1 000 V with the . grouping digits", 1},
 	{"comma between arguments under the comma", []string{"decimal comma"}, "max(2, 3)", "separate arguments with ';'", 6},
 	{"decimal setting misspelt", nil, "decimal dot", "decimal takes comma or point", 9},
 }
