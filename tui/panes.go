@@ -342,7 +342,7 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 	if len(names) == 1 {
 		if q, ok := m.s.sh.Lookup(names[0]); ok && q.Dim == calc.DimPower && q.Kind == calc.KindApparent && q.V != 0 {
 			out := []string{m.th.section("power triangle", m.tr(names[0]+": P, Q and S"), w)}
-			out = append(out, sketch.Triangle(real(q.V), imag(q.V), w, h-1, sketch.Options{ASCII: m.opt.ASCII})...)
+			out = append(out, sketch.Triangle(real(q.V), imag(q.V), w, h-1, sketch.Options{ASCII: m.opt.ASCII, Comma: m.s.sh.Settings().Comma})...)
 			p.key, p.lines = k, out
 			return out
 		}
@@ -360,7 +360,7 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 	if len(items) == 0 {
 		out = append(out, m.th.dim.Render("nothing to draw"))
 	} else {
-		out = append(out, sketch.Render(items, w, rows, sketch.Options{ASCII: m.opt.ASCII})...)
+		out = append(out, sketch.Render(items, w, rows, sketch.Options{ASCII: m.opt.ASCII, Comma: m.s.sh.Settings().Comma})...)
 	}
 	if note != "" {
 		out = append(out, m.th.dim.Render(note))
@@ -432,7 +432,11 @@ func (m *Model) entryView() string {
 	w := m.width - ansi.StringWidth(p)
 	if m.mode != modeLine {
 		if m.line.f.String() == "" {
-			return m.th.dim.Render(p + m.tr("tab or e: type a statement, such as Zc = 1/(j·ω·4.7 µF)"))
+			example := "Zc = 1/(j·ω·4.7 µF)"
+			if m.s.sh.Settings().Comma {
+				example = "Zc = 1/(j·ω·4,7 µF)"
+			}
+			return m.th.dim.Render(p + m.tr("tab or e: type a statement, such as "+example))
 		}
 		s, _ := m.line.f.render(w, func(c string) string { return c })
 		return m.th.dim.Render(p + s)

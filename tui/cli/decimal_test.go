@@ -48,3 +48,17 @@ func TestExampleDecimalComma(t *testing.T) {
 		t.Errorf("the example has no decimals to rewrite")
 	}
 }
+
+// TestHelpDecimal: help on the statement gives the whole paragraph, with
+// both settings, the flag and the key.
+func TestHelpDecimal(t *testing.T) {
+	txt, ok := Topic("decimal")
+	if !ok {
+		t.Fatal("no help on decimal")
+	}
+	for _, want := range []string{"decimal point (the default)", "--decimal-comma", "key ,", "parallel(2,2 kΩ; 4,7 kΩ)", "1 000 000 V", "JSON output never changes"} {
+		if !strings.Contains(txt, want) {
+			t.Errorf("help decimal lacks %q:\n%s", want, txt)
+		}
+	}
+}

@@ -256,6 +256,12 @@ func Topic(name string) (text string, ok bool) {
 		}
 		return b.String(), true
 	}
+	if name == "decimal" {
+		// the setting has a paragraph of its own, given whole
+		i := strings.Index(language, "decimal marker:")
+		j := strings.Index(language, "complex values")
+		return "statement decimal comma | decimal point\n" + language[i:j], true
+	}
 	var lines []string
 	for _, l := range strings.Split(language+"\n"+networks, "\n") {
 		f := strings.Fields(l)

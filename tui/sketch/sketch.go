@@ -39,6 +39,8 @@ type Options struct {
 	// transliterated (subscript digits to digits, Ω to "ohm", µ to "u") and
 	// any other character becomes '?'.
 	ASCII bool
+	// Comma writes numbers with the decimal comma, as the worksheet does.
+	Comma bool
 	// Format writes a magnitude with its unit for the legend and the
 	// triangle labels. Nil selects three significant figures in
 	// engineering notation with an SI prefix, such as "2.50 kV".
@@ -260,7 +262,16 @@ func (o Options) format(x float64, unit string) string {
 	if o.Format != nil {
 		return o.text(o.Format(x, unit))
 	}
-	return o.text(Eng(x, unit, 3, o.ASCII))
+	return o.text(o.mark(Eng(x, unit, 3, o.ASCII)))
+}
+
+// mark writes the decimal marker in force into a number written with a
+// point.
+func (o Options) mark(s string) string {
+	if o.Comma {
+		return strings.Replace(s, ".", ",", 1)
+	}
+	return s
 }
 
 var prefixes = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}

@@ -44,14 +44,14 @@ func Triangle(p, q float64, width, height int, opt Options) []string {
 	ql := []rune("Q = " + opt.format(q, "var"))
 	sl := []rune("S = " + opt.format(s, "VA"))
 	var segs []string
-	segs = append(segs, string(sl), phiName+" = "+strconv.FormatFloat(roundSig(phi, 4), 'f', -1, 64)+deg)
+	segs = append(segs, string(sl), phiName+" = "+opt.mark(strconv.FormatFloat(roundSig(phi, 4), 'f', -1, 64))+deg)
 	switch {
 	case s == 0:
 		segs = []string{"no power: P = Q = 0"}
 	case q > 0:
-		segs = append(segs, "pf "+strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64)+" lagging (Q > 0, inductive)")
+		segs = append(segs, "pf "+opt.mark(strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64))+" lagging (Q > 0, inductive)")
 	case q < 0:
-		segs = append(segs, "pf "+strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64)+" leading (Q < 0, capacitive)")
+		segs = append(segs, "pf "+opt.mark(strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64))+" leading (Q < 0, capacitive)")
 	default:
 		segs = append(segs, "pf 1")
 	}
