@@ -1,6 +1,10 @@
 package calc
 
-import "testing"
+import (
+	"fmt"
+	"strings"
+	"testing"
+)
 
 const benchExpr = "(230∠-30 V / ((3+j4 Ω) || (10 Ω + zl(10 mH)) + 1/(j*w*C1))) * 2"
 
@@ -49,5 +53,30 @@ func BenchmarkStepJSON(b *testing.B) {
 		Results: []Operand{{Name: "I1", Value: Q(27.6-36.8i, DimCurrent)}}}
 	for b.Loop() {
 		_ = st.JSON()
+	}
+}
+
+// BenchmarkParseMarker parses a sum of n decimal numbers with units under
+// each decimal marker, at several sizes: the cost per number stays flat.
+func BenchmarkParseMarker(b *testing.B) {
+	for _, comma := range []bool{false, true} {
+		for _, n := range []int{10, 100, 1000} {
+			term := "2.2 kΩ + "
+			if comma {
+				term = "2,2 kΩ + "
+			}
+			src := strings.Repeat(term, n) + "1 000 Ω"
+			name := fmt.Sprintf("point/n=%d", n)
+			if comma {
+				name = fmt.Sprintf("comma/n=%d", n)
+			}
+			b.Run(name, func(b *testing.B) {
+				for b.Loop() {
+					if _, err := ParseExprComma(src, 1, comma); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
 	}
 }

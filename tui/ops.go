@@ -687,8 +687,8 @@ func (m *Model) trailMarkdown() string {
 	var b strings.Builder
 	f := m.format()
 	st := m.s.sh.Settings()
-	fmt.Fprintf(&b, "# argand trail\n\nWorking frequency %s, %s basis, %d significant figures.\n\n",
-		f.Mag(st.Freq, calc.DimFrequency, 0), strings.ToUpper(st.Basis.String()), st.Digits)
+	fmt.Fprintf(&b, "# argand trail\n\nWorking frequency %s, %s basis, %d significant figures, %s.\n\n",
+		f.Mag(st.Freq, calc.DimFrequency, 0), strings.ToUpper(st.Basis.String()), st.Digits, sheet.DecimalLine(st.Comma))
 	for i, s := range m.s.sh.Steps() {
 		head := s.Source
 		if head == "" {
