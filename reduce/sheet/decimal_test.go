@@ -63,7 +63,7 @@ func TestDecimalStatement(t *testing.T) {
 func TestDecimalSaved(t *testing.T) {
 	s := New()
 	s.SetDecimalComma(true)
-	mustRun(t, s, "R = 4,7 kΩ", "decimal point", "C = 2.2 µF", "decimal comma", "Z = series(R; 1 kΩ)")
+	mustRun(t, s, "R = 4,7 kΩ", "decimal point", "Cp = 2.2 µF", "decimal comma", "Z = series(R; 1 kΩ)")
 	if s.SetDecimalComma(false) {
 		t.Error("the marker changed without a statement after statements ran")
 	}
@@ -78,7 +78,7 @@ func TestDecimalSaved(t *testing.T) {
 		r := New()
 		r.SetDecimalComma(start)
 		mustRun(t, r, w...)
-		for _, n := range []string{"R", "C", "Z"} {
+		for _, n := range []string{"R", "Cp", "Z"} {
 			a, _ := s.Lookup(n)
 			b, _ := r.Lookup(n)
 			if a != b {
