@@ -98,6 +98,8 @@ func TestDecimalMarkerRefused(t *testing.T) {
 		{"1.000.000", true, 1, "digit groups are written with a space (SI Brochure §5.4.4): write 1 000 000"},
 		{".5", true, 1, "decimal point? write 0,5, or set decimal point"},
 		{"max(2, 3)", true, 6, "with the decimal comma set, ',' marks the decimal: separate arguments with ';', as in parallel(2,2 kΩ; 4,7 kΩ)"},
+		{"max(1.5,2)", false, 5, `"1.5,2" has two decimal markers: for two arguments write 1.5, 2`},
+		{"max(1,5.2)", true, 5, `"1,5.2" has two decimal markers: for two arguments write 1,5; 2`},
 		{"max(2; 3)", false, 6, "';' separates arguments only with the decimal comma set: write ',', as in parallel(2.2 kΩ, 4.7 kΩ)"},
 	}
 	for _, c := range cases {

@@ -442,6 +442,13 @@ func (s *Scanner) otherMark(start, col int, space bool, at int) Item {
 		}
 	}
 	switch {
+	case strings.HasSuffix(head, string(own)):
+		// 1.5,2: the number already has its decimal part
+		sep := ","
+		if s.comma {
+			sep = ";"
+		}
+		s.fail(col, n, fmt.Sprintf("%q has two decimal markers: for two arguments write %s%s%s %s", typed, head, groups[0], sep, groups[1]))
 	case len(seps) == 1 && len(groups[1]) == 3 && head == "":
 		// 1,000: one, or one thousand
 		a, b := groups[0], groups[1]
