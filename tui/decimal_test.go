@@ -43,6 +43,14 @@ func TestDecimalKey(t *testing.T) {
 	if !m.msgErr || !strings.Contains(m.msg, "decimal point? write 2,2 kΩ, or set decimal point") {
 		t.Errorf("point under the comma: %q", m.msg)
 	}
+	// the parameters shown under the line are separated as they are typed
+	press(m, "ctrl+u")
+	for _, r := range "x = atan2(4,5; " {
+		m.Update(keyMsg(string(r)))
+	}
+	if h := m.signature(); !strings.Contains(h, "atan2(y; ") || !strings.Contains(h, "«x»") {
+		t.Errorf("parameters under the line: %q", h)
+	}
 	press(m, "ctrl+u", "esc")
 	w := m.worksheetText()
 	lines := strings.Split(w, "\n")

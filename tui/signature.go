@@ -116,9 +116,10 @@ func (m *Model) signature() string {
 		}
 		parts[i] = s
 	}
-	line := m.tr(fn.Name+"(") + strings.Join(parts, m.tr(", "))
+	// the separator the user types: ';' under the decimal comma
+	line := m.tr(fn.Name+"(") + strings.Join(parts, m.tr(m.sep()))
 	if fn.Max < 0 || fn.Max > len(fn.Params) {
-		line += m.tr(", ...")
+		line += m.tr(m.sep() + "...")
 	}
 	line += m.tr(")")
 	if cur >= 0 {
