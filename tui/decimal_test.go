@@ -54,7 +54,7 @@ func TestDecimalKey(t *testing.T) {
 	press(m, "ctrl+u", "esc")
 	w := m.worksheetText()
 	lines := strings.Split(w, "\n")
-	if !strings.HasPrefix(lines[0], "language ") {
+	if !strings.HasPrefix(lines[0], "language ") || lines[1] != "decimal point" {
 		t.Fatalf("worksheet:\n%s", w)
 	}
 	if !strings.Contains(w, "decimal comma\nZa = 2,2 kΩ") || !strings.Contains(w, "series(") || !strings.Contains(w, "; ") {

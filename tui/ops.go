@@ -741,9 +741,9 @@ func (m *Model) worksheetText() string {
 	// and the decimal marker they begin in, so it replays the same under
 	// any setting
 	w := m.s.sh.Worksheet()
-	b.WriteString(w[0] + "\n")
+	b.WriteString(w[0] + "\n" + w[1] + "\n")
 	b.WriteString("# argand worksheet saved from a session\n")
-	for _, s := range w[1:] {
+	for _, s := range w[2:] {
 		b.WriteString(s + "\n")
 	}
 	return b.String()
