@@ -81,6 +81,9 @@ func (m *Model) startJob(what string, then func(), stmts ...string) bool {
 	ctx, cancel := context.WithCancel(context.Background())
 	j := &job{id: m.jobs, what: what, cancel: cancel, started: time.Now(), then: then,
 		spin: spinner.New(spinner.WithSpinner(spinner.Line))}
+	if r := m.opt.Renderer; r != nil {
+		j.spin.Style = j.spin.Style.Renderer(r)
+	}
 	if j.what == "" && len(stmts) > 0 {
 		j.what = stmts[0]
 	}

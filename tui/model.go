@@ -35,6 +35,7 @@ import (
 	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/bubbles/spinner"
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
 )
 
 // Options configure the app.
@@ -58,6 +59,10 @@ type Options struct {
 	// Wait is how long a statement runs on the update loop before it
 	// moves off it with a progress line; 0 is DefaultWait.
 	Wait time.Duration
+	// Renderer draws the styles. A server runs many apps at once, each on
+	// its client's terminal, so each brings its own; nil is lipgloss's
+	// default renderer, which the local app sets up in Run.
+	Renderer *lipgloss.Renderer
 }
 
 // Minimum terminal size for the full screen; below it a short notice is
@@ -119,7 +124,7 @@ func New(opt Options) *Model {
 	if opt.Out == nil {
 		opt.Out = io.Discard
 	}
-	m := &Model{opt: opt, keys: DefaultKeyMap(), help: help.New(), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
+	m := &Model{opt: opt, keys: DefaultKeyMap(), help: newHelp(opt.Renderer), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
 	m.s.v.PolarFirst = opt.PolarFirst
 	m.start()
 	return m

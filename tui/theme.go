@@ -7,6 +7,7 @@ import (
 	"argand/calc"
 	"argand/tui/store"
 
+	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/lipgloss"
 	"github.com/charmbracelet/x/ansi"
 )
@@ -45,16 +46,20 @@ func newTheme(o Options) theme {
 	if o.ASCII {
 		t.g = asciiGlyphs
 	}
-	t.label = lipgloss.NewStyle().Bold(true)
-	t.rule = lipgloss.NewStyle().Faint(true)
-	t.sel = lipgloss.NewStyle().Reverse(true)
-	t.marked = lipgloss.NewStyle().Bold(true)
-	t.hi = lipgloss.NewStyle().Bold(true).Underline(true)
-	t.err = lipgloss.NewStyle().Bold(true)
-	t.dim = lipgloss.NewStyle().Faint(true)
-	t.key = lipgloss.NewStyle().Bold(true)
-	t.cursor = lipgloss.NewStyle().Reverse(true)
-	t.heading = lipgloss.NewStyle().Bold(true).Underline(true)
+	style := lipgloss.NewStyle
+	if o.Renderer != nil {
+		style = o.Renderer.NewStyle
+	}
+	t.label = style().Bold(true)
+	t.rule = style().Faint(true)
+	t.sel = style().Reverse(true)
+	t.marked = style().Bold(true)
+	t.hi = style().Bold(true).Underline(true)
+	t.err = style().Bold(true)
+	t.dim = style().Faint(true)
+	t.key = style().Bold(true)
+	t.cursor = style().Reverse(true)
+	t.heading = style().Bold(true).Underline(true)
 	if o.Color {
 		// amber accent and a muted brick for errors: ANSI 256 colours that
 		// read on dark and light backgrounds alike
@@ -65,6 +70,22 @@ func newTheme(o Options) theme {
 		t.key = t.key.Foreground(lipgloss.Color("109"))
 	}
 	return t
+}
+
+// newHelp returns the key help drawn by r (nil: the default renderer).
+// The component makes its styles on the default renderer; an app with a
+// renderer of its own moves them to it, so that the colour profile and
+// background are its terminal's.
+func newHelp(r *lipgloss.Renderer) help.Model {
+	h := help.New()
+	if r == nil {
+		return h
+	}
+	st := &h.Styles
+	for _, s := range []*lipgloss.Style{&st.Ellipsis, &st.ShortKey, &st.ShortDesc, &st.ShortSeparator, &st.FullKey, &st.FullDesc, &st.FullSeparator} {
+		*s = s.Renderer(r)
+	}
+	return h
 }
 
 // section draws a rule with a label: "── entries ───── 12 rows".
