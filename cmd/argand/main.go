@@ -7,6 +7,7 @@
 //	argand eval EXPR...    evaluate each argument and print the steps
 //	argand run FILE|-      run a worksheet and print every step
 //	argand help [TOPIC]    print help
+//	argand serve [FLAGS]   serve the app over SSH (loopback unless --listen)
 //	argand --version
 //
 // Flags: --json, --digits N, --ascii, --plain, --new, --decimal-comma. Exit codes: 0 ok, 1 a
@@ -53,6 +54,11 @@ func parse(argv []string) (flags, error) {
 		a := argv[i]
 		if a == "--" {
 			f.args = append(f.args, argv[i+1:]...)
+			break
+		}
+		if len(f.args) == 0 && a == "serve" {
+			// serve has flags of its own, read by serveFlags
+			f.args = append(f.args, argv[i:]...)
 			break
 		}
 		if !strings.HasPrefix(a, "--") || a == "-" {
@@ -161,6 +167,8 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":
 		return cli.Help(f.args[1:], out, errw, f.opt)
+	case "serve":
+		return runServe(f.args[1:], out, errw, f)
 	}
 	if len(f.args) > 1 {
 		fmt.Fprintf(errw, "argand: unexpected %q (see argand help)\n", f.args[1])
