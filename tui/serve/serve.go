@@ -34,8 +34,8 @@ const (
 	DefaultMaxPerKey   = 4
 	DefaultIdle        = 30 * time.Minute
 	// DefaultRate is the sustained input allowed, bytes a second; a burst
-	// of up to DefaultMaxLine is taken at once, so that a paste of the
-	// longest statement arrives whole.
+	// of a whole line (DefaultMaxLine) and a second's worth is taken at
+	// once, so that a paste of the longest statement arrives whole.
 	DefaultRate = 16 << 10
 	// DefaultMaxLine bounds the input between two line ends or escape
 	// sequences (a paste counts as one line). It is four times the

@@ -125,7 +125,8 @@ func (s *Server) handle(sess ssh.Session) {
 		return
 	}
 	out := &lockedWriter{w: sess}
-	in := &input{r: sess, rate: float64(s.cfg.Rate), maxLine: s.cfg.MaxLine, tokens: float64(s.cfg.MaxLine), last: time.Now(), e: e}
+	in := &input{r: sess, rate: float64(s.cfg.Rate), maxLine: s.cfg.MaxLine, last: time.Now(), e: e}
+	in.tokens = in.burst()
 	in.seen.Store(time.Now().UnixNano())
 
 	// the look is the client's: its TERM, NO_COLOR, LANG and background,
@@ -269,8 +270,8 @@ func (l *lockedWriter) Write(p []byte) (int, error) {
 // the bound.
 //
 // The rate is a token bucket: tokens are bytes, refilled at rate a second
-// up to maxLine, so a paste of a long statement passes at once and a
-// steady flood is stopped.
+// up to maxLine and a second's worth, so a paste of the longest line
+// passes at once and a steady flood is stopped.
 type input struct {
 	r       io.Reader
 	rate    float64
@@ -282,12 +283,14 @@ type input struct {
 	e       *ending
 }
 
+func (in *input) burst() float64 { return float64(in.maxLine) + in.rate }
+
 func (in *input) Read(p []byte) (int, error) {
 	n, err := in.r.Read(p)
 	if n > 0 {
 		now := time.Now()
 		in.seen.Store(now.UnixNano())
-		in.tokens = min(float64(in.maxLine), in.tokens+now.Sub(in.last).Seconds()*in.rate)
+		in.tokens = min(in.burst(), in.tokens+now.Sub(in.last).Seconds()*in.rate)
 		in.last = now
 		in.tokens -= float64(n)
 		if in.tokens < 0 {
