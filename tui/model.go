@@ -63,6 +63,9 @@ type Options struct {
 	// its client's terminal, so each brings its own; nil is lipgloss's
 	// default renderer, which the local app sets up in Run.
 	Renderer *lipgloss.Renderer
+	// Limits bound each worksheet of the session; the zero value keeps
+	// the worksheet's defaults.
+	Limits sheet.Limits
 }
 
 // Minimum terminal size for the full screen; below it a short notice is
@@ -126,6 +129,7 @@ func New(opt Options) *Model {
 	}
 	m := &Model{opt: opt, keys: DefaultKeyMap(), help: newHelp(opt.Renderer), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
 	m.s.v.PolarFirst = opt.PolarFirst
+	m.s.limits = opt.Limits
 	m.start()
 	return m
 }

@@ -71,6 +71,9 @@ type session struct {
 	holder    int    // process holding the session when read-only, if known
 	roWhy     string // why the session is read-only when no one else holds it
 	saveErr   error  // last failure to save, shown until a save succeeds
+	// limits bound the worksheet (a server's sessions set them); the
+	// zero value keeps the worksheet's defaults
+	limits sheet.Limits
 }
 
 func newSession(ascii bool) *session {
@@ -347,6 +350,12 @@ func (s *session) travel(from, to *[]snapshot) bool {
 // of the order, names that no longer exist leave the order and the marks,
 // and the selection stays on a visible row.
 func (s *session) tidy() {
+	// the worksheet in use carries the session's limits however it came
+	// (replayed, restored, undone); a saved session beyond them is kept
+	// whole, and only what would grow it further is refused
+	if s.limits != (sheet.Limits{}) {
+		s.sh.SetLimits(s.limits)
+	}
 	ents := s.sh.Entries()
 	exists := make(map[string]bool, len(ents))
 	for _, e := range ents {

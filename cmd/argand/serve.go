@@ -15,6 +15,7 @@ import (
 	"time"
 
 	"argand/calc"
+	"argand/reduce/sheet"
 	"argand/tui/cli"
 	"argand/tui/serve"
 	"argand/tui/store"
@@ -34,6 +35,11 @@ const serveUsage = `argand serve [flags]: serve argand to a team over SSH
   --idle DURATION     no input for this long ends a session (default 30m)
   --rate N            sustained input per session, bytes a second (default 16384)
   --max-line N        input between two line ends, bytes (default 262144)
+  --max-bytes N       worksheet size: its statements, bytes (default 1048576)
+  --max-names N       names in one worksheet (default 5000)
+  --max-points N      points of one sweep (default 10000)
+  --max-elements N    elements of one network (default 2000)
+  --max-budget SECONDS  the largest budget of estimated work (default 30)
 `
 
 // serveFlags parses the flags of argand serve.
@@ -49,6 +55,12 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	fs.DurationVar(&cfg.Idle, "idle", serve.DefaultIdle, "")
 	fs.IntVar(&cfg.Rate, "rate", serve.DefaultRate, "")
 	fs.IntVar(&cfg.MaxLine, "max-line", serve.DefaultMaxLine, "")
+	d := serve.DefaultLimits()
+	fs.IntVar(&cfg.Limits.Bytes, "max-bytes", d.Bytes, "")
+	fs.IntVar(&cfg.Limits.Names, "max-names", d.Names, "")
+	fs.IntVar(&cfg.Limits.Points, "max-points", d.Points, "")
+	fs.IntVar(&cfg.Limits.Elements, "max-elements", d.Elements, "")
+	fs.Float64Var(&cfg.Limits.Budget, "max-budget", d.Budget, "")
 	if err := fs.Parse(args); err != nil {
 		return cfg, "", fmt.Errorf("serve: %v", err)
 	}
@@ -58,10 +70,14 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	for _, c := range []struct {
 		name string
 		v    int
-	}{{"--max-sessions", cfg.MaxSessions}, {"--max-per-key", cfg.MaxPerKey}, {"--rate", cfg.Rate}, {"--max-line", cfg.MaxLine}} {
+	}{{"--max-sessions", cfg.MaxSessions}, {"--max-per-key", cfg.MaxPerKey}, {"--rate", cfg.Rate}, {"--max-line", cfg.MaxLine},
+		{"--max-bytes", cfg.Limits.Bytes}, {"--max-names", cfg.Limits.Names}, {"--max-points", cfg.Limits.Points}, {"--max-elements", cfg.Limits.Elements}} {
 		if c.v < 1 {
 			return cfg, "", fmt.Errorf("serve: %s takes a whole number of at least 1, not %d", c.name, c.v)
 		}
+	}
+	if !(cfg.Limits.Budget >= 0.1 && cfg.Limits.Budget <= sheet.MaxBudget) {
+		return cfg, "", fmt.Errorf("serve: --max-budget takes seconds from 0.1 to %d, not %g", sheet.MaxBudget, cfg.Limits.Budget)
 	}
 	if cfg.Idle < time.Second {
 		return cfg, "", fmt.Errorf("serve: --idle takes a duration of at least 1s, such as 30m, not %s", cfg.Idle)

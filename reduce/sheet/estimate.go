@@ -153,7 +153,14 @@ func (s *Sheet) overBudget(what string, w work, unit, fewer string) string {
 	if fewer != "" && fit >= 2 {
 		msg += fmt.Sprintf("%s (about %d fit), ", fewer, fit)
 	}
-	raise := math.Min(MaxBudget, math.Ceil(t*1.5/10)*10)
+	raise := math.Min(s.limits.Budget, math.Ceil(t*1.5/10)*10)
+	if raise <= s.budget {
+		// the budget is already at the largest allowed here
+		if fewer != "" && fit >= 2 {
+			return strings.TrimSuffix(msg, ", ")
+		}
+		return msg + "the budget is at its limit here (" + seconds(s.limits.Budget) + ")"
+	}
 	return msg + "or raise the budget with: budget " + strconv.FormatFloat(raise, 'f', -1, 64) + " s"
 }
 
@@ -193,7 +200,10 @@ func (s *Sheet) stmtBudget(p *calc.Parser) error {
 		return lineErr(s.line, col, width(p, e), "budget takes a time in seconds, such as budget 60 s")
 	}
 	t := real(q.V)
-	if !finite(t) || t < 0.1 || t > MaxBudget {
+	if !finite(t) || t < 0.1 || t > s.limits.Budget {
+		if s.limits.Budget < MaxBudget {
+			return lineErr(s.line, col, width(p, e), "a budget lies from 0.1 s to %s here", seconds(s.limits.Budget))
+		}
 		return lineErr(s.line, col, width(p, e), "a budget lies from 0.1 s to %d s (24 h)", MaxBudget)
 	}
 	s.budget = t

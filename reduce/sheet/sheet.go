@@ -108,6 +108,8 @@ type Sheet struct {
 	job *Job
 	// budget is the bound on a statement's estimated work, in seconds.
 	budget float64
+	// limits bound the worksheet's size and the budget it may set.
+	limits Limits
 	// spectra are the spectra defined by spectrum statements; a spectrum
 	// never changes once built, so copies of the worksheet share them.
 	spectra map[string]*spectrumDef
@@ -125,6 +127,7 @@ func New() *Sheet {
 		nets:    map[string]*network{},
 		tols:    map[string]float64{},
 		budget:  DefaultBudget,
+		limits:  DefaultLimits(),
 		spectra: map[string]*spectrumDef{},
 	}
 	return s
@@ -414,8 +417,8 @@ func (s *Sheet) record(steps ...calc.Step) {
 // definitions that depend on it. It returns the recompute step, if any.
 func (s *Sheet) setValue(d *def) error {
 	old, exists := s.byName[d.name]
-	if !exists && len(s.byName) >= MaxNames {
-		return fmt.Errorf("too many names (the limit is %d)", MaxNames)
+	if !exists && len(s.byName) >= s.limits.Names {
+		return fmt.Errorf("too many names (the limit is %d)", s.limits.Names)
 	}
 	if exists {
 		// a redefinition keeps its place, so dependents stay after it

@@ -30,6 +30,9 @@ func (s *Sheet) Line() int { return s.line }
 func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 	s.line = n
 	s.noteSeen = nil
+	if err := s.fits(len(src)); err != nil {
+		return nil, lineErr(n, 1, 1, "%v", err)
+	}
 	before := len(s.steps)
 	s.since, s.shadow = 0, ""
 	err := s.exec(src, n)
@@ -817,6 +820,10 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 	el := &element{kind: kind, raw: r.Value, from: from, to: to}
 	if net != nil {
 		el.net = net.name
+		if lim := s.limits.Elements; lim > 0 && len(net.elems) >= lim {
+			p.Failf(nameTok, "network %s has %d elements, the most allowed here", net.name, lim)
+			return p.Err()
+		}
 	}
 	v, err2 := s.elementValue(el)
 	if err2 != nil {

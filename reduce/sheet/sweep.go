@@ -146,8 +146,8 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 			p.Next()
 			t := p.Next()
 			k, err := strconv.Atoi(t.Text)
-			if t.Tok != calc.TokNumber || err != nil || k < 2 || k > sweep.MaxPoints {
-				p.Failf(t, "points takes a whole number from 2 to %d", sweep.MaxPoints)
+			if t.Tok != calc.TokNumber || err != nil || k < 2 || k > s.limits.Points {
+				p.Failf(t, "points takes a whole number from 2 to %d", s.limits.Points)
 				return p.Err()
 			}
 			n = k

@@ -20,6 +20,8 @@ import (
 	"sync"
 	"time"
 
+	"argand/reduce/sheet"
+
 	"github.com/gliderlabs/ssh"
 	gossh "golang.org/x/crypto/ssh"
 )
@@ -44,6 +46,14 @@ const (
 	DefaultMaxLine = 256 << 10
 )
 
+// DefaultLimits bound each worksheet on the server: what drives memory
+// (its size, its names, a sweep's points, a network's elements) and the
+// largest budget of estimated work a statement may be given (package
+// sheet refuses work estimated beyond the budget before it starts).
+func DefaultLimits() sheet.Limits {
+	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30}
+}
+
 // handshakeTimeout bounds the time from connecting to opening a session:
 // a client that neither authenticates nor asks for anything is dropped.
 const handshakeTimeout = 30 * time.Second
@@ -63,6 +73,8 @@ type Config struct {
 	Idle           time.Duration // no input for this long ends a session
 	Rate           int           // sustained input, bytes a second
 	MaxLine        int           // input between line ends, bytes
+	// Limits bound each worksheet; a zero field is its DefaultLimits.
+	Limits sheet.Limits
 	// App holds the app's options that apply to every session (digits,
 	// polar form first, ASCII only); the look is set per client.
 	Digits     int
@@ -89,6 +101,22 @@ func (c *Config) fill() {
 	}
 	if c.MaxLine <= 0 {
 		c.MaxLine = DefaultMaxLine
+	}
+	d := DefaultLimits()
+	if c.Limits.Names <= 0 {
+		c.Limits.Names = d.Names
+	}
+	if c.Limits.Bytes <= 0 {
+		c.Limits.Bytes = d.Bytes
+	}
+	if c.Limits.Points <= 0 {
+		c.Limits.Points = d.Points
+	}
+	if c.Limits.Elements <= 0 {
+		c.Limits.Elements = d.Elements
+	}
+	if c.Limits.Budget <= 0 {
+		c.Limits.Budget = d.Budget
 	}
 	if c.Log == nil {
 		c.Log = log.New(io.Discard, "", 0)

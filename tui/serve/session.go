@@ -149,6 +149,7 @@ func (s *Server) handle(sess ssh.Session) {
 		Out:        out,
 		Getenv:     getenv,
 		Renderer:   r,
+		Limits:     s.cfg.Limits,
 	}
 	m := tui.New(opt)
 	defer m.Close()

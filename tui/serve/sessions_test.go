@@ -16,6 +16,8 @@ import (
 	"testing"
 	"time"
 
+	"argand/reduce/sheet"
+
 	gossh "golang.org/x/crypto/ssh"
 )
 
@@ -385,4 +387,33 @@ func startChild(t *testing.T, dir string) (*exec.Cmd, string) {
 		t.Fatal("server child did not start")
 	}
 	return nil, ""
+}
+
+// TestWorksheetLimits: a worksheet limit refuses the statement with the
+// app's own message and the session goes on.
+func TestWorksheetLimits(t *testing.T) {
+	dir := t.TempDir()
+	key := newKey(t)
+	authorize(t, dir, key)
+	r := start(t, Config{Dir: dir, Limits: sheet.Limits{Points: 50, Budget: 20}})
+	c, err := dial(t, r.addr, key, r.srv.HostKey())
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer c.Close()
+	a := open(t, c, nil)
+	a.wait(ready)
+	a.send("\t", "sweep Zb from 10 Hz to 1 kHz points 51", "\r")
+	a.wait("points takes a whole number from 2 to 50")
+	a.send("\x15", "budget 60 s", "\r")
+	a.wait("a budget lies from 0.1 s to 20 s here")
+	a.send("\x15", "\x1b")
+	a.enter("Zlim = 1+j1 Ω", "1.000 + j1.000 Ω")
+	a.send("q")
+	if out := a.end(); strings.Contains(out, "\r\nargand: ") {
+		t.Errorf("the session was ended: %q", tail(out, 200))
+	}
+	if st := statements(t, dir, key); st[len(st)-1] != "Zlim = 1+j1 Ω" || slices.ContainsFunc(st, func(s string) bool { return strings.Contains(s, "points 51") }) {
+		t.Errorf("saved %q", st[max(0, len(st)-2):])
+	}
 }
