@@ -30,6 +30,7 @@ usage:
   argand run FILE        run a worksheet (- for standard input), every step
   argand help [TOPIC]    topics: language, functions, networks, safety, or a
                          function or statement name (argand help acos)
+  argand serve [FLAGS]   serve the app over SSH (127.0.0.1:2222; serve --help)
   argand --version
 
 flags:
