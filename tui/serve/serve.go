@@ -135,6 +135,7 @@ type Server struct {
 	perKey map[string]int // sessions running per key directory
 	conns  int            // connections open, authenticated or not
 	apps   sync.WaitGroup // apps running, for Shutdown
+	ending bool           // Shutdown has begun: no new app starts
 }
 
 // New prepares a server: the state directory, the host key (made on the
@@ -197,6 +198,9 @@ func (s *Server) Close() error { return s.srv.Close() }
 // (each saves as it goes, so nothing is lost) and waits for them, up to
 // ctx.
 func (s *Server) Shutdown(ctx context.Context) error {
+	s.mu.Lock()
+	s.ending = true
+	s.mu.Unlock()
 	err := s.srv.Close()
 	done := make(chan struct{})
 	go func() { s.apps.Wait(); close(done) }()
@@ -250,10 +254,13 @@ func (c *countedConn) Close() error {
 }
 
 // acquire takes a place for a session with key directory k, or says why
-// there is none.
+// there is none. A place taken is counted in s.apps until release.
 func (s *Server) acquire(k string) string {
 	s.mu.Lock()
 	defer s.mu.Unlock()
+	if s.ending {
+		return "the server is stopping"
+	}
 	if s.total >= s.cfg.MaxSessions {
 		return fmt.Sprintf("the server is full (%d sessions, its limit); try again later", s.cfg.MaxSessions)
 	}
@@ -262,10 +269,12 @@ func (s *Server) acquire(k string) string {
 	}
 	s.total++
 	s.perKey[k]++
+	s.apps.Add(1)
 	return ""
 }
 
 func (s *Server) release(k string) {
+	defer s.apps.Done()
 	s.mu.Lock()
 	defer s.mu.Unlock()
 	s.total--

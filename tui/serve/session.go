@@ -115,8 +115,6 @@ func (s *Server) handle(sess ssh.Session) {
 		return
 	}
 	defer s.release(kd)
-	s.apps.Add(1)
-	defer s.apps.Done()
 
 	getenv := envOf(sess.Environ(), pty.Term)
 	if getenv("TERM") == "dumb" || getenv("TERM") == "" {
