@@ -417,3 +417,43 @@ func TestWorksheetLimits(t *testing.T) {
 		t.Errorf("saved %q", st[max(0, len(st)-2):])
 	}
 }
+
+// TestClientLook: the look comes from each client's TERM, NO_COLOR and
+// LANG, never from the server's environment (set here to the opposite).
+func TestClientLook(t *testing.T) {
+	t.Setenv("NO_COLOR", "1")
+	t.Setenv("LANG", "C")
+	t.Setenv("LC_ALL", "C")
+	dir := t.TempDir()
+	colour, plain := newKey(t), newKey(t)
+	authorize(t, dir, colour, plain)
+	r := start(t, Config{Dir: dir})
+	run := func(key gossh.Signer, env map[string]string) string {
+		c, err := dial(t, r.addr, key, r.srv.HostKey())
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer c.Close()
+		a := open(t, c, env)
+		a.wait(ready)
+		a.send("q")
+		return a.end()
+	}
+	out := run(colour, map[string]string{"LANG": "en_GB.UTF-8"})
+	if !strings.Contains(out, "\x1b[1;38;5;") || !strings.Contains(out, "∠") {
+		t.Errorf("a UTF-8 colour client got no colour or no UTF-8: %q", tail(out, 300))
+	}
+	out = run(plain, map[string]string{"LANG": "C", "NO_COLOR": "1"})
+	if strings.Contains(out, "38;5;") {
+		t.Error("a NO_COLOR client got colour")
+	}
+	for i := 0; i < len(out); i++ {
+		if out[i] >= 0x80 {
+			t.Errorf("a client in the C locale got a byte %#x: %q", out[i], out[max(0, i-40):min(len(out), i+40)])
+			break
+		}
+	}
+	if !strings.Contains(out, "ohm") {
+		t.Error("a client in the C locale got no ASCII units")
+	}
+}
