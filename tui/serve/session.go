@@ -21,15 +21,16 @@ import (
 	gossh "golang.org/x/crypto/ssh"
 )
 
-// refusedRequests are the session requests answered no: running a
+// refusedRequest reports the session requests answered no: running a
 // command, a subsystem (file transfer), agent forwarding and X11. Only a
 // terminal, its size and environment, and the shell (which is argand) are
-// served.
-var refusedRequests = map[string]bool{
-	"exec":                       true,
-	"subsystem":                  true,
-	"auth-agent-req@openssh.com": true,
-	"x11-req":                    true,
+// served; the library refuses the other kinds itself.
+func refusedRequest(kind string) bool {
+	switch kind {
+	case "exec", "subsystem", "auth-agent-req@openssh.com", "x11-req":
+		return true
+	}
+	return false
 }
 
 // sessionChannel serves a session channel, answering the refused
@@ -54,7 +55,7 @@ func (f filtered) Accept() (gossh.Channel, <-chan *gossh.Request, error) {
 	go func() {
 		defer close(out)
 		for r := range reqs {
-			if refusedRequests[r.Type] {
+			if refusedRequest(r.Type) {
 				f.s.cfg.Log.Printf("refused fp=%s addr=%s request=%s", fingerprintOf(f.ctx), f.ctx.RemoteAddr(), r.Type)
 				r.Reply(false, nil)
 				continue

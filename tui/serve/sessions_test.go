@@ -457,3 +457,54 @@ func TestClientLook(t *testing.T) {
 		t.Error("a client in the C locale got no ASCII units")
 	}
 }
+
+// TestWindowAndTerminal: a window change reaches the app; a terminal that
+// cannot address the screen is refused with one line, its name made safe.
+func TestWindowAndTerminal(t *testing.T) {
+	dir := t.TempDir()
+	key := newKey(t)
+	authorize(t, dir, key)
+	r := start(t, Config{Dir: dir})
+	c, err := dial(t, r.addr, key, r.srv.HostKey())
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer c.Close()
+	a := open(t, c, nil)
+	a.wait(ready)
+	if err := a.sess.WindowChange(10, 40); err != nil {
+		t.Fatal(err)
+	}
+	a.wait("40×10; needs 60×16")
+	if err := a.sess.WindowChange(30, 100); err != nil {
+		t.Fatal(err)
+	}
+	a.wait(strings.Repeat("─", 60)) // a rule only a wider screen has
+	a.send("q")
+	a.end()
+
+	for _, c2 := range []struct{ term, want string }{
+		{"dumb", "argand: argand needs a terminal that can address the screen (TERM is dumb)\r\n"},
+		{"", "argand: argand needs a terminal that can address the screen (TERM is not set)\r\n"},
+	} {
+		s, err := c.NewSession()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := s.RequestPty(c2.term, 24, 80, gossh.TerminalModes{}); err != nil {
+			t.Fatal(err)
+		}
+		var out syncBuffer
+		s.Stdout = &out
+		if err := s.Shell(); err != nil {
+			t.Fatal(err)
+		}
+		s.Wait()
+		if out.String() != c2.want {
+			t.Errorf("TERM %q: %q, want %q", c2.term, out.String(), c2.want)
+		}
+	}
+	if got := printableTerm("xterm\x1b]0;x\a"); got != "xterm??0?x?" {
+		t.Errorf("printableTerm: %q", got)
+	}
+}
