@@ -18,6 +18,7 @@ import (
 	"log"
 	"net"
 	"sync"
+	"sync/atomic"
 	"time"
 
 	"argand/reduce/sheet"
@@ -54,9 +55,9 @@ func DefaultLimits() sheet.Limits {
 	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30}
 }
 
-// handshakeTimeout bounds the time from connecting to opening a session:
+// DefaultHandshake bounds the time from connecting to opening a session:
 // a client that neither authenticates nor asks for anything is dropped.
-const handshakeTimeout = 30 * time.Second
+const DefaultHandshake = 30 * time.Second
 
 // Config is the server's configuration; the zero value of a field is its
 // default.
@@ -73,6 +74,7 @@ type Config struct {
 	Idle           time.Duration // no input for this long ends a session
 	Rate           int           // sustained input, bytes a second
 	MaxLine        int           // input between line ends, bytes
+	Handshake      time.Duration // from connecting to a session started
 	// Limits bound each worksheet; a zero field is its DefaultLimits.
 	Limits sheet.Limits
 	// App holds the app's options that apply to every session (digits,
@@ -101,6 +103,9 @@ func (c *Config) fill() {
 	}
 	if c.MaxLine <= 0 {
 		c.MaxLine = DefaultMaxLine
+	}
+	if c.Handshake <= 0 {
+		c.Handshake = DefaultHandshake
 	}
 	d := DefaultLimits()
 	if c.Limits.Names <= 0 {
@@ -215,8 +220,8 @@ func (s *Server) Shutdown(ctx context.Context) error {
 	return err
 }
 
-// connKey is where the context of a connection keeps its net.Conn, so a
-// session can lift the handshake deadline.
+// connKey is where the context of a connection keeps its countedConn, so
+// that a session can mark it started.
 type connKey struct{}
 
 // accept counts a new connection and bounds its handshake. Beyond twice
@@ -231,21 +236,37 @@ func (s *Server) accept(ctx ssh.Context, c net.Conn) net.Conn {
 	}
 	s.conns++
 	s.mu.Unlock()
-	c.SetDeadline(time.Now().Add(handshakeTimeout))
 	cc := &countedConn{Conn: c, s: s}
+	// a timer, not a deadline: the library resets deadlines at each read
+	cc.timer = time.AfterFunc(s.cfg.Handshake, func() {
+		if !cc.started.Load() {
+			s.cfg.Log.Printf("dropped addr=%s reason=no-session-in-%s", c.RemoteAddr(), s.cfg.Handshake)
+			cc.Close()
+		}
+	})
 	ctx.SetValue(connKey{}, cc)
 	return cc
 }
 
-// countedConn gives its place back when closed.
+// countedConn gives its place back when closed, and is closed if no
+// session starts on it within the handshake time.
 type countedConn struct {
 	net.Conn
-	s    *Server
-	once sync.Once
+	s       *Server
+	once    sync.Once
+	timer   *time.Timer
+	started atomic.Bool
+}
+
+// start marks a session started: the connection is kept from now on.
+func (c *countedConn) start() {
+	c.started.Store(true)
+	c.timer.Stop()
 }
 
 func (c *countedConn) Close() error {
 	c.once.Do(func() {
+		c.timer.Stop()
 		c.s.mu.Lock()
 		c.s.conns--
 		c.s.mu.Unlock()

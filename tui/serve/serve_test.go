@@ -419,3 +419,57 @@ func TestRefusals(t *testing.T) {
 		t.Error("the log holds the refused command's text")
 	}
 }
+
+// TestUnauthenticated: a connection that never logs in is dropped after
+// the handshake time, and beyond twice the session limit and eight more,
+// connections are closed unanswered.
+func TestUnauthenticated(t *testing.T) {
+	dir := t.TempDir()
+	authorize(t, dir, newKey(t))
+	lg, logs := logBuffer()
+	r := start(t, Config{Dir: dir, MaxSessions: 1, Handshake: 500 * time.Millisecond, Log: lg})
+	var conns []net.Conn
+	defer func() {
+		for _, c := range conns {
+			c.Close()
+		}
+	}()
+	banner := func(c net.Conn) string {
+		c.SetReadDeadline(time.Now().Add(stall))
+		b := make([]byte, 64)
+		n, _ := c.Read(b)
+		return string(b[:n])
+	}
+	for i := 0; i < 2*1+8; i++ {
+		c, err := net.Dial("tcp", r.addr)
+		if err != nil {
+			t.Fatal(err)
+		}
+		conns = append(conns, c)
+		if got := banner(c); !strings.HasPrefix(got, "SSH-2.0-argand") {
+			t.Fatalf("connection %d: %q", i+1, got)
+		}
+	}
+	extra, err := net.Dial("tcp", r.addr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer extra.Close()
+	if got := banner(extra); got != "" {
+		t.Errorf("connection 11 was answered: %q", got)
+	}
+	waitFor(t, logs, "reason=too-many-connections")
+	// the silent ones are dropped: a read ends, well before the stall bound
+	began := time.Now()
+	b := make([]byte, 256)
+	conns[0].SetReadDeadline(time.Now().Add(stall))
+	for {
+		if _, err := conns[0].Read(b); err != nil {
+			break
+		}
+	}
+	if time.Since(began) >= stall {
+		t.Error("a silent connection was kept")
+	}
+	t.Logf("a silent connection was dropped %s after its banner", time.Since(began).Round(time.Millisecond))
+}

@@ -3,7 +3,6 @@ package serve
 import (
 	"fmt"
 	"io"
-	"net"
 	"path/filepath"
 	"strings"
 	"sync"
@@ -96,8 +95,8 @@ func (s *Server) handle(sess ssh.Session) {
 	key := sess.PublicKey()
 	fp, kd := gossh.FingerprintSHA256(key), keyDir(key)
 	addr := sess.RemoteAddr().String()
-	if c, ok := sess.Context().Value(connKey{}).(net.Conn); ok {
-		c.SetDeadline(time.Time{}) // authenticated: the idle limit takes over
+	if c, ok := sess.Context().Value(connKey{}).(*countedConn); ok {
+		c.start() // the handshake is over: the idle limit takes over
 	}
 	s.cfg.Log.Printf("connect fp=%s addr=%s", fp, addr)
 	e := newEnding()
