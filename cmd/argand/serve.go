@@ -35,6 +35,7 @@ const serveUsage = `argand serve [flags]: serve argand to a team over SSH
   --idle DURATION     no input for this long ends a session (default 30m)
   --rate N            sustained input per session, bytes a second (default 16384)
   --max-line N        input between two line ends, bytes (default 262144)
+  --handshake DURATION  from connecting to a session started (default 30s)
   --max-bytes N       worksheet size: its statements, bytes (default 1048576)
   --max-names N       names in one worksheet (default 5000)
   --max-points N      points of one sweep (default 10000)
@@ -55,6 +56,7 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	fs.DurationVar(&cfg.Idle, "idle", serve.DefaultIdle, "")
 	fs.IntVar(&cfg.Rate, "rate", serve.DefaultRate, "")
 	fs.IntVar(&cfg.MaxLine, "max-line", serve.DefaultMaxLine, "")
+	fs.DurationVar(&cfg.Handshake, "handshake", serve.DefaultHandshake, "")
 	d := serve.DefaultLimits()
 	fs.IntVar(&cfg.Limits.Bytes, "max-bytes", d.Bytes, "")
 	fs.IntVar(&cfg.Limits.Names, "max-names", d.Names, "")
@@ -78,6 +80,9 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	}
 	if !(cfg.Limits.Budget >= 0.1 && cfg.Limits.Budget <= sheet.MaxBudget) {
 		return cfg, "", fmt.Errorf("serve: --max-budget takes seconds from 0.1 to %d, not %g", sheet.MaxBudget, cfg.Limits.Budget)
+	}
+	if cfg.Handshake < time.Second {
+		return cfg, "", fmt.Errorf("serve: --handshake takes a duration of at least 1s, such as 30s, not %s", cfg.Handshake)
 	}
 	if cfg.Idle < time.Second {
 		return cfg, "", fmt.Errorf("serve: --idle takes a duration of at least 1s, such as 30m, not %s", cfg.Idle)

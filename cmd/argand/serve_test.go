@@ -37,6 +37,7 @@ func TestServeFlags(t *testing.T) {
 		{[]string{"--listen", "2222"}, "--listen takes HOST:PORT"},
 		{[]string{"--max-sessions", "0"}, "--max-sessions takes a whole number of at least 1, not 0"},
 		{[]string{"--idle", "10ms"}, "--idle takes a duration of at least 1s"},
+		{[]string{"--handshake", "0s"}, "--handshake takes a duration of at least 1s"},
 		{[]string{"--max-budget", "1e9"}, "--max-budget takes seconds from 0.1 to 86400"},
 		{[]string{"--nope"}, "flag provided but not defined: -nope"},
 		{[]string{"extra"}, `unexpected "extra"`},
