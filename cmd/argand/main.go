@@ -126,6 +126,11 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		fmt.Fprintln(errw, "argand:", calc.Printable(err.Error()))
 		return cli.ExitBadInput
 	}
+	if len(f.args) > 0 && f.args[0] == "serve" && !f.version && !f.help {
+		// each client's LANG decides its glyphs, never the server's
+		// locale: only an explicit --ascii applies to every session
+		return runServe(f.args[1:], out, errw, f)
+	}
 	if !f.opt.ASCII && !cli.UTF8Locale(os.Getenv) {
 		f.opt.ASCII = true
 	}
@@ -167,8 +172,6 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":
 		return cli.Help(f.args[1:], out, errw, f.opt)
-	case "serve":
-		return runServe(f.args[1:], out, errw, f)
 	}
 	if len(f.args) > 1 {
 		fmt.Fprintf(errw, "argand: unexpected %q (see argand help)\n", f.args[1])

@@ -47,7 +47,7 @@ const serveUsage = `argand serve [flags]: serve argand to a team over SSH
 func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	fs := flag.NewFlagSet("serve", flag.ContinueOnError)
 	fs.SetOutput(io.Discard)
-	cfg := serve.Config{Digits: f.opt.Digits, PolarFirst: f.opt.PolarFirst, ASCII: f.opt.ASCII}
+	cfg := serve.Config{Digits: f.opt.Digits, PolarFirst: f.opt.PolarFirst, ASCII: f.opt.ASCII, Comma: f.opt.Comma}
 	listen := fs.String("listen", serve.DefaultListen, "")
 	fs.StringVar(&cfg.Dir, "state", "", "")
 	fs.StringVar(&cfg.AuthorizedKeys, "keys", "", "")

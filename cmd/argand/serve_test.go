@@ -53,3 +53,25 @@ func TestServeFlags(t *testing.T) {
 		t.Errorf("serve --help: %d %q", code, out.String())
 	}
 }
+
+// TestServeLocale: the serve configuration takes ASCII from --ascii
+// alone, not from the locale the server runs in (run hands serve its flags
+// before the locale is looked at; TestClientLook in tui/serve checks that
+// each session follows its client's LANG).
+func TestServeLocale(t *testing.T) {
+	t.Setenv("LANG", "C")
+	t.Setenv("LC_ALL", "")
+	t.Setenv("LC_CTYPE", "")
+	f, err := parse([]string{"serve", "--state", "/x"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg, _, err := serveFlags(f.args[1:], f)
+	if err != nil || cfg.ASCII {
+		t.Errorf("serve in the C locale: ASCII %v (%v)", cfg.ASCII, err)
+	}
+	f, _ = parse([]string{"--ascii", "serve"})
+	if cfg, _, _ := serveFlags(f.args[1:], f); !cfg.ASCII {
+		t.Error("--ascii serve did not apply ASCII")
+	}
+}

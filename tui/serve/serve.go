@@ -77,11 +77,13 @@ type Config struct {
 	Handshake      time.Duration // from connecting to a session started
 	// Limits bound each worksheet; a zero field is its DefaultLimits.
 	Limits sheet.Limits
-	// App holds the app's options that apply to every session (digits,
-	// polar form first, ASCII only); the look is set per client.
+	// The app's options that apply to every session (digits, polar form
+	// first, ASCII only, the decimal comma for a new session); the look is
+	// set per client.
 	Digits     int
 	PolarFirst bool
 	ASCII      bool
+	Comma      bool
 	// Log receives one line per connection and disconnection: key
 	// fingerprint, address, duration, why it ended. Never a value of the
 	// user's work. nil discards.

@@ -143,6 +143,7 @@ func (s *Server) handle(sess ssh.Session) {
 		Color:      color,
 		PolarFirst: s.cfg.PolarFirst,
 		Digits:     s.cfg.Digits,
+		Comma:      s.cfg.Comma,
 		Dir:        filepath.Join(s.cfg.Dir, "keys", kd),
 		Out:        out,
 		Getenv:     getenv,
