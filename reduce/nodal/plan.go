@@ -291,18 +291,9 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 		}
 	}
 	t := p.t.with(n)
-	if err := p.stamp(n); err != nil {
+	if err := p.factorSolve(n, t); err != nil {
 		return nil, err
 	}
-	if err := p.factorise(); err != nil {
-		return nil, err
-	}
-	if p.lu.singular >= 0 {
-		err := p.singular(t)
-		p.lu = nil
-		return nil, err
-	}
-	p.solveRefined()
 	if low := p.imprecise(n); low != nil {
 		// Re-plan with a current unknown for each such element; the
 		// topology checks stand.
@@ -312,21 +303,31 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 		}
 		q.stats = p.stats
 		*p = *q
-		if err := p.stamp(n); err != nil {
+		if err := p.factorSolve(n, t); err != nil {
 			return nil, err
 		}
-		if err := p.factorise(); err != nil {
-			return nil, err
-		}
-		if p.lu.singular >= 0 {
-			err := p.singular(t)
-			p.lu = nil
-			return nil, err
-		}
-		p.solveRefined()
 	}
 	p.stats.Solves++
 	return p.solution(t, basis)
+}
+
+// factorSolve stamps n's values, factorises numerically and solves with
+// refinement; a numerically singular matrix is reported by the unknowns
+// that carry its null direction, and the factors are dropped.
+func (p *Plan) factorSolve(n *reduce.Network, t *topology) error {
+	if err := p.stamp(n); err != nil {
+		return err
+	}
+	if err := p.factorise(); err != nil {
+		return err
+	}
+	if p.lu.singular >= 0 {
+		err := p.singular(t)
+		p.lu = nil
+		return err
+	}
+	p.solveRefined()
+	return nil
 }
 
 // currentTol bounds the rounding error of a passive element's current
