@@ -38,6 +38,9 @@ type HalfPower struct {
 	Dip          bool
 	F1, F2       float64 // lower and upper band edges, Hz
 	HasF1, HasF2 bool
+	// Narrow reports a band that lies between two points of the sweep and
+	// could not be evaluated there: neither edge is given.
+	Narrow bool
 }
 
 // Bandwidth returns F2 − F1 and whether both edges were found.
@@ -259,15 +262,42 @@ func Find(t *Table, eval func(hz float64) (calc.Quantity, error)) Findings {
 }
 
 // band finds the half-power band around the peak or dip at point j.
+//
+// The level is the extreme located between j's neighbours (golden-section
+// search), not the sampled point: a band narrower than the point spacing
+// puts every sampled point outside it. Each edge is then bracketed between
+// the located extreme, which is inside the band, and the first point
+// beyond the target on that side, so f1 < centre < f2 by construction.
+// Without an evaluation a band whose both neighbours already lie beyond
+// the target cannot be read from the points at all: it is narrower than
+// the spacing, and is reported as that (Narrow) with no edges.
 func (fd *Findings) band(t *Table, j int, dip bool, ok func(int) bool, mag func(int) float64,
 	xOf, fOf func(float64) float64, at func(float64) (calc.Quantity, bool),
 	eval func(float64) (calc.Quantity, error), failed *bool) (HalfPower, bool) {
 	pts := t.Points
 	h := HalfPower{Centre: pts[j].Freq, Level: mag(j), Dip: dip}
+	located := false
 	// a refined extreme gives a truer level than the sampled point
 	for _, e := range []Extreme{fd.Max, fd.Min} {
 		if e.Refined && nearest(pts, e.Freq) == j && (cmplx.Abs(e.Value.V) > h.Level) == !dip {
-			h.Centre, h.Level = e.Freq, cmplx.Abs(e.Value.V)
+			h.Centre, h.Level, located = e.Freq, cmplx.Abs(e.Value.V), true
+		}
+	}
+	if !located && eval != nil && ok(j-1) && ok(j+1) {
+		if f, v, good := golden(xOf(pts[j-1].Freq), xOf(pts[j+1].Freq), fOf, at, !dip); good {
+			if m := cmplx.Abs(v.V); (m > h.Level) == !dip || m == h.Level {
+				h.Centre, h.Level = f, m
+			}
+			located = true
+			// the bisected resonance on the extreme is the truer frequency
+			for _, c := range fd.Resonances {
+				mc := cmplx.Abs(c.Value.V)
+				if c.Refined && math.Abs(c.Freq-h.Centre) <= 1e-6*c.Freq && math.Abs(mc-h.Level) <= 1e-12*h.Level {
+					h.Centre = c.Freq
+				}
+			}
+		} else {
+			*failed = true
 		}
 	}
 	if dip {
@@ -285,36 +315,54 @@ func (fd *Findings) band(t *Table, j int, dip bool, ok func(int) bool, mag func(
 		}
 		return mag(k) <= h.Target
 	}
-	edge := func(inner, outer int) float64 {
-		x0, x1 := xOf(pts[inner].Freq), xOf(pts[outer].Freq)
-		g := func(q complex128) float64 {
-			d := cmplx.Abs(q) - h.Target
-			if dip {
-				return -d
-			}
-			return d
+	g := func(q complex128) float64 {
+		d := cmplx.Abs(q) - h.Target
+		if dip {
+			return -d
 		}
+		return d
+	}
+	// edge locates the target between an inner abscissa x0 with magnitude
+	// m0 (inside the band) and the point outer (beyond it)
+	edge := func(x0, m0 float64, outer int) (float64, bool) {
+		x1 := xOf(pts[outer].Freq)
 		if f, _, good := refineRoot(x0, x1, fOf, at, g, nil); good {
-			return f
+			return f, true
 		}
 		if eval != nil {
 			*failed = true
 		}
-		m0, m1 := mag(inner), mag(outer)
+		m1 := mag(outer)
+		if m1 == m0 {
+			return 0, false
+		}
 		s := (h.Target - m0) / (m1 - m0)
-		return fOf(x0 + s*(x1-x0))
+		return fOf(x0 + s*(x1-x0)), true
 	}
-	for k := j - 1; k >= 0 && ok(k); k-- {
+	if !located && ok(j-1) && ok(j+1) && beyond(j-1) && beyond(j+1) {
+		// the sampled level is not the extreme's, and nothing between the
+		// points can be evaluated: the band cannot be read honestly
+		h.Narrow = true
+		return h, true
+	}
+	xc := xOf(h.Centre)
+	below := sort.Search(len(pts), func(i int) bool { return pts[i].Freq >= h.Centre }) - 1
+	x0, m0 := xc, h.Level
+	for k := below; k >= 0 && ok(k); k-- {
 		if beyond(k) {
-			h.F1, h.HasF1 = edge(k+1, k), true
+			h.F1, h.HasF1 = edge(x0, m0, k)
 			break
 		}
+		x0, m0 = xOf(pts[k].Freq), mag(k)
 	}
-	for k := j + 1; k < len(pts) && ok(k); k++ {
+	above := sort.Search(len(pts), func(i int) bool { return pts[i].Freq > h.Centre })
+	x0, m0 = xc, h.Level
+	for k := above; k < len(pts) && ok(k); k++ {
 		if beyond(k) {
-			h.F2, h.HasF2 = edge(k-1, k), true
+			h.F2, h.HasF2 = edge(x0, m0, k)
 			break
 		}
+		x0, m0 = xOf(pts[k].Freq), mag(k)
 	}
 	return h, true
 }
@@ -546,6 +594,10 @@ func (fd Findings) Step(source string, f calc.Format) calc.Step {
 		}
 		line := fmt.Sprintf("half-power band %s around %s: |x| = %s = %s", n,
 			trimZeros(f.Mag(b.Centre, calc.DimFrequency, calc.KindPlain)), rule, lvl(b.Target))
+		if b.Narrow {
+			st.Notes = append(st.Notes, line+", narrower than the point spacing: its edges cannot be read from these points (sweep more points or a narrower range around it)")
+			continue
+		}
 		if b.HasF1 {
 			add("f1_"+n, hz(b.F1))
 			line += ", f1 = " + trimZeros(f.Mag(b.F1, calc.DimFrequency, calc.KindPlain))

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"math/rand/v2"
 	"strings"
 	"testing"
 
@@ -272,5 +273,129 @@ func BenchmarkFind(b *testing.B) {
 				Find(tab, rc.eval)
 			}
 		})
+	}
+}
+
+// A band narrower than the point spacing puts every sampled point outside
+// it; the edges must still come out against the closed forms (common
+// practice: f0 = 1/(2π√(LC)), series B = R/(2πL), parallel B = 1/(2πRC)).
+// The tolerances are the refinement's: bisection to about 1e-14 in f for
+// the edges, golden-section search to about √ε for the centre.
+func TestHalfPowerSparse(t *testing.T) {
+	tests := []struct {
+		rc       rlcCase
+		lo, hi   float64
+		n        int
+		wantNote bool
+	}{
+		// the README example: 61 log points from 1 kHz to 20 kHz, about
+		// 5 % per step against a band of about 3 %
+		{rc: rlcCase{name: "series 10 Ω 10 mH 100 nF, 61 points", r: 10, l: 10e-3, c: 100e-9}, lo: 1e3, hi: 20e3, n: 61},
+		{rc: rlcCase{name: "series 10 Ω 10 mH 100 nF, 201 points", r: 10, l: 10e-3, c: 100e-9}, lo: 1e3, hi: 20e3, n: 201},
+		{rc: rlcCase{name: "series Q 100, 11 points", r: 1, l: 10e-3, c: 100e-9}, lo: 1e3, hi: 20e3, n: 11},
+		{rc: rlcCase{name: "parallel Q 100, 21 linear points", r: 31622.7766, l: 10e-3, c: 100e-9, parallel: true}, lo: 1e3, hi: 20e3, n: 21},
+	}
+	for _, tc := range tests {
+		for _, log := range []bool{true, false} {
+			if tc.rc.parallel && log {
+				continue
+			}
+			f0, q, f1, f2 := tc.rc.closed()
+			pts, err := Points(tc.lo, tc.hi, tc.n, log || !tc.rc.parallel)
+			if err != nil {
+				t.Fatal(err)
+			}
+			tab, err := Run(pts, tc.rc.eval)
+			if err != nil {
+				t.Fatal(err)
+			}
+			fd := Find(tab, tc.rc.eval)
+			if len(fd.Bands) != 1 {
+				t.Fatalf("%s: %d bands, want 1", tc.rc.name, len(fd.Bands))
+			}
+			b := fd.Bands[0]
+			if b.Narrow || !b.HasF1 || !b.HasF2 {
+				t.Fatalf("%s: band %+v not located", tc.rc.name, b)
+			}
+			if !(b.F1 < f0 && f0 < b.F2) {
+				t.Errorf("%s: f1 %v, f0 %v, f2 %v out of order", tc.rc.name, b.F1, f0, b.F2)
+			}
+			if !relClose(b.F1, f1, 1e-9) || !relClose(b.F2, f2, 1e-9) {
+				t.Errorf("%s: band %v … %v Hz, want %v … %v", tc.rc.name, b.F1, b.F2, f1, f2)
+			}
+			bw, _ := b.Bandwidth()
+			if !relClose(bw, f0/q, 1e-7) || !relClose(b.Centre/bw, q, 1e-7) {
+				t.Errorf("%s: B %v Q %v, want %v %v", tc.rc.name, bw, b.Centre/bw, f0/q, q)
+			}
+		}
+	}
+}
+
+// Without an evaluation between the points a band narrower than the
+// spacing cannot be read: it is reported as such, with no edges.
+func TestHalfPowerNarrowUnrefined(t *testing.T) {
+	rc := rlcCase{name: "series 10 Ω 10 mH 100 nF", r: 10, l: 10e-3, c: 100e-9}
+	pts, _ := Points(1e3, 20e3, 61, true)
+	tab, err := Run(pts, rc.eval)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fd := Find(tab, nil)
+	if len(fd.Bands) != 1 || !fd.Bands[0].Narrow || fd.Bands[0].HasF1 || fd.Bands[0].HasF2 {
+		t.Fatalf("bands %+v, want one narrow band without edges", fd.Bands)
+	}
+	st := fd.Step("Z", calc.Format{})
+	if s := strings.Join(st.Notes, "\n"); !strings.Contains(s, "narrower than the point spacing") || strings.Contains(s, "f2 =") {
+		t.Errorf("notes do not say the band is narrower than the spacing:\n%s", s)
+	}
+}
+
+// Property: over random series and parallel RLC circuits and point counts,
+// the refined band satisfies f1 < f0 < f2 and agrees with the closed forms
+// (common practice) to the refinement's tolerance.
+func TestHalfPowerProperty(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 11))
+	for i := 0; i < 300; i++ {
+		rc := rlcCase{
+			r:        math.Pow(10, -1+4*rng.Float64()),
+			l:        math.Pow(10, -6+4*rng.Float64()),
+			c:        math.Pow(10, -10+5*rng.Float64()),
+			parallel: rng.IntN(2) == 1,
+		}
+		f0, q, f1, f2 := rc.closed()
+		if q < 0.75 || q > 1e4 {
+			continue // a wide band runs off any sweep; a Q above 1e4 is beyond the parts
+		}
+		n := 5 + rng.IntN(200)
+		lo, hi := f1/(2+8*rng.Float64()), f2*(2+8*rng.Float64())
+		log := rng.IntN(2) == 1
+		rc.name = fmt.Sprintf("case %d: R %.4g L %.4g C %.4g parallel %v, %d points log %v", i, rc.r, rc.l, rc.c, rc.parallel, n, log)
+		pts, err := Points(lo, hi, n, log)
+		if err != nil {
+			t.Fatal(err)
+		}
+		tab, err := Run(pts, rc.eval)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fd := Find(tab, rc.eval)
+		if len(fd.Bands) != 1 {
+			t.Errorf("%s: %d bands, want 1", rc.name, len(fd.Bands))
+			continue
+		}
+		b := fd.Bands[0]
+		if b.Narrow || !b.HasF1 || !b.HasF2 {
+			t.Errorf("%s: band %+v not located", rc.name, b)
+			continue
+		}
+		if !(b.F1 < f0 && f0 < b.F2) {
+			t.Errorf("%s: f1 %v, f0 %v, f2 %v out of order", rc.name, b.F1, f0, b.F2)
+		}
+		if !relClose(b.F1, f1, 1e-9) || !relClose(b.F2, f2, 1e-9) {
+			t.Errorf("%s: band %v … %v Hz, want %v … %v", rc.name, b.F1, b.F2, f1, f2)
+		}
+		if bw, _ := b.Bandwidth(); !relClose(b.Centre/bw, q, 1e-6) {
+			t.Errorf("%s: Q %v, want %v", rc.name, b.Centre/bw, q)
+		}
 	}
 }
