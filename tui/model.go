@@ -444,6 +444,17 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case spinner.TickMsg:
 		return m, m.jobSpin(msg)
 	case tea.KeyMsg:
+		if m.width > 0 && m.height > 0 && (m.width < minWidth || m.height < minHeight) {
+			// the screen shows only the notice: a key acting on rows or
+			// the entry line the user cannot see would change work unseen.
+			// A size of 0 is a terminal that reports none (keys piped
+			// through ssh -tt): keys act there as they always did.
+			if key.Matches(msg, m.keys.Quit) {
+				m.quitting = true
+				return m, tea.Quit
+			}
+			return m, nil
+		}
 		if m.job != nil {
 			return m, m.jobKey(msg)
 		}

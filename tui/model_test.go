@@ -842,3 +842,54 @@ func TestRestorePartial(t *testing.T) {
 		t.Errorf("session file after restore:\n%s", b)
 	}
 }
+
+// While the terminal is too small only the notice shows: keys other than
+// quit must not touch the session, the entry line or the mode.
+func TestSmallIgnoresKeys(t *testing.T) {
+	tests := []struct {
+		name  string
+		keys  []string
+		quits bool
+	}{
+		{name: "delete a row", keys: []string{"d"}},
+		{name: "type a statement", keys: []string{"tab", "Z", "x", " ", "=", " ", "5", "enter"}},
+		{name: "paste lines", keys: []string{"Zy = 1\n"}},
+		{name: "undo", keys: []string{"ctrl+z", "u"}},
+		{name: "help", keys: []string{"?"}},
+		{name: "quit with q", keys: []string{"q"}, quits: true},
+		{name: "quit with ctrl+c", keys: []string{"ctrl+c"}, quits: true},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			m := newModel(t, Options{})
+			typeLine(t, m, "Za = 3 Ω")
+			before := len(m.s.sh.Statements())
+			mode := m.mode
+			m.Update(tea.WindowSizeMsg{Width: 40, Height: 20})
+			var cmd tea.Cmd
+			for _, k := range tc.keys {
+				msg := keyMsg(k)
+				if strings.Contains(k, "\n") {
+					msg = tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(k), Paste: true}
+				}
+				_, cmd = m.Update(msg)
+			}
+			if got := len(m.s.sh.Statements()); got != before {
+				t.Errorf("statements %d, want %d", got, before)
+			}
+			if m.mode != mode {
+				t.Errorf("mode %v, want %v", m.mode, mode)
+			}
+			if m.quitting != tc.quits || (cmd != nil) != tc.quits {
+				t.Errorf("quitting %v (cmd %v), want %v", m.quitting, cmd != nil, tc.quits)
+			}
+			if !tc.quits {
+				// back at a usable size the session is as it was
+				m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
+				if got := value(t, m, "Za"); got != 3 {
+					t.Errorf("Za = %v after resize", got)
+				}
+			}
+		})
+	}
+}
