@@ -42,10 +42,19 @@ func (w work) seconds() float64 { return float64(w.samples) * w.perSample }
 // change: every definition is looked at on each of about two passes, and
 // what depends on the inputs, directly or through networks, is evaluated
 // again, each network solved again; then e itself is evaluated.
-func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
+//
+// need, when not nil, is the part of the worksheet the sample re-evaluates
+// (a restricted sampler, see restrict): the rest is neither looked at nor
+// evaluated again.
+func (s *Sheet) sampleCost(inputs []string, e calc.Expr, need map[string]bool) float64 {
 	// readers[name] are the definitions and networks that read name
 	readers := map[string][]string{}
+	scanned := 0
 	for _, d := range s.defs {
+		if need != nil && !need[d.name] {
+			continue
+		}
+		scanned++
 		for k := range d.deps {
 			readers[k] = append(readers[k], d.name)
 		}
@@ -57,6 +66,9 @@ func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
 		}
 	}
 	for _, n := range s.order {
+		if need != nil && !need["net:"+n] {
+			continue
+		}
 		for k := range s.nets[n].deps {
 			readers[k] = append(readers[k], "net:"+n)
 		}
@@ -104,7 +116,7 @@ func (s *Sheet) sampleCost(inputs []string, e calc.Expr) float64 {
 			}
 		}
 	}
-	ns := nsPerSample + nsPerScan*2*float64(len(s.defs)) + nsPerNode*float64(nodes) + nsPerElement*float64(elements) + nsPerMulAdd*factor
+	ns := nsPerSample + nsPerScan*2*float64(scanned) + nsPerNode*float64(nodes) + nsPerElement*float64(elements) + nsPerMulAdd*factor
 	return ns * 1e-9
 }
 

@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"strings"
 
 	"argand/calc"
 )
@@ -82,4 +83,71 @@ func (s *Sheet) sampler() *Sheet {
 	c.quiet = true
 	c.dry = false
 	return c
+}
+
+// needs returns the definitions and networks e reads, directly or through
+// others (their names, networks as "net:NAME"): the part of the worksheet
+// a sample of e must bring to the new frequency.
+func (s *Sheet) needs(e calc.Expr) map[string]bool {
+	need := map[string]bool{}
+	var queue []string
+	for k := range depsOf(e) {
+		queue = append(queue, k)
+	}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		if need[n] {
+			continue
+		}
+		if name, ok := strings.CutPrefix(n, "net:"); ok {
+			nw, ok := s.nets[name]
+			if !ok {
+				continue
+			}
+			need[n] = true
+			for k := range nw.deps {
+				queue = append(queue, k)
+			}
+			continue
+		}
+		d, ok := s.byName[n]
+		if !ok {
+			continue
+		}
+		need[n] = true
+		for k := range d.deps {
+			queue = append(queue, k)
+		}
+		if d.owner != "" {
+			if _, ok := s.nets[d.owner]; ok {
+				queue = append(queue, "net:"+d.owner)
+			} else {
+				queue = append(queue, d.owner)
+			}
+		}
+	}
+	return need
+}
+
+// restrict keeps, in a sampler, only the definitions and networks e reads:
+// each sample then re-evaluates what the value depends on and nothing of
+// the rest of the worksheet, whose size would otherwise set the cost of
+// every point. Lookups of the others still answer (byName is kept), but
+// nothing e reads can reach them.
+func (c *Sheet) restrict(e calc.Expr) {
+	need := c.needs(e)
+	defs := make([]*def, 0, len(need))
+	for _, d := range c.defs {
+		if need[d.name] {
+			defs = append(defs, d)
+		}
+	}
+	order := make([]string, 0, len(c.order))
+	for _, n := range c.order {
+		if need["net:"+n] {
+			order = append(order, n)
+		}
+	}
+	c.defs, c.order = defs, order
 }

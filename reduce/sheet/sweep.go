@@ -204,7 +204,7 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		_, _, col := f1E.Span()
 		return lineErr(s.line, col, width(p, f1E), "%v", err)
 	}
-	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, e)}, "points", "use fewer points"); msg != "" {
+	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, e, s.needs(e))}, "points", "use fewer points"); msg != "" {
 		return lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
 	}
 	var ref calc.Quantity
@@ -225,6 +225,7 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	}
 	src := p.Source()
 	c := s.sampler()
+	c.restrict(e)
 	done := 0
 	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) {
 		if err := c.stopped(); err != nil {
@@ -355,7 +356,7 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		params = append(params, site.Param{Name: n, Nominal: nominal, Tol: s.tols[n]})
 		names = append(names, n)
 	}
-	w := work{samples: site.MaxEvaluations, perSample: s.sampleCost(names, e)}
+	w := work{samples: site.MaxEvaluations, perSample: s.sampleCost(names, e, nil)}
 	if msg := s.overBudget("this tolerance range", w, "samples", ""); msg != "" {
 		return site.RangeResult{}, lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
 	}

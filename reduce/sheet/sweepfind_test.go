@@ -101,3 +101,76 @@ func TestSweepFindingsParallel(t *testing.T) {
 		}
 	}
 }
+
+// A sweep re-evaluates only what its expression reads: a worksheet with
+// networks and frequency-dependent definitions it does not read gives the
+// same points, and the same estimate of the work, as a worksheet with only
+// what it reads; one it does read (through a network and a Thevenin
+// equivalent) is followed at every point.
+func TestSweepRestricted(t *testing.T) {
+	base := []string{"resistor Rf = 1 kΩ", "capacitor Cf = 1 µF", "Zrc = Rf + Cf"}
+	extra := []string{
+		"frequency 1 kHz",
+		"network bridge reference gnd",
+		"  voltage source Vx = 5∠0 V from gnd to top",
+		"  resistor R1 = 1 kΩ from top to left",
+		"  resistor R2 = 1 kΩ from top to right",
+		"  resistor R3 = 1.02 kΩ from left to gnd",
+		"  capacitor C4 = 160 nF from right to gnd",
+		"  resistor Rm = 10 kΩ from left to right",
+		"end",
+		"thevenin T = bridge between left and right",
+		"inductor Lx = 3 mH",
+		"Zx = Lx + C4 * 2",
+	}
+	tests := []struct {
+		name, expr string
+		stmts      []string
+	}{
+		{name: "unrelated network", expr: "Zrc", stmts: extra},
+		{name: "through the network", expr: "bridge.Rm.i", stmts: extra},
+		{name: "through the Thevenin equivalent", expr: "T.zth + Zrc", stmts: extra},
+		{name: "through a definition", expr: "Zx", stmts: extra},
+	}
+	for _, tc := range tests {
+		full := New()
+		for _, st := range append(append([]string(nil), base...), tc.stmts...) {
+			if _, err := full.Exec(st); err != nil {
+				t.Fatalf("%s: %s: %v", tc.name, st, err)
+			}
+		}
+		stmt := "sweep " + tc.expr + " from 10 Hz to 100 kHz points 41 log"
+		if _, err := full.Exec(stmt); err != nil {
+			t.Fatalf("%s: %v", tc.name, err)
+		}
+		sw := full.Sweeps()[len(full.Sweeps())-1]
+		// each point against the worksheet evaluated whole at that frequency
+		e := calc.NewParser(tc.expr, 1).Expr()
+		for _, pt := range sw.Table.Points {
+			want, err := full.AtFrequency(tc.expr, e, pt.Freq)
+			if err != nil {
+				t.Fatalf("%s at %v Hz: %v", tc.name, pt.Freq, err)
+			}
+			if pt.Value.V != want.V {
+				t.Errorf("%s at %v Hz: %v, want %v", tc.name, pt.Freq, pt.Value.V, want.V)
+			}
+		}
+	}
+	// the estimate does not grow with what the sweep does not read
+	small, big := New(), New()
+	for _, st := range base {
+		small.Exec(st)
+	}
+	for _, st := range append(append([]string(nil), base...), extra...) {
+		big.Exec(st)
+	}
+	e := calc.NewParser("Zrc", 1).Expr()
+	f := []string{"f", "w", "ω"}
+	if a, b := small.sampleCost(f, e, small.needs(e)), big.sampleCost(f, e, big.needs(e)); a != b {
+		t.Errorf("estimate per point %v with unrelated parts, %v without", b, a)
+	}
+	// 100000 points of a sweep that takes about 0.5 s fit the default budget
+	if _, err := big.Exec("sweep Zrc from 10 Hz to 100 kHz points 100000 log"); err != nil {
+		t.Errorf("100000 points refused: %v", err)
+	}
+}
