@@ -55,14 +55,16 @@ func wrapLine(s string, width, indent int) []string {
 		}
 		// a piece wider than the room left is cut into parts
 		for curW+cw > width {
-			part := ansi.Truncate(c, width-curW, "")
+			part := cut(c, width-curW)
 			if part == "" { // a wide rune that does not fit at all
 				_, n := utf8.DecodeRuneInString(c)
 				part = c[:n]
 			}
 			out = append(out, cur+part)
 			c = c[len(part):]
-			cw = ansi.StringWidth(c)
+			// only the part is measured again: measuring the rest at each
+			// cut made a long piece cost its length squared
+			cw -= ansi.StringWidth(part)
 			cur, curW = prefix, indent
 		}
 		if c != "" {
@@ -135,4 +137,25 @@ func hangIndent(s string) int {
 		return lead + i + 2 // "46: Z3 = …" continues under the statement
 	}
 	return lead + 2
+}
+
+// cut returns the longest start of s at most room cells wide. It looks at
+// a bounded start of s (a cell takes at most a few bytes), so that cutting
+// a long piece into lines costs its length, not its length times the
+// number of lines; it falls back to all of s when zero-width runes or
+// escape sequences fill that start.
+func cut(s string, room int) string {
+	limit := 8*room + 64
+	if len(s) <= limit {
+		return ansi.Truncate(s, room, "")
+	}
+	for limit < len(s) && !utf8.RuneStart(s[limit]) {
+		limit++
+	}
+	head := s[:limit]
+	part := ansi.Truncate(head, room, "")
+	if len(part) == len(head) {
+		return ansi.Truncate(s, room, "")
+	}
+	return part
 }

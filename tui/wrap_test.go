@@ -154,3 +154,46 @@ func TestAltKeyLeavesLine(t *testing.T) {
 		t.Errorf("alt+? in the line: mode %s, line %q", m.mode, m.line.f.String())
 	}
 }
+
+// cut looks at a bounded start of a long piece; it must give what
+// truncating the whole piece gives, with wide runes, zero-width runes and
+// escape sequences in it.
+func TestCutMatchesTruncate(t *testing.T) {
+	tests := []struct {
+		name string
+		s    string
+		room int
+	}{
+		{name: "short", s: "1+1+1", room: 3},
+		{name: "long digits", s: strings.Repeat("1+", 5000), room: 37},
+		{name: "wide runes", s: strings.Repeat("∠Ω漢", 3000), room: 20},
+		{name: "zero-width marks fill the start", s: "a" + strings.Repeat("\u0301", 2000) + strings.Repeat("b", 100), room: 10},
+		{name: "escape sequences fill the start", s: strings.Repeat("\x1b[1m\x1b[0m", 200) + strings.Repeat("c", 100), room: 10},
+		{name: "room 1", s: strings.Repeat("x", 1000), room: 1},
+	}
+	for _, tc := range tests {
+		if got, want := cut(tc.s, tc.room), ansi.Truncate(tc.s, tc.room, ""); got != want {
+			t.Errorf("%s: cut %q, want %q", tc.name, short(got, 40), short(want, 40))
+		}
+	}
+}
+
+// A long piece without spaces (a 60 KB sum) is cut into lines that keep
+// every byte, in order, each within the width.
+func TestWrapLongPiece(t *testing.T) {
+	s := "Zp = 1" + strings.Repeat("+1", 30000)
+	lines := wrapLine(s, 77, 4)
+	var b strings.Builder
+	for i, l := range lines {
+		if w := ansi.StringWidth(l); w > 77 {
+			t.Fatalf("line %d of %d cells", i, w)
+		}
+		if i > 0 {
+			l = strings.TrimPrefix(l, "    ")
+		}
+		b.WriteString(l)
+	}
+	if got := strings.ReplaceAll(b.String(), " ", ""); got != strings.ReplaceAll(s, " ", "") {
+		t.Errorf("the wrapped lines do not give back the piece (%d bytes, want %d)", len(got), len(s))
+	}
+}
