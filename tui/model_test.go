@@ -660,27 +660,53 @@ func TestSketchPowerKinds(t *testing.T) {
 			t.Errorf("sketchValue(%v) = %v, want %v", tt.q, got, tt.want)
 		}
 	}
-	m := newModel(t, Options{})
-	typeLine(t, m, "Qx = 80 var")
-	typeLine(t, m, "Px = 60 W")
-	m.s.v.Marks = []string{"Px", "Qx"}
-	v := m.View()
-	// one scale for both (same dimension), Qx above the real axis
-	if strings.Count(v, "+ = ") != 1 {
-		t.Errorf("P and Q not on one scale:\n%s", v)
+}
+
+// A real number of a kind that is real by meaning has no angle (shared
+// DESIGN.md, quantity kinds): an active or reactive power, a resistance or a
+// magnitude is listed as not drawn rather than drawn as an arrow along an
+// axis, and a power that is drawn is scaled in its own unit word.
+func TestSketchScalarsNotDrawn(t *testing.T) {
+	tests := []struct {
+		name      string
+		lines     []string
+		marks     []string
+		skipped   string // names listed as "no angle, not drawn", "" for none
+		scale     string // expected "+ = …" legend text, "" for none
+		notInView string
+	}{
+		{"active and reactive", []string{"Px = 60 W", "Qx = 80 var"}, []string{"Px", "Qx"}, "Px, Qx: no angle, not drawn", "", "+ = "},
+		{"active power alone", []string{"Pq = mag(230 V)^2/(50 Ω)"}, []string{"Pq"}, "Pq: no angle, not drawn", "", "kVA"},
+		{"resistance", []string{"Zc = 7 Ω", "V1 = 230 V"}, []string{"Zc", "V1"}, "Zc: no angle, not drawn", "+ = 250 V", "Ω"},
+		{"magnitude", []string{"Mq = mag(3+j4 Ω)"}, []string{"Mq"}, "Mq: no angle, not drawn", "", "+ = "},
+		{"reactive on the j axis", []string{"Qc = j80 var"}, []string{"Qc"}, "", "+ = 80.0 var", "VA"},
+		{"impedance drawn", []string{"Z1 = 3+j4 Ω"}, []string{"Z1"}, "", "+ = 5.00 Ω", "not drawn"},
 	}
-	lines := strings.Split(v, "\n")
-	row := func(s string) int {
-		for i, l := range lines {
-			_, sk, ok := strings.Cut(l, "│")
-			if ok && strings.Contains(sk, s) {
-				return i
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			m := newModel(t, Options{})
+			for _, l := range tt.lines {
+				typeLine(t, m, l)
 			}
-		}
-		return -1
-	}
-	if q, re := row("Qx"), row("Re"); q < 0 || re < 0 || q >= re-1 {
-		t.Errorf("Qx (line %d) is not drawn above the real axis (line %d):\n%s", q, re, v)
+			m.s.v.Marks = tt.marks
+			// the sketch pane is right of the last bar on each line
+			var sk []string
+			for _, l := range strings.Split(m.View(), "\n") {
+				if i := strings.LastIndex(l, "│"); i >= 0 {
+					sk = append(sk, l[i+len("│"):])
+				}
+			}
+			v := strings.Join(sk, "\n")
+			if tt.skipped != "" && !strings.Contains(v, tt.skipped) {
+				t.Errorf("want %q in the sketch:\n%s", tt.skipped, v)
+			}
+			if tt.scale != "" && !strings.Contains(v, tt.scale) {
+				t.Errorf("want scale %q:\n%s", tt.scale, v)
+			}
+			if strings.Contains(v, tt.notInView) {
+				t.Errorf("%q should not be in the sketch:\n%s", tt.notInView, v)
+			}
+		})
 	}
 }
 

@@ -330,13 +330,7 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 			skipped = append(skipped, n)
 			continue
 		}
-		kind := q.Kind
-		if q.Dim == calc.DimPower && q.Kind != calc.KindProduct {
-			// W, var and VA are one dimension: P, jQ and S share a scale
-			// so that they draw as the power triangle they are
-			kind = calc.KindApparent
-		}
-		items = append(items, sketch.Item{Label: n, V: sketchValue(q), Unit: calc.UnitSymbol(q.Dim, kind, m.opt.ASCII)})
+		items = append(items, sketch.Item{Label: n, V: sketchValue(q), Unit: calc.UnitSymbol(q.Dim, q.Kind, m.opt.ASCII)})
 	}
 	// one complex power on its own is drawn as its power triangle
 	if len(names) == 1 {
@@ -370,13 +364,10 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 }
 
 // drawable reports a quantity that has a direction in the complex plane:
-// a phasor or complex quantity, a resistance on the real axis, or an active
-// or reactive power as a side of the power triangle.
+// a phasor or complex quantity. A real number of a kind that is real by
+// meaning (an active or reactive power, a resistance, a magnitude) has no
+// angle, and an arrow along an axis would claim one.
 func drawable(q calc.Quantity) bool {
-	switch q.Kind {
-	case calc.KindActive, calc.KindReactive, calc.KindResistive:
-		return true
-	}
 	return !q.Scalar() && q.Kind != calc.KindAngle
 }
 
