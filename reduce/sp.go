@@ -791,7 +791,14 @@ func (r *spReducer) newName() string {
 	}
 }
 
-func zq(v complex128) calc.Quantity { return calc.Quantity{V: v, Dim: calc.DimImpedance} }
+// zq marks a real impedance as a resistance, so that a resistor in a step
+// reads as R in Ω, never as a phasor at 0°.
+func zq(v complex128) calc.Quantity {
+	if imag(v) == 0 {
+		return calc.Quantity{V: v, Dim: calc.DimImpedance, Kind: calc.KindResistive}
+	}
+	return calc.Quantity{V: v, Dim: calc.DimImpedance}
+}
 
 // down reduces the subtree n, innermost first, and returns its equivalent.
 func (r *spReducer) down(n *SPNode, depth int) (*spWork, error) {

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"argand/tui/internal/golden"
+	"math"
 	"time"
 
 	"bytes"
@@ -917,5 +918,26 @@ func TestSmallIgnoresKeys(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// TestEquivalentNotForSizes: the element column says what an impedance is
+// at the working frequency (Z = R + jωL, common practice); a magnitude
+// |Z| or a signed real is no element, so it gets no R, L or C there.
+func TestEquivalentNotForSizes(t *testing.T) {
+	omega := 2 * math.Pi * 50
+	tests := []struct {
+		q    calc.Quantity
+		want string
+	}{
+		{calc.Quantity{V: 5, Dim: calc.DimImpedance, Kind: calc.KindMagnitude}, ""},
+		{calc.Quantity{V: -3, Dim: calc.DimImpedance, Kind: calc.KindSigned}, ""},
+		{calc.Quantity{V: 5, Dim: calc.DimImpedance, Kind: calc.KindResistive}, "R 5.000 Ω"},
+		{calc.Quantity{V: 5, Dim: calc.DimImpedance}, "R 5.000 Ω"},
+	}
+	for _, tt := range tests {
+		if got := equivalent(calc.Format{}, tt.q, omega); got != tt.want {
+			t.Errorf("equivalent(%v, kind %d) = %q, want %q", tt.q.V, tt.q.Kind, got, tt.want)
+		}
 	}
 }

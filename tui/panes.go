@@ -168,6 +168,10 @@ func equivalent(f calc.Format, q calc.Quantity, omega float64) string {
 	if omega <= 0 || math.IsInf(omega, 0) || math.IsNaN(omega) {
 		return ""
 	}
+	if q.Kind == calc.KindMagnitude || q.Kind == calc.KindSigned {
+		// a size or a signed real is not an element: |Z| is no resistance
+		return ""
+	}
 	re, im := real(q.V), imag(q.V)
 	switch q.Dim {
 	case calc.DimImpedance:

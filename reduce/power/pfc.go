@@ -346,7 +346,7 @@ func DischargeResistance(c, v0, vsafe, t calc.Quantity) (calc.Quantity, []calc.S
 	if !(real(t.V) > 0) {
 		return calc.Quantity{}, nil, errors.New("discharge: t must be above 0 s")
 	}
-	r, err := calc.Real(real(t.V)/(real(c.V)*ln), calc.DimImpedance).Check("discharge")
+	r, err := calc.Quantity{V: complex(real(t.V)/(real(c.V)*ln), 0), Dim: calc.DimImpedance, Kind: calc.KindResistive}.Check("discharge")
 	if err != nil {
 		return calc.Quantity{}, nil, fmt.Errorf("discharge: %w", err)
 	}

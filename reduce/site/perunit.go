@@ -28,7 +28,7 @@ func Bases(s, v float64) (PUBase, error) {
 	b := PUBase{
 		S: power(s, calc.KindApparent),
 		V: rq(v, calc.DimVoltage),
-		Z: rq(v*v/s, calc.DimImpedance),
+		Z: kq(v*v/s, calc.DimImpedance, calc.KindMagnitude),
 		I: rq(s/(math.Sqrt(3)*v), calc.DimCurrent),
 	}
 	b.Step = calc.Step{
@@ -203,7 +203,7 @@ func SolveRadial(sys Radial) (RadialResult, error) {
 			zb := vb * vb / sys.SBase
 			z = s.Z / complex(zb, 0)
 			st.Formula = "Z_pu = Z/Z_base, Z_base = V_base²/S_base"
-			st.Inputs = []calc.Operand{op("Z", cq(s.Z, calc.DimImpedance)), op("Z_base", rq(zb, calc.DimImpedance))}
+			st.Inputs = []calc.Operand{op("Z", cq(s.Z, calc.DimImpedance)), op("Z_base", kq(zb, calc.DimImpedance, calc.KindMagnitude))}
 		}
 		if s.Kind == TransformerSection {
 			if err := positive(name+" V1", s.V1); err != nil {

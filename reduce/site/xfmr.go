@@ -122,8 +122,8 @@ func Transformer(n Nameplate) (XfmrResult, error) {
 	i1, i2 := n.S/(k*n.V1), n.S/(k*n.V2)
 	r := XfmrResult{
 		Ratio:  num(n.V1 / n.V2),
-		Zbase1: rq(zb1, calc.DimImpedance),
-		Zbase2: rq(zb2, calc.DimImpedance),
+		Zbase1: kq(zb1, calc.DimImpedance, calc.KindMagnitude),
+		Zbase2: kq(zb2, calc.DimImpedance, calc.KindMagnitude),
 		Z1:     cq(cmplx.Rect(pu*zb1, th), calc.DimImpedance),
 		Z2:     cq(cmplx.Rect(pu*zb2, th), calc.DimImpedance),
 		I1:     rq(i1, calc.DimCurrent),
