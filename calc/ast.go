@@ -20,6 +20,9 @@ type Lit struct {
 	kind    Kind
 	hasUnit bool
 	distrib bool // unit given by the imaginary part of a rectangular literal
+	// imag marks a number written with j (j0, j600): its value lies on the
+	// imaginary axis as written, even when that value is zero.
+	imag bool
 	// bare marks a number scaled by a prefix alone (4.7k): a plain number
 	// that takes Ω when combined with an impedance.
 	bare bool

@@ -198,6 +198,9 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 				return Quantity{}, err
 			}
 		}
+		if n.Op == "+" || n.Op == "-" {
+			x, y = writtenPQ(n, x, y)
+		}
 		var r Quantity
 		var e2 error
 		switch n.Op {
@@ -289,6 +292,28 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		return r.Value, nil
 	}
 	return Quantity{}, ev.errAt(e, fmt.Errorf("cannot evaluate this expression"))
+}
+
+// writtenPQ reads P ± jQ, an active power and a reactive power written
+// with j (as in 10 W + j0 var), as the complex power S = P + jQ (IEEE Std
+// 1459-2010) it was written as: the j-literal is j·Q on the imaginary axis
+// even when Q is zero, so the sum is not refused as W plus var held as
+// plain numbers.
+func writtenPQ(n *Binary, x, y Quantity) (Quantity, Quantity) {
+	if x.Dim != DimPower || y.Dim != DimPower {
+		return x, y
+	}
+	jq := func(e Expr, q Quantity) bool {
+		l := litOf(e)
+		return l != nil && l.imag && q.Kind == KindReactive
+	}
+	switch {
+	case x.Kind == KindActive && jq(n.Y, y):
+		y.Kind = KindApparent
+	case y.Kind == KindActive && jq(n.X, x):
+		x.Kind = KindApparent
+	}
+	return x, y
 }
 
 // literalKind is the kind of a number written with a unit: a real value

@@ -26,6 +26,12 @@ func TestKindRules(t *testing.T) {
 		{"mag(Vs) * mag(Vs/Z)", "apparent-power", "VA", ""},
 		{"800 W + j600 var", "complex-power", "VA", ""},
 		{"800 W + 600 var", "", "", "at right angles"},
+		// P + jQ as written, with Q zero: still S = P + jQ
+		{"10 W + j0 var", "complex-power", "VA", ""},
+		{"0 W + j0 var", "complex-power", "VA", ""},
+		{"j0 var + 10 W", "complex-power", "VA", ""},
+		{"10 W - j5 var", "complex-power", "VA", ""},
+		{"10 W + 0 var", "", "", "at right angles"},
 		{"1 kvar + 1 kVA", "", "", "apparent power |S|"},
 		{"1 kW + 1 kVA", "", "", "apparent power |S|"},
 		{"(800+j600 VA) + 100 W", "complex-power", "VA", ""},

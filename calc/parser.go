@@ -527,6 +527,7 @@ func (p *Parser) literal(t Item) Expr {
 	}
 	if t.Tok == TokImag {
 		l.Val = complex(0, x)
+		l.imag = true
 	} else {
 		l.Val = complex(x, 0)
 	}
