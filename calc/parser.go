@@ -387,7 +387,7 @@ func (p *Parser) primary() Expr {
 				if p.tok.Tok == TokEOF {
 					p.Failf(t, "unbalanced parentheses: '(' is never closed")
 				} else {
-					p.Failf(p.tok, "expected ')' to close the '(' at column %d, found %q", t.Col, p.tok.Text)
+					p.Failf(p.tok, "expected ')' to close the '(' at column %d, found %q", t.Col, p.src[p.tok.Off:p.tok.End])
 				}
 				return x
 			}
