@@ -177,9 +177,13 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 	if m != 0 {
 		e = decExp(m, f.digits())
 	}
-	if sym == "" && (exp3 >= -3 && exp3 < 6 && e < f.digits() || m != 0 && e >= -15 && e < 15) {
+	if sym == "" && k == KindCount && m == math.Trunc(m) && m < 1e15 {
+		return 0, 0, "", "" // a count is a whole number as it is
+	}
+	if sym == "" && (m == 0 || e >= -3 && e < f.digits()) {
 		// plain numbers read better without an exponent, as long as no
-		// more figures show than are significant
+		// more figures show than are significant (30002 at 4 figures is
+		// 30.00×10^3, not 30002) and not many zeros lead
 		decimals = f.digits() - 1 - e
 		if decimals < 0 {
 			decimals = 0
@@ -208,12 +212,22 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 		}
 	}
 	if exp3 != 0 {
-		expo = "e" + strconv.Itoa(exp3)
+		expo = f.timesTen(exp3)
 	}
 	if sym != "" {
 		unit = " " + sym
 	}
 	return exp3, decimals, unit, expo
+}
+
+// timesTen writes the power of ten that a size beyond the SI prefixes, or
+// a plain number far from 1, is shown with: ×10^-21 (ASCII *10^-21). It is
+// read back as part of the number; e-notation is not shown to people.
+func (f Format) timesTen(e int) string {
+	if f.ASCII {
+		return "*10^" + strconv.Itoa(e)
+	}
+	return "×10^" + strconv.Itoa(e)
 }
 
 // basePrefix finds a prefix for the first unit of a product of base units
@@ -352,7 +366,7 @@ func (f Format) angle(deg float64) string {
 		}
 		return s + " rad"
 	}
-	s = f.mark(sigFixed(deg, n))
+	s = f.mark(f.sig(deg, n))
 	if s == f.mark(sigFixed(-180, n)) {
 		s = f.mark(sigFixed(180, n))
 	}
@@ -379,6 +393,19 @@ func (f Format) AngleValue(rad float64) string {
 
 // Angle formats the angle of v in the display unit, for example "53.13°".
 func (f Format) Angle(v complex128) string { return f.angle(Deg(v)) }
+
+// sig writes x to the given significant figures as sigFixed does, except
+// that a value below 0.0001 in size (a leftover of rounding, as an angle of
+// −1.421×10^-14°) is written m×10^e with an engineering exponent rather
+// than behind a run of zeros.
+func (f Format) sig(x float64, digits int) string {
+	a := math.Abs(x)
+	if a == 0 || a < 1e-15 || a >= 1e-4 {
+		return sigFixed(x, digits)
+	}
+	exp3, dec := engScale(a, digits)
+	return fixed(x, exp3, dec) + f.timesTen(exp3)
+}
 
 // sigFixed writes x to the given significant figures without an exponent
 // where that stays readable, and with one (which parses back) where x is

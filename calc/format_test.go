@@ -137,7 +137,7 @@ func TestTinyParts(t *testing.T) {
 		{complex(3, 1e-15), "3.000 V", "3.000 V ∠0°"},
 		{complex(1.8369701987210297e-16, 3), "j3.000 V", "3.000 V ∠90.00°"}, // 3∠90° via sin/cos
 		{complex(-2, 1e-13), "-2.000 V", "2.000 V ∠180.0°"},
-		{complex(1, 1e-11), "1.000 + j0.000 V", "1.000 V ∠0.0000000005730°"}, // above the threshold: kept
+		{complex(1, 1e-11), "1.000 + j0.000 V", "1.000 V ∠573.0×10^-12°"}, // above the threshold: kept
 	}
 	for _, tt := range tests {
 		q := Q(tt.v, DimVoltage)
@@ -268,8 +268,15 @@ func TestNoENotation(t *testing.T) {
 		{Real(3e-28, DimCharge), "300.0 qC"},
 		{Real(2e29, DimPower), "200.0 RVA"},
 		{Real(123456789, DimInductance.Mul(DimLength)), "123.5 MV·s·m/A"},
-		{Number(1e9), "1000000000"},
-		{Number(1.5e-5), "0.00001500"},
+		// a plain number beyond its figures or below 0.001 takes ×10^
+		{Number(1e9), "1.000×10^9"},
+		{Number(1.5e-5), "15.00×10^-6"},
+		{Number(30002), "30.00×10^3"},
+		{Number(1e-20), "10.00×10^-21"},
+		{Number(1e-13), "100.0×10^-15"},
+		{Number(1234), "1234"},
+		{Number(0.001234), "0.001234"},
+		{Real(314.2e300, DimImpedance), "314.2×10^300 Ω"},
 	}
 	for _, tt := range tests {
 		got := f.Rect(tt.q)
@@ -278,6 +285,51 @@ func TestNoENotation(t *testing.T) {
 		}
 		if strings.ContainsAny(got, "e") && !strings.Contains(tt.want, "e") {
 			t.Errorf("%q has an exponent", got)
+		}
+	}
+}
+
+// TestTimesTenReadsBack: a size beyond the SI prefixes (SI Brochure 9th
+// ed., table 7) or a plain number far from 1 is shown m×10^e, in ASCII
+// m*10^e, never in e-notation, and what is shown reads back as the same
+// number, unit and j included.
+func TestTimesTenReadsBack(t *testing.T) {
+	tests := []struct {
+		q     Quantity
+		ascii bool
+		want  string
+	}{
+		{Number(1e-20), false, "10.00×10^-21"},
+		{Number(1e15), false, "1.000×10^15"},
+		{Number(1e15), true, "1.000*10^15"},
+		{Q(complex(0, 314.2e300), DimImpedance), false, "j314.2×10^300 Ω"},
+		{Q(complex(0, 314.2e300), DimImpedance), true, "j314.2*10^300 ohm"},
+		{Number(complex(1e-16, 1e-16)), false, "100.0×10^-18 + j100.0×10^-18"},
+		{Real(1e-320, DimVoltage), false, "10.00×10^-321 V"},
+	}
+	for _, tt := range tests {
+		f := Format{ASCII: tt.ascii}
+		got := f.Rect(tt.q)
+		if got != tt.want {
+			t.Errorf("Rect(%v) = %q, want %q", tt.q.V, got, tt.want)
+		}
+		if strings.Contains(got, "e") {
+			t.Errorf("%q has e-notation", got)
+		}
+		back, err := evalString(newTestEnv(), got)
+		if err != nil {
+			t.Errorf("%q does not read back: %v", got, err.Msg)
+			continue
+		}
+		if !closeC(back.V, tt.q.V, 1e-3) || back.Dim != tt.q.Dim {
+			t.Errorf("%q reads back as %v %v, want %v %v", got, back.V, back.Dim, tt.q.V, tt.q.Dim)
+		}
+	}
+	// the operators keep their meaning where the power is not the number's
+	for src, want := range map[string]complex128{"2*10^3^2": 2e9, "(3+j4)*10^2": complex(300, 400), "3+j4*10^2": complex(300, 400)} {
+		q, err := evalString(newTestEnv(), src)
+		if err != nil || !closeC(q.V, want, 1e-12) {
+			t.Errorf("%s = %v (%v), want %v", src, q.V, err, want)
 		}
 	}
 }

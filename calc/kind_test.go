@@ -98,7 +98,7 @@ func TestScalarsHaveNoAngle(t *testing.T) {
 		{Quantity{V: -28.89, Dim: DimImpedance, Kind: KindSigned}, "-28.89 Ω"},
 		{Quantity{V: -3000, Dim: DimPower, Kind: KindReactive}, "-3.000 kvar"},
 		{Quantity{V: 12500, Dim: DimPower, Kind: KindMagnitude}, "12.50 kVA"},
-		{Quantity{V: 3, Kind: KindCount}, "3.000"},
+		{Quantity{V: 3, Kind: KindCount}, "3"}, // a count is whole
 	}
 	for _, tt := range tests {
 		for name, got := range map[string]string{"Both": f.Both(tt.q, true), "Short": f.Short(tt.q), "Polar": f.Polar(tt.q)} {

@@ -142,6 +142,7 @@ func (s *Scanner) Scan() Item {
 	switch {
 	case isDigit(r) || (r == rune(own) && s.digitAt(s.off+1)):
 		s.number()
+		s.timesTen()
 		if s.otherAt(s.off) {
 			return s.otherMark(start, col, space, s.off)
 		}
@@ -167,6 +168,7 @@ func (s *Scanner) Scan() Item {
 		s.off++
 		s.col++
 		s.number()
+		s.timesTen()
 		if s.otherAt(s.off) {
 			return s.otherMark(start, col, space, s.off)
 		}
@@ -339,6 +341,40 @@ func (s *Scanner) number() {
 	}
 }
 
+// timesTen reads a power-of-ten factor written after a number's digits,
+// ×10^-21 or in ASCII *10^-21, as part of the number: that is how a size
+// beyond the SI prefixes is shown (10.00×10^-21), and what is shown reads
+// back as the one number it is, unit and all (j314.2×10^300 Ω). A power
+// followed by another ^ or a point is left to the operators.
+func (s *Scanner) timesTen() {
+	rest := s.src[s.off:]
+	var n int
+	switch {
+	case strings.HasPrefix(rest, "×10^"):
+		n = len("×10^")
+	case strings.HasPrefix(rest, "*10^"):
+		n = len("*10^")
+	default:
+		return
+	}
+	i := s.off + n
+	if c := s.byteAt(i); c == '-' || c == '+' {
+		i++
+	}
+	j := i
+	for s.digitAt(j) {
+		j++
+	}
+	if j == i || j-i > 4 {
+		return
+	}
+	if c := s.byteAt(j); c == '^' || c == '.' || c == ',' && s.comma && s.digitAt(j+1) {
+		return
+	}
+	s.col += utf8.RuneCountInString(s.src[s.off:j])
+	s.off = j
+}
+
 // groups reads the digit groups of a whole number written with a space
 // between groups of three, as the SI Brochure (9th ed. §5.4.4) writes
 // 1 000 000: a space followed by exactly three digits continues the number.
@@ -368,6 +404,11 @@ func (s *Scanner) otherAt(i int) bool {
 // numText is the text of a number as the parser reads it: digit groups
 // joined and the decimal marker a point.
 func (s *Scanner) numText(t string) string {
+	if i := strings.Index(t, "10^"); i > 0 && (strings.HasSuffix(t[:i], "×") || strings.HasSuffix(t[:i], "*")) {
+		// m×10^e is the number me±e
+		k := strings.LastIndexAny(t[:i], "×*")
+		t = t[:k] + "e" + t[i+len("10^"):]
+	}
 	if strings.ContainsAny(t, " \u00a0\u202f\u2009") {
 		t = strings.Map(func(r rune) rune {
 			if isSpace(r) {

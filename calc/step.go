@@ -180,11 +180,11 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 			b.WriteString("    " + verdict + ": got " + f.Both(c.Got, polarFirst) + ", expected " + f.Both(c.Want, polarFirst) + "\n")
 		}
 		if c.Scalar {
-			b.WriteString("      difference " + f.Rect(c.Diff) + "; " + f.mark(sigFixed(c.RelMag*100, 3)) + " % of the expected value; tolerance " + tr(c.Tolerance) + "\n")
+			b.WriteString("      difference " + f.Rect(c.Diff) + "; " + f.mark(f.sig(c.RelMag*100, 3)) + " % of the expected value; tolerance " + tr(c.Tolerance) + "\n")
 		} else if c.MagOnly {
-			b.WriteString("      outside the range by " + f.Mag(real(c.Diff.V), c.Diff.Dim, c.Diff.Kind) + "; " + f.mark(sigFixed(c.RelMag*100, 3)) + " % from the nominal magnitude; " + tr(c.Tolerance) + "\n")
+			b.WriteString("      outside the range by " + f.Mag(real(c.Diff.V), c.Diff.Dim, c.Diff.Kind) + "; " + f.mark(f.sig(c.RelMag*100, 3)) + " % from the nominal magnitude; " + tr(c.Tolerance) + "\n")
 		} else {
-			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + f.mark(sigFixed(c.RelMag*100, 3)) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
+			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + f.mark(f.sig(c.RelMag*100, 3)) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
 		}
 	}
 	for _, n := range s.Notes {

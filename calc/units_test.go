@@ -423,9 +423,9 @@ func TestSubnormalFormat(t *testing.T) {
 		x    float64
 		want string
 	}{
-		{1e-320, "10.00e-321 V"},
-		{1e-310, "100.0e-312 V"},
-		{1e-300, "1.000e-300 V"},
+		{1e-320, "10.00×10^-321 V"},
+		{1e-310, "100.0×10^-312 V"},
+		{1e-300, "1.000×10^-300 V"},
 	}
 	for _, tt := range tests {
 		if got := (Format{}).Rect(Real(tt.x, DimVoltage)); got != tt.want {
