@@ -319,6 +319,11 @@ func (f Format) Rect(q Quantity) string {
 	default:
 		b.WriteString(f.mark(fixed(re, exp3, partDec(re))) + expo)
 		s := f.mark(fixed(im, exp3, partDec(im)))
+		if im < 0 && !strings.HasPrefix(s, "-") {
+			// a negative part too small for the figures shown keeps its
+			// sign, as the angle shows it (−1.000 − j0.000, ∠-179.99°)
+			s = "-" + s
+		}
 		if strings.HasPrefix(s, "-") {
 			b.WriteString(" - j" + s[1:] + expo)
 		} else {
@@ -365,6 +370,13 @@ func (f Format) angle(deg float64) string {
 			s = f.mark(sigFixed(math.Pi, n))
 		}
 		return s + " rad"
+	}
+	// an angle near the negative real axis that rounds to ±180° keeps up
+	// to three more figures, so that it agrees in sign with the imaginary
+	// part shown in rectangular form (−179.97°, not 180.0°)
+	for m, top := n, n+3; m < top && m < MaxDigits && math.Abs(deg) != 180 &&
+		(sigFixed(deg, m) == sigFixed(-180, m) || sigFixed(deg, m) == sigFixed(180, m)); m++ {
+		n = m + 1
 	}
 	s = f.mark(f.sig(deg, n))
 	if s == f.mark(sigFixed(-180, n)) {

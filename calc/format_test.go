@@ -233,7 +233,9 @@ func TestNoNaNInf(t *testing.T) {
 }
 
 // TestAngleRoundsToMinus180: an angle just above −180° that rounds to
-// −180° at the digits shown is written as 180° (the same direction).
+// −180° at the digits shown keeps up to three more figures (−179.99°), so
+// that its sign agrees with the imaginary part in rectangular form; only
+// beyond those is it written as 180° (the same direction). Never −180°.
 func TestAngleRoundsToMinus180(t *testing.T) {
 	q := Q(cmplx.Rect(1, -179.99*math.Pi/180), DimVoltage)
 	for d := 1; d <= 4; d++ {
@@ -244,8 +246,17 @@ func TestAngleRoundsToMinus180(t *testing.T) {
 			}
 		}
 	}
-	if got := (Format{Digits: 4}).Polar(q); got != "1.000 V ∠180.0°" {
-		t.Errorf("got %q, want 1.000 V ∠180.0°", got)
+	if got := (Format{Digits: 4}).Polar(q); got != "1.000 V ∠-179.99°" {
+		t.Errorf("got %q, want 1.000 V ∠-179.99°", got)
+	}
+	if got := (Format{Digits: 4}).Rect(q); got != "-1.000 - j0.000 V" {
+		t.Errorf("got %q, want -1.000 - j0.000 V (the sign of the angle)", got)
+	}
+	if got := (Format{Digits: 4}).Polar(Q(cmplx.Rect(1, -179.97*math.Pi/180), DimVoltage)); got != "1.000 V ∠-179.97°" {
+		t.Errorf("got %q, want 1.000 V ∠-179.97°", got)
+	}
+	if got := (Format{Digits: 2}).Polar(Q(cmplx.Rect(1, -179.9999*math.Pi/180), DimVoltage)); got != "1.0 V ∠180.00°" {
+		t.Errorf("got %q, want 1.0 V ∠180.00° (beyond three more figures)", got)
 	}
 	if got := (Format{Digits: 5}).Polar(q); got != "1.0000 V ∠-179.99°" {
 		t.Errorf("got %q, want 1.0000 V ∠-179.99°", got)
