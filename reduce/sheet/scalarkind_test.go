@@ -63,3 +63,22 @@ func TestNetworkResistorOperand(t *testing.T) {
 		t.Fatal("no step took R1 or L1 as an input")
 	}
 }
+
+// TestFlagShownWhole: a pass/fail result is a count (shared DESIGN.md,
+// quantity kinds), shown 1 or 0 rather than 1.000. Invented example data.
+func TestFlagShownWhole(t *testing.T) {
+	tests := []struct {
+		line, name, want string
+	}{
+		{"zs1 = zsloop(230 V, 0.21 Ω, 7.41 mΩ/m + 12.1 mΩ/m, 32 m, 70, copper, 1.2 Ω)", "zs1.ok", "1"},
+		{"zs2 = zsloop(230 V, 0.21 Ω, 7.41 mΩ/m + 12.1 mΩ/m, 32 m, 70, copper, 320 A)", "zs2.ok", "0"},
+	}
+	for _, tt := range tests {
+		s := New()
+		execOK(t, s, tt.line)
+		q := valueOf(t, s, tt.name)
+		if got := (calc.Format{}).Both(q, false); got != tt.want {
+			t.Errorf("%s = %q, want %q", tt.name, got, tt.want)
+		}
+	}
+}
