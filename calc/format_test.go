@@ -165,7 +165,8 @@ func TestASCII(t *testing.T) {
 		{Q(3+4i, DimImpedance), "3.000 + j4.000 ohm", "5.000 ohm @53.13 deg"},
 		{Real(4.7e-6, DimCapacitance), "4.700 uF", "4.700 uF"},
 		{Q(-2.2e3i, DimImpedance), "-j2.200 kohm", "2.200 kohm @-90.00 deg"},
-		{Real(1, Dim{BaseVolt: 2, BaseAmpere: -2}), "1.000 V^2/A^2", "1.000 V^2/A^2"},
+		{Real(1, Dim{BaseVolt: 2, BaseAmpere: -2}), "1.000 ohm^2", "1.000 ohm^2"}, // a named unit squared
+		{Real(1, Dim{BaseVolt: 2, BaseAmpere: -1}), "1.000 V^2/A", "1.000 V^2/A"},
 	}
 	for _, tt := range tests {
 		for _, got := range []string{f.Rect(tt.q), f.Polar(tt.q), f.Both(tt.q, false), f.Both(tt.q, true)} {

@@ -2,6 +2,7 @@ package calc
 
 import (
 	"math"
+	"strconv"
 	"strings"
 )
 
@@ -123,6 +124,11 @@ var dimNames = map[Dim]unitName{
 	{BaseVolt: -1}:                                              {"/V", "/V"},
 }
 
+// poweredNames are the named units whose square or cube is written with
+// the name (Ω², H²), in a fixed order; V, A, s and m are base units and
+// are written so already.
+var poweredNames = [...]Dim{DimImpedance, DimAdmittance, DimInductance, DimCapacitance}
+
 // UnitSymbol returns the symbol shown for a quantity: "" for a plain number,
 // "VA", "W" or "var" for power by kind, otherwise the unit of its dimension
 // or a product of base units.
@@ -155,6 +161,18 @@ func UnitSymbol(d Dim, k Kind, ascii bool) string {
 			return n.ascii
 		}
 		return n.sym
+	}
+	// the square or cube of a named unit is written as that: Ω², not V²/A²
+	for _, nd := range poweredNames {
+		for n := 2; n <= 3; n++ {
+			if d == nd.Pow(n) {
+				sym := dimNames[nd].sym
+				if ascii {
+					return dimNames[nd].ascii + "^" + strconv.Itoa(n)
+				}
+				return sym + [...]string{2: "²", 3: "³"}[n]
+			}
+		}
 	}
 	// a pure reciprocal is written /A², as it reads back, not 1/A²
 	b := d.baseString(ascii)

@@ -118,7 +118,10 @@ func TestDerivedDimensions(t *testing.T) {
 		{"1 / (w * C1)", DimImpedance, "Ω"},  // X_C = 1/(ωC) (common practice)
 		{"1 / 1 s", DimAngularFrequency, ""}, // 1/s carries no cycle
 		{"sqrt(1 H / 1 F)", DimImpedance, "Ω"},
-		{"(3 Ω)^2", Dim{BaseVolt: 2, BaseAmpere: -2}, "V²/A²"},
+		{"(3 Ω)^2", Dim{BaseVolt: 2, BaseAmpere: -2}, "Ω²"},
+		{"(2 mH)^2", DimInductance.Pow(2), "H²"},
+		{"mag(3+j4 Ω)^2 * 1 Ω", DimImpedance.Pow(3), "Ω³"},
+		{"(2 S)^2", DimAdmittance.Pow(2), "S²"},
 	}
 	for _, tt := range tests {
 		q := mustEval(t, tt.src)
