@@ -472,6 +472,11 @@ func correctionResult(c *calc.Context, fn string, args []calc.Arg, t Target, pre
 	if peak {
 		k.I1.V *= complex(math.Sqrt2, 0)
 		k.I2.V *= complex(math.Sqrt2, 0)
+		for _, q := range []calc.Quantity{k.I1, k.I2} {
+			if _, err := q.Check(fn + ": the peak line current"); err != nil {
+				return calc.Result{}, err
+			}
+		}
 		k.Notes = append([]string{"basis peak: V is read as a peak value, so V_rms = V/√2 sets C (Q_c = ω·C·V_rms²); P, Q and |S| are the usual (RMS) powers; the currents .i1 and .i2 are shown as peak values (√2·I_rms)"}, k.Notes...)
 		if len(steps) > 0 {
 			steps[0].Notes = append(steps[0].Notes, "basis peak: V_rms = V/√2 = "+c.Format.Mag(cmplx.Abs(t.V.V), calc.DimVoltage, calc.KindMagnitude))

@@ -325,3 +325,26 @@ func TestPFCBasis(t *testing.T) {
 		t.Errorf("peak i1 %v, want √2 × %v", get(pk, "i1"), get(rms, "i1"))
 	}
 }
+
+// TestPeakCurrentOverflow: on the peak basis the line currents are √2
+// times the RMS ones; a current near the largest float must give an error,
+// never an infinity (found by TestPropFuncsFinite).
+func TestPeakCurrentOverflow(t *testing.T) {
+	var f calc.Func
+	for _, x := range Funcs() {
+		if x.Name == "pfcload" {
+			f = x
+		}
+	}
+	c := &calc.Context{Freq: 50, Basis: calc.Peak, Sequence: 1}
+	args := []calc.Arg{{Q: calc.Quantity{V: complex(1, math.MaxFloat64), Dim: calc.DimPower, Kind: calc.KindApparent}},
+		{Q: calc.Number(1)}, {Q: calc.Real(1, calc.DimVoltage)}, {Word: "three"}}
+	r, err := f.Call(c, args)
+	if err == nil {
+		for _, o := range r.Extra {
+			if cmplx.IsInf(o.Value.V) || cmplx.IsNaN(o.Value.V) {
+				t.Fatalf(".%s = %v: not finite and no error", o.Name, o.Value.V)
+			}
+		}
+	}
+}
