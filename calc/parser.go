@@ -12,14 +12,14 @@ import (
 // keeping the first error with its place. The worksheet's statement parser
 // drives the same Parser, so statements and expressions share one scanner.
 //
-// Precedence, loosest first:
+// Precedence, loosest first (each level binds tighter than the one above):
 //
-//   - −          sums
-//     ||           parallel (binds tighter than +: a + b || c is a + (b || c))
-//   - / · × ÷    products
-//     − +          unary sign
-//     ∠ @          polar: mag∠angle
-//     ^            powers, right to left
+//	sums        a + b, a − b
+//	parallel    a || b       (so a + b || c is a + (b || c))
+//	products    a * b, a / b, and their forms · × ÷
+//	sign        −a, +a
+//	polar       m∠θ, m @ θ
+//	powers      a ^ b        (right to left)
 type Parser struct {
 	src   string
 	line  int
@@ -64,6 +64,18 @@ func (p *Parser) Err() *Error {
 
 // Peek returns the current token without consuming it.
 func (p *Parser) Peek() Item { return p.tok }
+
+// PeekNext returns the token after the current one without consuming
+// either: a statement that starts with a word tells a keyword (frequency
+// 60 Hz) from a call (thevenin(…)) or a definition (frequency = 2) by the
+// token that follows, without reading the line a second time.
+func (p *Parser) PeekNext() Item {
+	if p.tok.Tok == TokEOF {
+		return p.tok
+	}
+	ahead := *p.s
+	return ahead.Scan()
+}
 
 // Next consumes and returns the current token.
 func (p *Parser) Next() Item {

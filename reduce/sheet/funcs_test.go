@@ -29,8 +29,13 @@ func TestFunctionNamesUnique(t *testing.T) {
 		if calc.IsUnit(name) {
 			t.Errorf("function %s reads as a unit", name)
 		}
-		if why, ok := reservedWords[name]; ok {
+		if why, ok := readOnlyNames[name]; ok {
 			t.Errorf("function %s is also %s", name, why)
+		}
+		for _, k := range keywords {
+			if k.word == name && k.second == "" {
+				t.Errorf("function %s is also a statement keyword", name)
+			}
 		}
 	}
 }

@@ -299,17 +299,8 @@ func (s *Sheet) evaluator(src string, line int) *calc.Evaluator {
 	return &calc.Evaluator{Env: s, Src: src, Line: line}
 }
 
-// reservedWords are statement keywords and read-only names.
-var reservedWords = map[string]string{
-	"frequency": "a statement keyword", "basis": "a statement keyword", "angles": "a statement keyword",
-	"digits": "a statement keyword", "sequence": "a statement keyword", "check": "a statement keyword",
-	"network": "a statement keyword", "end": "a statement keyword", "resistor": "a statement keyword",
-	"inductor": "a statement keyword", "capacitor": "a statement keyword", "impedance": "a statement keyword",
-	"thevenin": "a statement keyword", "sweep": "a statement keyword", "tolerance": "a statement keyword",
-	"spread": "a statement keyword", "deltay": "a statement keyword",
-	"forget": "a statement keyword", "rename": "a statement keyword", "budget": "a statement keyword",
-	"spectrum": "a statement keyword",
-	"language": "a statement keyword", "decimal": "a statement keyword",
+// readOnlyNames are the names the worksheet reads but never defines.
+var readOnlyNames = map[string]string{
 	"f": "the working frequency (set it with: frequency 60 Hz)", "w": "the working angular frequency ω",
 	"ω": "the working angular frequency ω", "pi": "the constant π", "π": "the constant π", "e": "the constant e",
 	"j": "the imaginary unit", "i": "the imaginary unit",
@@ -320,8 +311,15 @@ var reservedWords = map[string]string{
 // symbols are not: a unit only ever follows a number, so "10 S" is ten
 // siemens whatever S names, and S = 230 V * 6.2 A reads as written.
 func (s *Sheet) Reserved(name string) string {
-	if why, ok := reservedWords[name]; ok {
+	if why, ok := readOnlyNames[name]; ok {
 		return why
+	}
+	for _, k := range keywords {
+		// a keyword that needs a second word (voltage source) leaves the
+		// first free for a name
+		if k.word == name && k.second == "" {
+			return "a statement keyword"
+		}
 	}
 	if _, ok := s.spectra[name]; ok {
 		return "a spectrum"

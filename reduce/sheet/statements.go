@@ -238,58 +238,13 @@ func (s *Sheet) exec(src string, n int) error {
 	}
 	p := s.parser(body, n)
 	defer func() { s.since = max(s.since, p.Since()) }()
-	first := p.Peek()
-	if s.open != nil {
-		return s.blockLine(p, first)
+	k := lookupKeyword(p)
+	if s.open != nil && (k == nil || k.where&inBlock == 0) {
+		p.Failf(p.Peek(), "inside network %s a line is an element (%s NAME = value from NODE to NODE) or end", s.open.name, blockForms())
+		return p.Err()
 	}
-	if first.Tok == calc.TokIdent && !calledAsFunction(body) && !assignsTo(body) {
-		switch first.Text {
-		case "frequency":
-			return s.stmtFrequency(p)
-		case "basis":
-			return s.stmtBasis(p)
-		case "angles":
-			return s.stmtAngles(p)
-		case "digits":
-			return s.stmtDigits(p)
-		case "sequence":
-			return s.stmtSequence(p)
-		case "language":
-			return s.stmtLanguage(p)
-		case "decimal":
-			return s.stmtDecimal(p)
-		case "check":
-			return s.stmtCheck(p)
-		case "resistor", "inductor", "capacitor", "impedance":
-			return s.stmtElement(p, nil)
-		case "network":
-			return s.stmtNetwork(p)
-		case "end":
-			p.Failf(p.Next(), "'end' without an open network block")
-			return p.Err()
-		case "thevenin":
-			return s.stmtThevenin(p)
-		case "deltay":
-			return s.stmtDeltaY(p)
-		case "forget":
-			return s.stmtForget(p)
-		case "rename":
-			return s.stmtRename(p)
-		case "sweep":
-			return s.stmtSweep(p)
-		case "tolerance":
-			return s.stmtTolerance(p)
-		case "spread":
-			return s.stmtSpread(p)
-		case "budget":
-			return s.stmtBudget(p)
-		case "spectrum":
-			return s.stmtSpectrum(p)
-		case "voltage", "current":
-			if s.isSourceStmt(body) {
-				return s.stmtElement(p, nil)
-			}
-		}
+	if k != nil {
+		return k.run(s, p)
 	}
 	return s.stmtAssignOrEval(p)
 }
@@ -301,28 +256,6 @@ func perr(p *calc.Parser, format string, a ...any) error {
 	}
 	p.Failf(p.Peek(), format, a...)
 	return p.Err()
-}
-
-// calledAsFunction reports a line that starts with a word and "(", such as
-// thevenin(V, Z1, Z2): a function call, not the statement of that name.
-func calledAsFunction(body string) bool {
-	q := calc.NewParserComma(body, 0, true) // the first two tokens read alike under either marker
-	q.Next()
-	return q.IsOp("(")
-}
-
-// assignsTo reports a line that starts with a word and "=", such as
-// frequency = 2: an attempt to define a name, which the definition then
-// refuses with the reason when the word is reserved.
-func assignsTo(body string) bool {
-	q := calc.NewParserComma(body, 0, true) // as calledAsFunction
-	q.Next()
-	return q.IsOp("=")
-}
-
-func (s *Sheet) isSourceStmt(body string) bool {
-	f := strings.Fields(body)
-	return len(f) >= 2 && f[1] == "source"
 }
 
 // expectWord consumes the identifier w or fails.
@@ -568,12 +501,10 @@ func depsOf(e calc.Expr) map[string]bool {
 
 func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	src := p.Source()
-	first := p.Peek()
 	var name string
 	var nameTok calc.Item
-	// NAME = EXPR: look for the '=' after a leading identifier
-	q := s.parser(src, s.line)
-	if t := q.Next(); (t.Tok == calc.TokIdent || t.Tok == calc.TokImag) && q.IsOp("=") {
+	// NAME = EXPR: an '=' after a leading identifier
+	if t, next := p.Peek(), p.PeekNext(); (t.Tok == calc.TokIdent || t.Tok == calc.TokImag) && next.Tok == calc.TokOp && next.Text == "=" {
 		nameTok = p.Next()
 		p.Next() // =
 		if !s.validName(p, nameTok) {
@@ -589,7 +520,6 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	if err := p.Err(); err != nil {
 		return err
 	}
-	_ = first
 	r, err := s.eval(p, e)
 	if err != nil {
 		return err

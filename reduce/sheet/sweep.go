@@ -468,9 +468,7 @@ func (s *Sheet) tolerancesUnder(e calc.Expr) []string {
 func (s *Sheet) stmtSpread(p *calc.Parser) error {
 	p.Next()
 	var name string
-	q := s.parser(p.Source(), s.line)
-	q.Next()
-	if t := q.Next(); t.Tok == calc.TokIdent && q.IsOp("=") {
+	if t, next := p.Peek(), p.PeekNext(); t.Tok == calc.TokIdent && next.Tok == calc.TokOp && next.Text == "=" {
 		nt := p.Next()
 		p.Next()
 		if !s.validName(p, nt) {
