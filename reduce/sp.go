@@ -656,6 +656,16 @@ type Reduction struct {
 	Merges   []Merge         // one per reduction step, in order
 	Elements []ElementResult // passive elements, left to right in the tree, then idle ones
 	Source   ElementResult   // the source, by the passive sign convention
+	// Subjects holds, for each step, the element or equivalent whose
+	// values it finds ("" for a step over the whole network), so that a
+	// view can pick out what a step works on without reading its text.
+	Subjects []string
+}
+
+// add appends a step about subject.
+func (r *spReducer) add(subject string, st calc.Step) {
+	r.out.Steps = append(r.out.Steps, st)
+	r.out.Subjects = append(r.out.Subjects, subject)
 }
 
 type spWork struct {
@@ -749,6 +759,7 @@ func reduceTree(tree *SPNode, z map[string]complex128, basis calc.Basis, src Ele
 	// slice of large step records as they come costs more than the work
 	leaves := len(tree.Elements())
 	r.out.Steps = make([]calc.Step, 0, 4*leaves+len(idle)*2+4)
+	r.out.Subjects = make([]string, 0, cap(r.out.Steps))
 	r.out.Elements = make([]ElementResult, 0, leaves+len(idle))
 	r.leafNames = make([]string, 0, leaves)
 	root, err := r.down(tree, 0)
@@ -768,7 +779,7 @@ func reduceTree(tree *SPNode, z map[string]complex128, basis calc.Basis, src Ele
 			V: calc.Quantity{Dim: calc.DimVoltage}, I: calc.Quantity{Dim: calc.DimCurrent},
 			S: calc.Quantity{Dim: calc.DimPower, Kind: calc.KindApparent}}
 		r.out.Elements = append(r.out.Elements, er)
-		r.out.Steps = append(r.out.Steps, calc.Step{Kind: "idle", Basis: basis,
+		r.add(name, calc.Step{Kind: "idle", Basis: basis,
 			Source:  name + " carries no current",
 			Rule:    "a part joined to the rest at one node only (or with both ends on one node) carries no current, so Ohm's law gives it no voltage",
 			Formula: "I(" + name + ") = 0, V(" + name + ") = 0",
@@ -852,7 +863,7 @@ func (r *spReducer) down(n *SPNode, depth int) (*spWork, error) {
 	st.Basis = r.basis
 	r.out.Merges = append(r.out.Merges, Merge{Step: len(r.out.Steps), Name: w.name, Parts: names,
 		Elements: r.leafNames[w.lo:w.hi:w.hi]})
-	r.out.Steps = append(r.out.Steps, st)
+	r.add(w.name, st)
 	return w, nil
 }
 
@@ -893,7 +904,7 @@ func (r *spReducer) feed(root *spWork, src Element) error {
 	if src.Kind == VoltageSource {
 		st.Results[0], st.Results[1] = st.Results[1], st.Results[0]
 	}
-	r.out.Steps = append(r.out.Steps, st)
+	r.add(root.name, st)
 	return nil
 }
 
@@ -979,7 +990,7 @@ func (r *spReducer) back(w *spWork, flip bool, depth int) error {
 			st.Notes = []string{c.name + " is connected the other way round in its group, so its voltage and current (in its own From → To direction) change sign"}
 		}
 		st.Results = []calc.Operand{{Name: cv, Value: vq(ov)}, {Name: ci, Value: iq(oi)}}
-		r.out.Steps = append(r.out.Steps, st)
+		r.add(c.name, st)
 		if err := r.back(c, cflip, depth+1); err != nil {
 			return err
 		}
@@ -1007,7 +1018,7 @@ func (r *spReducer) powers(src Element, root *spWork) error {
 		}
 		e.S = s
 		total += s.V
-		r.out.Steps = append(r.out.Steps, calc.Step{Kind: "power", Basis: r.basis, Source: "power in " + e.Name,
+		r.add(e.Name, calc.Step{Kind: "power", Basis: r.basis, Source: "power in " + e.Name,
 			Rule:    "complex power taken in by an element: voltage times the conjugate of current",
 			Formula: "S(" + e.Name + ") = " + pre + "V(" + e.Name + ")·I(" + e.Name + ")*" + formulaTail,
 			Inputs:  []calc.Operand{{Name: "V(" + e.Name + ")", Value: e.V}, {Name: "I(" + e.Name + ")", Value: e.I}},
@@ -1026,7 +1037,7 @@ func (r *spReducer) powers(src Element, root *spWork) error {
 	if err != nil {
 		return err
 	}
-	r.out.Steps = append(r.out.Steps, calc.Step{Kind: "balance", Basis: r.basis, Source: "power balance",
+	r.add("", calc.Step{Kind: "balance", Basis: r.basis, Source: "power balance",
 		Rule:    "power balance (Tellegen's theorem): the elements take in what the source delivers",
 		Formula: "ΣS(elements) = S delivered by " + src.Name + " = " + pre + "V(" + root.name + ")·I(" + root.name + ")*" + formulaTail,
 		Inputs:  []calc.Operand{{Name: "V(" + root.name + ")", Value: vq(root.v)}, {Name: "I(" + root.name + ")", Value: iq(root.i)}},
@@ -1037,6 +1048,6 @@ func (r *spReducer) powers(src Element, root *spWork) error {
 	for _, e := range rows {
 		table.Rows = append(table.Rows, calc.Row{Name: e.Name, Values: []calc.Operand{{Name: "v", Value: e.V}, {Name: "i", Value: e.I}, {Name: "s", Value: e.S}}})
 	}
-	r.out.Steps = append(r.out.Steps, table)
+	r.add("", table)
 	return nil
 }

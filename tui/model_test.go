@@ -504,6 +504,11 @@ func TestNetworkView(t *testing.T) {
 	if m.mode != modeNet {
 		t.Fatalf("no network view: %s", m.msg)
 	}
+	// N opens the newest network; tab goes on to the others in turn
+	if m.net.name != "ladder" {
+		t.Errorf("N opened %s, not the newest network (ladder)", m.net.name)
+	}
+	press(m, "tab")
 	v := m.View()
 	for _, want := range []string{"network bench", "Ra", "Cb", "gnd", "0 of"} {
 		if !strings.Contains(v, want) {
@@ -525,7 +530,7 @@ func TestNetworkView(t *testing.T) {
 		t.Fatalf("take: %s", m.msg)
 	}
 	name := m.s.v.Selected
-	e := m.net.net.Elements[1]
+	e := m.net.v.Elements[1]
 	if want := value(t, m, "bench."+e.Name+".i"); value(t, m, name) != want {
 		t.Errorf("row %s differs from the branch current", name)
 	}
@@ -626,8 +631,8 @@ func TestGolden(t *testing.T) {
 		{"rows-80x24", 80, 24, false, []string{"home", " ", "down", " "}},
 		{"rows-120x40", 120, 40, false, []string{"home", " ", "down", " ", "p"}},
 		{"rows-80x24-ascii", 80, 24, true, []string{"home", " ", "down", " "}},
-		{"network-80x24", 80, 24, false, []string{"N", "right", "right"}},
-		{"network-120x40", 120, 40, false, []string{"N", "right"}},
+		{"network-80x24", 80, 24, false, []string{"N", "tab", "right", "right"}},
+		{"network-120x40", 120, 40, false, []string{"N", "tab", "right"}},
 		{"help-80x24", 80, 24, false, []string{"?"}},
 		{"small-40x12", 40, 12, false, nil},
 	} {
@@ -867,6 +872,32 @@ func TestRestorePartial(t *testing.T) {
 	b, _ = os.ReadFile(path)
 	if !strings.Contains(string(b), `"language": `) || strings.Contains(string(b), "nosuch") {
 		t.Errorf("session file after restore:\n%s", b)
+
+// N on a compact network shows its elements and its reduction (it once
+// said the network had no elements), and opens the newest network.
+func TestNetworkViewCompact(t *testing.T) {
+	m := newModel(t, Options{})
+	for _, l := range []string{"resistor R1 = 10 Ω", "inductor L1 = 10 mH", "resistor R2 = 4.7 Ω", "capacitor C1 = 100 µF",
+		"network ckt = R1 + (L1 || (R2 + C1)) fed by 24 V"} {
+		typeLine(t, m, l)
+	}
+	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
+	press(m, "N")
+	if m.mode != modeNet || m.net.name != "ckt" {
+		t.Fatalf("N: mode %s, message %q", m.mode, m.msg)
+	}
+	v := m.View()
+	for _, want := range []string{"compact form", "R1", "L1", "R2", "C1", "source", "0 of"} {
+		if !strings.Contains(v, want) {
+			t.Errorf("compact network view lacks %q:\n%s", want, v)
+		}
+	}
+	if strings.Contains(v, "no elements") {
+		t.Errorf("compact network said to have no elements:\n%s", v)
+	}
+	press(m, "right")
+	if !strings.Contains(m.View(), "Zeq1") {
+		t.Errorf("first step names no equivalent:\n%s", m.View())
 	}
 }
 

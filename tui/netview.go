@@ -7,7 +7,7 @@ import (
 	"strings"
 
 	"argand/calc"
-	"argand/reduce"
+
 	"argand/reduce/sheet"
 
 	"github.com/charmbracelet/bubbles/key"
@@ -17,55 +17,38 @@ import (
 
 // netView shows one network of the worksheet: its elements and nodes, its
 // reduction one combination at a time with the parts combined picked out,
-// and every element's voltage, current and power.
+// and every element's voltage, current and power. The worksheet hands it
+// the network and its reduction as structure; the view only draws them.
 type netView struct {
-	name  string
-	net   *reduce.Network
-	red   *reduce.Reduction
-	why   string // why there is no step-by-step reduction
-	step  int    // merges shown: 0 is the network as drawn
-	sel   int    // selected element
-	nodes []string
+	name string
+	v    *sheet.NetworkView
+	step int // steps shown: 0 is the network as drawn
+	sel  int // selected element
 }
 
-// openNet opens the named network, or the first one.
+// openNet opens the named network, or the newest one.
 func (m *Model) openNet(name string) {
-	infos := m.s.sh.Networks()
-	if len(infos) == 0 {
+	names := m.s.sh.NetworkNames()
+	if len(names) == 0 {
 		m.note(true, "no networks in this worksheet: type network NAME reference NODE, its elements, then end (argand help networks)")
 		return
 	}
 	if name == "" {
-		name = infos[0].Name
-		if m.net != nil {
-			name = m.net.name
-		}
+		name = names[len(names)-1]
 	}
-	net, err := m.s.sh.Network(name)
+	v, err := m.s.sh.NetworkView(name)
 	if err != nil {
 		m.note(true, err.Error())
 		return
 	}
-	nv := &netView{name: name, net: net}
-	red, err := reduce.ReduceNetwork(net, m.s.sh.Settings().Basis)
-	if err != nil {
-		nv.why = err.Error()
-	} else {
-		nv.red = red
+	if len(v.Elements) == 0 {
+		m.note(true, "network "+name+" has no elements")
+		return
 	}
-	seen := map[string]bool{}
-	for _, e := range net.Elements {
-		for _, n := range []string{e.From, e.To} {
-			if !seen[n] {
-				seen[n] = true
-				nv.nodes = append(nv.nodes, n)
-			}
-		}
-	}
-	sort.Strings(nv.nodes)
+	nv := &netView{name: name, v: v}
 	if m.net != nil && m.net.name == name {
 		nv.step = min(m.net.step, nv.steps())
-		nv.sel = min(m.net.sel, len(net.Elements)-1)
+		nv.sel = min(m.net.sel, len(v.Elements)-1)
 	}
 	m.net = nv
 	m.mode = modeNet
@@ -74,69 +57,37 @@ func (m *Model) openNet(name string) {
 
 // steps counts the steps shown: the reductions, then the work back to
 // every branch value, the powers and the balance.
-func (n *netView) steps() int {
-	if n.red == nil {
-		return 0
+func (n *netView) steps() int { return len(n.v.Steps) }
+
+// merge returns the merge step k (1-based) shows, or nil.
+func (n *netView) merge(k int) *sheet.ViewMerge {
+	if k < 1 || k > len(n.v.Steps) {
+		return nil
 	}
-	return len(n.red.Steps)
+	return n.v.Steps[k-1].Merge
 }
 
-// merged counts the merges done by step k.
-func (n *netView) merged(k int) int {
-	c := 0
-	for _, mg := range n.red.Merges {
-		if mg.Step < k {
-			c++
-		}
-	}
-	return c
-}
-
-// hot returns the elements step k (1-based) works on: the parts a merge
-// combines, or the element or equivalent whose values a step of the work
-// back finds (its results are named like V(Ra) or I(Zeq1)).
+// hot returns the elements step k (1-based) works on.
 func (n *netView) hot(k int) map[string]bool {
 	out := map[string]bool{}
-	if n.red == nil || k < 1 || k > len(n.red.Steps) {
+	if k < 1 || k > len(n.v.Steps) {
 		return out
 	}
-	eq := map[string][]string{}
-	for _, mg := range n.red.Merges {
-		eq[mg.Name] = mg.Elements
-		if mg.Step == k-1 {
-			for _, e := range mg.Elements {
-				out[e] = true
-			}
-			return out
-		}
-	}
-	for _, r := range n.red.Steps[k-1].Results {
-		name := r.Name
-		if i := strings.IndexByte(name, '('); i >= 0 && strings.HasSuffix(name, ")") {
-			name = name[i+1 : len(name)-1]
-		}
-		if els, ok := eq[name]; ok {
-			for _, e := range els {
-				out[e] = true
-			}
-		} else {
-			out[name] = true
-		}
+	for _, e := range n.v.Steps[k-1].Hot {
+		out[e] = true
 	}
 	return out
 }
 
 // within returns, for each element, the newest equivalent it has become
-// part of after the first k merges.
+// part of in the first k steps.
 func (n *netView) within(k int) map[string]string {
 	out := map[string]string{}
-	if n.red == nil {
-		return out
-	}
-	for i := 0; i < k && i < len(n.red.Merges); i++ {
-		mg := n.red.Merges[i]
-		for _, e := range mg.Elements {
-			out[e] = mg.Name
+	for i := 0; i < k && i < len(n.v.Steps); i++ {
+		if mg := n.v.Steps[i].Merge; mg != nil {
+			for _, e := range mg.Elements {
+				out[e] = mg.Name
+			}
 		}
 	}
 	return out
@@ -145,11 +96,11 @@ func (n *netView) within(k int) map[string]string {
 func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 	km := m.keys
 	n := m.net
-	elem := func() (reduce.Element, bool) {
-		if n.sel < 0 || n.sel >= len(n.net.Elements) {
-			return reduce.Element{}, false
+	elem := func() (sheet.ViewElement, bool) {
+		if n.sel < 0 || n.sel >= len(n.v.Elements) {
+			return sheet.ViewElement{}, false
 		}
-		return n.net.Elements[n.sel], true
+		return n.v.Elements[n.sel], true
 	}
 	take := func(suffix, letter, what string) {
 		e, ok := elem()
@@ -173,7 +124,7 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 	case key.Matches(k, km.NetUp):
 		n.sel = max(0, n.sel-1)
 	case key.Matches(k, km.NetDown):
-		n.sel = min(len(n.net.Elements)-1, n.sel+1)
+		n.sel = min(len(n.v.Elements)-1, n.sel+1)
 	case key.Matches(k, km.StepOn):
 		if n.step < n.steps() {
 			n.step++
@@ -193,15 +144,19 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 	case key.Matches(k, km.TakeS):
 		take("s", "s", "complex power")
 	case key.Matches(k, km.NetThev):
-		a, b := "", n.net.Reference
-		for _, x := range n.nodes {
+		if n.v.Compact != "" {
+			m.note(true, "network "+n.name+" is a compact form and has no named nodes: a Thevenin equivalent needs a node block")
+			break
+		}
+		a, b := "", n.v.Reference
+		for _, x := range n.v.Nodes {
 			if x != b {
 				a = x
 			}
 		}
 		def, _ := m.newName("0 V")
 		def = "T" + strings.TrimPrefix(def, "V")
-		m.startAsk("Thevenin equivalent of "+n.name+" between two nodes ("+strings.Join(n.nodes, " ")+")",
+		m.startAsk("Thevenin equivalent of "+n.name+" between two nodes ("+strings.Join(n.v.Nodes, " ")+")",
 			[]question{{label: "first node", def: a}, {label: "second node", def: b}, {label: "name", def: def}},
 			func(ans []string) {
 				st := "thevenin " + ans[2] + " = " + n.name + " between " + ans[0] + " and " + ans[1]
@@ -220,9 +175,8 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 			})
 		m.back = modeNet
 	case key.Matches(k, km.NetNext):
-		infos := m.s.sh.Networks()
-		i := slices.IndexFunc(infos, func(x sheet.NetworkInfo) bool { return x.Name == n.name })
-		next := infos[(i+1)%len(infos)].Name
+		names := m.s.sh.NetworkNames()
+		next := names[(slices.Index(names, n.name)+1)%len(names)]
 		m.net = nil
 		m.openNet(next)
 	case key.Matches(k, km.NetClip):
@@ -230,7 +184,7 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 		if !ok {
 			break
 		}
-		return m.copyCmd(e.Name+"'s values", m.branchText(e.Name, true))
+		return m.copyCmd(e.Name+"'s values", m.branchText(e, true))
 	case key.Matches(k, km.NetClose):
 		m.mode = modeRows
 		m.note(false, "")
@@ -244,131 +198,90 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 }
 
 // branchText is an element's solved values as text.
-func (m *Model) branchText(name string, both bool) string {
-	f := m.format()
-	var parts []string
-	for _, x := range []string{"v", "i", "s"} {
-		if q, ok := m.s.sh.Lookup(m.net.name + "." + name + "." + x); ok {
-			v := f.Polar(q)
-			if both {
-				v = f.Both(q, m.s.v.PolarFirst)
-			}
-			parts = append(parts, strings.ToUpper(x)+" = "+v)
-		}
-	}
-	return name + ": " + strings.Join(parts, "; ")
+func (m *Model) branchText(e sheet.ViewElement, both bool) string {
+	return e.Name + ": " + m.branchValues(e, both)
 }
 
-// netPane draws the network view in w × h cells.
+// branchValues is an element's voltage, current and power as text.
+func (m *Model) branchValues(e sheet.ViewElement, both bool) string {
+	if !e.Solved {
+		return "no solution (the network has no source)"
+	}
+	f := m.format()
+	var parts []string
+	for _, x := range []struct {
+		l string
+		q calc.Quantity
+	}{{"V", e.V}, {"I", e.I}, {"S", e.S}} {
+		v := f.Polar(x.q)
+		if both {
+			v = f.Both(x.q, m.s.v.PolarFirst)
+		}
+		parts = append(parts, x.l+" = "+v)
+	}
+	return strings.Join(parts, "; ")
+}
+
+// netCols are the widths of the network table's columns; a width of 0
+// leaves the column out.
+type netCols struct{ name, kind, nodes, value, in, v, i int }
+
+// netColumns chooses the columns for w cells. Below 100 columns the kind
+// and the component value give way (the value is on the line under the
+// table for the selected element), and a narrow column names the
+// equivalent an element has become part of, so that voltage, current and
+// power keep their angles at 80 columns.
+func netColumns(w int, compact bool) netCols {
+	c := netCols{name: 7, kind: 9, nodes: 8, value: 14, v: 18, i: 18}
+	if w < 100 {
+		c = netCols{name: 7, nodes: 7, in: 4, v: 18, i: 18}
+	}
+	if compact {
+		c.name += c.nodes
+		c.nodes = 0
+	}
+	return c
+}
+
+// row lays out one line of the table from its cells; value is the
+// component value or the equivalent the element is in, eq that
+// equivalent alone.
+func (c netCols) row(name, kind, nodes, value, eq, v, i, s string) string {
+	line := pad(name, c.name) + " "
+	for _, x := range []struct {
+		w    int
+		text string
+	}{{c.kind, kind}, {c.nodes, nodes}, {c.value, value}, {c.in, eq}} {
+		if x.w > 0 {
+			line += pad(x.text, x.w) + " "
+		}
+	}
+	return line + pad(v, c.v) + " " + pad(i, c.i) + " " + s
+}
+
+// netPane draws the network view in w × h cells: the element table, the
+// selected element's values, and the reduction step shown.
 func (m *Model) netPane(w, h int) []string {
 	n := m.net
-	f := m.format()
+	kind := "node block, reference " + n.v.Reference + ", nodes " + strings.Join(n.v.Nodes, " ")
+	if n.v.Compact != "" {
+		kind = "compact form " + n.v.Compact
+	}
 	out := make([]string, 0, h)
-	kind := "node block"
-	for _, in := range m.s.sh.Networks() {
-		if in.Name == n.name && in.Compact != "" {
-			kind = "compact form " + in.Compact
-		}
-	}
-	info := fmt.Sprintf("%s, reference %s, nodes %s", kind, n.net.Reference, strings.Join(n.nodes, " "))
-	out = append(out, m.th.section(m.tr("network "+n.name), m.tr(info), w))
-	within := map[string]string{}
-	var cur *reduce.Merge
-	if n.red != nil && n.step > 0 {
-		done := n.merged(n.step)
-		within = n.within(done)
-		if done > 0 && n.red.Merges[done-1].Step == n.step-1 {
-			cur = &n.red.Merges[done-1]
-		}
-	}
-	hot := n.hot(n.step)
-	// below 100 columns the kind gives way, so that voltage and current
-	// keep their angles (the value's unit tells the kind)
-	wide := w >= 100
-	head := fmt.Sprintf("   %-7s %-8s %-14s %-18s %-18s %s", "element", "nodes", "value", "voltage", "current", "power")
-	if wide {
-		head = fmt.Sprintf("   %-7s %-9s %-8s %-14s %-18s %-18s %s", "element", "kind", "nodes", "value", "voltage", "current", "power")
-	}
-	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
+	out = append(out, m.th.section(m.tr("network "+n.name), m.tr(kind), w))
+	cols := netColumns(w, n.v.Compact != "")
+	out = append(out, m.th.dim.Render(fit(m.tr("   "+cols.row("element", "kind", "nodes", "value", "in", "voltage", "current", "power")), w)))
 	// leave room for the reduction step below the element table
-	listH := max(3, min(len(n.net.Elements), h-2-8))
-	top := max(0, min(n.sel-listH/2, len(n.net.Elements)-listH))
-	for i := top; i < len(n.net.Elements) && i < top+listH; i++ {
-		e := n.net.Elements[i]
-		sel := " "
-		if i == n.sel {
-			sel = m.th.g.sel
-		}
-		hi := "  "
-		if hot[e.Name] {
-			hi = m.th.g.hi
-			if ansi.StringWidth(hi) < 2 {
-				hi += " "
-			}
-		}
-		val := elementValue(f, e)
-		if eq := within[e.Name]; eq != "" {
-			val = "in " + eq
-			if cur != nil && hot[e.Name] {
-				val = "→ " + eq
-			}
-		}
-		get := func(x string) string {
-			if q, ok := m.s.sh.Lookup(n.name + "." + e.Name + "." + x); ok {
-				return f.Polar(q)
-			}
-			return "-"
-		}
-		kw := ""
-		if wide {
-			kw = pad(kindWord(e.Kind), 9) + " "
-		}
-		line := sel + hi + pad(e.Name, 7) + " " + kw + pad(e.From+m.th.g.arrow+e.To, 8) + " " +
-			pad(m.tr(val), 14) + " " + pad(get("v"), 18) + " " + pad(get("i"), 18) + " " + get("s")
-		line = fit(m.tr(line), w)
-		switch {
-		case i == n.sel:
-			line = m.th.sel.Render(pad(line, w))
-		case hot[e.Name]:
-			line = m.th.hi.Render(line)
-		}
-		out = append(out, line)
-	}
+	listH := max(3, min(len(n.v.Elements), h-2-8))
+	out = append(out, m.netRows(cols, w, listH)...)
 	for len(out) < 2+listH {
 		out = append(out, "")
 	}
-	if n.sel >= 0 && n.sel < len(n.net.Elements) {
-		out = append(out, fit(m.tr(m.th.g.sel+" "+m.branchText(n.net.Elements[n.sel].Name, false)), w))
+	if n.sel >= 0 && n.sel < len(n.v.Elements) {
+		e := n.v.Elements[n.sel]
+		out = append(out, fit(m.tr(m.th.g.sel+" "+e.Name+" "+kindWord(e.Kind)+" "+e.ValueText(m.format())+"  "+m.branchValues(e, false)), w))
 	}
-	// the reduction step
-	title := "reduction"
-	var body []string
-	switch {
-	case n.red == nil:
-		title = "no step-by-step reduction"
-		body = append(body, n.why, "The values above come from the nodal solution of the worksheet.")
-	case n.step == 0:
-		title = fmt.Sprintf("reduction: the network as drawn (0 of %d steps)", n.steps())
-		body = append(body, fmt.Sprintf("→ combines parts one step at a time (%d reductions), then works back to every branch.", len(n.red.Merges)),
-			"The source sees "+f.Both(n.red.Z, false)+".")
-	default:
-		st := n.red.Steps[n.step-1]
-		if cur != nil {
-			title = fmt.Sprintf("reduction step %d of %d", n.step, n.steps())
-			body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", m.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), m.th.g.hi))
-		} else {
-			title = fmt.Sprintf("working back, step %d of %d", n.step, n.steps())
-			var names []string
-			for x := range hot {
-				names = append(names, x)
-			}
-			sort.Strings(names)
-			if len(names) > 0 {
-				body = append(body, fmt.Sprintf("%s %s (marked %s above)", m.th.g.hi, strings.Join(names, ", "), m.th.g.hi))
-			}
-		}
-		body = append(body, strings.Split(strings.TrimRight(st.Text(f, m.s.v.PolarFirst), "\n"), "\n")[1:]...)
-	}
+	title, body := m.netStep()
 	out = append(out, m.th.section(title, "", w))
 	for _, b := range body {
 		if len(out) >= h {
@@ -382,30 +295,93 @@ func (m *Model) netPane(w, h int) []string {
 	return out[:h]
 }
 
-// kindWord names an element kind in at most nine cells.
-func kindWord(k reduce.ElementKind) string {
-	switch k {
-	case reduce.VoltageSource:
-		return "V source"
-	case reduce.CurrentSource:
-		return "I source"
+// netRows draws the rows of the element table around the selection.
+func (m *Model) netRows(cols netCols, w, listH int) []string {
+	n := m.net
+	f := m.format()
+	within := n.within(n.step)
+	cur := n.merge(n.step)
+	hot := n.hot(n.step)
+	var out []string
+	top := max(0, min(n.sel-listH/2, len(n.v.Elements)-listH))
+	for i := top; i < len(n.v.Elements) && i < top+listH; i++ {
+		e := n.v.Elements[i]
+		sel, hi := " ", "  "
+		if i == n.sel {
+			sel = m.th.g.sel
+		}
+		if hot[e.Name] {
+			hi = m.th.g.hi
+			if ansi.StringWidth(hi) < 2 {
+				hi += " "
+			}
+		}
+		val, eq := e.ValueText(f), within[e.Name]
+		if eq != "" {
+			val = "in " + eq
+			if cur != nil && hot[e.Name] {
+				val = "→ " + eq
+			}
+		}
+		v, c, s := "-", "-", "-"
+		if e.Solved {
+			v, c, s = f.Polar(e.V), f.Polar(e.I), f.Polar(e.S)
+		}
+		line := fit(m.tr(sel+hi+cols.row(e.Name, kindWord(e.Kind), e.From+m.th.g.arrow+e.To, val, eq, v, c, s)), w)
+		switch {
+		case i == n.sel:
+			line = m.th.sel.Render(pad(line, w))
+		case hot[e.Name]:
+			line = m.th.hi.Render(line)
+		}
+		out = append(out, line)
 	}
-	return k.String()
+	return out
 }
 
-// elementValue writes an element's component value.
-func elementValue(f calc.Format, e reduce.Element) string {
-	switch e.Kind {
-	case reduce.Resistor:
-		return f.Mag(real(e.Raw), calc.DimImpedance, 0)
-	case reduce.Inductor:
-		return f.Mag(real(e.Raw), calc.DimInductance, 0)
-	case reduce.Capacitor:
-		return f.Mag(real(e.Raw), calc.DimCapacitance, 0)
-	case reduce.VoltageSource:
-		return f.Polar(calc.Q(e.Value, calc.DimVoltage))
-	case reduce.CurrentSource:
-		return f.Polar(calc.Q(e.Value, calc.DimCurrent))
+// netStep returns the title and lines of the reduction step shown.
+func (m *Model) netStep() (string, []string) {
+	n := m.net
+	f := m.format()
+	switch {
+	case len(n.v.Steps) == 0:
+		return "no step-by-step reduction", []string{n.v.Why, "The values above come from the nodal solution of the worksheet."}
+	case n.step == 0:
+		merges := 0
+		for _, st := range n.v.Steps {
+			if st.Merge != nil {
+				merges++
+			}
+		}
+		return fmt.Sprintf("reduction: the network as drawn (0 of %d steps)", n.steps()),
+			[]string{fmt.Sprintf("→ combines parts one step at a time (%d reductions), then works back to every branch.", merges),
+				"The source sees " + f.Both(n.v.Z, false) + "."}
 	}
-	return f.Rect(calc.Q(e.Z, calc.DimImpedance))
+	st := n.v.Steps[n.step-1]
+	var title string
+	var body []string
+	if cur := st.Merge; cur != nil {
+		title = fmt.Sprintf("reduction step %d of %d", n.step, n.steps())
+		body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", m.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), m.th.g.hi))
+	} else {
+		title = fmt.Sprintf("working back, step %d of %d", n.step, n.steps())
+		names := slices.Clone(st.Hot)
+		sort.Strings(names)
+		if len(names) > 0 {
+			body = append(body, fmt.Sprintf("%s %s (marked %s above)", m.th.g.hi, strings.Join(names, ", "), m.th.g.hi))
+		}
+	}
+	body = append(body, strings.Split(strings.TrimRight(st.Step.Text(f, m.s.v.PolarFirst), "\n"), "\n")[1:]...)
+	return title, body
+}
+
+// kindWord names an element kind in at most nine cells.
+func kindWord(k string) string {
+	switch k {
+	case "voltage source":
+		return "V source"
+	case "current source":
+		return "I source"
+	}
+	return k
 }

@@ -34,10 +34,11 @@ func (s *Sheet) compactNetwork(p *calc.Parser, name string) error {
 	if err := p.Err(); err != nil {
 		return err
 	}
-	if _, err := s.spTree(p, e, 0); err != nil {
+	tree, err := s.spTree(p, e, 0)
+	if err != nil {
 		return err
 	}
-	nw := &network{name: name, line: s.line, compact: e, src: p.Source(), feed: feed, deps: map[string]bool{"f": true}}
+	nw := &network{name: name, line: s.line, compact: e, tree: tree, src: p.Source(), feed: feed, deps: map[string]bool{"f": true}}
 	for k := range depsOf(e) {
 		nw.deps[k] = true
 	}
@@ -125,11 +126,7 @@ func (s *Sheet) spTree(p *calc.Parser, e calc.Expr, depth int) (*reduce.SPNode, 
 // solveCompact reduces a compact network step by step and, when it is fed,
 // works back to every element's voltage, current and power.
 func (s *Sheet) solveCompact(nw *network, reason string) error {
-	p := s.parser(nw.src, nw.line)
-	tree, err := s.spTree(p, nw.compact, 0)
-	if err != nil {
-		return err
-	}
+	tree := nw.tree
 	z := map[string]complex128{}
 	for _, n := range tree.Elements() {
 		z[n] = s.byName[n].value.V
@@ -164,7 +161,9 @@ func (s *Sheet) solveCompact(nw *network, reason string) error {
 			last = max(last, m.Step)
 		}
 		steps = steps[:last+1]
+		red.Steps, red.Subjects = steps, red.Subjects[:last+1]
 	}
+	nw.red, nw.why = red, ""
 	if len(steps) > 0 {
 		steps[0].Notes = append(steps[0].Notes, reason)
 	}
@@ -185,7 +184,7 @@ func (s *Sheet) solveCompact(nw *network, reason string) error {
 
 // spSteps reduces a node network step by step when it is series-parallel
 // with one source, and otherwise says why the nodal solution is used.
-func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, bool) {
+func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, *reduce.Reduction, string) {
 	sources := 0
 	for _, e := range net.Elements {
 		if e.Kind.IsSource() {
@@ -194,7 +193,8 @@ func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, bool) {
 	}
 	if sources != 1 {
 		return []calc.Step{{Kind: "method", Source: "network " + net.Name,
-			Rule: fmt.Sprintf("%d sources: superposition is not stepped; the network is solved by modified nodal analysis", sources)}}, false
+			Rule: fmt.Sprintf("%d sources: superposition is not stepped; the network is solved by modified nodal analysis", sources)}}, nil,
+			fmt.Sprintf("%d sources: the values come from the nodal solution", sources)
 	}
 	red, err := reduce.ReduceNetwork(net, s.ctx.Basis)
 	if err != nil {
@@ -210,7 +210,7 @@ func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, bool) {
 		} else {
 			st.Rule = "series-parallel stepping not possible (" + err.Error() + "): solved by modified nodal analysis"
 		}
-		return []calc.Step{st}, false
+		return []calc.Step{st}, nil, err.Error()
 	}
-	return red.Steps, true
+	return red.Steps, red, ""
 }

@@ -25,6 +25,12 @@ type network struct {
 	sol     *nodal.Solution
 	results []string  // names this network defined
 	tri     *triangle // a network derived by a Δ–Y conversion
+	// tree is a compact network's series-parallel form, read once when
+	// it is defined; red is the reduction of the latest solution, kept
+	// for the app's view of the network, or why says why there is none.
+	tree *reduce.SPNode
+	red  *reduce.Reduction
+	why  string
 	// A working copy that evaluates samples keeps one built network and
 	// changes only its values: solver holds it, elemDefs the definitions
 	// its elements come from and resultDefs those its results go to, in
@@ -125,27 +131,18 @@ func (s *Sheet) stmtNetwork(p *calc.Parser) error {
 	return nil
 }
 
-// blockLine runs a line inside an open network block.
-func (s *Sheet) blockLine(p *calc.Parser, first calc.Item) error {
-	if first.Tok == calc.TokIdent {
-		switch first.Text {
-		case "end":
-			p.Next()
-			p.ExpectEnd()
-			if err := p.Err(); err != nil {
-				return err
-			}
-			return s.closeNetwork(p)
-		case "resistor", "inductor", "capacitor", "impedance":
-			return s.stmtElement(p, s.open)
-		case "voltage", "current":
-			if s.isSourceStmt(p.Source()) {
-				return s.stmtElement(p, s.open)
-			}
-		}
+// closeBlock runs end: the open network block is closed and solved.
+func (s *Sheet) closeBlock(p *calc.Parser) error {
+	if s.open == nil {
+		p.Failf(p.Next(), "'end' without an open network block")
+		return p.Err()
 	}
-	p.Failf(first, "inside network %s a line is an element (resistor, inductor, capacitor, impedance, voltage source, current source NAME = value from NODE to NODE) or end", s.open.name)
-	return p.Err()
+	p.Next()
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return err
+	}
+	return s.closeNetwork(p)
 }
 
 func (s *Sheet) closeNetwork(p *calc.Parser) error {
@@ -248,7 +245,9 @@ func (s *Sheet) solve(nw *network, reason string) error {
 		s.defineSolution(nw, sol)
 		return nil
 	}
-	sp, stepped := s.spSteps(net)
+	sp, red, why := s.spSteps(net)
+	nw.red, nw.why = red, why
+	stepped := red != nil
 	steps := append(pre, sp...)
 	for _, st := range sol.Steps(s.ctx.Format) {
 		// a network reduced step by step has its element table already
