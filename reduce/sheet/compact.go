@@ -193,7 +193,7 @@ func (s *Sheet) spSteps(net *reduce.Network) ([]calc.Step, *reduce.Reduction, st
 	}
 	if sources != 1 {
 		return []calc.Step{{Kind: "method", Source: "network " + net.Name,
-			Rule: fmt.Sprintf("%d sources: superposition is not stepped; the network is solved by modified nodal analysis", sources)}}, nil,
+				Rule: fmt.Sprintf("%d sources: superposition is not stepped; the network is solved by modified nodal analysis", sources)}}, nil,
 			fmt.Sprintf("%d sources: the values come from the nodal solution", sources)
 	}
 	red, err := reduce.ReduceNetwork(net, s.ctx.Basis)
