@@ -214,7 +214,7 @@ var builtins = [...]Func{
 			if err := needDim("omega", a, DimFrequency, "a frequency"); err != nil {
 				return Quantity{}, err
 			}
-			return Quantity{V: 2 * math.Pi * a.V, Dim: DimAngularFrequency, Kind: KindAngle}.Check("omega")
+			return Quantity{V: complex(Context{Freq: real(a.V)}.Omega(), 0), Dim: DimAngularFrequency, Kind: KindAngle}.Check("omega")
 		})},
 	{Name: "zr", Params: []Param{{Name: "R", Kind: ParamResistance}}, Args: "(R)", Doc: "impedance of a resistor", Formula: "Z = R", Min: 1, Max: 1,
 		Call: one(func(c *Context, a Quantity) (Quantity, error) {
@@ -241,7 +241,7 @@ var builtins = [...]Func{
 
 // InductorZ returns jωL at frequency f in Hz (X_L = ωL, common practice).
 func InductorZ(l complex128, f float64) (Quantity, error) {
-	w := 2 * math.Pi * f
+	w := Context{Freq: f}.Omega()
 	return Quantity{V: complex(0, w) * l, Dim: DimImpedance}.Check("inductor impedance")
 }
 
@@ -251,7 +251,7 @@ func CapacitorZ(c complex128, f float64) (Quantity, error) {
 	if c == 0 {
 		return Quantity{}, openCircuit("a capacitance of 0 F is an open circuit: its impedance is infinite")
 	}
-	w := 2 * math.Pi * f
+	w := Context{Freq: f}.Omega()
 	return Quantity{V: 1 / (complex(0, w) * c), Dim: DimImpedance}.Check("capacitor impedance")
 }
 

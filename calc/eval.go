@@ -24,8 +24,9 @@ type Evaluator struct {
 	Src  string
 	Line int
 	// Steps collects the steps of function calls met on the way.
-	Steps []Step
-	Notes []string
+	Steps    []Step
+	Notes    []string
+	Cautions []StepCaution
 	// Since is the newest language version whose reading the evaluation
 	// used (a part value turned into its impedance), 0 if none.
 	Since int
@@ -42,14 +43,16 @@ func (ev *Evaluator) Eval(e Expr) (Result, *Error) {
 		r.Steps = append(ev.Steps, r.Steps...)
 		ev.Steps = nil
 		r.Notes = append(ev.Notes, r.Notes...)
+		r.Cautions = append(ev.Cautions, r.Cautions...)
+		ev.Notes, ev.Cautions = nil, nil
 		return r, nil
 	}
 	q, err := ev.eval(e)
 	if err != nil {
 		return Result{}, err
 	}
-	r := Result{Value: q, Steps: ev.Steps, Notes: append(ev.Notes, ev.kindNotes(e, q)...)}
-	ev.Steps, ev.Notes = nil, nil
+	r := Result{Value: q, Steps: ev.Steps, Notes: append(ev.Notes, ev.kindNotes(e, q)...), Cautions: ev.Cautions}
+	ev.Steps, ev.Notes, ev.Cautions = nil, nil, nil
 	return r, nil
 }
 
@@ -289,6 +292,7 @@ func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
 		}
 		ev.Steps = append(ev.Steps, r.Steps...)
 		ev.Notes = append(ev.Notes, r.Notes...)
+		ev.Cautions = append(ev.Cautions, r.Cautions...)
 		return r.Value, nil
 	}
 	return Quantity{}, ev.errAt(e, fmt.Errorf("cannot evaluate this expression"))

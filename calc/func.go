@@ -1,5 +1,7 @@
 package calc
 
+import "math"
+
 // Context carries the worksheet settings a function may need. Functions
 // read it; only the worksheet interpreter changes it.
 type Context struct {
@@ -18,8 +20,14 @@ func (c *Context) BareAngle(x float64) float64 {
 	return x * 3.141592653589793 / 180
 }
 
-// Omega returns the working angular frequency ω = 2π·f in rad/s.
-func (c *Context) Omega() float64 { return 2 * 3.141592653589793 * c.Freq }
+// Omega returns the working angular frequency ω = 2π·f in rad/s. It is
+// the one place the worksheet turns cycles into radians: every ω of a
+// frequency comes from here.
+func (c Context) Omega() float64 { return 2 * math.Pi * c.Freq }
+
+// HzOf returns the frequency in Hz of an angular frequency in rad/s, the
+// inverse of Omega.
+func HzOf(w float64) float64 { return w / (2 * math.Pi) }
 
 // Arg is one argument of a function call: a quantity, or a word from the
 // function's Words list (such as "lagging" or "delta") written bare.
@@ -37,7 +45,10 @@ type Result struct {
 	Value Quantity
 	Extra []Operand
 	Steps []Step
-	Notes []string // cautions and remarks added to the call's own step
+	Notes []string // remarks added to the call's own step
+	// Cautions are the safety topics of the result, added to the call's
+	// own step.
+	Cautions []StepCaution
 }
 
 // Func is a function callable from an expression.

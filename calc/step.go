@@ -66,8 +66,11 @@ type Step struct {
 	Results []Operand // the first is the main result
 	Rows    []Row
 	Basis   Basis
-	Notes   []string // warnings and cautions
-	Check   *CheckOutcome
+	Notes   []string // warnings and remarks
+	// Cautions are the safety topics of the result, each shown whole the
+	// first time in a session and in one line after.
+	Cautions []StepCaution
+	Check    *CheckOutcome
 }
 
 // Result returns the main result and whether there is one.
@@ -192,6 +195,7 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		n = strings.TrimRight(n, "\n")
 		b.WriteString("    note: " + strings.ReplaceAll(tr(n), "\n", "\n      ") + "\n")
 	}
+	b.WriteString(s.cautionText(tr))
 	out := Printable(b.String())
 	if f.ASCII {
 		out = strings.ReplaceAll(out, "→", "->")
@@ -341,6 +345,16 @@ func (s *Step) JSON() string {
 		}
 		b.WriteString(`,"compared":` + jsonString(compared))
 	}
+	if len(s.Cautions) > 0 {
+		b.WriteString(`,"cautions":[`)
+		for i, c := range s.Cautions {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			b.WriteString(`{"topic":` + jsonString(c.Topic.String()) + `,"text":` + jsonString(c.Shown()) + `}`)
+		}
+		b.WriteByte(']')
+	}
 	if len(s.Notes) > 0 {
 		b.WriteString(`,"notes":[`)
 		for i, n := range s.Notes {
@@ -358,4 +372,22 @@ func (s *Step) JSON() string {
 // ErrorJSON writes an error object: {"error":…, "line":…, "col":…}.
 func ErrorJSON(msg string, line, col int) string {
 	return `{"error":` + jsonString(msg) + `,"line":` + strconv.Itoa(line) + `,"col":` + strconv.Itoa(col) + `}`
+}
+
+// cautionText writes the step's cautions: each whole one on its own, the
+// one-line ones together on one line, so that a result stays in view.
+func (s *Step) cautionText(tr func(string) string) string {
+	var b strings.Builder
+	var lines []string
+	for _, c := range s.Cautions {
+		if c.Full {
+			b.WriteString("    caution: " + tr(c.Topic.Text()) + "\n")
+		} else {
+			lines = append(lines, c.Topic.Line())
+		}
+	}
+	if len(lines) > 0 {
+		b.WriteString("    caution: " + tr(strings.Join(lines, "; ")) + "\n")
+	}
+	return b.String()
 }

@@ -9,6 +9,8 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+
+	"argand/calc"
 )
 
 // ElementKind says what an element is. The kind is always given by a word
@@ -82,7 +84,7 @@ func (e Element) ImpedanceAt(freqHz float64) (complex128, error) {
 	if cmplx.IsNaN(e.Raw) || cmplx.IsInf(e.Raw) {
 		return 0, fmt.Errorf("%s: value is not a finite number", e.Name)
 	}
-	w := 2 * math.Pi * freqHz
+	w := calc.Context{Freq: freqHz}.Omega()
 	var z complex128
 	switch e.Kind {
 	case Resistor:

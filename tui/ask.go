@@ -6,7 +6,6 @@ import (
 	"strings"
 
 	"argand/calc"
-	"argand/tui/cli"
 	"argand/tui/clip"
 	"argand/tui/store"
 
@@ -14,9 +13,6 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 )
-
-// safetyText is the caution of shared DESIGN.md.
-const safetyText = cli.Safety
 
 // question is one thing asked: a role of an operation, a name, a file.
 type question struct {
@@ -367,7 +363,12 @@ func (m *Model) helpLines() []string {
 	}
 	out = append(out, "")
 	out = append(out, m.th.heading.Render("safety"))
-	out = append(out, wrapLine(strings.ReplaceAll(safetyText, "\n", " "), m.width, 0)...)
+	out = append(out, wrapLine(calc.SafetyText, m.width, 0)...)
+	for _, c := range calc.Cautions() {
+		if c != calc.CautionMains {
+			out = append(out, wrapLine(c.String()+": "+c.Text(), m.width, 2)...)
+		}
+	}
 	out = append(out, "")
 	out = append(out, wrapLine("Statements: see argand help language; functions: argand help functions.", m.width, 0)...)
 	for i := range out {

@@ -104,7 +104,7 @@ type Model struct {
 	msgErr bool
 	// caution of the last statement's steps, shown on one line in place
 	// of the outcome so that it is seen without scrolling the trail
-	caution string
+	caution calc.Caution
 
 	lockPath string // session held by another process, or not lockable
 	lockPID  int
@@ -410,7 +410,7 @@ func (m *Model) chooseLocked(readOnly bool) {
 func (m *Model) note(isErr bool, s string) {
 	m.msg = s
 	m.msgErr = isErr
-	m.caution = ""
+	m.caution = 0
 }
 
 // Init implements tea.Model.

@@ -13,8 +13,6 @@ import (
 	"testing"
 
 	"argand/calc"
-	"argand/reduce/power"
-	"argand/reduce/site"
 	"argand/tui/store"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -764,7 +762,7 @@ func TestCautionShown(t *testing.T) {
 		stmt, want string
 	}{
 		// power-factor correction carries the capacitor caution
-		{"Qc = pfc(10 kW, 0.7, 0.95, 400 V, three)", "caution: Capacitor banks"},
+		{"Qc = pfc(10 kW, 0.7, 0.95, 400 V, three)", "caution: " + calc.CautionCapacitor.Line()},
 		// a plain impedance carries none
 		{"Zplain = 5 Ω", ""},
 	}
@@ -795,19 +793,54 @@ func TestCautionShown(t *testing.T) {
 // TestCautionOf picks the particular caution before the general one.
 func TestCautionOf(t *testing.T) {
 	tests := []struct {
-		notes []string
-		want  string
+		topics []calc.Caution
+		want   calc.Caution
 	}{
-		{nil, ""},
-		{[]string{"largest KCL residual is small"}, ""},
-		{[]string{power.Caution}, power.Caution},
-		{[]string{power.Caution, site.CableCaution}, site.CableCaution},
-		{[]string{"Work here needs a qualified person."}, "Work here needs a qualified person."},
+		{nil, 0},
+		{[]calc.Caution{calc.CautionMains}, calc.CautionMains},
+		{[]calc.Caution{calc.CautionMains, calc.CautionCable}, calc.CautionCable},
+		{[]calc.Caution{calc.CautionFault, calc.CautionMains}, calc.CautionFault},
 	}
 	for _, tt := range tests {
-		if got := cautionOf([]calc.Step{{Notes: tt.notes}}); got != tt.want {
-			t.Errorf("cautionOf(%q) = %q, want %q", tt.notes, got, tt.want)
+		st := calc.Step{Notes: []string{"largest KCL residual is small"}, Cautions: calc.CautionsOf(tt.topics...)}
+		if got := cautionOf([]calc.Step{st}); got != tt.want {
+			t.Errorf("cautionOf(%v) = %v, want %v", tt.topics, got, tt.want)
 		}
+	}
+}
+
+// A caution's whole text is in the trail once per session for each topic;
+// later steps of that topic carry its one line, so the results stay in
+// the trail pane (they were pushed out by two paragraphs on every step).
+func TestCautionWholeOnce(t *testing.T) {
+	m := newModel(t, Options{})
+	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
+	whole := "Adding capacitance can create a harmonic resonance"
+	count := func() int {
+		n := 0
+		for _, st := range m.s.sh.Steps() {
+			n += strings.Count(st.Text(calc.Format{Digits: 4}, false), whole)
+		}
+		return n
+	}
+	typeLine(t, m, "Qa = pfc(10 kW, 0.7, 0.95, 400 V, three)")
+	if count() != 1 {
+		t.Fatalf("first correction: the whole capacitor caution appears %d times", count())
+	}
+	before := len(m.s.sh.Steps())
+	typeLine(t, m, "Qb = pfc(12 kW, 0.75, 0.95, 400 V, three)")
+	if count() != 1 {
+		t.Errorf("second correction repeated the whole caution (%d times)", count())
+	}
+	last := ""
+	for _, st := range m.s.sh.Steps()[before:] {
+		last += st.Text(calc.Format{Digits: 4}, false)
+	}
+	if !strings.Contains(last, calc.CautionCapacitor.Line()) {
+		t.Errorf("second correction lacks the one-line caution:\n%s", last)
+	}
+	if !strings.Contains(m.View(), "Qb") {
+		t.Errorf("result pushed out of view:\n%s", m.View())
 	}
 }
 

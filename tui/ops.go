@@ -8,10 +8,7 @@ import (
 	"strings"
 
 	"argand/calc"
-	"argand/reduce/power"
 	"argand/reduce/sheet"
-	"argand/reduce/site"
-	"argand/reduce/threephase"
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
@@ -123,41 +120,16 @@ func (m *Model) applied(what string, steps []calc.Step) {
 	m.caution = cautionOf(steps)
 }
 
-// cautions are the safety notes the worksheet's operations attach to
-// results that concern mains, capacitor banks, cables and faults.
-var cautions = []string{power.CapacitorCaution, site.CableCaution, site.FaultCaution,
-	power.Caution, threephase.Caution, site.Caution, safetyText}
-
-// isCaution reports whether a step's note is a safety caution: one of
-// cautions, or a note in their words (a caution of an operation added
-// later).
-func isCaution(n string) bool {
-	if slices.Contains(cautions, n) {
-		return true
-	}
-	for _, w := range []string{"qualified", "lethal", "local codes", "local electrical codes", "wiring rules"} {
-		if strings.Contains(n, w) {
-			return true
-		}
-	}
-	return false
-}
-
-// cautionOf returns the caution the steps carry, the one particular to
-// the work (capacitors, cables, faults) before the general one, or "".
-func cautionOf(steps []calc.Step) string {
-	general := ""
+// cautionOf returns the caution topic the steps carry, one particular to
+// the work (capacitors, cables, faults) before the general one, or 0.
+func cautionOf(steps []calc.Step) calc.Caution {
+	var general calc.Caution
 	for _, st := range steps {
-		for _, n := range st.Notes {
-			if !isCaution(n) {
-				continue
+		for _, c := range st.Cautions {
+			if c.Topic != calc.CautionMains {
+				return c.Topic
 			}
-			if n != power.Caution && n != threephase.Caution && n != site.Caution && n != safetyText {
-				return strings.Join(strings.Fields(n), " ")
-			}
-			if general == "" {
-				general = strings.Join(strings.Fields(n), " ")
-			}
+			general = c.Topic
 		}
 	}
 	return general
@@ -727,7 +699,7 @@ func (m *Model) trailMarkdown() string {
 		}
 		b.WriteString("\n")
 	}
-	b.WriteString("---\n\n" + strings.ReplaceAll(safetyText, "\n", " ") + "\n")
+	b.WriteString("---\n\n" + calc.SafetyText + "\n")
 	// a Markdown file is read on a terminal too
 	return calc.Printable(b.String())
 }

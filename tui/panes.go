@@ -43,7 +43,7 @@ func (m *Model) statusView() string {
 	}
 	parts := []string{
 		f.Mag(st.Freq, calc.DimFrequency, 0),
-		"ω " + f.Mag(2*math.Pi*st.Freq, calc.DimAngularFrequency, calc.KindAngle),
+		"ω " + f.Mag(calc.Context{Freq: st.Freq}.Omega(), calc.DimAngularFrequency, calc.KindAngle),
 		ang, strconv.Itoa(st.Digits) + " digits", basis, dec, first,
 	}
 	s := m.th.label.Render("argand") + "  "
@@ -249,23 +249,29 @@ func (t *trailView) build(m *Model, width int) {
 func stepLines(m *Model, st *calc.Step, f calc.Format, polar bool, width int) []trailLine {
 	c := *st
 	c.Notes = nil
-	text := strings.TrimRight(c.Text(f, polar), "\n")
+	var out []trailLine
+	wrapped := func(l string, head bool) {
+		l = m.tr(l)
+		for _, w := range wrapLine(l, width, hangIndent(l)) {
+			out = append(out, trailLine{text: w, head: head})
+		}
+	}
+	for j, l := range strings.Split(strings.TrimRight(c.Text(f, polar), "\n"), "\n") {
+		wrapped(l, j == 0)
+	}
 	for _, n := range st.Notes {
 		n = strings.TrimRight(n, "\n")
 		if f.ASCII {
 			n = calc.ASCIIText(n)
 		}
-		text += "\n    note: " + strings.ReplaceAll(n, "\n", "\n\x00      ")
-	}
-	var out []trailLine
-	for j, l := range strings.Split(text, "\n") {
-		if rest, ok := strings.CutPrefix(l, "\x00"); ok {
-			out = append(out, trailLine{text: m.tr(rest), pre: true})
+		first, rest, _ := strings.Cut(n, "\n")
+		wrapped("    note: "+first, false)
+		if rest == "" {
 			continue
 		}
-		l = m.tr(l)
-		for _, w := range wrapLine(l, width, hangIndent(l)) {
-			out = append(out, trailLine{text: w, head: j == 0})
+		// a note of several lines (a plot) keeps its shape
+		for _, l := range strings.Split(rest, "\n") {
+			out = append(out, trailLine{text: m.tr("      " + l), pre: true})
 		}
 	}
 	return out
@@ -461,7 +467,7 @@ func (m *Model) feedbackView() string {
 		}
 		return m.th.dim.Render(m.tr(m.ask.title))
 	}
-	if m.caution != "" && !m.msgErr {
+	if m.caution != 0 && !m.msgErr {
 		return m.th.err.Render(m.cautionLine())
 	}
 	ls := m.msgLines()
@@ -489,15 +495,16 @@ func (m *Model) msgLines() []string {
 	return wrapLine(s, m.width, 0)
 }
 
-// cautionSuffix tells where a caution cut to one line is read in full.
-const cautionSuffix = " (T shows it in full)"
+// cautionSuffix tells where a caution shown in one line is read whole:
+// the help screen has every caution's whole text.
+const cautionSuffix = " (? has it whole)"
 
 // cautionLine is the caution of the last statement on one line, cut to
 // the width with the way to read it in full always shown.
 func (m *Model) cautionLine() string {
 	head := "caution: "
 	room := m.width - ansi.StringWidth(head) - ansi.StringWidth(cautionSuffix)
-	return head + ansi.Truncate(m.tr(m.caution), max(1, room), "…") + cautionSuffix
+	return head + ansi.Truncate(m.tr(m.caution.Line()), max(1, room), "…") + cautionSuffix
 }
 
 // caret places the live parse error under the entry line: the column
@@ -544,7 +551,7 @@ func (m *Model) hintView() string {
 			// the message did not fit beside its caret: it has this line
 			return m.th.err.Render(msg)
 		}
-	} else if m.mode != modePrompt && (m.caution == "" || m.msgErr) {
+	} else if m.mode != modePrompt && (m.caution == 0 || m.msgErr) {
 		if ls := m.msgLines(); len(ls) > 1 {
 			// the rest of a long outcome has this line
 			if m.msgErr {

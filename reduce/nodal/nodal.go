@@ -36,12 +36,6 @@ const pivotTol = 1e-13
 // current is rounding noise and shown as 0.
 const noiseTol = 1e-13
 
-// caution is the safety text shown beside results that involve dangerous
-// voltages.
-const caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
-	"Work on energised or mains equipment only if qualified, under local electrical codes and licensed practice. " +
-	"Capacitors can hold a lethal charge after disconnection."
-
 // elvLimit is the upper bound of extra-low voltage for a.c., 50 V RMS
 // (IEC 60449 voltage band I, from memory). Above it the steps carry the
 // caution.
@@ -308,7 +302,7 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 		span /= math.Sqrt2
 	}
 	if span > elvLimit {
-		head.Notes = append(head.Notes, caution)
+		head.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
 	steps := []calc.Step{head}
 	direct := map[string]bool{}

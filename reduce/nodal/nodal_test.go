@@ -320,7 +320,7 @@ func TestCaution(t *testing.T) {
 			t.Fatal(err)
 		}
 		head := s.Steps(calc.Format{})[0]
-		got := strings.Contains(strings.Join(head.Notes, " "), "qualified person")
+		got := len(head.Cautions) == 1 && head.Cautions[0].Topic == calc.CautionMains
 		if got != tt.want {
 			t.Errorf("%v V %v: caution %v, want %v", tt.v, tt.basis, got, tt.want)
 		}

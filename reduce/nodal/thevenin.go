@@ -187,7 +187,7 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 		rms /= math.Sqrt2
 	}
 	if rms > elvLimit {
-		vst.Notes = append(vst.Notes, caution)
+		vst.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
 	eq.steps = []calc.Step{vst, zst}
 	if !eq.zZero {

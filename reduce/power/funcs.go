@@ -398,7 +398,7 @@ func callMotor(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	r := powerResult(m.Power, append(pre, steps...), source("motor", args))
 	r.Extra = append(r.Extra, calc.Operand{Name: "i", Value: m.Current}, calc.Operand{Name: "pin", Value: m.Input})
-	r.Notes = append(r.Notes, Caution)
+	r.Cautions = append(r.Cautions, calc.CautionsOf(calc.CautionMains)...)
 	return r, nil
 }
 
@@ -448,7 +448,7 @@ func callCurrent(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	r := calc.Result{Value: i, Steps: withSource(append(pre, steps...), source("current", args))}
 	if ph == ThreePhase {
-		r.Notes = []string{Caution}
+		r.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
 	return r, nil
 }
@@ -498,7 +498,7 @@ func correctionResult(c *calc.Context, fn string, args []calc.Arg, t Target, pre
 		Value: k.Qc,
 		Extra: extra,
 		Steps: withSource(append(pre, steps...), source(fn, args)),
-		Notes: k.Notes,
+		Notes: k.Notes, Cautions: k.Cautions,
 	}, nil
 }
 
@@ -588,7 +588,7 @@ func callRerate(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	return calc.Result{Value: q, Steps: withSource(steps, source("rerate", args)), Notes: steps[0].Notes}, nil
+	return calc.Result{Value: q, Steps: withSource(steps, source("rerate", args)), Notes: steps[0].Notes, Cautions: steps[0].Cautions}, nil
 }
 
 func callHarmonic(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -604,7 +604,7 @@ func callHarmonic(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	res := calc.Result{Value: number(r.Order), Steps: withSource(steps, source("harmonic", args)), Notes: steps[0].Notes}
+	res := calc.Result{Value: number(r.Order), Steps: withSource(steps, source("harmonic", args)), Notes: steps[0].Notes, Cautions: steps[0].Cautions}
 	if c != nil && c.Freq > 0 {
 		f, err := calc.Real(r.Order*c.Freq, calc.DimFrequency).Check("harmonic")
 		if err == nil {
@@ -635,7 +635,7 @@ func callDischarge(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	return calc.Result{Value: r, Steps: withSource(steps, source("discharge", args)), Notes: steps[0].Notes}, nil
+	return calc.Result{Value: r, Steps: withSource(steps, source("discharge", args)), Notes: steps[0].Notes, Cautions: steps[0].Cautions}, nil
 }
 
 func callDischargeTime(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -659,7 +659,7 @@ func callDischargeTime(_ *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
-	return calc.Result{Value: t, Steps: withSource(steps, source("dischargetime", args)), Notes: steps[0].Notes}, nil
+	return calc.Result{Value: t, Steps: withSource(steps, source("dischargetime", args)), Notes: steps[0].Notes, Cautions: steps[0].Cautions}, nil
 }
 
 // sineCall wraps one of the sinusoid conversions as a worksheet function

@@ -104,7 +104,7 @@ func TestFuncs(t *testing.T) {
 				t.Errorf("%s.%s = %v (%v), want %v", c.fn, k, got.V, ok, want)
 			}
 		}
-		if c.note != "" && !hasNote(r.Notes, c.note) && !hasNote(stepNotes(r), c.note) {
+		if c.note != "" && !hasNote(withCautions(r.Notes, r.Cautions), c.note) && !hasNote(stepNotes(r), c.note) {
 			t.Errorf("%s: no note with %q: %q", c.fn, c.note, r.Notes)
 		}
 		if len(r.Steps) == 0 {
@@ -121,7 +121,7 @@ func TestFuncs(t *testing.T) {
 func stepNotes(r calc.Result) []string {
 	var n []string
 	for _, s := range r.Steps {
-		n = append(n, s.Notes...)
+		n = append(n, withCautions(s.Notes, s.Cautions)...)
 	}
 	return n
 }
@@ -142,7 +142,7 @@ func TestFuncsPFCCaution(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", fn, err)
 		}
-		cautionsIn(t, fn, r.Notes)
+		cautionsIn(t, fn, withCautions(r.Notes, r.Cautions))
 	}
 }
 

@@ -34,8 +34,9 @@ type Correction struct {
 	I1, I2        calc.Quantity // line current before and after, A
 	// Reactor is the inductive reactive power that would reach the target
 	// when the load is more leading than the target, var; zero otherwise.
-	Reactor calc.Quantity
-	Notes   []string // the verdict in words and the cautions
+	Reactor  calc.Quantity
+	Notes    []string // the verdict in words
+	Cautions []calc.StepCaution
 }
 
 func varQ(x float64) calc.Quantity {
@@ -123,7 +124,7 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 	if _, err := c.Qc.Check("pfc"); err != nil {
 		return Correction{}, nil, fmt.Errorf("pfc: %w", err)
 	}
-	c.Notes = append([]string{verdict}, cautions()...)
+	c.Notes, c.Cautions = []string{verdict}, cautions()
 
 	tan1 := q1 / p
 	if math.IsInf(tan1, 0) {
@@ -143,7 +144,7 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 			{Name: "tan φ₂", Value: number(tan2)},
 			{Name: "Q₂", Value: c.After.Q},
 		},
-		Notes: c.Notes,
+		Notes: c.Notes, Cautions: c.Cautions,
 	}
 	if before.PF.Defined() {
 		st.Inputs = append(st.Inputs, calc.Operand{Name: "PF₁", Value: number(before.PF.Value)})
@@ -154,15 +155,15 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 	}
 	steps := []calc.Step{st}
 
-	w := 2 * math.Pi * t.Freq
+	w := calc.Context{Freq: t.Freq}.Omega()
 	omega := calc.Quantity{V: complex(w, 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}
 	capQ := func(x float64) (calc.Quantity, error) {
 		return calc.Real(x, calc.DimCapacitance).Check("pfc capacitance")
 	}
 	cs := calc.Step{
-		Kind:   "pfc",
-		Inputs: []calc.Operand{{Name: "Q_c", Value: c.Qc}, {Name: "ω", Value: omega}},
-		Notes:  cautions(),
+		Kind:     "pfc",
+		Inputs:   []calc.Operand{{Name: "Q_c", Value: c.Qc}, {Name: "ω", Value: omega}},
+		Cautions: cautions(),
 	}
 	if t.Phases == SinglePhase {
 		if c.C, err = capQ(c.Qc.Mag() / (w * vm * vm)); err != nil {
@@ -195,12 +196,12 @@ func Correct(t Target) (Correction, []calc.Step, error) {
 		return Correction{}, nil, fmt.Errorf("pfc: %w", err)
 	}
 	cur := calc.Step{
-		Kind:    "pfc",
-		Rule:    "line current before and after correction (common practice)",
-		Formula: st1[0].Formula,
-		Inputs:  []calc.Operand{{Name: "|S₁|", Value: c.Before.Apparent}, {Name: "|S₂|", Value: c.After.Apparent}, st1[0].Inputs[1]},
-		Results: []calc.Operand{{Name: "I₁", Value: c.I1}, {Name: "I₂", Value: c.I2}},
-		Notes:   cautions(),
+		Kind:     "pfc",
+		Rule:     "line current before and after correction (common practice)",
+		Formula:  st1[0].Formula,
+		Inputs:   []calc.Operand{{Name: "|S₁|", Value: c.Before.Apparent}, {Name: "|S₂|", Value: c.After.Apparent}, st1[0].Inputs[1]},
+		Results:  []calc.Operand{{Name: "I₁", Value: c.I1}, {Name: "I₂", Value: c.I2}},
+		Cautions: cautions(),
 	}
 	steps = append(steps, cur)
 	return c, steps, nil
@@ -227,9 +228,9 @@ func Rerate(qr, v, vr calc.Quantity) (calc.Quantity, []calc.Step, error) {
 	if err != nil {
 		return calc.Quantity{}, nil, fmt.Errorf("rerate: %w", err)
 	}
-	notes := cautions()
+	var notes []string
 	if ratio > 1 {
-		notes = append([]string{"the capacitor runs above its rated voltage: check its voltage rating and overvoltage limits before using it here"}, notes...)
+		notes = []string{"the capacitor runs above its rated voltage: check its voltage rating and overvoltage limits before using it here"}
 	}
 	st := calc.Step{
 		Kind:    "rerate",
@@ -241,7 +242,7 @@ func Rerate(qr, v, vr calc.Quantity) (calc.Quantity, []calc.Step, error) {
 			{Name: "V_r", Value: calc.Magnitude(vr.Mag(), calc.DimVoltage)},
 		},
 		Results: []calc.Operand{{Name: "Q", Value: q}},
-		Notes:   notes,
+		Notes:   notes, Cautions: cautions(),
 	}
 	return q, []calc.Step{st}, nil
 }
@@ -284,7 +285,6 @@ func ResonanceOrder(ssc, qc calc.Quantity) (Resonance, []calc.Step, error) {
 	if r.Near != 0 {
 		notes = append([]string{"warning: the resonance order lies within ±0.5 of harmonic " + strconv.Itoa(r.Near)}, notes...)
 	}
-	notes = append(notes, cautions()...)
 	st := calc.Step{
 		Kind:    "harmonic",
 		Rule:    "harmonic order of resonance between a capacitor bank and the supply (common practice)",
@@ -294,7 +294,7 @@ func ResonanceOrder(ssc, qc calc.Quantity) (Resonance, []calc.Step, error) {
 			{Name: "Q_c", Value: varQ(qc.Mag())},
 		},
 		Results: []calc.Operand{{Name: "h", Value: number(h)}},
-		Notes:   notes,
+		Notes:   notes, Cautions: cautions(),
 	}
 	return r, []calc.Step{st}, nil
 }
@@ -326,10 +326,10 @@ func dischargeArgs(fn string, c, v0, vs calc.Quantity) (float64, error) {
 }
 
 func dischargeNotes() []string {
-	return append([]string{
+	return []string{
 		"a capacitor disconnected from an AC supply can hold up to the peak voltage √2·V_rms: use that as V0",
 		"the resistor discharges exponentially; verify the voltage with a meter before touching",
-	}, cautions()...)
+	}
 }
 
 // DischargeResistance returns the resistor that discharges capacitance c
@@ -359,7 +359,7 @@ func DischargeResistance(c, v0, vsafe, t calc.Quantity) (calc.Quantity, []calc.S
 			{Name: "V_safe", Value: calc.Magnitude(vsafe.Mag(), calc.DimVoltage)}, {Name: "t", Value: t},
 		},
 		Results: []calc.Operand{{Name: "R", Value: r}},
-		Notes:   append([]string{"the largest resistance that meets the time: a smaller resistor discharges faster"}, dischargeNotes()...),
+		Notes:   append([]string{"the largest resistance that meets the time: a smaller resistor discharges faster"}, dischargeNotes()...), Cautions: cautions(),
 	}
 	return r, []calc.Step{st}, nil
 }
@@ -390,7 +390,7 @@ func DischargeTime(r, c, v0, vsafe calc.Quantity) (calc.Quantity, []calc.Step, e
 			{Name: "V_safe", Value: calc.Magnitude(vsafe.Mag(), calc.DimVoltage)},
 		},
 		Results: []calc.Operand{{Name: "t", Value: t}},
-		Notes:   dischargeNotes(),
+		Notes:   dischargeNotes(), Cautions: cautions(),
 	}
 	return t, []calc.Step{st}, nil
 }

@@ -18,6 +18,15 @@ func hasNote(notes []string, sub string) bool {
 	return false
 }
 
+// withCautions adds the whole text of each caution to the notes.
+func withCautions(notes []string, cs []calc.StepCaution) []string {
+	out := append([]string(nil), notes...)
+	for _, c := range cs {
+		out = append(out, c.Topic.Text())
+	}
+	return out
+}
+
 // cautionsIn checks a PFC result's notes for the three cautions: stored
 // charge, harmonic resonance and qualified installation, and the safety
 // text of shared DESIGN.md.
@@ -104,9 +113,9 @@ func TestCorrect(t *testing.T) {
 			if !hasNote(k.Notes, c.verdict) {
 				t.Errorf("notes %q lack %q", k.Notes, c.verdict)
 			}
-			cautionsIn(t, "Correction.Notes", k.Notes)
+			cautionsIn(t, "Correction.Notes", withCautions(k.Notes, k.Cautions))
 			for _, st := range steps {
-				cautionsIn(t, "step "+st.Rule, st.Notes)
+				cautionsIn(t, "step "+st.Rule, withCautions(st.Notes, st.Cautions))
 			}
 			if len(steps) != 3 {
 				t.Errorf("%d steps", len(steps))
@@ -203,7 +212,7 @@ func TestRerate(t *testing.T) {
 		if !near(real(q.V), c.want) || q.Kind != calc.KindReactive {
 			t.Errorf("Q = %v, want %v", q.V, c.want)
 		}
-		cautionsIn(t, "rerate", steps[0].Notes)
+		cautionsIn(t, "rerate", withCautions(steps[0].Notes, steps[0].Cautions))
 		if hasNote(steps[0].Notes, "above its rated voltage") != c.above {
 			t.Errorf("overvoltage note: %q", steps[0].Notes)
 		}
@@ -235,7 +244,7 @@ func TestResonanceOrder(t *testing.T) {
 		if hasNote(steps[0].Notes, "warning: the resonance order") != (c.near != 0) {
 			t.Errorf("warning note %q", steps[0].Notes)
 		}
-		cautionsIn(t, "harmonic", steps[0].Notes)
+		cautionsIn(t, "harmonic", withCautions(steps[0].Notes, steps[0].Cautions))
 	}
 	if _, _, err := ResonanceOrder(va(1e6), varQ(0)); err == nil {
 		t.Error("Qc = 0 accepted")
@@ -256,7 +265,7 @@ func TestDischarge(t *testing.T) {
 	if !near(real(r.V), 247319.149866679441) || r.Dim != calc.DimImpedance {
 		t.Errorf("R = %v", r.V)
 	}
-	cautionsIn(t, "discharge", steps[0].Notes)
+	cautionsIn(t, "discharge", withCautions(steps[0].Notes, steps[0].Cautions))
 	if !hasNote(steps[0].Notes, "√2·V_rms") {
 		t.Errorf("no peak note: %q", steps[0].Notes)
 	}
@@ -264,7 +273,7 @@ func TestDischarge(t *testing.T) {
 	if err != nil || !near(real(tt.V), 60) {
 		t.Errorf("t = %v, %v", tt.V, err)
 	}
-	cautionsIn(t, "dischargetime", steps[0].Notes)
+	cautionsIn(t, "dischargetime", withCautions(steps[0].Notes, steps[0].Cautions))
 
 	bad := []struct {
 		name            string

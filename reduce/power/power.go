@@ -21,20 +21,11 @@ import (
 	"argand/calc"
 )
 
-// Caution is the safety text of shared DESIGN.md, carried by every result
-// where the work can hurt someone.
-const Caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
-	"Work on energised or mains equipment only if qualified, under local electrical codes and licensed practice. " +
-	"Capacitors can hold a lethal charge after disconnection."
-
-// CapacitorCaution is the caution carried by every power-factor-correction
-// result: stored charge, harmonic resonance and qualified installation.
-const CapacitorCaution = "Capacitor banks: a capacitor can hold a lethal charge after disconnection; discharge it and verify with a meter before touching. " +
-	"Adding capacitance can create a harmonic resonance with the supply; check the resonance order before installing. " +
-	"Install only by qualified people under local electrical codes and licensed practice."
-
-// cautions returns a fresh copy of the PFC notes so that callers may append.
-func cautions() []string { return []string{CapacitorCaution, Caution} }
+// cautions returns the cautions of capacitor work: stored charge,
+// harmonic resonance and qualified installation, and the safety text.
+func cautions() []calc.StepCaution {
+	return calc.CautionsOf(calc.CautionCapacitor, calc.CautionMains)
+}
 
 // MaxLoads bounds the number of loads Sum accepts.
 const MaxLoads = 10000
@@ -510,7 +501,7 @@ func LineCurrent(s, v calc.Quantity, ph Phases) (calc.Quantity, []calc.Step, err
 		Results: []calc.Operand{{Name: "|I|", Value: q}},
 	}
 	if ph == ThreePhase {
-		st.Notes = []string{Caution}
+		st.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
 	return q, []calc.Step{st}, nil
 }
@@ -584,7 +575,7 @@ func Current(s, v calc.Quantity, ph Phases, basis calc.Basis, seq int) (calc.Qua
 		Basis:   basis,
 	}
 	if ph == ThreePhase {
-		st.Notes = []string{Caution}
+		st.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
 	return q, []calc.Step{st}, nil
 }

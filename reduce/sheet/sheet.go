@@ -101,6 +101,11 @@ type Sheet struct {
 	// run, so a caution repeated by each part of one calculation is kept
 	// once without reading back over the trail.
 	noteSeen map[string]bool
+	// cautionSeen holds the caution topics of the statement being run
+	// (one of each topic a statement), and cautionFull those already
+	// shown whole in this session, each a set of bits by topic: the
+	// whole text is shown once per session, then its line.
+	cautionSeen, cautionFull uint32
 	// quiet marks a working copy that evaluates samples (sweep points,
 	// tolerance samples): networks are solved again without steps.
 	quiet bool
@@ -402,6 +407,7 @@ func (s *Sheet) record(steps ...calc.Step) {
 			}
 		}
 		steps[i].Notes = notes
+		steps[i].Cautions = s.cautions(steps[i].Cautions)
 		steps[i].Source = strings.TrimRight(steps[i].Source, " \t")
 		if steps[i].Line == 0 {
 			steps[i].Line = s.line
@@ -409,6 +415,24 @@ func (s *Sheet) record(steps ...calc.Step) {
 		steps[i].Basis = s.ctx.Basis
 	}
 	s.steps = append(s.steps, steps...)
+}
+
+// cautions returns a step's cautions in a new slice (a function's steps
+// and result may share theirs), each topic once a statement, whole the
+// first time in the session.
+func (s *Sheet) cautions(in []calc.StepCaution) []calc.StepCaution {
+	var out []calc.StepCaution
+	for _, c := range in {
+		bit := uint32(1) << c.Topic
+		if s.cautionSeen&bit != 0 {
+			continue
+		}
+		s.cautionSeen |= bit
+		c.Full = s.cautionFull&bit == 0
+		s.cautionFull |= bit
+		out = append(out, c)
+	}
+	return out
 }
 
 // setValue stores a definition (new or replacing), and re-evaluates the

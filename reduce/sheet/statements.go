@@ -29,15 +29,15 @@ func (s *Sheet) Line() int { return s.line }
 // ExecLine runs one statement as line n.
 func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 	s.line = n
-	s.noteSeen = nil
+	s.noteSeen, s.cautionSeen = nil, 0
 	if err := s.fits(len(src)); err != nil {
 		return nil, lineErr(n, 1, 1, "%v", err)
 	}
-	before := len(s.steps)
+	before, full := len(s.steps), s.cautionFull
 	s.since, s.shadow = 0, ""
 	err := s.exec(src, n)
 	if err != nil {
-		s.steps = s.steps[:before]
+		s.steps, s.cautionFull = s.steps[:before], full
 		return nil, err
 	}
 	if s.lang > 0 && s.since > s.lang && len(s.steps) > before {
@@ -322,7 +322,7 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	case calc.DimFrequency:
 		hz = real(q.V)
 	case calc.DimAngularFrequency:
-		hz = real(q.V) / (2 * 3.141592653589793)
+		hz = calc.HzOf(real(q.V))
 	case calc.Dimensionless:
 		return lineErr(s.line, col, n, "frequency needs a unit: Hz or rad/s (as in frequency 60 Hz)")
 	default:
@@ -580,7 +580,7 @@ func (s *Sheet) setExtras(name, src string, extra []calc.Operand) []calc.Operand
 // describe builds the step of an evaluation: the rule and formula of the
 // outermost operation and each of its operands with its value.
 func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
-	st := calc.Step{Source: p.Source(), Notes: r.Notes}
+	st := calc.Step{Source: p.Source(), Notes: r.Notes, Cautions: r.Cautions}
 	ev := s.evaluator(p.Source(), s.line)
 	operand := func(x calc.Expr) {
 		if _, ok := x.(*calc.Lit); ok {

@@ -184,7 +184,7 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 		case q.Dim == calc.DimFrequency && q.IsReal():
 			return real(q.V), nil
 		case q.Dim == calc.DimAngularFrequency && q.IsReal():
-			return real(q.V) / (2 * 3.141592653589793), nil
+			return calc.HzOf(real(q.V)), nil
 		}
 		return 0, lineErr(s.line, col, width(p, x), "a sweep runs over frequencies in Hz or rad/s, not %s", calc.DimName(q.Dim, false))
 	}

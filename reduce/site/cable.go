@@ -133,12 +133,12 @@ func CableDrop(c Cable) (CableResult, error) {
 			Notes:   []string{"drop = |Vs| − |Vload|; % of the nominal " + sig(vnom) + " V"},
 		},
 		{
-			Kind:    "cable",
-			Rule:    "the usual approximation beside the exact drop",
-			Formula: "ΔV ≈ k·I·(R'·cos φ + X'·sin φ)·L, k = 2 single-phase, √3 three-phase",
-			Inputs:  []calc.Operand{op("k", num(k)), op("cos φ", num(c.PF)), op("sin φ", num(sinphi))},
-			Results: []calc.Operand{op("approx", res.Approx), op("exact − approx", res.Diff)},
-			Notes:   []string{CableCaution, Caution},
+			Kind:     "cable",
+			Rule:     "the usual approximation beside the exact drop",
+			Formula:  "ΔV ≈ k·I·(R'·cos φ + X'·sin φ)·L, k = 2 single-phase, √3 three-phase",
+			Inputs:   []calc.Operand{op("k", num(k)), op("cos φ", num(c.PF)), op("sin φ", num(sinphi))},
+			Results:  []calc.Operand{op("approx", res.Approx), op("exact − approx", res.Diff)},
+			Cautions: calc.CautionsOf(calc.CautionCable, calc.CautionMains),
 		},
 	}
 	if err := checkSteps(res.Steps); err != nil {

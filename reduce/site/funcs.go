@@ -259,7 +259,7 @@ func componentsResult(comp Components, err error) (calc.Result, error) {
 		return calc.Result{}, err
 	}
 	ops := lower(comp.Operands())
-	return calc.Result{Value: comp.Z, Extra: ops[1:], Steps: comp.Steps, Notes: comp.Notes}, nil
+	return calc.Result{Value: comp.Z, Extra: ops[1:], Steps: comp.Steps, Notes: comp.Notes, Cautions: calc.CautionsOf(calc.CautionMains)}, nil
 }
 
 func callFromVI(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -435,7 +435,7 @@ func callCableDrop(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	cb.Leading = has(words, "leading")
 	cb.ThreePhase = has(words, "three")
-	notes := []string{CableCaution}
+	var notes []string
 	if c != nil && c.Basis == calc.Peak {
 		// Vs and I are phasors on the peak basis, and the drop I·Z scales
 		// with them; a nominal voltage is RMS by definition (IEC 60038), so
@@ -550,7 +550,7 @@ func callXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("xfmr: %v", err)
 	}
-	return calc.Result{Value: x.Z2, Steps: append(pre, x.Steps...), Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: x.Z2, Steps: append(pre, x.Steps...), Cautions: calc.CautionsOf(calc.CautionFault), Extra: []calc.Operand{
 		op("z1", x.Z1), op("zbase1", x.Zbase1), op("zbase2", x.Zbase2), op("i1", x.I1), op("i2", x.I2),
 		op("isc1", x.Isc1), op("isc2", x.Isc2), op("ratio", x.Ratio)}}, nil
 }
@@ -596,7 +596,7 @@ func callFault(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: r.IscEnd, Steps: append(pre, r.Steps...), Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.IscEnd, Steps: append(pre, r.Steps...), Cautions: calc.CautionsOf(calc.CautionFault), Extra: []calc.Operand{
 		op("terminals", r.IscTerminals), op("infinite", r.IscInfinite), op("z", r.Ztotal),
 		op("zsource", r.Zsource), op("zxfmr", r.Zxfmr), op("zcable", r.Zcable)}}, nil
 }

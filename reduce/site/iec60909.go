@@ -151,9 +151,8 @@ func FeederZ(f Feeder) (ElementZ, error) {
 		results = append(results, op("t_r", num(tr)), op("Z_Qt", cq(z, calc.DimImpedance)))
 		rule += "; referred to the transformer's low-voltage side"
 	}
-	notes = append(notes, FaultCaution)
 	r := ElementZ{Z: cq(z, calc.DimImpedance), Factor: num(c)}
-	r.Steps = []calc.Step{{Kind: "fault", Rule: rule, Formula: form, Inputs: inputs, Results: results, Notes: notes}}
+	r.Steps = []calc.Step{{Kind: "fault", Rule: rule, Formula: form, Inputs: inputs, Results: results, Notes: notes, Cautions: calc.CautionsOf(calc.CautionFault)}}
 	if err := checkSteps(r.Steps); err != nil {
 		return ElementZ{}, err
 	}
@@ -242,7 +241,7 @@ func TransformerZ(t NetTransformer) (ElementZ, error) {
 	xpu := xt / zb
 	kt := 0.95 * cmax / (1 + 0.6*xpu)
 	z := complex(kt*rt, kt*xt)
-	notes = append(notes, "K_T applies to a network transformer (IEC 60909-0); it is used for the maximum and the minimum currents alike here", FaultCaution)
+	notes = append(notes, "K_T applies to a network transformer (IEC 60909-0); it is used for the maximum and the minimum currents alike here")
 	r := ElementZ{Z: cq(z, calc.DimImpedance), Factor: num(kt)}
 	r.Steps = []calc.Step{{
 		Kind:    "fault",
@@ -251,7 +250,7 @@ func TransformerZ(t NetTransformer) (ElementZ, error) {
 		Inputs: []calc.Operand{op("S_rT", power(t.S, calc.KindApparent)), op("U_rT", rq(u, calc.DimVoltage)), op("u_kr (%)", num(t.Ukr)), rIn,
 			op("c_max", num(cmax))},
 		Results: []calc.Operand{op("Z_T", cq(complex(rt, xt), calc.DimImpedance)), op("x_T", num(xpu)), op("K_T", num(kt)), op("Z_TK", r.Z)},
-		Notes:   notes,
+		Notes:   notes, Cautions: calc.CautionsOf(calc.CautionFault),
 	}}
 	if err := checkSteps(r.Steps); err != nil {
 		return ElementZ{}, err
@@ -307,8 +306,8 @@ func RunZ(c Run) (ElementZ, error) {
 		Formula: "Z_L = (R' + jX')·l/n",
 		Inputs: []calc.Operand{op("R'", rq(c.R, perMetre)), op("X'", rq(c.X, perMetre)), op("l", rq(c.Length, calc.DimLength)),
 			op("n", kq(float64(n), calc.Dimensionless, calc.KindCount))},
-		Results: []calc.Operand{op("Z_L", r.Z)},
-		Notes:   []string{FaultCaution},
+		Results:  []calc.Operand{op("Z_L", r.Z)},
+		Cautions: calc.CautionsOf(calc.CautionFault),
 	}
 	r.Steps = []calc.Step{st}
 	if c.HasThetaE {
@@ -319,12 +318,12 @@ func RunZ(c Run) (ElementZ, error) {
 		zh := complex(real(z)*f, imag(z))
 		r.Hot = cq(zh, calc.DimImpedance)
 		r.Steps = append(r.Steps, calc.Step{
-			Kind:    "fault",
-			Rule:    "the same run at the conductor temperature at the end of the short circuit, for the minimum current (IEC 60909-0)",
-			Formula: "R_L = [1 + α·(θ_e − 20 °C)]·R_L20, α = 0.004 /K (copper, aluminium, aluminium alloy)",
-			Inputs:  []calc.Operand{op("Z_L (20 °C)", r.Z), op("θ_e (°C)", num(c.ThetaE)), op("α (/K)", num(alpha60909))},
-			Results: []calc.Operand{op("factor", num(f)), op("Z_L (θ_e)", r.Hot)},
-			Notes:   []string{FaultCaution},
+			Kind:     "fault",
+			Rule:     "the same run at the conductor temperature at the end of the short circuit, for the minimum current (IEC 60909-0)",
+			Formula:  "R_L = [1 + α·(θ_e − 20 °C)]·R_L20, α = 0.004 /K (copper, aluminium, aluminium alloy)",
+			Inputs:   []calc.Operand{op("Z_L (20 °C)", r.Z), op("θ_e (°C)", num(c.ThetaE)), op("α (/K)", num(alpha60909))},
+			Results:  []calc.Operand{op("factor", num(f)), op("Z_L (θ_e)", r.Hot)},
+			Cautions: calc.CautionsOf(calc.CautionFault),
 		})
 	}
 	if err := checkSteps(r.Steps); err != nil {
@@ -441,7 +440,7 @@ func ThreePhaseShort(s Short) (ShortResult, error) {
 		})
 	}
 	last := &steps[len(steps)-1]
-	last.Notes = append(notes, FaultCaution, Caution)
+	last.Notes, last.Cautions = notes, calc.CautionsOf(calc.CautionFault, calc.CautionMains)
 	r.Steps = steps
 	if err := checkSteps(steps); err != nil {
 		return ShortResult{}, err

@@ -133,7 +133,7 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: r.Z, Steps: r.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.Z, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionFault), Extra: []calc.Operand{
 		op("r", kq(real(r.Z.V), calc.DimImpedance, calc.KindResistive)), op("x", kq(imag(r.Z.V), calc.DimImpedance, calc.KindSigned)), op("c", r.Factor)}}, nil
 }
 
@@ -193,7 +193,7 @@ func callZXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	kt := real(r.Factor.V)
 	st := r.Steps[0]
-	return calc.Result{Value: r.Z, Steps: r.Steps, Notes: []string{FaultCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.Z, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionFault), Extra: []calc.Operand{
 		op("kt", r.Factor), op("zt", cq(r.Z.V/complex(kt, 0), calc.DimImpedance)), op("xt_pu", st.Results[1].Value)}}, nil
 }
 
@@ -230,7 +230,7 @@ func callZCable(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	out := calc.Result{Value: r.Z, Steps: r.Steps, Notes: []string{FaultCaution}}
+	out := calc.Result{Value: r.Z, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionFault)}
 	if run.HasThetaE {
 		out.Extra = append(out.Extra, op("hot", r.Hot))
 	}
@@ -293,7 +293,7 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	out := calc.Result{Value: r.Ik, Steps: r.Steps, Notes: []string{"U_n, I\"_k and S\"_k are RMS values by definition, whatever the worksheet's basis; i_p is the instantaneous peak", FaultCaution}}
+	out := calc.Result{Value: r.Ik, Steps: r.Steps, Notes: []string{"U_n, I\"_k and S\"_k are RMS values by definition, whatever the worksheet's basis; i_p is the instantaneous peak"}, Cautions: calc.CautionsOf(calc.CautionFault)}
 	if !s.Min {
 		out.Extra = append(out.Extra, op("ip", r.Ip), op("kappa", r.Kappa))
 	}
@@ -355,7 +355,7 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 			ph := func(name string, q calc.Quantity) calc.Operand {
 				return op(name, calc.Quantity{V: q.V * k, Dim: q.Dim, Kind: q.Kind})
 			}
-			return calc.Result{Value: r.Ik, Steps: r.Steps, Notes: append(notes, FaultCaution), Extra: []calc.Operand{
+			return calc.Result{Value: r.Ik, Steps: r.Steps, Notes: notes, Cautions: calc.CautionsOf(calc.CautionFault), Extra: []calc.Operand{
 				ph("ia", r.Iabc[0]), ph("ib", r.Iabc[1]), ph("ic", r.Iabc[2]),
 				ph("va", r.Vabc[0]), ph("vb", r.Vabc[1]), ph("vc", r.Vabc[2]),
 				ph("i0", r.I012[0]), ph("i1", r.I012[1]), ph("i2", r.I012[2]), ph("ie", r.Ie), op("c", r.C)}}, nil
@@ -417,7 +417,7 @@ func callZsLoop(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 		// the verdict leads, so it is seen before the cautions
 		notes = append([]string{r.Verdict}, notes...)
 	}
-	out := calc.Result{Value: r.Zs, Steps: r.Steps, Notes: append(notes, LoopCaution, FaultCaution), Extra: []calc.Operand{
+	out := calc.Result{Value: r.Zs, Steps: r.Steps, Notes: notes, Cautions: calc.CautionsOf(calc.CautionLoop, calc.CautionFault), Extra: []calc.Operand{
 		op("if", r.If), op("factor", r.Factor), op("r12", r.R12)}}
 	if r.Checked {
 		out.Extra = append(out.Extra, op("ok", kq(b2f(r.Within), calc.Dimensionless, calc.KindCount)))

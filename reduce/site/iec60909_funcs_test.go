@@ -2,6 +2,7 @@ package site
 
 import (
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -59,7 +60,7 @@ func TestShortFuncs(t *testing.T) {
 		t.Errorf("ik3 c 1.1 = %v %v", kc.Value.V, err)
 	}
 	for _, r := range []calc.Result{zq, zt, k} {
-		if !strings.Contains(strings.Join(r.Notes, " "), FaultCaution) {
+		if !slices.ContainsFunc(r.Cautions, func(c calc.StepCaution) bool { return c.Topic == calc.CautionFault }) {
 			t.Error("a fault function result without the fault caution")
 		}
 	}

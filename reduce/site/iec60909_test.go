@@ -166,8 +166,7 @@ func TestThreePhaseShort(t *testing.T) {
 	if len(r.Steps[0].Rows) != 3 {
 		t.Errorf("the sum step lists %d elements, want 3", len(r.Steps[0].Rows))
 	}
-	notes := strings.Join(r.Steps[len(r.Steps)-1].Notes, " ")
-	if !strings.Contains(notes, FaultCaution) || !strings.Contains(notes, Caution) {
+	if cs := r.Steps[len(r.Steps)-1].Cautions; len(cs) != 2 || cs[0].Topic != calc.CautionFault || cs[1].Topic != calc.CautionMains {
 		t.Error("three-phase short circuit without the fault caution")
 	}
 	// The minimum current uses c_min 0.95 and no peak.

@@ -6,11 +6,6 @@ import (
 	"argand/calc"
 )
 
-// LoopCaution accompanies every earth-fault loop result: argand carries no
-// national table of limits.
-const LoopCaution = "argand names no national limit: the maximum Z_s or the disconnection current is yours to give, " +
-	"from the protective device and the local wiring rules; the comparison here does not approve an installation."
-
 // Loop is the earth fault loop of a final circuit: the loop impedance
 // external to the circuit Z_e, and the circuit's line and protective
 // conductors, R1 + R2 per length at 20 °C, over the route length.
@@ -138,7 +133,7 @@ func EarthLoop(l Loop) (LoopResult, error) {
 	default:
 		last.Notes = append(last.Notes, "no limit given: nothing compared")
 	}
-	last.Notes = append(last.Notes, LoopCaution, FaultCaution, Caution)
+	last.Cautions = calc.CautionsOf(calc.CautionLoop, calc.CautionFault, calc.CautionMains)
 	r.Steps = steps
 	if err := checkSteps(steps); err != nil {
 		return LoopResult{}, err

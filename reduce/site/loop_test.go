@@ -4,6 +4,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"argand/calc"
 )
 
 // An invented final circuit (example data): Z_e 0.35 Ω, R1 + R2 =
@@ -37,7 +39,10 @@ func TestEarthLoop(t *testing.T) {
 		t.Error("a verdict without a limit")
 	}
 	notes := strings.Join(r.Steps[1].Notes, " ")
-	for _, want := range []string{LoopCaution, FaultCaution, Caution, "no limit given"} {
+	for _, c := range r.Steps[1].Cautions {
+		notes += " " + c.Topic.Text()
+	}
+	for _, want := range []string{calc.CautionLoop.Text(), calc.CautionFault.Text(), calc.SafetyText, "no limit given"} {
 		if !strings.Contains(notes, want) {
 			t.Errorf("notes lack %q", want)
 		}

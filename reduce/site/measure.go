@@ -181,7 +181,7 @@ func FromPF(p, pf, v float64, lagging bool, f float64) (Components, error) {
 // equivalent Rs = P/I², Xs = Q/I²; the parallel equivalent Rp = V²/P,
 // Xp = V²/Q; and the inductance or capacitance each reactance implies.
 func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Components, error) {
-	w := 2 * math.Pi * f
+	w := calc.Context{Freq: f}.Omega()
 	s := math.Hypot(p, q)
 	phi := math.Atan2(q, p)
 	c := Components{
@@ -253,7 +253,7 @@ func components(v, i, p, q, f float64, steps []calc.Step, notes []string) (Compo
 	}
 	steps = append(steps, lc)
 	c.Steps = steps
-	c.Notes = append(notes, Caution)
+	c.Notes = notes
 	if err := checkSteps(steps); err != nil {
 		return Components{}, err
 	}

@@ -262,7 +262,8 @@ func SolveRadial(sys Radial) (RadialResult, error) {
 		}})
 	}
 	chain.Results = append(chain.Results, op("I (far zone)", cq(ipu*complex(sys.SBase/(math.Sqrt(3)*zones[len(zones)-1]), 0), calc.DimCurrent)))
-	chain.Notes = []string{"voltages and currents of a transformer row are given in the zone beyond it; v is line-to-line", FaultCaution, Caution}
+	chain.Notes = []string{"voltages and currents of a transformer row are given in the zone beyond it; v is line-to-line"}
+	chain.Cautions = calc.CautionsOf(calc.CautionFault, calc.CautionMains)
 	steps = append(steps, chain)
 	r.Steps = steps
 	if err := checkSteps(steps); err != nil {

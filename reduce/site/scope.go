@@ -135,7 +135,7 @@ func Rotation(a, b, c float64) (RotationResult, error) {
 		Formula: "θB − θA ≈ −120° and θC − θA ≈ +120° for ABC; the signs swap for ACB",
 		Inputs:  []calc.Operand{op("θA", angle(a)), op("θB", angle(b)), op("θC", angle(c))},
 		Results: []calc.Operand{op("errA", r.Errors[0]), op("errB", r.Errors[1]), op("errC", r.Errors[2])},
-		Notes:   []string{"rotation " + r.Name, Caution},
+		Notes:   []string{"rotation " + r.Name}, Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	return r, nil
 }

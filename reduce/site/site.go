@@ -17,19 +17,6 @@ import (
 	"argand/calc"
 )
 
-// Caution is the safety text carried by results that concern mains,
-// three-phase or capacitor work.
-const Caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
-	"Work on energised or mains equipment only if qualified, under local electrical codes and licensed practice. " +
-	"Capacitors can hold a lethal charge after disconnection."
-
-// CableCaution accompanies every cable voltage drop result.
-const CableCaution = "Cable sizing and the permitted voltage drop are set by local wiring rules; argand computes, it does not approve."
-
-// FaultCaution accompanies every fault level result.
-const FaultCaution = "Protective device selection and arc-flash work follow local codes and licensed practice; " +
-	"a prospective fault current here is a calculation aid, not a study."
-
 // ErrInconsistentPower reports a real power reading larger than V·I.
 var ErrInconsistentPower = errors.New("inconsistent: P exceeds V·I (meter error or wrong wiring)")
 

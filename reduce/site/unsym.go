@@ -179,7 +179,7 @@ func UnsymFault(u Unsym) (UnsymResult, error) {
 			Formula: "Xa = X0 + X1 + X2;  Xb = X0 + a²·X1 + a·X2;  Xc = X0 + a·X1 + a²·X2;  I_E = Ia + Ib + Ic = 3·I0;  " + ikName,
 			Results: []calc.Operand{op("Ia", r.Iabc[0]), op("Ib", r.Iabc[1]), op("Ic", r.Iabc[2]),
 				op("Va", r.Vabc[0]), op("Vb", r.Vabc[1]), op("Vc", r.Vabc[2]), op("I_E", r.Ie), op("I\"_k", r.Ik)},
-			Notes: []string{seqNote, "Z1, Z2, Z0 are the sequence impedances seen from the fault, on its voltage level; motors and generators are included only as far as they are in them", FaultCaution, Caution},
+			Notes: []string{seqNote, "Z1, Z2, Z0 are the sequence impedances seen from the fault, on its voltage level; motors and generators are included only as far as they are in them"}, Cautions: calc.CautionsOf(calc.CautionFault, calc.CautionMains),
 		},
 	}
 	if err := checkSteps(r.Steps); err != nil {

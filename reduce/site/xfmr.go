@@ -155,7 +155,7 @@ func Transformer(n Nameplate) (XfmrResult, error) {
 			Formula: "I_sc = I_rated/(%Z/100)",
 			Inputs:  []calc.Operand{op("I1 rated", r.I1), op("I2 rated", r.I2), op("%Z", num(n.PctZ))},
 			Results: []calc.Operand{op("Isc2", r.Isc2), op("Isc1", r.Isc1)},
-			Notes:   []string{"no voltage factor applied (c = 1); an infinite bus gives the highest current the transformer alone allows", FaultCaution, Caution},
+			Notes:   []string{"no voltage factor applied (c = 1); an infinite bus gives the highest current the transformer alone allows"}, Cautions: calc.CautionsOf(calc.CautionFault, calc.CautionMains),
 		},
 	}
 	if err := checkSteps(r.Steps); err != nil {
@@ -275,12 +275,12 @@ func FaultLevel(f Fault) (FaultResult, error) {
 			Notes:   srcNotes,
 		},
 		calc.Step{
-			Kind:    "fault",
-			Rule:    "prospective symmetrical fault current at the terminals and at the cable end, voltage factor c = 1",
-			Formula: vform,
-			Inputs:  []calc.Operand{op("V2", rq(n.V2, calc.DimVoltage)), op("Z terminals", cq(zterm, calc.DimImpedance)), op("Z end", r.Ztotal)},
-			Results: []calc.Operand{op("Isc end", r.IscEnd), op("Isc terminals", r.IscTerminals), op("Isc infinite bus", r.IscInfinite)},
-			Notes:   []string{FaultCaution, Caution},
+			Kind:     "fault",
+			Rule:     "prospective symmetrical fault current at the terminals and at the cable end, voltage factor c = 1",
+			Formula:  vform,
+			Inputs:   []calc.Operand{op("V2", rq(n.V2, calc.DimVoltage)), op("Z terminals", cq(zterm, calc.DimImpedance)), op("Z end", r.Ztotal)},
+			Results:  []calc.Operand{op("Isc end", r.IscEnd), op("Isc terminals", r.IscTerminals), op("Isc infinite bus", r.IscInfinite)},
+			Cautions: calc.CautionsOf(calc.CautionFault, calc.CautionMains),
 		})
 	if err := checkSteps(r.Steps); err != nil {
 		return FaultResult{}, err
@@ -333,7 +333,7 @@ func ratio(x calc.Quantity, p, s float64, up bool) (calc.Quantity, calc.Step, er
 		Notes:   []string{"ratio and phase errors of the accuracy class are not included"},
 	}
 	if what == "CT" {
-		st.Notes = append(st.Notes, "never open-circuit a CT secondary while the primary carries current. "+Caution)
+		st.Cautions = calc.CautionsOf(calc.CautionCT, calc.CautionMains)
 	}
 	return r, st, nil
 }

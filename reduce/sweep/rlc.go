@@ -46,7 +46,7 @@ func Resonance(l, c calc.Quantity) (f0, w0 calc.Quantity, steps []calc.Step, err
 	}
 	w := 1 / math.Sqrt(lv*cv)
 	w0 = calc.Quantity{V: complex(w, 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}
-	f0 = hz(w / (2 * math.Pi))
+	f0 = hz(calc.HzOf(w))
 	if err := check("resonant frequency", f0, w0); err != nil {
 		return calc.Quantity{}, calc.Quantity{}, nil, err
 	}
@@ -180,7 +180,7 @@ func SolveTank(l, r, c calc.Quantity) (Tank, []calc.Step, error) {
 		return t, nil, err
 	}
 	rv := real(r.V)
-	f0 := 1 / (2 * math.Pi * math.Sqrt(lv*cv))
+	f0 := calc.HzOf(1 / math.Sqrt(lv*cv))
 	t.F0 = hz(f0)
 	k := rv * rv * cv / lv
 	st := calc.Step{

@@ -70,12 +70,12 @@ func convert(x calc.Quantity, conn Connection, seq Sequence, toLine bool) (calc.
 		return calc.Quantity{}, nil, err
 	}
 	st := calc.Step{
-		Kind:    "phase-line",
-		Rule:    rule + " (" + seq.String() + " sequence)",
-		Formula: formula,
-		Inputs:  []calc.Operand{op(in, x)},
-		Results: []calc.Operand{op(out, r)},
-		Notes:   []string{Caution},
+		Kind:     "phase-line",
+		Rule:     rule + " (" + seq.String() + " sequence)",
+		Formula:  formula,
+		Inputs:   []calc.Operand{op(in, x)},
+		Results:  []calc.Operand{op(out, r)},
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	return r, []calc.Step{st}, nil
 }
@@ -159,7 +159,7 @@ func SolveBalanced(vLine, z calc.Quantity, conn Connection, seq Sequence, basis 
 		Inputs:  []calc.Operand{op("V_ph", b.VPhase), op("I_ph", b.IPhase)},
 		Results: []calc.Operand{op("S", b.S), op("P", b.P), op("Q", b.Q), op("|S|", b.Apparent)},
 		Basis:   basis,
-		Notes:   []string{pfNote(s), Caution},
+		Notes:   []string{pfNote(s)}, Cautions: calc.CautionsOf(calc.CautionMains),
 	})
 	for i := range steps {
 		steps[i].Basis = basis

@@ -41,12 +41,12 @@ func ToSequence(xa, xb, xc calc.Quantity) ([3]calc.Quantity, []calc.Step, error)
 		return [3]calc.Quantity{}, nil, err
 	}
 	st := calc.Step{
-		Kind:    "components",
-		Rule:    "phase to symmetrical components (Fortescue), a = 1∠120°, positive sequence = ABC rotation",
-		Formula: "X0 = (Xa + Xb + Xc)/3;  X1 = (Xa + a·Xb + a²·Xc)/3;  X2 = (Xa + a²·Xb + a·Xc)/3",
-		Inputs:  []calc.Operand{op("Xa", xa), op("Xb", xb), op("Xc", xc)},
-		Results: []calc.Operand{op("X0 (zero)", r[0]), op("X1 (positive)", r[1]), op("X2 (negative)", r[2])},
-		Notes:   []string{Caution},
+		Kind:     "components",
+		Rule:     "phase to symmetrical components (Fortescue), a = 1∠120°, positive sequence = ABC rotation",
+		Formula:  "X0 = (Xa + Xb + Xc)/3;  X1 = (Xa + a·Xb + a²·Xc)/3;  X2 = (Xa + a²·Xb + a·Xc)/3",
+		Inputs:   []calc.Operand{op("Xa", xa), op("Xb", xb), op("Xc", xc)},
+		Results:  []calc.Operand{op("X0 (zero)", r[0]), op("X1 (positive)", r[1]), op("X2 (negative)", r[2])},
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	return r, []calc.Step{st}, nil
 }
@@ -115,12 +115,12 @@ func FromSequence(x0, x1, x2 calc.Quantity) ([3]calc.Quantity, []calc.Step, erro
 		return [3]calc.Quantity{}, nil, err
 	}
 	st := calc.Step{
-		Kind:    "components",
-		Rule:    "symmetrical components to phases (Fortescue), a = 1∠120°, positive sequence = ABC rotation",
-		Formula: "Xa = X0 + X1 + X2;  Xb = X0 + a²·X1 + a·X2;  Xc = X0 + a·X1 + a²·X2",
-		Inputs:  []calc.Operand{op("X0", x0), op("X1", x1), op("X2", x2)},
-		Results: []calc.Operand{op("Xa", r[0]), op("Xb", r[1]), op("Xc", r[2])},
-		Notes:   []string{Caution},
+		Kind:     "components",
+		Rule:     "symmetrical components to phases (Fortescue), a = 1∠120°, positive sequence = ABC rotation",
+		Formula:  "Xa = X0 + X1 + X2;  Xb = X0 + a²·X1 + a·X2;  Xc = X0 + a·X1 + a²·X2",
+		Inputs:   []calc.Operand{op("X0", x0), op("X1", x1), op("X2", x2)},
+		Results:  []calc.Operand{op("Xa", r[0]), op("Xb", r[1]), op("Xc", r[2])},
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	return r, []calc.Step{st}, nil
 }

@@ -213,7 +213,7 @@ func callConvert(toLine bool) func(*calc.Context, []calc.Arg) (calc.Result, erro
 			r.Ref = to
 			steps[0].Rule += fmt.Sprintf(": %s %s = %s %s", short(x), from, short(r), to)
 		}
-		return calc.Result{Value: r, Steps: steps, Notes: []string{Caution}}, nil
+		return calc.Result{Value: r, Steps: steps, Cautions: calc.CautionsOf(calc.CautionMains)}, nil
 	}
 }
 
@@ -229,11 +229,10 @@ func three(args []calc.Arg, names [3]string) ([3]calc.Quantity, error) {
 }
 
 func seqNote(c *calc.Context) []string {
-	notes := []string{Caution}
 	if SequenceOf(c) == ACB {
-		notes = append([]string{"components are taken with positive sequence = ABC rotation: a balanced ACB supply shows as negative sequence"}, notes...)
+		return []string{"components are taken with positive sequence = ABC rotation: a balanced ACB supply shows as negative sequence"}
 	}
-	return notes
+	return nil
 }
 
 func callSeq(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -253,7 +252,7 @@ func callSeq(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	} else {
 		notes = append([]string{err.Error()}, notes...)
 	}
-	return calc.Result{Value: r[1], Extra: extra, Steps: steps, Notes: notes}, nil
+	return calc.Result{Value: r[1], Extra: extra, Steps: steps, Notes: notes, Cautions: calc.CautionsOf(calc.CautionMains)}, nil
 }
 
 func callPhases(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -269,7 +268,7 @@ func callPhases(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Value: r[0],
 		Extra: []calc.Operand{op("a", r[0]), op("b", r[1]), op("c", r[2])},
 		Steps: steps,
-		Notes: seqNote(c),
+		Notes: seqNote(c), Cautions: calc.CautionsOf(calc.CautionMains),
 	}, nil
 }
 
@@ -302,8 +301,8 @@ func wyeResult(w WyeLoad, steps []calc.Step) calc.Result {
 		Value: value,
 		Extra: []calc.Operand{op("ia", w.I[0]), op("ib", w.I[1]), op("ic", w.I[2]), op("in", w.IN), op("vshift", w.VShift),
 			op("va", w.VLoad[0]), op("vb", w.VLoad[1]), op("vc", w.VLoad[2]), op("s", w.S), op("sa", apparent(w.S)), op("sn", w.SN)},
-		Steps: steps,
-		Notes: []string{Caution},
+		Steps:    steps,
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 }
 
@@ -406,8 +405,8 @@ func deltaResult(d DeltaLoad, steps []calc.Step) calc.Result {
 		Value: d.ILine[0],
 		Extra: []calc.Operand{op("iab", d.IPhase[0]), op("ibc", d.IPhase[1]), op("ica", d.IPhase[2]),
 			op("ia", d.ILine[0]), op("ib", d.ILine[1]), op("ic", d.ILine[2]), op("s", d.S), op("sa", apparent(d.S))},
-		Steps: steps,
-		Notes: []string{Caution},
+		Steps:    steps,
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 }
 
@@ -437,8 +436,8 @@ func callBalanced(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Value: b.S,
 		Extra: []calc.Operand{op("p", b.P), op("q", b.Q), op("s", b.S), op("sa", b.Apparent), op("il", b.ILine), op("iph", b.IPhase),
 			op("vph", b.VPhase), op("zy", b.ZY)},
-		Steps: steps,
-		Notes: []string{Caution},
+		Steps:    steps,
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}, nil
 }
 
@@ -472,10 +471,10 @@ func callWattmeters(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	steps = append(pre, steps...)
 	return calc.Result{
-		Value: w.W1,
-		Extra: []calc.Operand{op("w1", w.W1), op("w2", w.W2)},
-		Steps: steps,
-		Notes: []string{Caution},
+		Value:    w.W1,
+		Extra:    []calc.Operand{op("w1", w.W1), op("w2", w.W2)},
+		Steps:    steps,
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}, nil
 }
 
@@ -493,13 +492,13 @@ func callFromWattmeters(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, err
 	}
 	extra := []calc.Operand{op("p", r.P), op("q", r.Q), op("s", r.S), op("sa", apparent(r.S))}
-	notes := []string{Caution}
+	var notes []string
 	if r.PFDefined {
 		extra = append(extra, op("pf", calc.Number(complex(r.PF, 0))))
 	} else {
 		notes = append([]string{"power factor undefined: S = 0"}, notes...)
 	}
-	return calc.Result{Value: r.P, Extra: extra, Steps: steps, Notes: notes}, nil
+	return calc.Result{Value: r.P, Extra: extra, Steps: steps, Notes: notes, Cautions: calc.CautionsOf(calc.CautionMains)}, nil
 }
 
 // apparent returns |S| of a complex power: the apparent power, a magnitude

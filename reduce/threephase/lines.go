@@ -148,7 +148,7 @@ func callMark(b calc.Between) func(*calc.Context, []calc.Arg) (calc.Result, erro
 		if b == calc.LineToNeutral {
 			key = "ll"
 		}
-		return calc.Result{Value: m, Extra: []calc.Operand{op(key, alt.Value)}, Steps: steps, Notes: []string{Caution}}, nil
+		return calc.Result{Value: m, Extra: []calc.Operand{op(key, alt.Value)}, Steps: steps, Cautions: calc.CautionsOf(calc.CautionMains)}, nil
 	}
 }
 

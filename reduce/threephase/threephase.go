@@ -21,11 +21,6 @@ import (
 	"argand/calc"
 )
 
-// Caution is the safety text shown beside every three-phase result.
-const Caution = "argand is a calculation aid, not a substitute for measurement, isolation procedures or a qualified person. " +
-	"Work on energised or mains equipment only if qualified, under local electrical codes and licensed practice. " +
-	"Capacitors can hold a lethal charge after disconnection."
-
 // Sequence is the phase sequence: ABC (positive) or ACB (negative).
 type Sequence int
 

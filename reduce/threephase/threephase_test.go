@@ -3,6 +3,7 @@ package threephase
 import (
 	"math"
 	"math/cmplx"
+	"slices"
 	"strings"
 	"testing"
 
@@ -29,8 +30,8 @@ func W(x float64) calc.Quantity {
 func hasCaution(t *testing.T, steps []calc.Step) {
 	t.Helper()
 	for _, s := range steps {
-		for _, n := range s.Notes {
-			if n == Caution {
+		for _, c := range s.Cautions {
+			if c.Topic == calc.CautionMains {
 				return
 			}
 		}
@@ -554,7 +555,7 @@ func TestFuncs(t *testing.T) {
 		if tt.want != 0 && !close(r.Value.V, tt.want) {
 			t.Errorf("%s: value %v, want %v", tt.name, r.Value.V, tt.want)
 		}
-		if !strings.Contains(strings.Join(r.Notes, "\n"), Caution) {
+		if !slices.ContainsFunc(r.Cautions, func(c calc.StepCaution) bool { return c.Topic == calc.CautionMains }) {
 			t.Errorf("%s: no caution", tt.name)
 		}
 		if len(r.Steps) == 0 {

@@ -173,7 +173,7 @@ func SolveWyeSupply(vs [3]calc.Quantity, z [3]calc.Quantity, link Link, seq Sequ
 		Formula: powerFormula(basis, "") + " per phase;  S = S_a + S_b + S_c",
 		Inputs:  []calc.Operand{op("V_an", w.VLoad[0]), op("V_bn", w.VLoad[1]), op("V_cn", w.VLoad[2])},
 		Results: []calc.Operand{op("S", sq), op("P", p), op("Q", q)},
-		Notes:   []string{pfNote(s), Caution},
+		Notes:   []string{pfNote(s)}, Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	if link.Kind == NeutralThrough {
 		pst.Results = append(pst.Results, op("S_N (neutral impedance)", w.SN))
@@ -392,7 +392,7 @@ func SolveDeltaSupply(v [3]calc.Quantity, z [3]calc.Quantity, seq Sequence, basi
 		Formula: powerFormula(basis, "") + " per phase;  S = S_ab + S_bc + S_ca",
 		Results: []calc.Operand{op("S", sq), op("P", p), op("Q", q)},
 		Basis:   basis,
-		Notes:   []string{pfNote(s), Caution},
+		Notes:   []string{pfNote(s)}, Cautions: calc.CautionsOf(calc.CautionMains),
 	}}
 	return d, steps, nil
 }

@@ -70,9 +70,9 @@ func TwoWattmeterReadings(vLine, iLine calc.Quantity, pf float64, lagging bool, 
 			k, signWord(-g), k, signWord(g)),
 		Inputs: []calc.Operand{op("V_L", calc.Quantity{V: complex(vLine.Mag(), 0), Dim: calc.DimVoltage, Kind: calc.KindMagnitude}), op("I_L", calc.Quantity{V: complex(iLine.Mag(), 0), Dim: calc.DimCurrent, Kind: calc.KindMagnitude}),
 			op("φ", calc.Angle(phi))},
-		Results: []calc.Operand{op("W1", w.W1), op("W2", w.W2)},
-		Basis:   basis,
-		Notes:   []string{Caution},
+		Results:  []calc.Operand{op("W1", w.W1), op("W2", w.W2)},
+		Basis:    basis,
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	if w.W1.V != 0 && w.W2.V != 0 && (real(w.W1.V) < 0) != (real(w.W2.V) < 0) {
 		st.Notes = append([]string{"one meter reads negative (power factor below 0.5): reverse its voltage coil to read it, and count the reading as negative"}, st.Notes...)
@@ -131,7 +131,7 @@ func FromWattmeters(w1, w2 calc.Quantity, seq Sequence) (TwoWattmeterPower, []ca
 		Formula: formula + ";  pf = P/√(P² + Q²)",
 		Inputs:  []calc.Operand{op("W1", w1), op("W2", w2)},
 		Results: []calc.Operand{op("P", r.P), op("Q", r.Q), op("S", r.S)},
-		Notes:   []string{pfNote(s), "Q from two wattmeters holds for a balanced load only; P holds for any load on three wires", Caution},
+		Notes:   []string{pfNote(s), "Q from two wattmeters holds for a balanced load only; P holds for any load on three wires"}, Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	if m := math.Hypot(p, q); m > 0 {
 		r.PFDefined = true

@@ -9,17 +9,18 @@ import (
 	"argand/reduce/sheet"
 )
 
-// Safety is the caution shown in help, beside power-factor correction and
-// three-phase results, and in the README (shared DESIGN.md).
-const Safety = `argand is a calculation aid, not a substitute for measurement, isolation
-procedures or a qualified person. Work on energised or mains equipment only
-if qualified, under local electrical codes and licensed practice. Capacitors
-can hold a lethal charge after disconnection: discharge and verify before
-touching. Verify every result by measurement before relying on it.
-Starting a large motor, loading or paralleling transformers and referring
-quantities across a vector group are work on mains plant: the permitted
-voltage dip is set by the supply's rules, and vector groups, ratios and
-phasing are checked by measurement before any switch is closed.`
+// Safety returns the safety text for help, wrapped for a terminal, and
+// the whole caution of each particular topic after it.
+func Safety() string {
+	text := strings.Join(wrap(calc.SafetyText, 76), "\n") + "\n"
+	for _, c := range calc.Cautions() {
+		if c == calc.CautionMains {
+			continue
+		}
+		text += "\n" + c.String() + "\n  " + strings.Join(wrap(c.Text(), 74), "\n  ") + "\n"
+	}
+	return text
+}
 
 const usage = `argand: AC circuit work with phasors, step by step.
 
@@ -96,49 +97,6 @@ operators, loosest first
   + -   then ||  (parallel: a + b || c is a + (b || c))   then * / · × ÷
   then unary -   then ∠   then ^ (principal value)
 constants: pi (π), e, j; read-only names f (working Hz) and w (ω, rad/s)
-statements
-  NAME = EXPR            define or redefine a named quantity
-  EXPR                   evaluate; the result gets a name such as Z3 or V2
-  frequency 60 Hz        working frequency (or rad/s); dependent values follow
-  basis rms | peak       phasor basis (S = V·I* for RMS, ½·V·I* for peak)
-  angles deg | rad       angle unit shown and read
-  digits N               significant figures shown
-  sequence abc | acb     phase sequence
-  decimal comma | point  decimal marker typed and shown from here on
-  l2l(400 V)  l2n(230 V) mark a three-phase voltage line-to-line or
-                         line-to-neutral: each three-phase function names
-                         which it takes (VLL, VLN), converts a value marked
-                         the other way with a note, and shows both forms
-  resistor R1 = 10 Ω     element values that remember their kind:
-  inductor L1 = 10 mH      an inductor's or capacitor's impedance follows
-  capacitor C1 = 1 µF      the working frequency
-  impedance Z1 = 3+j4 Ω
-  check EXPR is EXPR [within 1% [and 0.5°]]   compare with a hand calculation
-  check EXPR is EXPR within 0.01 A            absolute tolerance
-  tolerance R1 5%        a part may lie within ±5 %
-  spread [NAME =] EXPR   range of EXPR over the tolerances (sampled)
-  check EXPR reads 98.2 Ω within 1% + 2 digits of 0.1 Ω
-                         does a meter reading fit what the parts allow?
-  sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db [ref R]]
-                         table, plot, and what it found: smallest and largest
-                         |x|, resonances (angle crosses 0), half-power bands
-                         (peak/√2; √2·minimum at a dip); db: 20·log10(|x|/|R|),
-                         R = 1 for a ratio, stated for a value with a unit
-  budget 60 s            bound on a sweep's, spread's or reading check's
-                           estimated work (10 s until set); past it the
-                           statement is refused with the estimate
-  spectrum I h1 100 A ∠ -20, h5 22 % ∠ 170, h7 12 %
-                         a harmonic spectrum: the RMS value of each order
-                         (a unit, or % of h1) and its angle where known;
-                         table, RMS, THD and a bar plot. Read by hrms thd
-                         tdd crest fhl kfactor avgmeter hpower bankcheck
-  spectrum I from FILE   the same from lines of: order, value, angle in
-                         degrees (such as 5, 22 %, 170); # starts a comment
-  language 2             the input language a worksheet was written in; saved
-                           worksheets begin with it, and lines that read
-                           differently now are noted and listed
-  new session            (app and line mode) a new, empty session; the old
-                           one is kept as a worksheet file, said where
 `
 
 const networks = `networks
@@ -168,17 +126,41 @@ equivalents
   deltay bench2 = bench triangle R1 R2 R3   # new network, Y arms Y_node
 `
 
+// statements lists the statements of the language from the worksheet's
+// keyword table, after the two forms that have no keyword.
+func statements() string {
+	var b strings.Builder
+	b.WriteString("statements\n")
+	line := func(form, doc string) {
+		if doc == "" {
+			b.WriteString("  " + form + "\n")
+			return
+		}
+		b.WriteString("  " + form + strings.Repeat(" ", max(1, 23-len([]rune(form)))) + doc + "\n")
+	}
+	line("NAME = EXPR", "define or redefine a named quantity")
+	line("EXPR", "evaluate; the result gets a name such as Z3 or V2")
+	for _, h := range sheet.StatementsHelp("") {
+		line(h.Form, h.Doc)
+	}
+	// not a worksheet statement: a word of the app and the line mode
+	line("new session", "(app and line mode) a new, empty session; the old")
+	line("", "  one is kept as a worksheet file, said where")
+	return b.String()
+}
+
 // Help prints help on a topic.
 func Help(args []string, w, ew io.Writer, o Options) int {
-	text := usage + "\n" + language + "\n" + networks + "\nfunctions: argand help functions\n\nsafety\n" + Safety + "\n"
+	lang := language + statements()
+	text := usage + "\n" + lang + "\n" + networks + "\nfunctions: argand help functions\n\nsafety\n" + Safety() + "\n"
 	if len(args) > 0 {
 		switch args[0] {
 		case "language":
-			text = language
+			text = lang
 		case "networks":
 			text = networks
 		case "safety":
-			text = Safety + "\n"
+			text = Safety() + "\n"
 		case "functions":
 			text = FunctionList()
 		default:
