@@ -100,9 +100,9 @@ func keywordTable() []keyword {
 				{"", "  worksheets begin with it, and lines that read"},
 				{"", "  differently now are noted and listed"}}},
 		{word: "forget", where: outside, run: (*Sheet).stmtForget,
-			help: [][2]string{{"forget NAME", "remove a name nothing else reads"}}},
+			help: [][2]string{{"forget NAME", "remove a value nothing else reads"}}},
 		{word: "rename", where: outside, run: (*Sheet).stmtRename,
-			help: [][2]string{{"rename OLD to NEW", "give a name a new name; what reads it follows"}}},
+			help: [][2]string{{"rename OLD to NEW", "give a value a new name (nothing may read it)"}}},
 		{word: "network", where: outside, run: (*Sheet).stmtNetwork, topic: "networks",
 			help: [][2]string{
 				{"network NAME reference NODE", "a node block: elements one a line, then end"},

@@ -129,19 +129,26 @@ equivalents
 // statements lists the statements of the language from the worksheet's
 // keyword table, after the two forms that have no keyword.
 func statements() string {
+	return "statements\n" + statementLines(append([]sheet.StatementHelp{
+		{Form: "NAME = EXPR", Doc: "define or redefine a named quantity"},
+		{Form: "EXPR", Doc: "evaluate; the result gets a name such as Z3 or V2"}},
+		sheet.StatementsHelp("")...))
+}
+
+// statementLines writes statement forms with what they do beside them,
+// a form too long for its column on a line of its own.
+func statementLines(hs []sheet.StatementHelp) string {
 	var b strings.Builder
-	b.WriteString("statements\n")
-	line := func(form, doc string) {
-		if doc == "" {
-			b.WriteString("  " + form + "\n")
-			return
+	for _, h := range hs {
+		n := len([]rune(h.Form))
+		switch {
+		case h.Doc == "":
+			b.WriteString("  " + h.Form + "\n")
+		case n > 22:
+			b.WriteString("  " + h.Form + "\n" + strings.Repeat(" ", 25) + h.Doc + "\n")
+		default:
+			b.WriteString("  " + h.Form + strings.Repeat(" ", 23-n) + h.Doc + "\n")
 		}
-		b.WriteString("  " + form + strings.Repeat(" ", max(1, 23-len([]rune(form)))) + doc + "\n")
-	}
-	line("NAME = EXPR", "define or redefine a named quantity")
-	line("EXPR", "evaluate; the result gets a name such as Z3 or V2")
-	for _, h := range sheet.StatementsHelp("") {
-		line(h.Form, h.Doc)
 	}
 	// not a worksheet statement: a word of the app and the line mode
 	line("new session", "(app and line mode) a new, empty session; the old")
@@ -152,13 +159,14 @@ func statements() string {
 // Help prints help on a topic.
 func Help(args []string, w, ew io.Writer, o Options) int {
 	lang := language + statements()
-	text := usage + "\n" + lang + "\n" + networks + "\nfunctions: argand help functions\n\nsafety\n" + Safety() + "\n"
+	nets := networks + "\nnetwork statements\n" + statementLines(sheet.StatementsHelp("networks"))
+	text := usage + "\n" + lang + "\n" + nets + "\nfunctions: argand help functions\n\nsafety\n" + Safety() + "\n"
 	if len(args) > 0 {
 		switch args[0] {
 		case "language":
 			text = lang
 		case "networks":
-			text = networks
+			text = nets
 		case "safety":
 			text = Safety() + "\n"
 		case "functions":

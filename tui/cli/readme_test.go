@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 
+	"argand/calc"
 	"argand/reduce/sheet"
 )
 
@@ -117,4 +118,15 @@ func jsonValues(t *testing.T, out string) []string {
 		vals = append(vals, strings.Join(keep, " "))
 	}
 	return vals
+}
+
+// The README carries the one safety text word for word.
+func TestReadmeSafety(t *testing.T) {
+	b, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Skip("README.md not found:", err)
+	}
+	if !strings.Contains(string(b), calc.SafetyText) {
+		t.Errorf("README.md lacks the safety text:\n%s", calc.SafetyText)
+	}
 }
