@@ -30,6 +30,10 @@ type Evaluator struct {
 	// Since is the newest language version whose reading the evaluation
 	// used (a part value turned into its impedance), 0 if none.
 	Since int
+	// Seen, when set, is told the value of every part of the expression
+	// as it is evaluated, so that a record of the work can show the
+	// operands without evaluating them again.
+	Seen func(e Expr, q Quantity)
 }
 
 // Eval evaluates e. A call at the root returns the function's whole result,
@@ -144,6 +148,14 @@ func (ev *Evaluator) errCol(col int, err error) *Error {
 }
 
 func (ev *Evaluator) eval(e Expr) (Quantity, *Error) {
+	q, err := ev.evalNode(e)
+	if err == nil && ev.Seen != nil {
+		ev.Seen(e, q)
+	}
+	return q, err
+}
+
+func (ev *Evaluator) evalNode(e Expr) (Quantity, *Error) {
 	switch n := e.(type) {
 	case *Lit:
 		v := n.Val

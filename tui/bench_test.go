@@ -25,7 +25,7 @@ func benchModel(b *testing.B) *Model {
 		}
 		stmts = append(stmts, fmt.Sprintf("Zb%d = %d%sj%d Ω", i, i+1, sign, x))
 	}
-	if _, err := m.s.exec(sheet.Job{}, stmts...); err != nil {
+	if _, _, err := m.s.exec(sheet.Job{}, stmts...); err != nil {
 		b.Fatal(err)
 	}
 	m.s.v.Marks = m.s.rows()[:6]

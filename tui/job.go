@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"slices"
 	"sync/atomic"
 	"time"
 
@@ -42,24 +43,31 @@ type jobResult struct {
 	id    int
 	work  *sheet.Sheet
 	steps []calc.Step
-	err   error
+	// defined are the names the statements defined, in order
+	defined []string
+	err     error
 }
 
 // jobDoneMsg tells the app a job has finished.
 type jobDoneMsg jobResult
 
 // runStatements runs statements on sh as one change under a job: the
-// first error stops them.
-func runStatements(j sheet.Job, sh *sheet.Sheet, stmts []string) ([]calc.Step, error) {
+// first error stops them. It returns their steps and the names they
+// defined, each once, in the order of their last definition.
+func runStatements(j sheet.Job, sh *sheet.Sheet, stmts []string) ([]calc.Step, []string, error) {
 	var steps []calc.Step
+	var defined []string
 	for _, st := range stmts {
-		s, err := sh.ExecJob(j, st)
+		s, names, err := sh.ExecJob(j, st)
 		if err != nil {
-			return nil, err
+			return nil, nil, err
 		}
 		steps = append(steps, s...)
+		for _, n := range names {
+			defined = append(slices.DeleteFunc(defined, func(x string) bool { return x == n }), n)
+		}
 	}
-	return steps, nil
+	return steps, defined, nil
 }
 
 // startJob runs statements as one change. They run on a working copy in a
@@ -95,8 +103,8 @@ func (m *Model) startJob(what string, then func(), stmts ...string) bool {
 		j.total.Store(int64(total))
 	}}
 	go func() {
-		steps, err := runStatements(sj, work, stmts)
-		done <- jobResult{id: j.id, work: work, steps: steps, err: err}
+		steps, defined, err := runStatements(sj, work, stmts)
+		done <- jobResult{id: j.id, work: work, steps: steps, defined: defined, err: err}
 	}()
 	wait := m.opt.Wait
 	if wait <= 0 {
@@ -133,7 +141,7 @@ func (m *Model) finishJob(what string, then func(), r jobResult) bool {
 		return false
 	}
 	m.s.commit(r.work)
-	m.applied(what, r.steps)
+	m.applied(what, r.steps, r.defined)
 	if then != nil {
 		then()
 	}

@@ -161,13 +161,13 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 			func(ans []string) {
 				st := "thevenin " + ans[2] + " = " + n.name + " between " + ans[0] + " and " + ans[1]
 				z := "Z" + ans[2] + " = " + ans[2] + ".zth"
-				if _, err := m.s.sh.Clone().Exec(st); err != nil {
+				if _, _, err := m.s.sh.Clone().Exec(st); err != nil {
 					m.note(true, "Thevenin: "+errText(err))
 					return
 				}
 				c := m.s.sh.Clone()
 				c.Exec(st)
-				if _, err := c.Exec(z); err == nil {
+				if _, _, err := c.Exec(z); err == nil {
 					m.run("Thevenin equivalent (V_th is "+ans[2]+", Z_th is Z"+ans[2]+")", st, z)
 				} else {
 					m.run("equivalent", st)

@@ -62,12 +62,12 @@ func (m *Model) runThen(what string, then func(), stmts ...string) {
 // returns the steps, or the error also noted. The line mode uses it,
 // stopping the statement when job is done.
 func (m *Model) apply(job sheet.Job, what string, stmts ...string) ([]calc.Step, error) {
-	steps, err := m.s.exec(job, stmts...)
+	steps, defined, err := m.s.exec(job, stmts...)
 	if err != nil {
 		m.failed(what, err)
 		return nil, err
 	}
-	m.applied(what, steps)
+	m.applied(what, steps, defined)
 	return steps, nil
 }
 
@@ -83,27 +83,19 @@ func (m *Model) failed(what string, err error) {
 }
 
 // applied brings the names a change defined to the top of the table and
-// notes its outcome.
-func (m *Model) applied(what string, steps []calc.Step) {
-	// the names the statements define (not those re-evaluated because
-	// they depend on them) come to the top: the newest row is the top row
-	var defined []string
+// notes its outcome. The worksheet says which names the statements
+// defined (not those re-evaluated because they read one): the newest row
+// is the top row.
+func (m *Model) applied(what string, steps []calc.Step, defined []string) {
+	defined = slices.DeleteFunc(slices.Clone(defined), func(n string) bool {
+		_, ok := m.s.sh.Lookup(n)
+		return !ok
+	})
 	res := ""
-	for _, st := range steps {
-		if st.Kind == "recompute" {
-			continue
-		}
-		for _, r := range st.Results {
-			if strings.Contains(r.Name, ".") || slices.Contains(defined, r.Name) {
-				continue
-			}
-			if _, ok := m.s.sh.Lookup(r.Name); ok {
-				defined = append(defined, r.Name)
-				res = r.Name + " = " + m.format().Both(r.Value, m.s.v.PolarFirst)
-			}
-		}
-	}
 	if len(defined) > 0 {
+		last := defined[len(defined)-1]
+		q, _ := m.s.sh.Lookup(last)
+		res = last + " = " + m.format().Both(q, m.s.v.PolarFirst)
 		for _, d := range defined {
 			m.s.unhide(d)
 		}
@@ -147,7 +139,7 @@ func errText(err error) string {
 func (m *Model) newName(expr string) (string, error) {
 	c := m.s.sh.Clone()
 	before := len(c.Entries())
-	if _, err := c.Exec(expr); err != nil {
+	if _, _, err := c.Exec(expr); err != nil {
 		return "", err
 	}
 	ents := c.Entries()

@@ -285,17 +285,17 @@ func (s *session) errReadOnly() error { return &readOnlyError{pid: s.holder, why
 
 // exec runs statements as one change, all of them or none, stopping
 // when job is done; a stopped change leaves the session as it was.
-func (s *session) exec(job sheet.Job, stmts ...string) ([]calc.Step, error) {
+func (s *session) exec(job sheet.Job, stmts ...string) ([]calc.Step, []string, error) {
 	if s.readOnly {
-		return nil, s.errReadOnly()
+		return nil, nil, s.errReadOnly()
 	}
 	work := s.sh.Clone()
-	steps, err := runStatements(job, work, stmts)
+	steps, defined, err := runStatements(job, work, stmts)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	s.commit(work)
-	return steps, nil
+	return steps, defined, nil
 }
 
 // commit makes work, a copy of the worksheet changed by statements, the

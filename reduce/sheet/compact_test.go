@@ -29,11 +29,11 @@ func TestFlatCompactChains(t *testing.T) {
 			names := make([]string, c.n)
 			for i := range names {
 				names[i] = fmt.Sprintf("R%d", i+1)
-				if _, err := s.Exec("resistor " + names[i] + " = " + c.value); err != nil {
+				if _, _, err := s.Exec("resistor " + names[i] + " = " + c.value); err != nil {
 					t.Fatal(err)
 				}
 			}
-			if _, err := s.Exec("network N = " + strings.Join(names, c.op) + " fed by 10 V"); err != nil {
+			if _, _, err := s.Exec("network N = " + strings.Join(names, c.op) + " fed by 10 V"); err != nil {
 				t.Fatalf("flat chain refused: %v", err)
 			}
 			z, _ := s.Lookup("N.z")
@@ -48,7 +48,7 @@ func TestFlatCompactChains(t *testing.T) {
 	s.Exec("resistor Ra = 1 Ω")
 	s.Exec("resistor Rb = 1 Ω")
 	deep := strings.Repeat("(Ra || ", calc.MaxDepth/2+2) + "Rb" + strings.Repeat(")", calc.MaxDepth/2+2)
-	_, err := s.Exec("network D = " + deep)
+	_, _, err := s.Exec("network D = " + deep)
 	if err == nil || !strings.Contains(err.Error(), "nested too deeply") {
 		t.Errorf("deep nesting: %v", err)
 	}
@@ -60,7 +60,7 @@ func TestSweepErrorOnce(t *testing.T) {
 		"sweep exp(1000*f/1 Hz) from 1 Hz to 10 Hz",
 		"sweep ln(0*f/1 Hz) from 1 Hz to 10 Hz",
 	} {
-		_, err := New().Exec(src)
+		_, _, err := New().Exec(src)
 		if err == nil {
 			t.Fatalf("%s: no error", src)
 		}

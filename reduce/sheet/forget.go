@@ -144,6 +144,7 @@ func (s *Sheet) stmtRename(p *calc.Parser) error {
 		delete(s.tols, old)
 		s.tols[nt.Text] = t
 	}
+	s.defined = append(s.defined, nt.Text)
 	s.record(calc.Step{Kind: "rename", Source: p.Source(), Rule: old + " is now called " + nt.Text, Results: []calc.Operand{{Name: nt.Text, Value: d.value}}})
 	return nil
 }

@@ -9,7 +9,7 @@ func run(t *testing.T, lines ...string) (*Sheet, error) {
 	t.Helper()
 	s := New()
 	for _, l := range lines {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			return s, err
 		}
 	}

@@ -53,7 +53,7 @@ func FuzzSheet(f *testing.F) {
 		}
 		s := New()
 		for i, line := range lines {
-			steps, err := s.Exec(line)
+			steps, _, err := s.Exec(line)
 			if err != nil {
 				le, ok := err.(*calc.Error)
 				if !ok {

@@ -42,19 +42,19 @@ var errStop = errors.New("stopped")
 // copies (sweep points, tolerance samples); the other work of a statement
 // (re-solving the networks a changed value feeds) runs to its end, so
 // that it never leaves the worksheet half changed.
-func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, error) {
+func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, []string, error) {
 	line := s.line
 	if job.Ctx != nil && job.Ctx.Err() != nil {
-		return nil, &Interrupted{Line: line + 1}
+		return nil, nil, &Interrupted{Line: line + 1}
 	}
 	s.job = &job
 	defer func() { s.job = nil }()
-	steps, err := s.Exec(src)
+	steps, defined, err := s.Exec(src)
 	if err != nil && job.Ctx != nil && job.Ctx.Err() != nil {
 		s.line = line
-		return nil, &Interrupted{Line: line + 1}
+		return nil, nil, &Interrupted{Line: line + 1}
 	}
-	return steps, err
+	return steps, defined, err
 }
 
 // stopped reports errStop when the job of a working copy is done.

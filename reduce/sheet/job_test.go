@@ -71,7 +71,7 @@ func TestStopAtAnyPoint(t *testing.T) {
 				cancel()
 				job = Job{Ctx: ctx}
 			}
-			_, err := s.ExecJob(job, tc.src)
+			_, _, err := s.ExecJob(job, tc.src)
 			var stop *Interrupted
 			if !errors.As(err, &stop) {
 				t.Fatalf("%s stopped at sample %d: error %v, want an interruption", tc.src, k, err)
@@ -85,7 +85,7 @@ func TestStopAtAnyPoint(t *testing.T) {
 		}
 		// and the same statement, not stopped, runs to its end
 		job, n := cancelAfter(math.MaxInt)
-		if _, err := s.ExecJob(job, tc.src); err != nil {
+		if _, _, err := s.ExecJob(job, tc.src); err != nil {
 			t.Fatalf("%s: %v", tc.src, err)
 		}
 		if *n < 2 {
@@ -138,7 +138,7 @@ func TestBudget(t *testing.T) {
 		t.Fatalf("budget %g s, want 0.1 s", got)
 	}
 	before := fingerprint(s)
-	_, err := s.Exec("sweep lad.n10.v from 10 Hz to 100 kHz points 100000")
+	_, _, err := s.Exec("sweep lad.n10.v from 10 Hz to 100 kHz points 100000")
 	if err == nil {
 		t.Fatal("a sweep of 100 000 points over a network ran within a budget of 0.1 s")
 	}
@@ -156,7 +156,7 @@ func TestBudget(t *testing.T) {
 	}
 	runLines(t, s, "sweep lad.n10.v from 10 Hz to 100 kHz points 50")
 	for _, bad := range []string{"budget", "budget 5", "budget 0 s", "budget 1e9 s", "budget 5 V"} {
-		if _, err := s.Exec(bad); err == nil {
+		if _, _, err := s.Exec(bad); err == nil {
 			t.Errorf("%q accepted", bad)
 		}
 	}
@@ -171,7 +171,7 @@ func TestPropagateOnce(t *testing.T) {
 		lines = append(lines, fmt.Sprintf("Z%d = Z%d || 100 Ω", k, k-1))
 	}
 	runLines(t, s, lines...)
-	steps, err := s.Exec("Z0 = 20 Ω")
+	steps, _, err := s.Exec("Z0 = 20 Ω")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -18,7 +18,7 @@ func TestReservedNames(t *testing.T) {
 	}
 	for _, r := range reserved {
 		s := New()
-		_, err := s.Exec(r.name + " = 1")
+		_, _, err := s.Exec(r.name + " = 1")
 		le, ok := err.(*calc.Error)
 		if !ok {
 			t.Errorf("%s = 1: error %v, want a located error", r.name, err)
@@ -31,13 +31,13 @@ func TestReservedNames(t *testing.T) {
 	for _, ok := range []string{"Rload", "Vs", "mS1", "Z_a", "Ia", "kk", "x",
 		"S", "V", "A", "H", "F", "W", "mS", "ms", "m", "kΩ", "Hz", "var", "VA", "C"} {
 		s := New()
-		if _, err := s.Exec(ok + " = 1"); err != nil {
+		if _, _, err := s.Exec(ok + " = 1"); err != nil {
 			t.Errorf("%s = 1: %v", ok, err)
 		}
 	}
 	// "i" and "j" read as the imaginary unit
 	for _, n := range []string{"j", "i"} {
-		if _, err := New().Exec(n + " = 1"); err == nil {
+		if _, _, err := New().Exec(n + " = 1"); err == nil {
 			t.Errorf("%s = 1 accepted", n)
 		}
 	}
@@ -50,12 +50,12 @@ func TestReservedNames(t *testing.T) {
 func TestFrequencyRecompute(t *testing.T) {
 	s := New()
 	for _, l := range []string{"inductor L1 = 10 mH", "Zs = L1 + 10 Ω"} {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatal(err)
 		}
 	}
 	first := s.Steps()[len(s.Steps())-1]
-	steps, err := s.Exec("frequency 60 Hz")
+	steps, _, err := s.Exec("frequency 60 Hz")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -212,7 +212,7 @@ func (ru *runner) run(line string) bool {
 		return true
 	}
 	fails := s.fail
-	steps, e := s.ExecJob(ru.job, line)
+	steps, _, e := s.ExecJob(ru.job, line)
 	var stop *Interrupted
 	if errors.As(e, &stop) {
 		ru.sum.Interrupted = stop.Line

@@ -9,6 +9,7 @@ package sheet
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -106,6 +107,9 @@ type Sheet struct {
 	// shown whole in this session, each a set of bits by topic: the
 	// whole text is shown once per session, then its line.
 	cautionSeen, cautionFull uint32
+	// defined lists the names the statement being run defined or
+	// redefined, in order, for Exec to return.
+	defined []string
 	// quiet marks a working copy that evaluates samples (sweep points,
 	// tolerance samples): networks are solved again without steps.
 	quiet bool
@@ -441,6 +445,9 @@ func (s *Sheet) setValue(d *def) error {
 	old, exists := s.byName[d.name]
 	if !exists && len(s.byName) >= s.limits.Names {
 		return fmt.Errorf("too many names (the limit is %d)", s.limits.Names)
+	}
+	if d.owner == "" && !slices.Contains(s.defined, d.name) {
+		s.defined = append(s.defined, d.name)
 	}
 	if exists {
 		// a redefinition keeps its place, so dependents stay after it

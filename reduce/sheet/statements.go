@@ -11,10 +11,12 @@ import (
 )
 
 // Exec runs one statement as the next line of the worksheet and returns
-// the steps it produced (they are also added to the trail). On error
+// the steps it produced (they are also added to the trail) and the names
+// it defined or redefined, in order (not those re-evaluated because they
+// read one, nor the dotted results of a function or network). On error
 // nothing of the statement is kept, and the returned error is a
 // *calc.Error that names the line and column.
-func (s *Sheet) Exec(src string) ([]calc.Step, error) {
+func (s *Sheet) Exec(src string) ([]calc.Step, []string, error) {
 	s.line++
 	return s.ExecLine(src, s.line)
 }
@@ -26,19 +28,19 @@ func (s *Sheet) SetLine(n int) { s.line = n }
 // Line returns the number of the last line run.
 func (s *Sheet) Line() int { return s.line }
 
-// ExecLine runs one statement as line n.
-func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
+// ExecLine runs one statement as line n, like Exec.
+func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, []string, error) {
 	s.line = n
-	s.noteSeen, s.cautionSeen = nil, 0
+	s.noteSeen, s.cautionSeen, s.defined = nil, 0, nil
 	if err := s.fits(len(src)); err != nil {
-		return nil, lineErr(n, 1, 1, "%v", err)
+		return nil, nil, lineErr(n, 1, 1, "%v", err)
 	}
 	before, full := len(s.steps), s.cautionFull
 	s.since, s.shadow = 0, ""
 	err := s.exec(src, n)
 	if err != nil {
-		s.steps, s.cautionFull = s.steps[:before], full
-		return nil, err
+		s.steps, s.cautionFull, s.defined = s.steps[:before], full, nil
+		return nil, nil, err
 	}
 	if s.lang > 0 && s.since > s.lang && len(s.steps) > before {
 		// the worksheet was written for an older reading of input: say
@@ -61,7 +63,9 @@ func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, error) {
 	default:
 		s.stmts = append(s.stmts, src)
 	}
-	return s.steps[before:len(s.steps):len(s.steps)], nil
+	defined := s.defined
+	s.defined = nil
+	return s.steps[before:len(s.steps):len(s.steps)], defined, nil
 }
 
 // Changed returns the lines whose reading changed since the language
@@ -520,7 +524,12 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	if err := p.Err(); err != nil {
 		return err
 	}
-	r, err := s.eval(p, e)
+	// the operands' values are kept as the evaluation meets them, for
+	// the step that describes it
+	vals := map[calc.Expr]calc.Quantity{}
+	ev := s.evaluator(p.Source(), s.line)
+	ev.Seen = func(x calc.Expr, q calc.Quantity) { vals[x] = q }
+	r, err := ev.Eval(e)
 	if err != nil {
 		return err
 	}
@@ -544,7 +553,7 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 		return p.Err()
 	}
 	extras := s.setExtras(name, src, r.Extra)
-	st := s.describe(p, e, r)
+	st := s.describe(p, e, r, vals)
 	st.Kind = "define"
 	if auto {
 		st.Kind = "eval"
@@ -578,10 +587,10 @@ func (s *Sheet) setExtras(name, src string, extra []calc.Operand) []calc.Operand
 }
 
 // describe builds the step of an evaluation: the rule and formula of the
-// outermost operation and each of its operands with its value.
-func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
+// outermost operation and each of its operands with the value the
+// evaluation found for it (vals), never evaluated a second time.
+func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result, vals map[calc.Expr]calc.Quantity) calc.Step {
 	st := calc.Step{Source: p.Source(), Notes: r.Notes, Cautions: r.Cautions}
-	ev := s.evaluator(p.Source(), s.line)
 	operand := func(x calc.Expr) {
 		if _, ok := x.(*calc.Lit); ok {
 			return
@@ -591,11 +600,11 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result) calc.Step {
 				return
 			}
 		}
-		v, err := ev.Eval(x)
-		if err != nil {
+		v, ok := vals[x]
+		if !ok {
 			return
 		}
-		st.Inputs = append(st.Inputs, calc.Operand{Name: p.Text(x), Value: v.Value})
+		st.Inputs = append(st.Inputs, calc.Operand{Name: p.Text(x), Value: v})
 	}
 	inner := e
 	for {

@@ -15,7 +15,7 @@ func TestNetworkViewCompact(t *testing.T) {
 	s := New()
 	for _, l := range []string{"resistor R1 = 10 Ω", "inductor L1 = 10 mH", "resistor R2 = 4.7 Ω", "capacitor C1 = 100 µF",
 		"network ckt = R1 + (L1 || (R2 + C1)) fed by 24 V"} {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
 	}
@@ -69,7 +69,7 @@ func TestNetworkViewBridge(t *testing.T) {
 	for _, l := range []string{"network br reference gnd", "voltage source V1 = 10 V from gnd to a",
 		"resistor Ra = 1 Ω from a to b", "resistor Rb = 1 Ω from a to c", "resistor Rc = 1 Ω from b to c",
 		"resistor Rd = 1 Ω from b to gnd", "resistor Re = 2 Ω from c to gnd", "end"} {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
 	}

@@ -28,7 +28,7 @@ func perUnit(b *testing.B, cpu time.Duration, units int, unit string) {
 func runLines(tb testing.TB, s *Sheet, lines ...string) {
 	tb.Helper()
 	for _, l := range lines {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			tb.Fatalf("%s: %v", l, err)
 		}
 	}

@@ -143,7 +143,7 @@ func EvalContext(ctx context.Context, args []string, w, ew io.Writer, o Options)
 			return ExitBadInput
 		}
 		s.SetLine(i)
-		steps, err := s.ExecJob(sheet.Job{Ctx: ctx}, a)
+		steps, _, err := s.ExecJob(sheet.Job{Ctx: ctx}, a)
 		var stop *sheet.Interrupted
 		if errors.As(err, &stop) {
 			return Interrupted(ew, i+1)
