@@ -6,7 +6,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 
 	"argand/calc"
@@ -44,6 +46,9 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 	defer m.Close()
 	br := bufio.NewReader(in)
 	p := &cli.Printer{W: w, Err: w, O: cli.Options{ASCII: opt.ASCII}}
+	// steps are wrapped between words; messages are not, so that a file
+	// name in one stays whole for copying
+	width := plainWidth(m.opt.Getenv)
 	say := func(s string) { fmt.Fprintln(w, m.tr(s)) }
 	if m.mode == modeLocked {
 		if !m.plainLocked(br, say) {
@@ -131,7 +136,7 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 			m.plainList(say)
 			continue
 		case "trail":
-			fmt.Fprint(w, m.trailText())
+			fmt.Fprint(w, wrapText(m.trailText(), width))
 			continue
 		case "undo", "redo":
 			if arg != "" {
@@ -183,7 +188,7 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 		}
 		f := m.format()
 		for i := range steps {
-			fmt.Fprint(w, steps[i].Text(f, m.s.v.PolarFirst))
+			fmt.Fprint(w, wrapText(steps[i].Text(f, m.s.v.PolarFirst), width))
 		}
 		m.plainSaveErr(say)
 	}
@@ -251,4 +256,34 @@ func (m *Model) plainList(say func(string)) {
 		q, _ := m.s.sh.Lookup(n)
 		say(fmt.Sprintf("  %-10s %s", n, f.Both(q, m.s.v.PolarFirst)))
 	}
+}
+
+// plainWidth is the width the line mode wraps to: COLUMNS when it is set
+// to a sensible number, else 80.
+func plainWidth(getenv func(string) string) int {
+	if getenv == nil {
+		getenv = os.Getenv
+	}
+	if n, err := strconv.Atoi(getenv("COLUMNS")); err == nil && n >= 20 && n <= 1000 {
+		return n
+	}
+	return 80
+}
+
+// wrapText wraps each line of text to width between words, a continued
+// line hanging under its own, so that a terminal never breaks a word or a
+// value.
+func wrapText(text string, width int) string {
+	var b strings.Builder
+	for _, l := range strings.SplitAfter(text, "\n") {
+		body, nl := strings.CutSuffix(l, "\n")
+		if body == "" && !nl {
+			continue
+		}
+		b.WriteString(strings.Join(wrapLine(body, width, hangIndent(body)), "\n"))
+		if nl {
+			b.WriteByte('\n')
+		}
+	}
+	return b.String()
 }

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"argand/calc"
 	"argand/tui/cli"
 	"argand/tui/store"
 )
@@ -156,5 +157,45 @@ func TestPlainFirstStartLocked(t *testing.T) {
 	}
 	if !errors.Is(probe.err, store.ErrLocked) {
 		t.Errorf("while the line mode ran, Lock gave %v, want ErrLocked\n%s", probe.err, out.String())
+	}
+}
+
+// The line mode wraps a step's long lines between words at COLUMNS (80
+// when unset), so that no word or value is broken by the terminal.
+func TestPlainWrapsBetweenWords(t *testing.T) {
+	t.Setenv("XDG_STATE_HOME", t.TempDir())
+	var out bytes.Buffer
+	env := func(k string) string {
+		if k == "COLUMNS" {
+			return "60"
+		}
+		return ""
+	}
+	in := "Qw = pfc(10 kW, 0.7, 0.95, 400 V, three)\nquit\n"
+	if code := Plain(Options{Getenv: env}, strings.NewReader(in), &out); code != 0 {
+		t.Fatalf("exit %d:\n%s", code, out.String())
+	}
+	_, steps, _ := strings.Cut(out.String(), "Qw = pfc")
+	long := 0
+	words := map[string]bool{}
+	for _, w := range strings.Fields(strings.ReplaceAll(calc.CautionCapacitor.Text(), "\n", " ")) {
+		words[w] = true
+	}
+	for _, l := range strings.Split(steps, "\n") {
+		if n := len([]rune(l)); n > 60 {
+			t.Errorf("line of %d characters past 60 columns: %q", n, l)
+		}
+		if len([]rune(l)) > 40 {
+			long++
+		}
+		// the last word of each line is whole: it is a word of the text
+		// or the line ends where the text has a space
+		f := strings.Fields(l)
+		if len(f) > 0 && strings.Contains(l, "Capacitor banks") && !words[f[len(f)-1]] {
+			t.Errorf("a word broken at the line's end: %q", l)
+		}
+	}
+	if long < 5 {
+		t.Errorf("too little output to judge:\n%s", steps)
 	}
 }

@@ -10,8 +10,9 @@
 //	argand serve [FLAGS]   serve the app over SSH (loopback unless --listen)
 //	argand --version
 //
-// Flags: --json, --digits N, --ascii, --plain, --new, --decimal-comma. Exit codes: 0 ok, 1 a
-// check failed, 2 bad input or usage, 130 interrupted (ctrl+c).
+// Flags: --json, --digits N, --ascii, --polar, --plain, --new,
+// --decimal-comma. Exit codes: 0 ok, 1 a check failed, 2 bad input or
+// usage, 130 interrupted (ctrl+c).
 package main
 
 import (
@@ -181,12 +182,13 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 }
 
 // open starts the app on a terminal, the line mode on a terminal that
-// cannot address the screen (or with --plain), and otherwise runs the
-// worksheet (or the example) non-interactively.
+// cannot address the screen or with --plain (which reads statements from
+// standard input, piped or typed), and otherwise runs the worksheet (or
+// the example) non-interactively.
 func open(file string, in io.Reader, out, errw io.Writer, f flags) int {
 	tty := term.IsTerminal(os.Stdin.Fd()) && term.IsTerminal(os.Stdout.Fd())
 	switch {
-	case !tty:
+	case !tty && !f.plain:
 		ctx, stop := interruptible()
 		defer stop()
 		return cli.BatchContext(ctx, file, in, out, errw, f.opt)

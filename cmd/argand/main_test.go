@@ -246,3 +246,22 @@ func TestInjection(t *testing.T) {
 		t.Errorf("the sequence is not shown escaped:\n%s", errs)
 	}
 }
+
+// TestPlainPiped: --plain reads the statements piped to it in the line
+// mode (it once ignored them and ran the example), on a session of its own
+// state directory.
+func TestPlainPiped(t *testing.T) {
+	cmd := exec.Command(bin, "--plain")
+	cmd.Env = append(env(utf8Lang), "XDG_STATE_HOME="+t.TempDir())
+	cmd.Stdin = strings.NewReader("Zpiped = 3+j4 Ω\nZpiped * 2\nquit\n")
+	var out, errb bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &out, &errb
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("argand --plain: %v\n%s", err, errb.String())
+	}
+	for _, want := range []string{"line mode", "Zpiped = 3.000 + j4.000 Ω", "6.000 + j8.000 Ω"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("--plain with piped statements lacks %q:\n%s", want, out.String())
+		}
+	}
+}

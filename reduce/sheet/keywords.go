@@ -75,11 +75,11 @@ func keywordTable() []keyword {
 				{"", "does a meter reading fit what the parts allow?"}}},
 		{word: "sweep", where: outside, run: (*Sheet).stmtSweep,
 			help: [][2]string{
-			{"sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db [ref R]]", ""},
-			{"", "table, plot, and what it found: smallest and largest"},
-			{"", "|x|, resonances (angle crosses 0), half-power bands"},
-			{"", "(peak/√2; √2·minimum at a dip); db: 20·log10(|x|/|R|),"},
-			{"", "R = 1 for a ratio, stated for a value with a unit"}}},
+				{"sweep EXPR from 10 Hz to 10 kHz [points N] [log|linear] [db [ref R]]", ""},
+				{"", "table, plot, and what it found: smallest and largest"},
+				{"", "|x|, resonances (angle crosses 0), half-power bands"},
+				{"", "(peak/√2; √2·minimum at a dip); db: 20·log10(|x|/|R|),"},
+				{"", "R = 1 for a ratio, stated for a value with a unit"}}},
 		{word: "budget", where: outside, run: (*Sheet).stmtBudget,
 			help: [][2]string{
 				{"budget 60 s", "bound on a sweep's, spread's or reading check's"},

@@ -371,7 +371,7 @@ func (s *Sheet) validName(p *calc.Parser, t calc.Item) bool {
 	return true
 }
 
-// fail builds a located error.
+// lineErr builds an error located at line and column, n characters long.
 func lineErr(line, col, n int, format string, a ...any) *calc.Error {
 	if n < 1 {
 		n = 1
@@ -439,8 +439,10 @@ func (s *Sheet) cautions(in []calc.StepCaution) []calc.StepCaution {
 	return out
 }
 
-// setValue stores a definition (new or replacing), and re-evaluates the
-// definitions that depend on it. It returns the recompute step, if any.
+// setValue stores a definition, new or replacing an old one in its place
+// (so that what depends on it stays after it), and notes its name among
+// those the statement defined. It refuses a circular redefinition and a
+// worksheet past MaxNames; the caller re-evaluates what depends on it.
 func (s *Sheet) setValue(d *def) error {
 	old, exists := s.byName[d.name]
 	if !exists && len(s.byName) >= s.limits.Names {

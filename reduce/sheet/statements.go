@@ -137,8 +137,9 @@ func (s *Sheet) stmtLanguage(p *calc.Parser) error {
 	return nil
 }
 
-// Validate parses one statement without running it and returns its first
-// syntax error, for live feedback while typing.
+// Validate checks one statement on a copy of the worksheet, without the
+// long computations (sweeps, tolerance ranges), and returns its first
+// error, for live feedback while typing; the worksheet is not changed.
 func (s *Sheet) Validate(src string) *calc.Error {
 	if !utf8.ValidString(src) || len(src) > calc.MaxLine {
 		return s.execErr(src, 1)
@@ -492,12 +493,7 @@ func depsOf(e calc.Expr) map[string]bool {
 				deps["f"] = true
 			}
 		case *calc.Call:
-			switch n.Fun {
-			case "zl", "zc", "pfc", "resonance":
-				deps["f"] = true
-			default:
-				deps["f"] = true // functions may read the working frequency
-			}
+			deps["f"] = true // a function may read the working frequency
 		}
 	})
 	return deps
