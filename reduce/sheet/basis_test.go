@@ -90,11 +90,11 @@ func TestEveryFunctionBothBases(t *testing.T) {
 		for _, basis := range []string{"rms", "peak"} {
 			s := New()
 			for _, l := range append([]string{"basis " + basis}, before...) {
-				if _, err := s.Exec(l); err != nil {
+				if _, _, err := s.Exec(l); err != nil {
 					t.Fatal(err)
 				}
 			}
-			steps, err := s.Exec("x = " + src)
+			steps, _, err := s.Exec("x = " + src)
 			if err != nil {
 				t.Errorf("%s on basis %s: %v", src, basis, err)
 				continue

@@ -33,7 +33,7 @@ func TestFieldMeanings(t *testing.T) {
 	want := map[string]string{"s": "complex-power", "sa": "apparent-power", "p": "active-power", "q": "reactive-power"}
 	for _, c := range calls {
 		s := New()
-		if _, err := s.Exec("x = " + c); err != nil {
+		if _, _, err := s.Exec("x = " + c); err != nil {
 			t.Errorf("%s: %v", c, err)
 			continue
 		}
@@ -70,7 +70,7 @@ func TestParamKindsRefused(t *testing.T) {
 		{"xfmr(S = 500 kVA, V1 = 11 kV, V2 = 400 V, z = 4.5%, zr = 6)", `xfmr has no parameter "zr"`},
 	}
 	for _, tt := range tests {
-		_, err := New().Exec(tt.src)
+		_, _, err := New().Exec(tt.src)
 		if err == nil {
 			t.Errorf("%s: accepted, want %q", tt.src, tt.want)
 			continue
@@ -92,10 +92,10 @@ func TestNamedArgumentsAgree(t *testing.T) {
 	}
 	for _, p := range pairs {
 		a, b := New(), New()
-		if _, err := a.Exec("x = " + p[0]); err != nil {
+		if _, _, err := a.Exec("x = " + p[0]); err != nil {
 			t.Fatalf("%s: %v", p[0], err)
 		}
-		if _, err := b.Exec("x = " + p[1]); err != nil {
+		if _, _, err := b.Exec("x = " + p[1]); err != nil {
 			t.Fatalf("%s: %v", p[1], err)
 		}
 		qa, _ := a.Lookup("x")
@@ -109,7 +109,7 @@ func TestNamedArgumentsAgree(t *testing.T) {
 // TestFrequencyOverflow: a frequency whose ω = 2π·f overflows is refused
 // with the reason, never shown as Inf (IEEE 754 range, common practice).
 func TestFrequencyOverflow(t *testing.T) {
-	_, err := New().Exec("frequency 1e308 Hz")
+	_, _, err := New().Exec("frequency 1e308 Hz")
 	if err == nil || !strings.Contains(err.Error(), "ω = 2π·f would overflow") {
 		t.Errorf("frequency 1e308 Hz: %v", err)
 	}
@@ -120,10 +120,10 @@ func TestFrequencyOverflow(t *testing.T) {
 // exactly what it compared and with which angle tolerance.
 func TestCheckComparesKinds(t *testing.T) {
 	s := New()
-	if _, err := s.Exec("x = 800+j600 VA"); err != nil {
+	if _, _, err := s.Exec("x = 800+j600 VA"); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := s.Exec("check x is 600 W within 1%"); err == nil || !strings.Contains(err.Error(), "the kinds differ") {
+	if _, _, err := s.Exec("check x is 600 W within 1%"); err == nil || !strings.Contains(err.Error(), "the kinds differ") {
 		t.Errorf("check of VA against W: %v", err)
 	}
 	tests := []struct{ src, want string }{
@@ -133,7 +133,7 @@ func TestCheckComparesKinds(t *testing.T) {
 		{"check im(x) is -600 var within 1%", "on the value"},
 	}
 	for _, tt := range tests {
-		steps, err := s.Exec(tt.src)
+		steps, _, err := s.Exec(tt.src)
 		if err != nil {
 			t.Errorf("%s: %v", tt.src, err)
 			continue
@@ -144,7 +144,7 @@ func TestCheckComparesKinds(t *testing.T) {
 		}
 	}
 	// a signed real is compared with its sign: 600 var is not −600 var
-	steps, err := s.Exec("check im(x) is -600 var within 1%")
+	steps, _, err := s.Exec("check im(x) is -600 var within 1%")
 	if err != nil || steps[len(steps)-1].Check.Pass {
 		t.Errorf("600 var passed as −600 var: %v", err)
 	}
@@ -155,7 +155,7 @@ func TestCheckComparesKinds(t *testing.T) {
 func TestElementPower(t *testing.T) {
 	s := New()
 	for _, l := range []string{"resistor R = 10 Ω", "Vs = 230 V", "Zs = 3+j4 Ω", "p = mag(Vs/Zs)^2*R"} {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
 	}
