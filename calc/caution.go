@@ -15,13 +15,14 @@ const SafetyText = "argand is a calculation aid, not a substitute for measuremen
 type Caution uint8
 
 const (
-	CautionMains     Caution = iota + 1 // energised or mains equipment: the safety text
-	CautionCapacitor                    // capacitor banks: stored charge, resonance
-	CautionCable                        // cable sizing and voltage drop
-	CautionFault                        // fault levels and protective devices
-	CautionCT                           // current transformer secondaries
-	CautionLoop                         // earth-fault loops: limits are the user's
-	CautionPlant                        // motor starting, transformers in parallel, vector groups
+	CautionMains       Caution = iota + 1 // energised or mains equipment: the safety text
+	CautionCapacitor                      // capacitor banks: stored charge, resonance
+	CautionCable                          // cable sizing and voltage drop
+	CautionFault                          // fault levels and protective devices
+	CautionCT                             // current transformer secondaries
+	CautionLoop                           // earth-fault loops: limits are the user's
+	CautionMotor                          // motor starting: dip, starter, protection
+	CautionTransformer                    // transformer loading, paralleling, taps
 )
 
 // cautionTexts holds each topic's name, one line and whole text.
@@ -43,14 +44,18 @@ var cautionTexts = [...]struct{ name, line, text string }{
 	CautionLoop: {"earth-fault loops", "no national limit built in: the limit and approval are yours",
 		"argand names no national limit: the maximum Z_s or the disconnection current is yours to give, " +
 			"from the protective device and the local wiring rules; the comparison here does not approve an installation."},
-	CautionPlant: {"motors and transformers", "check voltage dip, ratios and phasing by measurement",
-		"Starting a large motor, loading or paralleling transformers and referring quantities across a vector group are work on mains plant: " +
-			"the permitted voltage dip is set by the supply's rules, and vector groups, ratios and phasing are checked by measurement before any switch is closed."},
+	CautionMotor: {"motor starting", "permitted dip and starter follow the supply's rules",
+		"Motor starting: the permitted voltage dip, the starter and its protection are set by the supply's " +
+			"rules and local electrical codes; a starting study is confirmed by a qualified person under licensed practice. " +
+			"Locked-rotor data come from the motor's maker, not from this calculation."},
+	CautionTransformer: {"transformers", "check vector groups, ratios and phasing before closing",
+		"Transformer loading, paralleling and tap changes are switching work on mains plant: check the vector groups, " +
+			"ratios and phasing by measurement before closing, and follow the maker's data, local electrical codes and licensed practice."},
 }
 
 // Cautions lists every topic, in the order help shows them.
 func Cautions() []Caution {
-	return []Caution{CautionMains, CautionCapacitor, CautionCable, CautionFault, CautionCT, CautionLoop, CautionPlant}
+	return []Caution{CautionMains, CautionCapacitor, CautionCable, CautionFault, CautionCT, CautionLoop, CautionMotor, CautionTransformer}
 }
 
 func (c Caution) valid() bool { return c > 0 && int(c) < len(cautionTexts) }

@@ -59,7 +59,10 @@ func (q *questions) view(m *Model, w int) string {
 // askKey handles a key while a question is open.
 func (m *Model) askKey(k tea.KeyMsg) tea.Cmd {
 	q := m.ask
-	km := m.keys
+	km := m.keys.Ask
+	if q.f.edit(k, m.keys.Edit) {
+		return nil
+	}
 	switch {
 	case key.Matches(k, km.Accept):
 		a := strings.TrimSpace(q.f.String())
@@ -88,21 +91,7 @@ func (m *Model) askKey(k tea.KeyMsg) tea.Cmd {
 		m.ask = nil
 		m.mode = m.back
 		m.note(false, "cancelled")
-	case key.Matches(k, km.PromptLeft):
-		q.f.left()
-	case key.Matches(k, km.PromptRight):
-		q.f.right()
-	case key.Matches(k, km.PromptHome):
-		q.f.home()
-	case key.Matches(k, km.PromptEnd):
-		q.f.end()
-	case key.Matches(k, km.PromptBack):
-		q.f.backspace()
-	case key.Matches(k, km.PromptDel):
-		q.f.del()
-	case key.Matches(k, km.PromptClear):
-		q.f.clear()
-	case key.Matches(k, km.PromptQuit):
+	case key.Matches(k, km.Quit):
 		m.quitting = true
 		return tea.Quit
 	default:
@@ -124,32 +113,17 @@ func keyRunes(k tea.KeyMsg) []rune {
 
 // lineKey handles a key while the entry line has the keyboard.
 func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys
+	km := m.keys.Line
 	l := &m.line
 	before := l.f.String()
 	ran := false // the line ran: its outcome is the message now
 	switch {
+	case l.f.edit(k, m.keys.Edit):
 	case key.Matches(k, km.Run):
 		m.submit()
 		ran = true
 	case key.Matches(k, km.Leave):
 		m.mode = modeRows
-	case key.Matches(k, km.Left):
-		l.f.left()
-	case key.Matches(k, km.Right):
-		l.f.right()
-	case key.Matches(k, km.Home):
-		l.f.home()
-	case key.Matches(k, km.End):
-		l.f.end()
-	case key.Matches(k, km.Back):
-		l.f.backspace()
-	case key.Matches(k, km.Del):
-		l.f.del()
-	case key.Matches(k, km.Kill):
-		l.f.kill()
-	case key.Matches(k, km.Clear):
-		l.f.clear()
 	case key.Matches(k, km.Prev):
 		if l.hpos > 0 {
 			l.hpos--
@@ -164,9 +138,9 @@ func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 				l.f.set(l.history[l.hpos])
 			}
 		}
-	case key.Matches(k, km.LineHelp):
+	case key.Matches(k, km.Help):
 		m.openHelp()
-	case key.Matches(k, km.LineQuit):
+	case key.Matches(k, km.Quit):
 		m.quitting = true
 		return tea.Quit
 	default:
@@ -263,7 +237,7 @@ func (m *Model) pasteLines(text string) {
 
 // exportKey handles the choice of what to export.
 func (m *Model) exportKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys
+	km := m.keys.Export
 	write := func(title, def string, text func() string) {
 		m.startAsk(title, []question{{label: "file", def: def}}, func(a []string) {
 			path := a[0]
@@ -281,17 +255,17 @@ func (m *Model) exportKey(k tea.KeyMsg) tea.Cmd {
 		m.back = modeRows
 	}
 	switch {
-	case key.Matches(k, km.ExMarkdown):
+	case key.Matches(k, km.Markdown):
 		write("export the trail as Markdown", "argand-trail.md", m.trailMarkdown)
-	case key.Matches(k, km.ExText):
+	case key.Matches(k, km.Text):
 		write("export the trail as plain text", "argand-trail.txt", m.trailText)
-	case key.Matches(k, km.ExSheet):
+	case key.Matches(k, km.Sheet):
 		def := m.s.worksheet
 		if def == "" {
 			def = "session.argand"
 		}
 		write("save the session as a worksheet (argand run FILE replays it)", def, m.worksheetText)
-	case key.Matches(k, km.ExCancel):
+	case key.Matches(k, km.Cancel):
 		m.mode = modeRows
 		m.note(false, "nothing exported")
 	}
@@ -340,8 +314,8 @@ func (m *Model) helpLines() []string {
 	}
 	out = append(out, m.th.label.Render("argand: AC phasor work, step by step")+"   (esc closes; ↑↓ scroll)")
 	intro := "Rows are named values, newest at the top. Operations take the marked rows in the " +
-		"order marked, else the two newest (older first). Each becomes a worksheet statement. " +
-		"T shows the trail in full, every step whole."
+		"order marked, else the two newest (older first), which the hint line names before you press the key. " +
+		"Each becomes a worksheet statement. " + m.keys.Table.TrailFull.Help().Key + " shows the trail in full, every step whole."
 	out = append(out, wrapLine(intro, m.width, 0)...)
 	out = append(out, "")
 	hm := m.help
@@ -401,28 +375,30 @@ func (m *Model) lockedText() (title string, why []string) {
 			"Without it another argand could save over this one's work.",
 		}
 	}
-	who := "another argand"
+	who := "Another argand"
 	if m.lockPID > 0 {
-		who = fmt.Sprintf("another argand (process %d)", m.lockPID)
+		who = fmt.Sprintf("Another argand, process %d,", m.lockPID)
 	}
-	return "this session is in use", []string{
-		who + " has the session open, perhaps in another login.",
-		"Two programs saving one session would overwrite each other's work.",
+	return "your session is already open", []string{
+		who + " is working on it, perhaps in another login or window.",
+		"Only one argand saves a session at a time, so that neither loses the other's work.",
 	}
 }
 
+// lockedView says that another argand holds the session, why that
+// matters, and the ways on, each with its key from the bindings.
 func (m *Model) lockedView() []string {
 	title, why := m.lockedText()
-	out := []string{m.th.label.Render(m.tr("argand: " + title)), ""}
+	out := []string{m.th.section(m.tr(title), "", m.width), ""}
 	for _, l := range why {
-		out = append(out, wrapLine(m.tr(l), m.width, 2)...)
+		out = append(out, wrapLine(m.tr(l), m.width, 0)...)
 	}
-	out = append(out, "",
-		"  r  open it read-only: look, nothing is kept",
-		"  s  start a separate session (kept in its own file)",
-		"  q  quit",
-		"",
-	)
+	out = append(out, "", m.th.heading.Render(m.tr("How do you want to go on?")))
+	for _, b := range m.keys.Lock.FullHelp()[0] {
+		key := m.th.key.Render(m.tr(pad(b.Help().Key, 3)))
+		out = append(out, "  "+key+" "+fit(m.tr(b.Help().Desc), m.width-6))
+	}
+	out = append(out, "")
 	for _, l := range wrapLine(m.tr("session file: "+m.lockPath), m.width, 2) {
 		out = append(out, m.th.dim.Render(l))
 	}

@@ -104,7 +104,7 @@ func TestTmuxEndToEnd(t *testing.T) {
 		t.Errorf("divider statement not in the trail:\n%s", screen)
 	}
 	// undo the divider
-	r.keys("u")
+	r.keys("z")
 	screen = r.wait("undone")
 	if strings.Contains(screen, "vdiv(Vq") {
 		t.Errorf("undo left the divider:\n%s", screen)

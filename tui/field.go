@@ -6,6 +6,8 @@ import (
 
 	"argand/calc"
 
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 )
 
@@ -180,4 +182,30 @@ func (f *field) render(width int, cursor func(string) string) (string, int) {
 		w += cw
 	}
 	return b.String(), start
+}
+
+// edit applies an editing key of km to the field and reports whether k
+// was one: the entry line and questions edit alike.
+func (f *field) edit(k tea.KeyMsg, km EditKeys) bool {
+	switch {
+	case key.Matches(k, km.Left):
+		f.left()
+	case key.Matches(k, km.Right):
+		f.right()
+	case key.Matches(k, km.Home):
+		f.home()
+	case key.Matches(k, km.End):
+		f.end()
+	case key.Matches(k, km.Back):
+		f.backspace()
+	case key.Matches(k, km.Del):
+		f.del()
+	case key.Matches(k, km.Kill):
+		f.kill()
+	case key.Matches(k, km.Clear):
+		f.clear()
+	default:
+		return false
+	}
+	return true
 }

@@ -19,27 +19,27 @@ func (m *Model) fullPage() int { return max(1, m.height-2) }
 
 // fullKey handles a key while the trail is shown in full.
 func (m *Model) fullKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys
+	km := m.keys.Full
 	t := &m.full
 	t.build(m, m.width)
 	page := m.fullPage()
 	last := max(0, len(t.lines)-page) // back at which the first line is on top
 	switch {
-	case key.Matches(k, km.FullUp):
+	case key.Matches(k, km.Up):
 		t.back++
-	case key.Matches(k, km.FullDown):
+	case key.Matches(k, km.Down):
 		t.back--
-	case key.Matches(k, km.FullPageUp):
+	case key.Matches(k, km.PageUp):
 		t.back += page - 1
-	case key.Matches(k, km.FullPageDown):
+	case key.Matches(k, km.PageDown):
 		t.back -= page - 1
-	case key.Matches(k, km.FullTop):
+	case key.Matches(k, km.Top):
 		t.back = last
-	case key.Matches(k, km.FullEnd):
+	case key.Matches(k, km.End):
 		t.back = 0
-	case key.Matches(k, km.FullClose):
+	case key.Matches(k, km.Close):
 		m.mode = modeRows
-	case key.Matches(k, km.FullQuit):
+	case key.Matches(k, km.Quit):
 		m.quitting = true
 		return tea.Quit
 	}

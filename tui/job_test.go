@@ -127,7 +127,7 @@ func TestJobFinishes(t *testing.T) {
 	if len(m.s.sh.Sweeps()) != 1 || len(m.s.undo) != undo+2 || m.line.f.String() != "" {
 		t.Errorf("sweeps %d, undo %d (was %d), entry line %q", len(m.s.sh.Sweeps()), len(m.s.undo), undo, m.line.f.String())
 	}
-	press(m, "esc", "u", "u") // the typed statement, then the sweep
+	press(m, "esc", "z", "z") // the typed statement, then the sweep
 	if after := sessionState(m); after != before {
 		t.Errorf("undo did not restore the session:\n%s\n---\n%s", before, after)
 	}

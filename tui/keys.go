@@ -1,9 +1,12 @@
 package tui
 
-import "github.com/charmbracelet/bubbles/key"
+import (
+	"github.com/charmbracelet/bubbles/help"
+	"github.com/charmbracelet/bubbles/key"
+)
 
-// mode says which part of the screen has the keyboard. Each mode has its
-// own set of bindings; no key means two things within one mode.
+// mode says which part of the screen has the keyboard. Each part has its
+// own KeyMap; no key means two things within one part.
 type mode int
 
 const (
@@ -21,10 +24,19 @@ var modeNames = [...]string{"entries", "entry line", "question", "network", "exp
 
 func (m mode) String() string { return modeNames[m] }
 
-// KeyMap holds every binding of the app with its help text. Bindings are
-// grouped by the mode they act in.
-type KeyMap struct {
-	// entries table
+func kb(keys []string, k, desc string) key.Binding {
+	return key.NewBinding(key.WithKeys(keys...), key.WithHelp(k, desc))
+}
+
+// brief returns b with a shorter description, for the hint line: the keys
+// and their spelling stay those of the binding.
+func brief(b key.Binding, desc string) key.Binding {
+	b.SetHelp(b.Help().Key, desc)
+	return b
+}
+
+// TableKeys are the keys of the entries table.
+type TableKeys struct {
 	Up, Down, Top, Bottom         key.Binding
 	Mark, Unmark, Focus, Recall   key.Binding
 	Add, Sub, Mul, Div            key.Binding
@@ -41,187 +53,332 @@ type KeyMap struct {
 	Clip, ClipTrail               key.Binding
 	TrailBack, TrailOn, TrailLast key.Binding
 	TrailFull, Help, Quit         key.Binding
+}
 
-	// entry line and questions
-	Run, Leave, Left, Right, Home, End  key.Binding
-	Back, Del, Kill, Clear, Prev, Next  key.Binding
-	LineHelp, LineQuit, Accept, Cancel  key.Binding
-	PromptLeft, PromptRight, PromptBack key.Binding
-	PromptDel, PromptClear, PromptQuit  key.Binding
-	PromptHome, PromptEnd               key.Binding
+// ShortHelp implements help.KeyMap.
+func (k TableKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.Help, "help"), brief(k.Focus, "type"), brief(k.Mark, "mark"),
+		brief(k.Undo, "undo"), brief(k.Quit, "quit"), brief(k.Networks, "networks"),
+		brief(k.TrailFull, "trail in full"), brief(k.Export, "export")}
+}
 
-	// network view
-	NetUp, NetDown, StepOn, StepBack key.Binding
-	TakeV, TakeI, TakeS, NetThev     key.Binding
-	NetNext, NetClose, NetClip       key.Binding
-	NetHelp, NetQuit                 key.Binding
+// FullHelp implements help.KeyMap: the groups are the rows of the key
+// table in the README.
+func (k TableKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{
+		{k.Focus, k.Recall},
+		{k.Up, k.Down, k.Top, k.Bottom, k.Mark, k.Unmark},
+		{k.Add, k.Sub, k.Mul, k.Div, k.Recip, k.Conj, k.Neg},
+		{k.Series, k.Parallel},
+		{k.VDiv, k.IDiv, k.Thevenin},
+		{k.DeltaY, k.YDelta},
+		{k.Networks},
+		{k.Undo, k.Redo},
+		{k.Freq, k.Fewer, k.More, k.Basis, k.Angles, k.Decimal, k.Form},
+		{k.Blank},
+		{k.Rename, k.Copy, k.Delete, k.Raise, k.Lower},
+		{k.Clip, k.ClipTrail, k.Export},
+		{k.TrailBack, k.TrailOn, k.TrailLast},
+		{k.TrailFull, k.Help, k.Quit},
+	}
+}
 
-	// export choice
-	ExMarkdown, ExText, ExSheet, ExCancel key.Binding
+// operations are the keys that take the two operands shown on the hint
+// line.
+func (k TableKeys) operations() []key.Binding {
+	return []key.Binding{k.Parallel, k.Series, k.Add, k.Sub, k.Mul, k.Div}
+}
 
-	// help screen
-	HelpUp, HelpDown, HelpClose, HelpQuit key.Binding
+// EditKeys edit a line of text: the entry line and the answer to a
+// question, bound once for both.
+type EditKeys struct {
+	Left, Right, Home, End, Back, Del, Kill, Clear key.Binding
+}
 
-	// session in use
-	LockRead, LockSeparate, LockQuit key.Binding
+// ShortHelp implements help.KeyMap.
+func (k EditKeys) ShortHelp() []key.Binding { return nil }
 
-	// the trail in full
-	FullUp, FullDown, FullPageUp, FullPageDown key.Binding
-	FullTop, FullEnd, FullClose, FullQuit      key.Binding
+// FullHelp implements help.KeyMap.
+func (k EditKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{k.Left, k.Right, k.Home, k.End, k.Back, k.Del, k.Kill, k.Clear}}
+}
 
-	// while a statement runs off the update loop
+// LineKeys are the entry line's own keys; it edits with EditKeys.
+type LineKeys struct {
+	Run, Leave, Prev, Next, Help, Quit key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k LineKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.Run, "run"), brief(k.Leave, "back to rows"), brief(k.Prev, "earlier lines"), brief(k.Help, "help")}
+}
+
+// FullHelp implements help.KeyMap.
+func (k LineKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{k.Run, k.Leave, k.Prev, k.Next, k.Help, k.Quit}}
+}
+
+// AskKeys are a question's own keys; its answer edits with EditKeys.
+type AskKeys struct {
+	Accept, Cancel, Quit key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k AskKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.Accept, "accept"), brief(k.Cancel, "cancel")}
+}
+
+// FullHelp implements help.KeyMap.
+func (k AskKeys) FullHelp() [][]key.Binding { return [][]key.Binding{{k.Accept, k.Cancel, k.Quit}} }
+
+// NetKeys are the keys of the network view.
+type NetKeys struct {
+	Up, Down, StepOn, StepBack key.Binding
+	TakeV, TakeI, TakeS        key.Binding
+	Thevenin, Next, Clip       key.Binding
+	Close, Help, Quit          key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k NetKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.StepOn, "step"), brief(k.Down, "element"), brief(k.TakeV, "take V"),
+		brief(k.TakeI, "I"), brief(k.TakeS, "S"), brief(k.Thevenin, "Thevenin"), brief(k.Close, "back"), brief(k.Help, "help")}
+}
+
+// FullHelp implements help.KeyMap.
+func (k NetKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{k.Up, k.Down, k.StepOn, k.StepBack, k.TakeV, k.TakeI, k.TakeS, k.Thevenin, k.Next, k.Clip, k.Close, k.Help, k.Quit}}
+}
+
+// ExportKeys choose what to export.
+type ExportKeys struct {
+	Markdown, Text, Sheet, Cancel key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k ExportKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.Markdown, "Markdown"), brief(k.Text, "text"), brief(k.Sheet, "worksheet"), brief(k.Cancel, "cancel")}
+}
+
+// FullHelp implements help.KeyMap.
+func (k ExportKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{k.Markdown, k.Text, k.Sheet, k.Cancel}}
+}
+
+// HelpKeys scroll and close the help screen.
+type HelpKeys struct {
+	Up, Down, Close, Quit key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k HelpKeys) ShortHelp() []key.Binding { return []key.Binding{k.Up, k.Down, k.Close} }
+
+// FullHelp implements help.KeyMap.
+func (k HelpKeys) FullHelp() [][]key.Binding { return [][]key.Binding{{k.Up, k.Down, k.Close, k.Quit}} }
+
+// LockKeys answer the screen shown when another argand has the session.
+type LockKeys struct {
+	Read, Separate, Quit key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k LockKeys) ShortHelp() []key.Binding { return []key.Binding{k.Read, k.Separate, k.Quit} }
+
+// FullHelp implements help.KeyMap.
+func (k LockKeys) FullHelp() [][]key.Binding { return [][]key.Binding{k.ShortHelp()} }
+
+// FullKeys move through the trail in full.
+type FullKeys struct {
+	Up, Down, PageUp, PageDown key.Binding
+	Top, End, Close, Quit      key.Binding
+}
+
+// ShortHelp implements help.KeyMap.
+func (k FullKeys) ShortHelp() []key.Binding {
+	return []key.Binding{brief(k.PageDown, "page"), brief(k.Top, "first"), brief(k.End, "latest"), brief(k.Close, "back")}
+}
+
+// FullHelp implements help.KeyMap.
+func (k FullKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{k.Up, k.Down, k.PageUp, k.PageDown, k.Top, k.End, k.Close, k.Quit}}
+}
+
+// KeyMap holds every part's keys. A key is bound in the part that acts on
+// it; the hint line, the help screen, the session-in-use screen and the
+// README's key table are written from these bindings.
+type KeyMap struct {
+	Table  TableKeys
+	Edit   EditKeys
+	Line   LineKeys
+	Ask    AskKeys
+	Net    NetKeys
+	Export ExportKeys
+	Help   HelpKeys
+	Lock   LockKeys
+	Full   FullKeys
+	// Stop stops a statement running off the update loop.
 	Stop key.Binding
 }
 
-func kb(keys []string, k, desc string) key.Binding {
-	return key.NewBinding(key.WithKeys(keys...), key.WithHelp(k, desc))
-}
-
-// DefaultKeyMap returns argand's key scheme. ASCII mode spells the
-// symbols used in the help text in ASCII.
+// DefaultKeyMap returns argand's key scheme: arrows, Home/End and
+// PgUp/PgDn move; letters act.
 func DefaultKeyMap() KeyMap {
 	return KeyMap{
-		Up:        kb([]string{"up", "k"}, "↑/k", "select the row above"),
-		Down:      kb([]string{"down", "j"}, "↓/j", "select the row below"),
-		Top:       kb([]string{"home", "g"}, "home/g", "select the newest row"),
-		Bottom:    kb([]string{"end", "G"}, "end/G", "select the oldest row"),
-		Mark:      kb([]string{" "}, "space", "mark or unmark the row (operations take marks in order)"),
-		Unmark:    kb([]string{"esc"}, "esc", "clear all marks"),
-		Focus:     kb([]string{"tab", "e"}, "tab/e", "type a statement in the entry line"),
-		Recall:    kb([]string{"enter"}, "enter", "recall the row's statement into the entry line"),
-		Add:       kb([]string{"+"}, "+", "add: first + second"),
-		Sub:       kb([]string{"-"}, "-", "subtract: first − second"),
-		Mul:       kb([]string{"*"}, "*", "multiply: first · second"),
-		Div:       kb([]string{"/"}, "/", "divide: first ÷ second"),
-		Recip:     kb([]string{"r"}, "r", "reciprocal 1/x of the selected row (Z ↔ Y)"),
-		Conj:      kb([]string{"~"}, "~", "complex conjugate of the selected row"),
-		Neg:       kb([]string{"n"}, "n", "negate the selected row"),
-		Series:    kb([]string{"s"}, "s", "series: impedances add"),
-		Parallel:  kb([]string{"p"}, "p", "parallel: Z₁·Z₂/(Z₁+Z₂)"),
-		VDiv:      kb([]string{"v"}, "v", "voltage divider (asks: source, across which, the rest)"),
-		IDiv:      kb([]string{"c"}, "c", "current divider (asks: source, branch, other branches)"),
-		Thevenin:  kb([]string{"t"}, "t", "Thevenin equivalent (asks: source, series, shunt)"),
-		DeltaY:    kb([]string{"w"}, "w", "Δ → Y: three Δ sides to star arms"),
-		YDelta:    kb([]string{"W"}, "W", "Y → Δ: three star arms to Δ sides"),
-		Rename:    kb([]string{"R"}, "R", "rename the selected row"),
-		Copy:      kb([]string{"C"}, "C", "copy the selected row under a new name"),
-		Delete:    kb([]string{"d", "delete"}, "d/del", "delete the row (put away if others use it)"),
-		Raise:     kb([]string{"K", "shift+up"}, "K/shift+↑", "move the selected row up"),
-		Lower:     kb([]string{"J", "shift+down"}, "J/shift+↓", "move the selected row down"),
-		Freq:      kb([]string{"f"}, "f", "set the working frequency"),
-		Form:      kb([]string{"o"}, "o", "show polar or rectangular form first"),
-		Fewer:     kb([]string{"<"}, "<", "one significant figure fewer"),
-		More:      kb([]string{">"}, ">", "one significant figure more"),
-		Basis:     kb([]string{"B"}, "B", "switch phasor basis RMS ↔ peak"),
-		Angles:    kb([]string{"a"}, "a", "switch angles degrees ↔ radians"),
-		Decimal:   kb([]string{","}, ",", "switch the decimal marker point ↔ comma (2.2 ↔ 2,2)"),
-		Undo:      kb([]string{"u", "ctrl+z"}, "u", "undo the last change"),
-		Redo:      kb([]string{"U", "ctrl+y"}, "U", "redo"),
-		Blank:     kb([]string{"b"}, "b", "a new, empty session (the old one kept as a file)"),
-		Networks:  kb([]string{"N"}, "N", "open a network: structure, reduction, branch values"),
-		Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text) or save as worksheet"),
-		Clip:      kb([]string{"y"}, "y", "copy the selected value to the clipboard (OSC 52)"),
-		ClipTrail: kb([]string{"Y"}, "Y", "copy the whole trail to the clipboard (OSC 52)"),
-		TrailBack: kb([]string{"pgup", "["}, "pgup/[", "scroll the trail back"),
-		TrailOn:   kb([]string{"pgdown", "]"}, "pgdn/]", "scroll the trail on"),
-		TrailLast: kb([]string{"L"}, "L", "trail: jump to the latest step"),
-		TrailFull: kb([]string{"T"}, "T", "read the trail in full: every step whole, at full width"),
-		Help:      kb([]string{"?", "f1"}, "?", "this help"),
-		Quit:      kb([]string{"q", "ctrl+c"}, "q", "quit (the session is already saved)"),
-
-		Run:      kb([]string{"enter"}, "enter", "run the statement"),
-		Leave:    kb([]string{"esc", "tab"}, "esc/tab", "back to the entries (the text stays)"),
-		Left:     kb([]string{"left", "ctrl+b"}, "←", "cursor left"),
-		Right:    kb([]string{"right", "ctrl+f"}, "→", "cursor right"),
-		Home:     kb([]string{"home", "ctrl+a"}, "home", "cursor to the start"),
-		End:      kb([]string{"end", "ctrl+e"}, "end", "cursor to the end"),
-		Back:     kb([]string{"backspace"}, "backspace", "delete before the cursor"),
-		Del:      kb([]string{"delete", "ctrl+d"}, "del", "delete at the cursor"),
-		Kill:     kb([]string{"ctrl+k"}, "ctrl+k", "delete to the end"),
-		Clear:    kb([]string{"ctrl+u"}, "ctrl+u", "clear the line"),
-		Prev:     kb([]string{"up"}, "↑", "earlier statement typed"),
-		Next:     kb([]string{"down"}, "↓", "later statement typed"),
-		LineHelp: kb([]string{"f1"}, "f1", "help"),
-		LineQuit: kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
-
-		Accept:      kb([]string{"enter"}, "enter", "accept the answer (empty: the offered default)"),
-		Cancel:      kb([]string{"esc"}, "esc", "cancel the question"),
-		PromptLeft:  kb([]string{"left"}, "←", "cursor left"),
-		PromptRight: kb([]string{"right"}, "→", "cursor right"),
-		PromptHome:  kb([]string{"home", "ctrl+a"}, "home", "cursor to the start"),
-		PromptEnd:   kb([]string{"end", "ctrl+e"}, "end", "cursor to the end"),
-		PromptBack:  kb([]string{"backspace"}, "backspace", "delete before the cursor"),
-		PromptDel:   kb([]string{"delete"}, "del", "delete at the cursor"),
-		PromptClear: kb([]string{"ctrl+u"}, "ctrl+u", "clear the answer"),
-		PromptQuit:  kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
-
-		NetUp:    kb([]string{"up", "k"}, "↑/k", "select the element above"),
-		NetDown:  kb([]string{"down", "j"}, "↓/j", "select the element below"),
-		StepOn:   kb([]string{"right", "l", " "}, "→/l/space", "next reduction step"),
-		StepBack: kb([]string{"left", "h"}, "←/h", "previous reduction step"),
-		TakeV:    kb([]string{"v"}, "v", "add the element's voltage as an entry"),
-		TakeI:    kb([]string{"i"}, "i", "add the element's current as an entry"),
-		TakeS:    kb([]string{"s"}, "s", "add the element's complex power as an entry"),
-		NetThev:  kb([]string{"t"}, "t", "Thevenin equivalent between two nodes (asks)"),
-		NetNext:  kb([]string{"tab"}, "tab", "next network"),
-		NetClip:  kb([]string{"y"}, "y", "copy the element's values to the clipboard"),
-		NetClose: kb([]string{"esc", "q"}, "esc/q", "back to the entries"),
-		NetHelp:  kb([]string{"?", "f1"}, "?", "help"),
-		NetQuit:  kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
-
-		ExMarkdown: kb([]string{"m"}, "m", "trail as Markdown file"),
-		ExText:     kb([]string{"t"}, "t", "trail as plain text file"),
-		ExSheet:    kb([]string{"w"}, "w", "session as a worksheet (argand run replays it)"),
-		ExCancel:   kb([]string{"esc", "q"}, "esc", "cancel"),
-
-		HelpUp:    kb([]string{"up", "k", "pgup"}, "↑/k", "scroll help up"),
-		HelpDown:  kb([]string{"down", "j", "pgdown", " "}, "↓/j", "scroll help down"),
-		HelpClose: kb([]string{"esc", "?", "q", "f1"}, "esc/?", "close help"),
-		HelpQuit:  kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
-
-		LockRead:     kb([]string{"r"}, "r", "open the session read-only"),
-		LockSeparate: kb([]string{"s"}, "s", "start a separate session"),
-		LockQuit:     kb([]string{"q", "ctrl+c", "esc"}, "q", "quit"),
-
-		FullUp:       kb([]string{"up", "k"}, "↑/k", "scroll up a line"),
-		FullDown:     kb([]string{"down", "j"}, "↓/j", "scroll down a line"),
-		FullPageUp:   kb([]string{"pgup", "["}, "pgup/[", "scroll up a page"),
-		FullPageDown: kb([]string{"pgdown", "]", " "}, "pgdn/]/space", "scroll down a page"),
-		FullTop:      kb([]string{"home", "g"}, "home/g", "the first step"),
-		FullEnd:      kb([]string{"end", "G"}, "end/G", "the latest step"),
-		FullClose:    kb([]string{"esc", "q", "T"}, "esc/q/T", "back to the entries"),
-		FullQuit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
-		Stop:         kb([]string{"esc", "ctrl+c"}, "esc/ctrl+c", "stop it: the session stays exactly as before the statement"),
+		Table: TableKeys{
+			Up:        kb([]string{"up"}, "↑", "select the row above"),
+			Down:      kb([]string{"down"}, "↓", "select the row below"),
+			Top:       kb([]string{"home"}, "home", "select the newest row"),
+			Bottom:    kb([]string{"end"}, "end", "select the oldest row"),
+			Mark:      kb([]string{" "}, "space", "mark or unmark the row (operations take marks in order)"),
+			Unmark:    kb([]string{"esc"}, "esc", "clear all marks"),
+			Focus:     kb([]string{"tab", "e"}, "tab/e", "type a statement in the entry line"),
+			Recall:    kb([]string{"enter"}, "enter", "recall the row's statement into the entry line"),
+			Add:       kb([]string{"+"}, "+", "add: first + second"),
+			Sub:       kb([]string{"-"}, "-", "subtract: first − second"),
+			Mul:       kb([]string{"*"}, "*", "multiply: first · second"),
+			Div:       kb([]string{"/"}, "/", "divide: first ÷ second"),
+			Recip:     kb([]string{"r"}, "r", "reciprocal 1/x of the selected row (Z ↔ Y)"),
+			Conj:      kb([]string{"~"}, "~", "complex conjugate of the selected row"),
+			Neg:       kb([]string{"n"}, "n", "negate the selected row"),
+			Series:    kb([]string{"s"}, "s", "series: impedances add"),
+			Parallel:  kb([]string{"p"}, "p", "parallel: Z₁·Z₂/(Z₁+Z₂)"),
+			VDiv:      kb([]string{"v"}, "v", "voltage divider (asks: source, across which, the rest)"),
+			IDiv:      kb([]string{"c"}, "c", "current divider (asks: source, branch, other branches)"),
+			Thevenin:  kb([]string{"t"}, "t", "Thevenin equivalent (asks: source, series, shunt)"),
+			DeltaY:    kb([]string{"w"}, "w", "Δ → Y: three Δ sides to star arms"),
+			YDelta:    kb([]string{"W"}, "W", "Y → Δ: three star arms to Δ sides"),
+			Rename:    kb([]string{"R"}, "R", "rename the selected row"),
+			Copy:      kb([]string{"C"}, "C", "copy the selected row under a new name"),
+			Delete:    kb([]string{"d", "delete"}, "d/del", "delete the row (put away if others use it)"),
+			Raise:     kb([]string{"shift+up", "ctrl+up"}, "shift+↑", "move the selected row up"),
+			Lower:     kb([]string{"shift+down", "ctrl+down"}, "shift+↓", "move the selected row down"),
+			Freq:      kb([]string{"f"}, "f", "set the working frequency"),
+			Form:      kb([]string{"o"}, "o", "show polar or rectangular form first"),
+			Fewer:     kb([]string{"<"}, "<", "one significant figure fewer"),
+			More:      kb([]string{">"}, ">", "one significant figure more"),
+			Basis:     kb([]string{"B"}, "B", "switch phasor basis RMS ↔ peak"),
+			Angles:    kb([]string{"a"}, "a", "switch angles degrees ↔ radians"),
+			Decimal:   kb([]string{","}, ",", "switch the decimal marker point ↔ comma (2.2 ↔ 2,2)"),
+			Blank:     kb([]string{"b"}, "b", "a new, empty session (the old one kept as a file)"),
+			Undo:      kb([]string{"z", "ctrl+z"}, "z", "undo the last change"),
+			Redo:      kb([]string{"Z", "ctrl+y"}, "Z", "redo what was undone"),
+			Networks:  kb([]string{"N"}, "N", "open the newest network: structure, reduction, branch values"),
+			Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text) or save as worksheet"),
+			Clip:      kb([]string{"ctrl+o"}, "ctrl+o", "send the selected value to the terminal clipboard (OSC 52)"),
+			ClipTrail: kb([]string{"ctrl+t"}, "ctrl+t", "send the whole trail to the terminal clipboard (OSC 52)"),
+			TrailBack: kb([]string{"pgup", "["}, "pgup/[", "scroll the trail back"),
+			TrailOn:   kb([]string{"pgdown", "]"}, "pgdn/]", "scroll the trail on"),
+			TrailLast: kb([]string{"L"}, "L", "trail: jump to the latest step"),
+			TrailFull: kb([]string{"T"}, "T", "read the trail in full: every step whole, at full width"),
+			Help:      kb([]string{"?", "f1"}, "?", "this help"),
+			Quit:      kb([]string{"q", "ctrl+c"}, "q", "quit (the session is already saved)"),
+		},
+		Edit: EditKeys{
+			Left:  kb([]string{"left", "ctrl+b"}, "←", "cursor left"),
+			Right: kb([]string{"right", "ctrl+f"}, "→", "cursor right"),
+			Home:  kb([]string{"home", "ctrl+a"}, "home", "cursor to the start"),
+			End:   kb([]string{"end", "ctrl+e"}, "end", "cursor to the end"),
+			Back:  kb([]string{"backspace"}, "backspace", "delete before the cursor"),
+			Del:   kb([]string{"delete", "ctrl+d"}, "del", "delete at the cursor"),
+			Kill:  kb([]string{"ctrl+k"}, "ctrl+k", "delete to the end"),
+			Clear: kb([]string{"ctrl+u"}, "ctrl+u", "clear the line"),
+		},
+		Line: LineKeys{
+			Run:   kb([]string{"enter"}, "enter", "run the statement"),
+			Leave: kb([]string{"esc", "tab"}, "esc/tab", "back to the entries (the text stays)"),
+			Prev:  kb([]string{"up"}, "↑", "earlier statement typed"),
+			Next:  kb([]string{"down"}, "↓", "later statement typed"),
+			Help:  kb([]string{"f1"}, "f1", "help"),
+			Quit:  kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		},
+		Ask: AskKeys{
+			Accept: kb([]string{"enter"}, "enter", "accept the answer (empty: the offered default)"),
+			Cancel: kb([]string{"esc"}, "esc", "cancel the question"),
+			Quit:   kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		},
+		Net: NetKeys{
+			Up:       kb([]string{"up"}, "↑", "select the element above"),
+			Down:     kb([]string{"down"}, "↓", "select the element below"),
+			StepOn:   kb([]string{"right", " "}, "→/space", "next reduction step"),
+			StepBack: kb([]string{"left"}, "←", "previous reduction step"),
+			TakeV:    kb([]string{"v"}, "v", "add the element's voltage as an entry"),
+			TakeI:    kb([]string{"i"}, "i", "add the element's current as an entry"),
+			TakeS:    kb([]string{"s"}, "s", "add the element's complex power as an entry"),
+			Thevenin: kb([]string{"t"}, "t", "Thevenin equivalent between two nodes (asks)"),
+			Next:     kb([]string{"tab"}, "tab", "next network"),
+			Clip:     kb([]string{"ctrl+o"}, "ctrl+o", "send the element's values to the terminal clipboard"),
+			Close:    kb([]string{"esc", "q"}, "esc/q", "back to the entries"),
+			Help:     kb([]string{"?", "f1"}, "?", "help"),
+			Quit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		},
+		Export: ExportKeys{
+			Markdown: kb([]string{"m"}, "m", "trail as Markdown file"),
+			Text:     kb([]string{"t"}, "t", "trail as plain text file"),
+			Sheet:    kb([]string{"w"}, "w", "session as a worksheet (argand run replays it)"),
+			Cancel:   kb([]string{"esc", "q"}, "esc", "cancel"),
+		},
+		Help: HelpKeys{
+			Up:    kb([]string{"up", "pgup"}, "↑/pgup", "scroll help up"),
+			Down:  kb([]string{"down", "pgdown", " "}, "↓/pgdn", "scroll help down"),
+			Close: kb([]string{"esc", "?", "q", "f1"}, "esc/?", "close help"),
+			Quit:  kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		},
+		Lock: LockKeys{
+			Read:     kb([]string{"r"}, "r", "look at it without changing anything: nothing you do is saved"),
+			Separate: kb([]string{"s"}, "s", "work in a new session of your own, kept in its own file"),
+			Quit:     kb([]string{"q", "ctrl+c", "esc"}, "q", "leave argand"),
+		},
+		Full: FullKeys{
+			Up:       kb([]string{"up"}, "↑", "scroll up a line"),
+			Down:     kb([]string{"down"}, "↓", "scroll down a line"),
+			PageUp:   kb([]string{"pgup", "["}, "pgup/[", "scroll up a page"),
+			PageDown: kb([]string{"pgdown", "]", " "}, "pgdn/]/space", "scroll down a page"),
+			Top:      kb([]string{"home"}, "home", "the first step"),
+			End:      kb([]string{"end"}, "end", "the latest step"),
+			Close:    kb([]string{"esc", "q", "T"}, "esc/q/T", "back to the entries"),
+			Quit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		},
+		Stop: kb([]string{"esc", "ctrl+c"}, "esc/ctrl+c", "stop it: the session stays exactly as before the statement"),
 	}
 }
 
-// Mode returns the bindings that act in mode m, in the order help lists
-// them.
-func (k KeyMap) Mode(m mode) []key.Binding {
-	switch m {
-	case modeRows:
-		return []key.Binding{k.Up, k.Down, k.Top, k.Bottom, k.Mark, k.Unmark, k.Focus, k.Recall,
-			k.Add, k.Sub, k.Mul, k.Div, k.Recip, k.Conj, k.Neg, k.Series, k.Parallel,
-			k.VDiv, k.IDiv, k.Thevenin, k.DeltaY, k.YDelta,
-			k.Rename, k.Copy, k.Delete, k.Raise, k.Lower,
-			k.Freq, k.Form, k.Fewer, k.More, k.Basis, k.Angles, k.Decimal, k.Undo, k.Redo, k.Blank,
-			k.Networks, k.Export, k.Clip, k.ClipTrail, k.TrailBack, k.TrailOn, k.TrailLast, k.TrailFull, k.Help, k.Quit}
+// For returns the keys of the part that has the keyboard in mode md. The
+// entry line and a question list their editing keys after their own.
+func (k KeyMap) For(md mode) help.KeyMap {
+	switch md {
 	case modeLine:
-		return []key.Binding{k.Run, k.Leave, k.Left, k.Right, k.Home, k.End, k.Back, k.Del, k.Kill, k.Clear, k.Prev, k.Next, k.LineHelp, k.LineQuit}
+		return joined{k.Line, k.Edit}
 	case modePrompt:
-		return []key.Binding{k.Accept, k.Cancel, k.PromptLeft, k.PromptRight, k.PromptHome, k.PromptEnd, k.PromptBack, k.PromptDel, k.PromptClear, k.PromptQuit}
+		return joined{k.Ask, k.Edit}
 	case modeNet:
-		return []key.Binding{k.NetUp, k.NetDown, k.StepOn, k.StepBack, k.TakeV, k.TakeI, k.TakeS, k.NetThev, k.NetNext, k.NetClip, k.NetClose, k.NetHelp, k.NetQuit}
+		return k.Net
 	case modeExport:
-		return []key.Binding{k.ExMarkdown, k.ExText, k.ExSheet, k.ExCancel}
+		return k.Export
 	case modeHelp:
-		return []key.Binding{k.HelpUp, k.HelpDown, k.HelpClose, k.HelpQuit}
+		return k.Help
 	case modeLocked:
-		return []key.Binding{k.LockRead, k.LockSeparate, k.LockQuit}
+		return k.Lock
 	case modeTrail:
-		return []key.Binding{k.FullUp, k.FullDown, k.FullPageUp, k.FullPageDown, k.FullTop, k.FullEnd, k.FullClose, k.FullQuit}
+		return k.Full
 	}
-	return nil
+	return k.Table
+}
+
+// joined is a part's own keys followed by shared ones.
+type joined [2]help.KeyMap
+
+func (j joined) ShortHelp() []key.Binding { return append(j[0].ShortHelp(), j[1].ShortHelp()...) }
+
+func (j joined) FullHelp() [][]key.Binding { return append(j[0].FullHelp(), j[1].FullHelp()...) }
+
+// Mode returns every binding that acts in mode m, in the order help
+// lists them.
+func (k KeyMap) Mode(m mode) []key.Binding {
+	var out []key.Binding
+	for _, g := range k.For(m).FullHelp() {
+		out = append(out, g...)
+	}
+	return out
 }
 
 // allModes lists every mode, for help and tests.

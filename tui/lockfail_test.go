@@ -33,7 +33,7 @@ func TestLockFailureNeverTwoWriters(t *testing.T) {
 
 	m := newModel(t, Options{Dir: dir})
 	v := m.View()
-	if m.mode != modeLocked || !strings.Contains(v, "could not be locked") || !strings.Contains(v, "r  open it read-only") {
+	if m.mode != modeLocked || !strings.Contains(v, "could not be locked") || !strings.Contains(v, "r   look at it without changing anything") {
 		t.Fatalf("lock failure not asked about:\n%s", v)
 	}
 	press(m, "r")

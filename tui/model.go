@@ -478,24 +478,24 @@ func (m *Model) key(k tea.KeyMsg) tea.Cmd {
 	switch m.mode {
 	case modeLocked:
 		switch {
-		case key.Matches(k, m.keys.LockRead):
+		case key.Matches(k, m.keys.Lock.Read):
 			m.chooseLocked(true)
-		case key.Matches(k, m.keys.LockSeparate):
+		case key.Matches(k, m.keys.Lock.Separate):
 			m.chooseLocked(false)
-		case key.Matches(k, m.keys.LockQuit):
+		case key.Matches(k, m.keys.Lock.Quit):
 			m.quitting = true
 			return tea.Quit
 		}
 		return nil
 	case modeHelp:
 		switch {
-		case key.Matches(k, m.keys.HelpUp):
+		case key.Matches(k, m.keys.Help.Up):
 			m.helpTop = max(0, m.helpTop-max(1, m.height/2))
-		case key.Matches(k, m.keys.HelpDown):
+		case key.Matches(k, m.keys.Help.Down):
 			m.helpTop += max(1, m.height/2)
-		case key.Matches(k, m.keys.HelpClose):
+		case key.Matches(k, m.keys.Help.Close):
 			m.mode = m.back
-		case key.Matches(k, m.keys.HelpQuit):
+		case key.Matches(k, m.keys.Help.Quit):
 			m.quitting = true
 			return tea.Quit
 		}

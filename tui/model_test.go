@@ -236,19 +236,19 @@ func TestUndoRedo(t *testing.T) {
 	n0 := len(m.s.sh.Statements())
 	typeLine(t, m, "Za = 3+j4 Ω")
 	typeLine(t, m, "Zb = 10 Ω")
-	press(m, "p", "d", "J", "B", ">")
-	press(m, "u", "u", "u", "u", "u", "u", "u")
+	press(m, "p", "d", "shift+down", "B", ">")
+	press(m, "z", "z", "z", "z", "z", "z", "z")
 	if got := len(m.s.sh.Statements()); got != n0 {
 		t.Fatalf("after undoing all: %d statements, want %d", got, n0)
 	}
-	press(m, "U", "U", "U")
+	press(m, "Z", "Z", "Z")
 	if _, ok := m.s.sh.Lookup("Z3"); !ok {
 		t.Errorf("redo did not bring the parallel back: rows %v", m.s.rows())
 	}
 	// a new change after undo drops the redo history
-	press(m, "u")
+	press(m, "z")
 	typeLine(t, m, "Zc = 1 Ω")
-	press(m, "U")
+	press(m, "Z")
 	if m.msg != "nothing to redo" {
 		t.Errorf("redo after a new change: %q", m.msg)
 	}
@@ -273,7 +273,7 @@ func TestRowEditing(t *testing.T) {
 	}
 	// reorder and put away
 	top := m.s.rows()[0]
-	press(m, "J")
+	press(m, "shift+down")
 	if m.s.rows()[1] != top {
 		t.Errorf("lower: rows %v", m.s.rows())
 	}
@@ -281,7 +281,7 @@ func TestRowEditing(t *testing.T) {
 	if contains(m.s.rows(), top) {
 		t.Errorf("put away: %s still shown", top)
 	}
-	press(m, "u")
+	press(m, "z")
 	if !contains(m.s.rows(), top) {
 		t.Errorf("undo of put away: %s not back", top)
 	}
@@ -460,7 +460,7 @@ func TestLocked(t *testing.T) {
 	first := newModel(t, Options{Dir: dir})
 	typeLine(t, first, "Zmine = 1 Ω")
 	second := newModel(t, Options{Dir: dir})
-	if second.mode != modeLocked || !strings.Contains(second.View(), "in use") {
+	if second.mode != modeLocked || !strings.Contains(second.View(), "already open") {
 		t.Fatalf("second instance not told:\n%s", second.View())
 	}
 	press(second, "r")
@@ -597,7 +597,7 @@ func TestExportAndClipboard(t *testing.T) {
 			t.Errorf("replayed %s = %v, want %v", e.Name, q.V, e.Value.V)
 		}
 	}
-	cmd := press(m, "y")
+	cmd := press(m, "b")
 	if cmd == nil {
 		t.Fatal("no clipboard command")
 	}
@@ -905,6 +905,8 @@ func TestRestorePartial(t *testing.T) {
 	b, _ = os.ReadFile(path)
 	if !strings.Contains(string(b), `"language": `) || strings.Contains(string(b), "nosuch") {
 		t.Errorf("session file after restore:\n%s", b)
+	}
+}
 
 // N on a compact network shows its elements and its reduction (it once
 // said the network had no elements), and opens the newest network.

@@ -94,7 +94,7 @@ func (n *netView) within(k int) map[string]string {
 }
 
 func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys
+	km := m.keys.Net
 	n := m.net
 	elem := func() (sheet.ViewElement, bool) {
 		if n.sel < 0 || n.sel >= len(n.v.Elements) {
@@ -121,9 +121,9 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 		})
 	}
 	switch {
-	case key.Matches(k, km.NetUp):
+	case key.Matches(k, km.Up):
 		n.sel = max(0, n.sel-1)
-	case key.Matches(k, km.NetDown):
+	case key.Matches(k, km.Down):
 		n.sel = min(len(n.v.Elements)-1, n.sel+1)
 	case key.Matches(k, km.StepOn):
 		if n.step < n.steps() {
@@ -143,7 +143,7 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 		take("i", "i", "current")
 	case key.Matches(k, km.TakeS):
 		take("s", "s", "complex power")
-	case key.Matches(k, km.NetThev):
+	case key.Matches(k, km.Thevenin):
 		if n.v.Compact != "" {
 			m.note(true, "network "+n.name+" is a compact form and has no named nodes: a Thevenin equivalent needs a node block")
 			break
@@ -174,23 +174,23 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 				}
 			})
 		m.back = modeNet
-	case key.Matches(k, km.NetNext):
+	case key.Matches(k, km.Next):
 		names := m.s.sh.NetworkNames()
 		next := names[(slices.Index(names, n.name)+1)%len(names)]
 		m.net = nil
 		m.openNet(next)
-	case key.Matches(k, km.NetClip):
+	case key.Matches(k, km.Clip):
 		e, ok := elem()
 		if !ok {
 			break
 		}
 		return m.copyCmd(e.Name+"'s values", m.branchText(e, true))
-	case key.Matches(k, km.NetClose):
+	case key.Matches(k, km.Close):
 		m.mode = modeRows
 		m.note(false, "")
-	case key.Matches(k, km.NetHelp):
+	case key.Matches(k, km.Help):
 		m.openHelp()
-	case key.Matches(k, km.NetQuit):
+	case key.Matches(k, km.Quit):
 		m.quitting = true
 		return tea.Quit
 	}

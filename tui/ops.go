@@ -293,245 +293,302 @@ func splitNames(a string) []string {
 	return f
 }
 
-// rowsKey handles a key while the entries table has the keyboard.
-func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys
-	rows := m.s.rows()
-	sel := slices.Index(rows, m.s.v.Selected)
-	moveTo := func(i int) {
-		if len(rows) == 0 {
-			return
-		}
-		i = max(0, min(i, len(rows)-1))
-		m.s.v.Selected = rows[i]
+// rowAction is what a key of the entries table does.
+type rowAction struct {
+	b  key.Binding
+	do func(m *Model) tea.Cmd
+}
+
+// rowActions pairs each binding of the entries table with its action.
+func (m *Model) rowActions() []rowAction {
+	k := m.keys.Table
+	act := func(f func(m *Model)) func(m *Model) tea.Cmd {
+		return func(m *Model) tea.Cmd { f(m); return nil }
 	}
-	switch {
-	case key.Matches(k, km.Up):
-		moveTo(sel - 1)
-	case key.Matches(k, km.Down):
-		moveTo(sel + 1)
-	case key.Matches(k, km.Top):
-		moveTo(0)
-	case key.Matches(k, km.Bottom):
-		moveTo(len(rows) - 1)
-	case key.Matches(k, km.Mark):
-		n := m.s.v.Selected
-		if n == "" {
-			m.note(true, "no row to mark")
-			break
+	return []rowAction{
+		{k.Up, act(func(m *Model) { m.moveSel(-1, false) })},
+		{k.Down, act(func(m *Model) { m.moveSel(1, false) })},
+		{k.Top, act(func(m *Model) { m.moveSel(0, true) })},
+		{k.Bottom, act(func(m *Model) { m.moveSel(-1, true) })},
+		{k.Mark, act((*Model).toggleMark)},
+		{k.Unmark, act((*Model).clearMarks)},
+		{k.Focus, act(func(m *Model) { m.mode = modeLine; m.line.validate(m) })},
+		{k.Recall, act((*Model).recall)},
+		{k.Add, act(func(m *Model) { m.binary("add", "+") })},
+		{k.Sub, act(func(m *Model) { m.binary("subtract", "-") })},
+		{k.Mul, act(func(m *Model) { m.binary("multiply", "*") })},
+		{k.Div, act(func(m *Model) { m.binary("divide", "/") })},
+		{k.Recip, act(func(m *Model) { m.unary("reciprocal", "recip") })},
+		{k.Conj, act(func(m *Model) { m.unary("conjugate", "conj") })},
+		{k.Neg, act((*Model).negate)},
+		{k.Series, act(func(m *Model) { m.combine("series", "series") })},
+		{k.Parallel, act(func(m *Model) { m.combine("parallel", "parallel") })},
+		{k.VDiv, act(func(m *Model) {
+			m.roles("voltage divider V_k = V·Z_k/ΣZ", "vdiv", []string{"source voltage", "impedance across which", "rest of the string"},
+				[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, true)
+		})},
+		{k.IDiv, act(func(m *Model) {
+			m.roles("current divider I_k = I·Y_k/ΣY", "idiv", []string{"source current", "branch", "other branches"},
+				[]calc.Dim{calc.DimCurrent, calc.DimImpedance, calc.DimImpedance}, true)
+		})},
+		{k.Thevenin, act(func(m *Model) {
+			m.roles("Thevenin equivalent across the shunt", "thevenin", []string{"source voltage", "series impedance", "shunt impedance"},
+				[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, false)
+		})},
+		{k.DeltaY, act(func(m *Model) { m.threeOf("Δ → Y", "delta2y", "Zab, Zbc, Zca") })},
+		{k.YDelta, act(func(m *Model) { m.threeOf("Y → Δ", "y2delta", "Za, Zb, Zc") })},
+		{k.Rename, act((*Model).askRename)},
+		{k.Copy, act((*Model).askCopy)},
+		{k.Delete, act((*Model).deleteRow)},
+		{k.Raise, act(func(m *Model) { m.reorder(true) })},
+		{k.Lower, act(func(m *Model) { m.reorder(false) })},
+		{k.Freq, act((*Model).askFreq)},
+		{k.Form, act((*Model).switchForm)},
+		{k.Fewer, act(func(m *Model) { m.digits(-1) })},
+		{k.More, act(func(m *Model) { m.digits(1) })},
+		{k.Basis, act((*Model).switchBasis)},
+		{k.Angles, act((*Model).switchAngles)},
+		{k.Decimal, act((*Model).switchDecimal)},
+		{k.Blank, act(func(m *Model) { m.blankStart() })},
+		{k.Undo, act((*Model).undo)},
+		{k.Redo, act((*Model).redo)},
+		{k.Networks, act(func(m *Model) { m.openNet("") })},
+		{k.Export, act(func(m *Model) {
+			m.mode = modeExport
+			m.note(false, "export: "+m.keyList(m.keys.Export.ShortHelp()[:3]))
+		})},
+		{k.Clip, (*Model).clipRow},
+		{k.ClipTrail, func(m *Model) tea.Cmd { return m.copyCmd("the trail", m.trailText()) }},
+		{k.TrailBack, act(func(m *Model) { m.trail.scroll(m, 5) })},
+		{k.TrailOn, act(func(m *Model) { m.trail.scroll(m, -5) })},
+		{k.TrailLast, act(func(m *Model) { m.trail.back = 0; m.note(false, "trail at the latest step") })},
+		{k.TrailFull, act((*Model).openFull)},
+		{k.Help, act((*Model).openHelp)},
+		{k.Quit, func(m *Model) tea.Cmd { m.quitting = true; return tea.Quit }},
+	}
+}
+
+// keyList writes bindings as "key what, key what" for a message.
+func (m *Model) keyList(bs []key.Binding) string {
+	var parts []string
+	for _, b := range bs {
+		parts = append(parts, b.Help().Key+" "+b.Help().Desc)
+	}
+	return strings.Join(parts, ", ")
+}
+
+// undoKey names the undo key, for messages that offer it.
+func (m *Model) undoKey() string { return m.keys.Table.Undo.Help().Key }
+
+// rowsKey handles a key while the entries table has the keyboard: a bound
+// key acts; a paste or the first character of a statement goes to the
+// entry line.
+func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
+	for _, a := range m.rowActions() {
+		if key.Matches(k, a.b) {
+			return a.do(m)
 		}
-		m.s.touch(func(v *view) {
-			if i := slices.Index(v.Marks, n); i >= 0 {
-				v.Marks = slices.Delete(v.Marks, i, i+1)
-			} else {
-				v.Marks = append(v.Marks, n)
-			}
-		})
-		if len(m.s.v.Marks) > 0 {
-			m.note(false, "marked, in order: "+strings.Join(m.s.v.Marks, ", "))
-		} else {
-			m.note(false, "no rows marked: operations take the two newest")
-		}
-	case key.Matches(k, km.Unmark):
-		if len(m.s.v.Marks) == 0 {
-			m.note(false, "no marks to clear")
-			break
-		}
-		m.s.touch(func(v *view) { v.Marks = nil })
-		m.note(false, "marks cleared: operations take the two newest rows")
-	case key.Matches(k, km.Focus):
+	}
+	if k.Paste {
+		// a paste is text for the entry line, wherever the keyboard was
 		m.mode = modeLine
-		m.line.validate(m)
-	case key.Matches(k, km.Recall):
-		n := m.s.v.Selected
-		if n == "" {
-			m.note(true, "no row to recall")
-			break
-		}
-		m.line.f.set(m.recallText(n))
-		m.mode = modeLine
-		m.line.validate(m)
-		m.note(false, "recalled "+n+": edit and press enter to redefine it (what depends on it follows)")
-	case key.Matches(k, km.Add):
-		m.binary("add", "+")
-	case key.Matches(k, km.Sub):
-		m.binary("subtract", "-")
-	case key.Matches(k, km.Mul):
-		m.binary("multiply", "*")
-	case key.Matches(k, km.Div):
-		m.binary("divide", "/")
-	case key.Matches(k, km.Recip):
-		m.unary("reciprocal", "recip")
-	case key.Matches(k, km.Conj):
-		m.unary("conjugate", "conj")
-	case key.Matches(k, km.Neg):
-		n := m.single()
-		if n == "" {
-			m.note(true, "negate needs a row")
-			break
-		}
-		m.define("negate:", "-"+n)
-	case key.Matches(k, km.Series):
-		m.combine("series", "series")
-	case key.Matches(k, km.Parallel):
-		m.combine("parallel", "parallel")
-	case key.Matches(k, km.VDiv):
-		m.roles("voltage divider V_k = V·Z_k/ΣZ", "vdiv", []string{"source voltage", "impedance across which", "rest of the string"},
-			[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, true)
-	case key.Matches(k, km.IDiv):
-		m.roles("current divider I_k = I·Y_k/ΣY", "idiv", []string{"source current", "branch", "other branches"},
-			[]calc.Dim{calc.DimCurrent, calc.DimImpedance, calc.DimImpedance}, true)
-	case key.Matches(k, km.Thevenin):
-		m.roles("Thevenin equivalent across the shunt", "thevenin", []string{"source voltage", "series impedance", "shunt impedance"},
-			[]calc.Dim{calc.DimVoltage, calc.DimImpedance, calc.DimImpedance}, false)
-	case key.Matches(k, km.DeltaY):
-		m.threeOf("Δ → Y", "delta2y", "Zab, Zbc, Zca")
-	case key.Matches(k, km.YDelta):
-		m.threeOf("Y → Δ", "y2delta", "Za, Zb, Zc")
-	case key.Matches(k, km.Rename):
-		m.askRename()
-	case key.Matches(k, km.Copy):
-		m.askCopy()
-	case key.Matches(k, km.Delete):
-		n := m.s.v.Selected
-		if n == "" {
-			m.note(true, "no row to put away")
-			break
-		}
-		next := ""
-		if i := slices.Index(rows, n); i+1 < len(rows) {
-			next = rows[i+1]
-		} else if i > 0 {
-			next = rows[i-1]
-		}
-		// a value nothing depends on leaves the worksheet; one that others
-		// read is only put away from the table, since they still need it
-		if m.s.sh.Validate("forget "+n) == nil {
-			m.runThen("delete "+n, func() {
-				m.s.v.Selected = next
-				m.s.tidy()
-				m.s.save()
-				m.note(false, n+" deleted (u brings it back)")
-			}, "forget "+n)
-			break
-		}
-		if err := m.s.change(func(v *view) {
-			v.Hidden = append(v.Hidden, n)
-			v.Selected = next
-		}); err != nil {
-			m.note(true, err.Error())
-			break
-		}
-		m.note(false, n+" put away: other values depend on it, so it stays in the worksheet (u brings it back)")
-	case key.Matches(k, km.Raise), key.Matches(k, km.Lower):
-		m.reorder(key.Matches(k, km.Raise))
-	case key.Matches(k, km.Freq):
-		f := m.format().Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
-		m.startAsk("working frequency, in Hz or rad/s (inductors and capacitors follow it)", []question{{label: "frequency", def: f}}, func(a []string) {
-			v := strings.TrimSpace(a[0])
-			if _, err := strconv.ParseFloat(strings.Replace(v, ",", ".", 1), 64); err == nil {
-				v += " Hz"
-			}
-			m.run("frequency", "frequency "+v)
-		})
-	case key.Matches(k, km.Form):
-		m.s.touch(func(v *view) { v.PolarFirst = !v.PolarFirst })
-		if m.s.v.PolarFirst {
-			m.note(false, "polar form first")
-		} else {
-			m.note(false, "rectangular form first")
-		}
-	case key.Matches(k, km.Fewer), key.Matches(k, km.More):
-		d := m.s.sh.Settings().Digits
-		if key.Matches(k, km.Fewer) {
-			d--
-		} else {
-			d++
-		}
-		if d < 1 || d > calc.MaxDigits {
-			m.note(true, fmt.Sprintf("digits stay between 1 and %d", calc.MaxDigits))
-			break
-		}
-		m.run("digits", "digits "+strconv.Itoa(d))
-	case key.Matches(k, km.Basis):
-		b := "peak"
-		if m.s.sh.Settings().Basis == calc.Peak {
-			b = "rms"
-		}
-		m.run("basis (S = V·I* for RMS, ½·V·I* for peak)", "basis "+b)
-	case key.Matches(k, km.Decimal):
-		d := "decimal comma"
-		if m.s.sh.Settings().Comma {
-			d = "decimal point"
-		}
-		m.run(d, d)
-	case key.Matches(k, km.Angles):
-		a := "rad"
-		if m.s.sh.Settings().Radians {
-			a = "deg"
-		}
-		m.run("angles", "angles "+a)
-	case key.Matches(k, km.Undo):
-		if m.s.doUndo() {
-			m.trail.back = 0
-			m.note(false, fmt.Sprintf("undone (%d more to undo, U redoes)", len(m.s.undo)))
-		} else if m.s.readOnly {
-			m.note(true, m.s.errReadOnly().Error())
-		} else {
-			m.note(false, "nothing to undo")
-		}
-	case key.Matches(k, km.Redo):
-		if m.s.doRedo() {
-			m.note(false, "redone")
-		} else {
-			m.note(false, "nothing to redo")
-		}
-	case key.Matches(k, km.Networks):
-		m.openNet("")
-	case key.Matches(k, km.Export):
-		m.mode = modeExport
-		m.note(false, "export: m trail as Markdown, t trail as text, w session as worksheet")
-	case key.Matches(k, km.Clip):
-		n := m.s.v.Selected
-		if n == "" {
-			m.note(true, "no row to copy")
-			break
-		}
-		q, _ := m.s.sh.Lookup(n)
-		return m.copyCmd(n, n+" = "+m.format().Both(q, m.s.v.PolarFirst))
-	case key.Matches(k, km.ClipTrail):
-		return m.copyCmd("the trail", m.trailText())
-	case key.Matches(k, km.TrailBack):
-		m.trail.scroll(m, 5)
-	case key.Matches(k, km.TrailOn):
-		m.trail.scroll(m, -5)
-	case key.Matches(k, km.TrailLast):
-		m.trail.back = 0
-		m.note(false, "trail at the latest step")
-	case key.Matches(k, km.TrailFull):
-		m.openFull()
-	case key.Matches(k, km.Help):
-		m.openHelp()
-	case key.Matches(k, km.Blank):
-		m.blankStart()
-	case key.Matches(k, km.Quit):
-		m.quitting = true
-		return tea.Quit
-	default:
-		if k.Paste {
-			// a paste is text for the entry line, wherever the keyboard was
+		return m.lineKey(k)
+	}
+	if k.Type == tea.KeyRunes && !k.Alt {
+		// typing starts a statement: the first character goes to the line
+		if rs := k.Runes; len(rs) > 0 && startsStatement(rs[0]) {
 			m.mode = modeLine
 			return m.lineKey(k)
 		}
-		if k.Type == tea.KeyRunes && !k.Alt {
-			// typing starts a statement: the first character goes to the line
-			if rs := k.Runes; len(rs) > 0 && startsStatement(rs[0]) {
-				m.mode = modeLine
-				return m.lineKey(k)
-			}
-		}
 	}
 	return nil
+}
+
+// moveSel moves the selection by d rows, or to row d from the top (0) or
+// the bottom (−1) when to is set.
+func (m *Model) moveSel(d int, to bool) {
+	rows := m.s.rows()
+	if len(rows) == 0 {
+		return
+	}
+	i := slices.Index(rows, m.s.v.Selected) + d
+	if to {
+		i = d
+		if d < 0 {
+			i = len(rows) - 1
+		}
+	}
+	m.s.v.Selected = rows[max(0, min(i, len(rows)-1))]
+}
+
+func (m *Model) toggleMark() {
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to mark")
+		return
+	}
+	m.s.touch(func(v *view) {
+		if i := slices.Index(v.Marks, n); i >= 0 {
+			v.Marks = slices.Delete(v.Marks, i, i+1)
+		} else {
+			v.Marks = append(v.Marks, n)
+		}
+	})
+	if len(m.s.v.Marks) > 0 {
+		m.note(false, "marked, in order: "+strings.Join(m.s.v.Marks, ", "))
+	} else {
+		m.note(false, "no rows marked: operations take the two newest, named on the hint line")
+	}
+}
+
+func (m *Model) clearMarks() {
+	if len(m.s.v.Marks) == 0 {
+		m.note(false, "no marks to clear")
+		return
+	}
+	m.s.touch(func(v *view) { v.Marks = nil })
+	m.note(false, "marks cleared: operations take the two newest rows, named on the hint line")
+}
+
+func (m *Model) recall() {
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to recall")
+		return
+	}
+	m.line.f.set(m.recallText(n))
+	m.mode = modeLine
+	m.line.validate(m)
+	m.note(false, "recalled "+n+": edit and press enter to redefine it (what depends on it follows)")
+}
+
+func (m *Model) negate() {
+	n := m.single()
+	if n == "" {
+		m.note(true, "negate needs a row")
+		return
+	}
+	m.define("negate:", "-"+n)
+}
+
+// deleteRow takes the selected row out: a value nothing depends on leaves
+// the worksheet; one that others read is only put away from the table,
+// since they still need it.
+func (m *Model) deleteRow() {
+	rows := m.s.rows()
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to put away")
+		return
+	}
+	next := ""
+	if i := slices.Index(rows, n); i+1 < len(rows) {
+		next = rows[i+1]
+	} else if i > 0 {
+		next = rows[i-1]
+	}
+	if m.s.sh.Validate("forget "+n) == nil {
+		m.runThen("delete "+n, func() {
+			m.s.v.Selected = next
+			m.s.tidy()
+			m.s.save()
+			m.note(false, n+" deleted ("+m.undoKey()+" brings it back)")
+		}, "forget "+n)
+		return
+	}
+	if err := m.s.change(func(v *view) {
+		v.Hidden = append(v.Hidden, n)
+		v.Selected = next
+	}); err != nil {
+		m.note(true, err.Error())
+		return
+	}
+	m.note(false, n+" put away: other values depend on it, so it stays in the worksheet ("+m.undoKey()+" brings it back)")
+}
+
+func (m *Model) askFreq() {
+	f := m.format().Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
+	m.startAsk("working frequency, in Hz or rad/s (inductors and capacitors follow it)", []question{{label: "frequency", def: f}}, func(a []string) {
+		v := strings.TrimSpace(a[0])
+		if _, err := strconv.ParseFloat(strings.Replace(v, ",", ".", 1), 64); err == nil {
+			v += " Hz"
+		}
+		m.run("frequency", "frequency "+v)
+	})
+}
+
+func (m *Model) switchForm() {
+	m.s.touch(func(v *view) { v.PolarFirst = !v.PolarFirst })
+	if m.s.v.PolarFirst {
+		m.note(false, "polar form first")
+	} else {
+		m.note(false, "rectangular form first")
+	}
+}
+
+// digits shows d significant figures more (or fewer).
+func (m *Model) digits(d int) {
+	n := m.s.sh.Settings().Digits + d
+	if n < 1 || n > calc.MaxDigits {
+		m.note(true, fmt.Sprintf("digits stay between 1 and %d", calc.MaxDigits))
+		return
+	}
+	m.run("digits", "digits "+strconv.Itoa(n))
+}
+
+func (m *Model) switchBasis() {
+	b := "peak"
+	if m.s.sh.Settings().Basis == calc.Peak {
+		b = "rms"
+	}
+	m.run("basis (S = V·I* for RMS, ½·V·I* for peak)", "basis "+b)
+}
+
+func (m *Model) switchAngles() {
+	a := "rad"
+	if m.s.sh.Settings().Radians {
+		a = "deg"
+	}
+	m.run("angles", "angles "+a)
+}
+
+func (m *Model) switchDecimal() {
+	d := "decimal comma"
+	if m.s.sh.Settings().Comma {
+		d = "decimal point"
+	}
+	m.run(d, d)
+}
+
+func (m *Model) undo() {
+	switch {
+	case m.s.doUndo():
+		m.trail.back = 0
+		m.note(false, fmt.Sprintf("undone (%d more to undo, %s redoes)", len(m.s.undo), m.keys.Table.Redo.Help().Key))
+	case m.s.readOnly:
+		m.note(true, m.s.errReadOnly().Error())
+	default:
+		m.note(false, "nothing to undo")
+	}
+}
+
+func (m *Model) redo() {
+	if m.s.doRedo() {
+		m.note(false, "redone")
+	} else {
+		m.note(false, "nothing to redo")
+	}
+}
+
+// clipRow sends the selected value to the terminal clipboard.
+func (m *Model) clipRow() tea.Cmd {
+	n := m.s.v.Selected
+	if n == "" {
+		m.note(true, "no row to copy")
+		return nil
+	}
+	q, _ := m.s.sh.Lookup(n)
+	return m.copyCmd(n, n+" = "+m.format().Both(q, m.s.v.PolarFirst))
 }
 
 // startsStatement reports characters that no binding takes and that begin

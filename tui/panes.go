@@ -10,6 +10,7 @@ import (
 	"argand/reduce/sheet"
 	"argand/tui/sketch"
 
+	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/x/ansi"
 )
 
@@ -539,7 +540,7 @@ func (m *Model) caret() (col int, marks, msg string, ok bool) {
 // hintView is one line of the keys most likely wanted next.
 func (m *Model) hintView() string {
 	if m.job != nil {
-		return m.th.key.Render("esc") + m.tr(" or ") + m.th.key.Render("ctrl+c") + m.tr(" stops it; the session stays as it was")
+		return m.th.key.Render(m.tr(m.keys.Stop.Help().Key)) + m.tr(" stops it; the session stays as it was")
 	}
 	if sig := m.signature(); sig != "" {
 		// inside a call the parameters matter more than the complaint
@@ -562,48 +563,57 @@ func (m *Model) hintView() string {
 	}
 	// tr goes on the plain pieces, before styling: styled text holds
 	// escape sequences of its own
-	k := func(key, what string) string { return m.th.key.Render(m.tr(key)) + " " + m.tr(what) }
+	k := func(b key.Binding) string {
+		return m.th.key.Render(m.tr(b.Help().Key)) + " " + m.tr(b.Help().Desc)
+	}
 	var parts []string
-	switch m.mode {
-	case modeLine:
-		parts = []string{k("enter", "run"), k("esc", "back to rows"), k("↑↓", "earlier lines"), k("f1", "help")}
-	case modePrompt:
-		parts = []string{k("enter", "accept"), k("esc", "cancel")}
-	case modeNet:
-		parts = []string{k("→←", "step"), k("↑↓", "element"), k("v i s", "take V I S"), k("t", "Thevenin"), k("esc", "back"), k("?", "help")}
-	case modeExport:
-		parts = []string{k("m", "Markdown"), k("t", "text"), k("w", "worksheet"), k("esc", "cancel")}
-	default:
-		// every key shown whole: the most wanted always, the others in
-		// order of use while the line has room, each in its place
-		type hint struct {
-			text string
-			must bool
+	if m.mode != modeRows {
+		for _, b := range m.keys.For(m.mode).ShortHelp() {
+			parts = append(parts, k(b))
 		}
-		hs := []hint{{k("?", "help"), true}, {k("tab", "type"), false}, {k("space", "mark"), false}}
-		if ops := m.operands(2); len(ops) == 2 {
-			hs = append(hs, hint{m.tr("on "+ops[0]+", "+ops[1]+": ") + m.th.key.Render("p s + - * /"), true}, hint{k("v c t", "roles"), false})
+		return strings.Join(parts, "  ")
+	}
+	return m.tableHint(k)
+}
+
+// tableHint is the hint line of the entries table: the most wanted keys
+// always, the others in order while the line has room, each in its place.
+// Before an operation takes its default operands, the hint names them.
+func (m *Model) tableHint(k func(key.Binding) string) string {
+	type hint struct {
+		text string
+		must bool
+	}
+	short := m.keys.Table.ShortHelp()
+	hs := []hint{{k(short[0]), true}, {k(short[1]), false}, {k(short[2]), false}}
+	if ops := m.operands(2); len(ops) == 2 {
+		var keys []string
+		for _, b := range m.keys.Table.operations() {
+			keys = append(keys, b.Help().Key)
 		}
-		hs = append(hs, hint{k("u", "undo"), true}, hint{k("q", "quit"), true},
-			hint{k("T", "trail in full"), false}, hint{k("N", "networks"), false}, hint{k("x", "export"), false})
-		take := make([]bool, len(hs))
-		used := -2
-		for pass := 0; pass < 2; pass++ {
-			for i, h := range hs {
-				if take[i] || h.must != (pass == 0) {
-					continue
-				}
-				w := ansi.StringWidth(h.text) + 2
-				if pass == 0 || used+w <= m.width {
-					take[i] = true
-					used += w
-				}
-			}
-		}
+		hs = append(hs, hint{m.tr("on "+ops[0]+", "+ops[1]+": ") + m.th.key.Render(m.tr(strings.Join(keys, " "))), true})
+	}
+	for i, b := range short[3:] {
+		hs = append(hs, hint{k(b), i < 2})
+	}
+	take := make([]bool, len(hs))
+	used := -2
+	for pass := 0; pass < 2; pass++ {
 		for i, h := range hs {
-			if take[i] {
-				parts = append(parts, h.text)
+			if take[i] || h.must != (pass == 0) {
+				continue
 			}
+			w := ansi.StringWidth(h.text) + 2
+			if pass == 0 || used+w <= m.width {
+				take[i] = true
+				used += w
+			}
+		}
+	}
+	var parts []string
+	for i, h := range hs {
+		if take[i] {
+			parts = append(parts, h.text)
 		}
 	}
 	return strings.Join(parts, "  ")

@@ -203,9 +203,10 @@ func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
 		say(l)
 	}
 	say("session file: " + m.lockPath)
-	say("  r  open it read-only: look, nothing is kept")
-	say("  s  start a separate session (kept in its own file)")
-	say("  q  quit")
+	say("How do you want to go on?")
+	for _, b := range m.keys.Lock.FullHelp()[0] {
+		say("  " + pad(b.Help().Key, 3) + b.Help().Desc)
+	}
 	for {
 		say("r, s or q?")
 		line, _, err := sheet.ReadLine(br)

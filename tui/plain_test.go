@@ -107,7 +107,7 @@ func TestPlainErrorsAndLock(t *testing.T) {
 	held := New(Options{Getenv: func(string) string { return "" }})
 	defer held.Close()
 	out = plainRun(t, "r\nZz = 1 Ω\nundo\nquit\n")
-	if !strings.Contains(out, "in use") || !strings.Contains(out, "read-only: this session is open in another argand (pid ") {
+	if !strings.Contains(out, "already open") || !strings.Contains(out, "read-only: this session is open in another argand (pid ") {
 		t.Errorf("read-only choice:\n%s", out)
 	}
 	if strings.Contains(out, "→ Zz") {

@@ -78,7 +78,7 @@ func TestTrailWrapsCaution(t *testing.T) {
 	if !strings.Contains(v, "trail in full") {
 		t.Errorf("full trail view:\n%s", v)
 	}
-	press(m, "g")
+	press(m, "home")
 	if !strings.Contains(m.View(), "lines 1-") {
 		t.Errorf("g does not go to the first step:\n%s", m.View())
 	}

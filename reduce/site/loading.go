@@ -7,10 +7,6 @@ import (
 	"argand/calc"
 )
 
-// XfmrCaution accompanies results for transformers under load.
-const XfmrCaution = "Transformer loading, paralleling and tap changes are switching work on mains plant: check the vector groups, " +
-	"ratios and phasing by measurement before closing, and follow the maker's data, local electrical codes and licensed practice."
-
 // loadVoltage solves a load fed through a series impedance z from a fixed
 // e.m.f. of magnitude e: the load draws |I| = im at the angle phi from its
 // own voltage (phi < 0 lags). With the load voltage on the real axis and
@@ -146,7 +142,7 @@ func Regulation(n Nameplate, load, pf float64, leading bool) (RegResult, error) 
 			Inputs:  []calc.Operand{op("u_r %", num(ur)), op("u_x %", num(ux)), op("cos φ", num(c)), op("sin φ", num(s))},
 			Results: []calc.Operand{op("first order %", num(r.Approx)), op("with the second-order term %", num(r.Second)),
 				op("exact − first order (points)", num(r.Reg-r.Approx))},
-			Notes: []string{XfmrCaution, Caution},
+			Cautions: calc.CautionsOf(calc.CautionTransformer, calc.CautionMains),
 		})
 	if err := checkSteps(r.Steps); err != nil {
 		return RegResult{}, err
@@ -368,11 +364,11 @@ func ShareLoad(p Parallel) (ParallelResult, error) {
 			Notes: notes,
 		},
 		{
-			Kind:    "parallel",
-			Rule:    "the usual approximation beside it: shares in inverse proportion to |Z|, ratios equal (common practice)",
-			Formula: "S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
-			Results: []calc.Operand{op("load of A % (approx)", num(r.ApproxA)), op("load of B % (approx)", num(r.ApproxB))},
-			Notes:   []string{XfmrCaution, Caution},
+			Kind:     "parallel",
+			Rule:     "the usual approximation beside it: shares in inverse proportion to |Z|, ratios equal (common practice)",
+			Formula:  "S_A ≈ S_L·(S_rA/u_A)/(S_rA/u_A + S_rB/u_B)",
+			Results:  []calc.Operand{op("load of A % (approx)", num(r.ApproxA)), op("load of B % (approx)", num(r.ApproxB))},
+			Cautions: calc.CautionsOf(calc.CautionTransformer, calc.CautionMains),
 		},
 	}
 	if err := checkSteps(r.Steps); err != nil {
@@ -448,7 +444,7 @@ func VectorShift(x calc.Quantity, clock int, toLV, negative bool, seq int, ratio
 		Formula: formula,
 		Inputs:  inputs,
 		Results: []calc.Operand{op("x'", r), op("turned by", angle(rad(d)))},
-		Notes:   append(notes, XfmrCaution),
+		Notes:   notes, Cautions: calc.CautionsOf(calc.CautionTransformer),
 	}
 	return r, st, nil
 }

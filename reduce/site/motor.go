@@ -7,11 +7,6 @@ import (
 	"argand/calc"
 )
 
-// MotorCaution accompanies every motor-starting result.
-const MotorCaution = "Motor starting: the permitted voltage dip, the starter and its protection are set by the supply's " +
-	"rules and local electrical codes; a starting study is confirmed by a qualified person under licensed practice. " +
-	"Locked-rotor data come from the motor's maker, not from this calculation."
-
 // magq returns a magnitude: a real, non-negative value whose angle means
 // nothing (a current read on a meter, a voltage on a rating plate).
 func magq(x float64, d calc.Dim) calc.Quantity { return kq(x, d, calc.KindMagnitude) }
@@ -48,7 +43,7 @@ func LockedRotorFromMultiple(ir, k, v float64) (LockedRotor, error) {
 		Formula: "I_LR = k·I_r,  |S_LR| = √3·V·I_LR",
 		Inputs:  []calc.Operand{op("I_r", magq(ir, calc.DimCurrent)), op("k", num(k)), op("V (line, rated)", magq(v, calc.DimVoltage))},
 		Results: []calc.Operand{op("I_LR", r.I), op("|S_LR|", r.S)},
-		Notes:   []string{"at rated voltage; the current falls in proportion to the voltage the motor actually sees", MotorCaution},
+		Notes:   []string{"at rated voltage; the current falls in proportion to the voltage the motor actually sees"}, Cautions: calc.CautionsOf(calc.CautionMotor),
 	}
 	return r, checkSteps([]calc.Step{r.Step})
 }
@@ -79,9 +74,9 @@ func LockedRotorFromKVA(pout, ratio, v float64) (LockedRotor, error) {
 		Formula: "|S_LR| = r·P_out,  I_LR = |S_LR|/(√3·V)",
 		Inputs: []calc.Operand{op("P_out", power(pout, calc.KindActive)), op("r (VA per W)", num(ratio)),
 			op("V (line, rated)", magq(v, calc.DimVoltage))},
-		Results: []calc.Operand{op("I_LR", r.I), op("|S_LR|", r.S)},
-		Notes: []string{"r is the maker's figure; a value per horsepower converts through the unit: 5 kVA/hp = 5 kVA per 745.7 W, 5 kVA/hp_metric per 735.5 W",
-			MotorCaution},
+		Results:  []calc.Operand{op("I_LR", r.I), op("|S_LR|", r.S)},
+		Notes:    []string{"r is the maker's figure; a value per horsepower converts through the unit: 5 kVA/hp = 5 kVA per 745.7 W, 5 kVA/hp_metric per 735.5 W"},
+		Cautions: calc.CautionsOf(calc.CautionMotor),
 	}
 	return r, checkSteps([]calc.Step{r.Step})
 }
@@ -291,7 +286,7 @@ func MotorStart(st Start) (StartResult, error) {
 				op("|Z_eq|", magq(cmplx.Abs(zeq), calc.DimImpedance))},
 			Results: []calc.Operand{op("dip at the motor % (approx)", num(res.Approx)), op("dip at the bus % (approx)", num(res.ApproxBus)),
 				op("dip at the supply point % (approx)", num(res.ApproxSup)), op("exact − approx at the motor (points)", num(res.Dip-res.Approx))},
-			Notes: []string{MotorCaution, Caution},
+			Cautions: calc.CautionsOf(calc.CautionMotor, calc.CautionMains),
 		},
 	}
 	if err := checkSteps(res.Steps); err != nil {

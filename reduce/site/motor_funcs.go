@@ -147,7 +147,7 @@ func lrCall(fn, rating string, dim calc.Dim, figure string, solve func(a, b, v f
 		if err != nil {
 			return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 		}
-		return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Notes: []string{MotorCaution},
+		return calc.Result{Value: r.I, Steps: []calc.Step{r.Step}, Cautions: calc.CautionsOf(calc.CautionMotor),
 			Extra: []calc.Operand{op("sa", r.S)}}, nil
 	}
 }
@@ -221,7 +221,7 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if len(notes) > 0 {
 		r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
 	}
-	return calc.Result{Value: r.Vmotor, Steps: r.Steps, Notes: []string{MotorCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.Vmotor, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionMotor), Extra: []calc.Operand{
 		op("dip", num(r.Dip)), op("vbus", r.Vbus), op("dipbus", num(r.DipBus)), op("vsupply", r.Vsupply), op("dipsupply", num(r.DipSup)),
 		op("approx", num(r.Approx)), op("approxbus", num(r.ApproxBus)), op("approxsupply", num(r.ApproxSup)),
 		op("i", r.I), op("sa", r.S), op("torque", num(r.Torque)), op("zeq", r.Zeq)}}, nil
@@ -270,7 +270,7 @@ func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if qs[5].Q.Dim == calc.DimPower {
 		r.Steps[1].Notes = append([]string{"the load in VA is taken at rated voltage: n = |S|/S_rated"}, r.Steps[1].Notes...)
 	}
-	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{
 		op("v", r.Vload), op("i", r.I), op("approx", num(r.Approx)), op("second", num(r.Second))}}, nil
 }
 
@@ -361,7 +361,7 @@ func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
 	r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
-	return calc.Result{Value: r.SA, Steps: r.Steps, Notes: []string{XfmrCaution}, Extra: []calc.Operand{
+	return calc.Result{Value: r.SA, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{
 		op("sb", r.SB), op("pcta", num(r.PctA)), op("pctb", num(r.PctB)), op("approxa", num(r.ApproxA)), op("approxb", num(r.ApproxB)),
 		op("ia", r.IA), op("ib", r.IB), op("il", r.IL), op("ic", r.Ic), op("vbus", r.Vbus)}}, nil
 }
@@ -402,5 +402,5 @@ func callVGroup(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, fmt.Errorf("%s: %v", fn, err)
 	}
-	return calc.Result{Value: x, Steps: []calc.Step{st}, Notes: []string{XfmrCaution}, Extra: []calc.Operand{op("turn", st.Results[1].Value)}}, nil
+	return calc.Result{Value: x, Steps: []calc.Step{st}, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{op("turn", st.Results[1].Value)}}, nil
 }
