@@ -2,6 +2,8 @@ package tui
 
 import (
 	"fmt"
+	"os"
+	"slices"
 	"strings"
 	"testing"
 
@@ -119,4 +121,98 @@ func TestEveryBindingActs(t *testing.T) {
 	}
 	_ = key.NewBinding
 	_ = store.Dir
+}
+
+// readmeKeyRows are the rows of the README's key table, written from the
+// entries table's bindings: one row per group of its full help.
+func readmeKeyRows(k TableKeys) []string {
+	var rows []string
+	for _, g := range k.FullHelp() {
+		var keys, what []string
+		for _, b := range g {
+			keys = append(keys, "`"+b.Help().Key+"`")
+			what = append(what, b.Help().Desc)
+		}
+		rows = append(rows, "| "+strings.Join(keys, " ")+" | "+strings.Join(what, "; ")+" |")
+	}
+	return rows
+}
+
+// The README's key table is the entries table's bindings, row for row.
+func TestReadmeKeyTable(t *testing.T) {
+	b, err := os.ReadFile("../README.md")
+	if err != nil {
+		t.Skip("README.md not found:", err)
+	}
+	_, rest, ok := strings.Cut(string(b), "| keys | what they do |\n| --- | --- |\n")
+	if !ok {
+		t.Fatal("README.md has no key table")
+	}
+	var got []string
+	for _, l := range strings.Split(rest, "\n") {
+		if !strings.HasPrefix(l, "|") {
+			break
+		}
+		got = append(got, l)
+	}
+	want := readmeKeyRows(DefaultKeyMap().Table)
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("README key table differs from the bindings; it should read:\n%s", strings.Join(want, "\n"))
+	}
+}
+
+// Moving, copying and undoing use keys of argand's own: arrows,
+// Home/End and PgUp/PgDn move, and no binding anywhere takes the letters
+// a modal editor or a pager moves, copies or undoes with.
+func TestKeysOwnScheme(t *testing.T) {
+	km := DefaultKeyMap()
+	banned := map[string]bool{"j": true, "k": true, "g": true, "G": true, "J": true, "K": true,
+		"h": true, "l": true, "y": true, "Y": true, "u": true, "U": true}
+	for _, md := range allModes {
+		for _, b := range km.Mode(md) {
+			for _, k := range b.Keys() {
+				if banned[k] {
+					t.Errorf("%s: %q is bound (%s)", md, k, b.Help().Desc)
+				}
+			}
+		}
+	}
+	for _, c := range []struct {
+		b    key.Binding
+		keys []string
+	}{
+		{km.Table.Up, []string{"up"}}, {km.Table.Down, []string{"down"}},
+		{km.Table.Top, []string{"home"}}, {km.Table.Bottom, []string{"end"}},
+		{km.Table.TrailBack, []string{"pgup"}}, {km.Table.TrailOn, []string{"pgdown"}},
+		{km.Full.Top, []string{"home"}}, {km.Full.End, []string{"end"}},
+		{km.Full.PageUp, []string{"pgup"}}, {km.Full.PageDown, []string{"pgdown"}},
+	} {
+		for _, k := range c.keys {
+			if !slices.Contains(c.b.Keys(), k) {
+				t.Errorf("%q does not %s", k, c.b.Help().Desc)
+			}
+		}
+	}
+}
+
+// The editing keys are bound once and act alike in the entry line and in
+// a question: ctrl+b, ctrl+f, ctrl+d and ctrl+k included.
+func TestEditingKeysInQuestions(t *testing.T) {
+	for _, md := range []mode{modeLine, modePrompt} {
+		m := modelIn(t, md)
+		f := &m.line.f
+		if md == modePrompt {
+			f = &m.ask.f
+		}
+		f.set("abcdef")
+		press(m, "ctrl+a", "ctrl+f", "ctrl+f", "ctrl+d", "ctrl+b", "ctrl+k")
+		if got := f.String(); got != "a" {
+			t.Errorf("%s: editing gave %q, want %q", md, got, "a")
+		}
+		f.set("xyz")
+		press(m, "ctrl+u")
+		if got := f.String(); got != "" {
+			t.Errorf("%s: ctrl+u left %q", md, got)
+		}
+	}
 }

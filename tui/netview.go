@@ -96,95 +96,30 @@ func (n *netView) within(k int) map[string]string {
 func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 	km := m.keys.Net
 	n := m.net
-	elem := func() (sheet.ViewElement, bool) {
-		if n.sel < 0 || n.sel >= len(n.v.Elements) {
-			return sheet.ViewElement{}, false
+	if msg, ok := n.update(k, km); ok {
+		if msg != "" {
+			m.note(false, msg)
 		}
-		return n.v.Elements[n.sel], true
-	}
-	take := func(suffix, letter, what string) {
-		e, ok := elem()
-		if !ok {
-			return
-		}
-		src := n.name + "." + e.Name + "." + suffix
-		if _, ok := m.s.sh.Lookup(src); !ok {
-			m.note(true, "no "+what+" for "+e.Name+" (the network has no solution)")
-			return
-		}
-		def := letter + e.Name
-		if _, taken := m.s.sh.Lookup(def); taken {
-			def, _ = m.newName(src)
-		}
-		m.startAsk(what+" of "+e.Name+" as a new row", []question{{label: "name", def: def}}, func(a []string) {
-			m.run(what+" of "+e.Name, strings.TrimSpace(a[0])+" = "+src)
-		})
+		return nil
 	}
 	switch {
-	case key.Matches(k, km.Up):
-		n.sel = max(0, n.sel-1)
-	case key.Matches(k, km.Down):
-		n.sel = min(len(n.v.Elements)-1, n.sel+1)
-	case key.Matches(k, km.StepOn):
-		if n.step < n.steps() {
-			n.step++
-		} else {
-			m.note(false, "reduction complete: every branch value is listed")
-		}
-	case key.Matches(k, km.StepBack):
-		if n.step > 0 {
-			n.step--
-		} else {
-			m.note(false, "at the network as drawn")
-		}
 	case key.Matches(k, km.TakeV):
-		take("v", "v", "voltage")
+		m.takeBranch("v", "voltage")
 	case key.Matches(k, km.TakeI):
-		take("i", "i", "current")
+		m.takeBranch("i", "current")
 	case key.Matches(k, km.TakeS):
-		take("s", "s", "complex power")
+		m.takeBranch("s", "complex power")
 	case key.Matches(k, km.Thevenin):
-		if n.v.Compact != "" {
-			m.note(true, "network "+n.name+" is a compact form and has no named nodes: a Thevenin equivalent needs a node block")
-			break
-		}
-		a, b := "", n.v.Reference
-		for _, x := range n.v.Nodes {
-			if x != b {
-				a = x
-			}
-		}
-		def, _ := m.newName("0 V")
-		def = "T" + strings.TrimPrefix(def, "V")
-		m.startAsk("Thevenin equivalent of "+n.name+" between two nodes ("+strings.Join(n.v.Nodes, " ")+")",
-			[]question{{label: "first node", def: a}, {label: "second node", def: b}, {label: "name", def: def}},
-			func(ans []string) {
-				st := "thevenin " + ans[2] + " = " + n.name + " between " + ans[0] + " and " + ans[1]
-				z := "Z" + ans[2] + " = " + ans[2] + ".zth"
-				if _, _, err := m.s.sh.Clone().Exec(st); err != nil {
-					m.note(true, "Thevenin: "+errText(err))
-					return
-				}
-				c := m.s.sh.Clone()
-				c.Exec(st)
-				if _, _, err := c.Exec(z); err == nil {
-					m.run("Thevenin equivalent (V_th is "+ans[2]+", Z_th is Z"+ans[2]+")", st, z)
-				} else {
-					m.run("equivalent", st)
-				}
-			})
-		m.back = modeNet
+		m.netThevenin()
 	case key.Matches(k, km.Next):
 		names := m.s.sh.NetworkNames()
 		next := names[(slices.Index(names, n.name)+1)%len(names)]
 		m.net = nil
 		m.openNet(next)
 	case key.Matches(k, km.Clip):
-		e, ok := elem()
-		if !ok {
-			break
+		if e, ok := n.selected(); ok {
+			return m.copyCmd(e.Name+"'s values", m.branchText(e, true))
 		}
-		return m.copyCmd(e.Name+"'s values", m.branchText(e, true))
 	case key.Matches(k, km.Close):
 		m.mode = modeRows
 		m.note(false, "")
@@ -195,6 +130,96 @@ func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
 		return tea.Quit
 	}
 	return nil
+}
+
+// update moves within the view: the selected element and the reduction
+// step shown. It reports whether k was such a key, with a message when
+// the move could not be made.
+func (n *netView) update(k tea.KeyMsg, km NetKeys) (string, bool) {
+	switch {
+	case key.Matches(k, km.Up):
+		n.sel = max(0, n.sel-1)
+	case key.Matches(k, km.Down):
+		n.sel = min(len(n.v.Elements)-1, n.sel+1)
+	case key.Matches(k, km.StepOn):
+		if n.step == n.steps() {
+			return "reduction complete: every branch value is listed", true
+		}
+		n.step++
+	case key.Matches(k, km.StepBack):
+		if n.step == 0 {
+			return "at the network as drawn", true
+		}
+		n.step--
+	default:
+		return "", false
+	}
+	return "", true
+}
+
+// selected returns the selected element.
+func (n *netView) selected() (sheet.ViewElement, bool) {
+	if n.sel < 0 || n.sel >= len(n.v.Elements) {
+		return sheet.ViewElement{}, false
+	}
+	return n.v.Elements[n.sel], true
+}
+
+// takeBranch asks a name for the selected element's voltage, current or
+// power (suffix v, i or s) and defines it as a new row.
+func (m *Model) takeBranch(suffix, what string) {
+	n := m.net
+	e, ok := n.selected()
+	if !ok {
+		return
+	}
+	src := n.name + "." + e.Name + "." + suffix
+	if _, ok := m.s.sh.Lookup(src); !ok {
+		m.note(true, "no "+what+" for "+e.Name+" (the network has no solution)")
+		return
+	}
+	def := suffix + e.Name
+	if _, taken := m.s.sh.Lookup(def); taken {
+		def, _ = m.newName(src)
+	}
+	m.startAsk(what+" of "+e.Name+" as a new row", []question{{label: "name", def: def}}, func(a []string) {
+		m.run(what+" of "+e.Name, strings.TrimSpace(a[0])+" = "+src)
+	})
+}
+
+// netThevenin asks for two nodes and a name, and defines the Thevenin
+// equivalent between them with its impedance as a row of its own.
+func (m *Model) netThevenin() {
+	n := m.net
+	if n.v.Compact != "" {
+		m.note(true, "network "+n.name+" is a compact form and has no named nodes: a Thevenin equivalent needs a node block")
+		return
+	}
+	a, b := "", n.v.Reference
+	for _, x := range n.v.Nodes {
+		if x != b {
+			a = x
+		}
+	}
+	def, _ := m.newName("0 V")
+	def = "T" + strings.TrimPrefix(def, "V")
+	m.startAsk("Thevenin equivalent of "+n.name+" between two nodes ("+strings.Join(n.v.Nodes, " ")+")",
+		[]question{{label: "first node", def: a}, {label: "second node", def: b}, {label: "name", def: def}},
+		func(ans []string) {
+			st := "thevenin " + ans[2] + " = " + n.name + " between " + ans[0] + " and " + ans[1]
+			z := "Z" + ans[2] + " = " + ans[2] + ".zth"
+			c := m.s.sh.Clone()
+			if _, _, err := c.Exec(st); err != nil {
+				m.note(true, "Thevenin: "+errText(err))
+				return
+			}
+			if _, _, err := c.Exec(z); err == nil {
+				m.run("Thevenin equivalent (V_th is "+ans[2]+", Z_th is Z"+ans[2]+")", st, z)
+			} else {
+				m.run("equivalent", st)
+			}
+		})
+	m.back = modeNet
 }
 
 // branchText is an element's solved values as text.

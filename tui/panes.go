@@ -105,8 +105,7 @@ func (t *tableView) view(m *Model, w, h int) []string {
 	// format the rows shown, then size the columns to them
 	f := m.format()
 	omega := m.s.sh.Context().Omega()
-	type cells struct{ name, a, b, eq string }
-	var shown []cells
+	var shown []tableCells
 	c1, c2 := ansi.StringWidth(h1), ansi.StringWidth(h2)
 	for i := t.top; i < len(rows) && i < t.top+body; i++ {
 		q, _ := m.s.sh.Lookup(rows[i])
@@ -114,7 +113,7 @@ func (t *tableView) view(m *Model, w, h int) []string {
 		if m.s.v.PolarFirst {
 			a, b = b, a
 		}
-		c := cells{rows[i], a, b, equivalent(f, q, omega)}
+		c := tableCells{rows[i], a, b, equivalent(f, q, omega)}
 		c1 = max(c1, ansi.StringWidth(a))
 		c2 = max(c2, ansi.StringWidth(b))
 		shown = append(shown, c)
@@ -131,35 +130,44 @@ func (t *tableView) view(m *Model, w, h int) []string {
 		return out
 	}
 	for _, c := range shown {
-		name := c.name
-		selMark := " "
-		if name == m.s.v.Selected {
-			selMark = m.th.g.sel
-		}
-		mark := "  "
-		if k := m.s.markIndex(name); k >= 0 {
-			mark = m.th.g.mark + strconv.Itoa(k+1)
-			if k >= 9 {
-				mark = m.th.g.mark + "+"
-			}
-		}
-		line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  "
-		eq := c.eq
-		if _, lc, ok := strings.Cut(eq, " + "); ok && ansi.StringWidth(line+eq) > w {
-			// R is the real part, already in the rectangular form: the
-			// L or C alone, whole, says more than both cut
-			eq = lc
-		}
-		line = fit(line+eq, w)
-		switch {
-		case name == m.s.v.Selected:
-			line = m.th.sel.Render(pad(line, w))
-		case mark != "  ":
-			line = m.th.marked.Render(line)
-		}
-		out = append(out, line)
+		out = append(out, m.tableLine(c, nameW, c1, c2, w))
 	}
 	return out
+}
+
+// tableCells are the formatted cells of one row of the table.
+type tableCells struct{ name, a, b, eq string }
+
+// tableLine draws one row of the table: selection and mark, name, both
+// forms and what the value is at the working frequency.
+func (m *Model) tableLine(c tableCells, nameW, c1, c2, w int) string {
+	name := c.name
+	selMark := " "
+	if name == m.s.v.Selected {
+		selMark = m.th.g.sel
+	}
+	mark := "  "
+	if k := m.s.markIndex(name); k >= 0 {
+		mark = m.th.g.mark + strconv.Itoa(k+1)
+		if k >= 9 {
+			mark = m.th.g.mark + "+"
+		}
+	}
+	line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  "
+	eq := c.eq
+	if _, lc, ok := strings.Cut(eq, " + "); ok && ansi.StringWidth(line+eq) > w {
+		// R is the real part, already in the rectangular form: the
+		// L or C alone, whole, says more than both cut
+		eq = lc
+	}
+	line = fit(line+eq, w)
+	switch {
+	case name == m.s.v.Selected:
+		return m.th.sel.Render(pad(line, w))
+	case mark != "  ":
+		return m.th.marked.Render(line)
+	}
+	return line
 }
 
 // equivalent describes what an impedance or admittance is at the working

@@ -45,27 +45,43 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 	m := New(opt)
 	defer m.Close()
 	br := bufio.NewReader(in)
-	p := &cli.Printer{W: w, Err: w, O: cli.Options{ASCII: opt.ASCII}}
-	// steps are wrapped between words; messages are not, so that a file
-	// name in one stays whole for copying
-	width := plainWidth(m.opt.Getenv)
-	say := func(s string) { fmt.Fprintln(w, m.tr(s)) }
-	if m.mode == modeLocked {
-		if !m.plainLocked(br, say) {
+	r := &lineRun{m: m, w: w, ctx: ctx, width: plainWidth(m.opt.Getenv),
+		p: &cli.Printer{W: w, Err: w, O: cli.Options{ASCII: opt.ASCII}}}
+	if m.mode == modeLocked && !m.plainLocked(br, r.say) {
+		return cli.ExitOK
+	}
+	r.greet()
+	lines := plainReader(ctx, br)
+	for {
+		prompt := "> "
+		if n := m.s.sh.OpenNetwork(); n != "" {
+			prompt = n + "> "
+		}
+		fmt.Fprint(w, m.tr(prompt))
+		var got plainLine
+		select {
+		case got = <-lines:
+		case <-ctx.Done():
+			fmt.Fprintln(w)
+			return cli.Interrupted(w, m.s.sh.Line()+1)
+		}
+		if got.err != nil {
+			fmt.Fprintln(w)
 			return cli.ExitOK
 		}
-	}
-	say("argand line mode: type a statement, or " + plainCommands + ".")
-	if m.msg != "" {
-		if m.msgErr && !strings.HasPrefix(m.msg, "read-only:") {
-			say("error: " + m.msg)
-		} else {
-			say(m.msg)
+		if got.n > calc.MaxLine {
+			r.say(fmt.Sprintf("error: line too long: %d bytes (the limit is %d)", got.n, calc.MaxLine))
+			continue
+		}
+		if done, code := r.line(got.text); done {
+			return code
 		}
 	}
-	m.plainWhere(say)
-	// lines are read in their own goroutine, so that ctrl+c at the prompt
-	// is seen while a read waits
+}
+
+// plainReader reads lines in a goroutine of their own, so that ctrl+c at
+// the prompt is seen while a read waits.
+func plainReader(ctx context.Context, br *bufio.Reader) <-chan plainLine {
 	lines := make(chan plainLine)
 	go func() {
 		for {
@@ -80,118 +96,148 @@ func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) i
 			}
 		}
 	}()
-	interrupted := func() int {
-		fmt.Fprintln(w)
-		return cli.Interrupted(w, m.s.sh.Line()+1)
+	return lines
+}
+
+// lineRun is one run of the line mode: the app's controller without its
+// screen, and where its output goes.
+type lineRun struct {
+	m     *Model
+	w     io.Writer
+	p     *cli.Printer
+	ctx   context.Context
+	width int // steps wrap between words at this width
+}
+
+// say writes a message. Messages are not wrapped, so that a file name in
+// one stays whole for copying.
+func (r *lineRun) say(s string) { fmt.Fprintln(r.w, r.m.tr(s)) }
+
+// greet says what the line mode reads, the outcome of opening the
+// session, and where it is kept.
+func (r *lineRun) greet() {
+	m := r.m
+	r.say("argand line mode: type a statement, or " + plainCommands + ".")
+	if m.msg != "" {
+		if m.msgErr && !strings.HasPrefix(m.msg, "read-only:") {
+			r.say("error: " + m.msg)
+		} else {
+			r.say(m.msg)
+		}
 	}
-	for {
-		prompt := "> "
-		if n := m.s.sh.OpenNetwork(); n != "" {
-			prompt = n + "> "
+	m.plainWhere(r.say)
+}
+
+// line runs one line: a command of the line mode or a statement. It
+// reports whether the line mode is done, with its exit code.
+func (r *lineRun) line(line string) (bool, int) {
+	word, arg, _ := strings.Cut(strings.TrimSpace(line), " ")
+	switch word {
+	case "":
+		return false, 0
+	case "quit", "exit":
+		return true, cli.ExitOK
+	case "help", "?":
+		r.help(strings.TrimSpace(arg))
+		return false, 0
+	case "new":
+		if strings.TrimSpace(arg) == "session" {
+			r.say(r.m.blankStart())
+			r.m.plainSaveErr(r.say)
+			return false, 0
 		}
-		fmt.Fprint(w, m.tr(prompt))
-		var got plainLine
-		select {
-		case got = <-lines:
-		case <-ctx.Done():
-			return interrupted()
+	case "list":
+		r.m.plainList(r.say)
+		return false, 0
+	case "trail":
+		fmt.Fprint(r.w, wrapText(r.m.trailText(), r.width))
+		return false, 0
+	case "undo", "redo":
+		if arg == "" {
+			r.undo(word)
+			return false, 0
 		}
-		line, n, err := got.text, got.n, got.err
-		if err != nil {
-			fmt.Fprintln(w)
-			return cli.ExitOK
-		}
-		if n > calc.MaxLine {
-			say(fmt.Sprintf("error: line too long: %d bytes (the limit is %d)", n, calc.MaxLine))
-			continue
-		}
-		cmd := strings.TrimSpace(line)
-		word, arg, _ := strings.Cut(cmd, " ")
-		switch word {
-		case "":
-			continue
-		case "quit", "exit":
-			return cli.ExitOK
-		case "help", "?":
-			if name := strings.TrimSpace(arg); name != "" {
-				t, ok := cli.Topic(name)
-				if !ok {
-					say(fmt.Sprintf("no help on %q: try a function name (help functions lists them) or a statement word", calc.Printable(name)))
-					continue
-				}
-				fmt.Fprint(w, m.tr(t))
-				continue
-			}
-			cli.Help(nil, w, w, p.O)
-			say("line mode: " + plainCommands + "; the session is saved after every change.")
-			continue
-		case "new":
-			if strings.TrimSpace(arg) != "session" {
-				break
-			}
-			say(m.blankStart())
-			m.plainSaveErr(say)
-			continue
-		case "list":
-			m.plainList(say)
-			continue
-		case "trail":
-			fmt.Fprint(w, wrapText(m.trailText(), width))
-			continue
-		case "undo", "redo":
-			if arg != "" {
-				break
-			}
-			switch {
-			case m.s.readOnly:
-				say(m.s.errReadOnly().Error())
-			case word == "undo" && m.s.doUndo():
-				say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(m.s.undo)))
-			case word == "redo" && m.s.doRedo():
-				say("redone")
-			default:
-				say("nothing to " + word)
-			}
-			m.plainSaveErr(say)
-			continue
-		case "save":
-			name := strings.TrimSpace(arg)
-			if name == "" {
-				say("save needs a file name: save FILE")
-				continue
-			}
-			if err := store.Save(name, []byte(m.worksheetText())); err != nil {
-				say("error: could not write " + name + ": " + err.Error())
-				continue
-			}
-			abs, _ := filepath.Abs(name)
-			say("saved " + abs + " (argand run " + name + " replays it)")
-			continue
-		}
-		steps, err := m.apply(sheet.Job{Ctx: ctx}, "", line)
-		if err != nil {
-			var e *calc.Error
-			var ro *readOnlyError
-			var stop *sheet.Interrupted
-			switch {
-			case errors.As(err, &stop):
-				fmt.Fprintln(w) // after the ^C the terminal echoed
-				return cli.Interrupted(w, stop.Line)
-			case errors.As(err, &ro):
-				say(ro.Error())
-			case errors.As(err, &e):
-				p.Error(e, line, "")
-			default:
-				say("error: " + err.Error())
-			}
-			continue
-		}
-		f := m.format()
-		for i := range steps {
-			fmt.Fprint(w, wrapText(steps[i].Text(f, m.s.v.PolarFirst), width))
-		}
-		m.plainSaveErr(say)
+	case "save":
+		r.save(strings.TrimSpace(arg))
+		return false, 0
 	}
+	return r.statement(line)
+}
+
+// help writes help on a name (a function or a statement word), or the
+// whole help when there is none.
+func (r *lineRun) help(name string) {
+	if name == "" {
+		cli.Help(nil, r.w, r.w, r.p.O)
+		r.say("line mode: " + plainCommands + "; the session is saved after every change.")
+		return
+	}
+	t, ok := cli.Topic(name)
+	if !ok {
+		r.say(fmt.Sprintf("no help on %q: try a function name (help functions lists them) or a statement word", calc.Printable(name)))
+		return
+	}
+	fmt.Fprint(r.w, r.m.tr(t))
+}
+
+// undo undoes or redoes the last change.
+func (r *lineRun) undo(word string) {
+	m := r.m
+	switch {
+	case m.s.readOnly:
+		r.say(m.s.errReadOnly().Error())
+	case word == "undo" && m.s.doUndo():
+		r.say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(m.s.undo)))
+	case word == "redo" && m.s.doRedo():
+		r.say("redone")
+	default:
+		r.say("nothing to " + word)
+	}
+	m.plainSaveErr(r.say)
+}
+
+// save writes the session as a worksheet.
+func (r *lineRun) save(name string) {
+	if name == "" {
+		r.say("save needs a file name: save FILE")
+		return
+	}
+	if err := store.Save(name, []byte(r.m.worksheetText())); err != nil {
+		r.say("error: could not write " + name + ": " + err.Error())
+		return
+	}
+	abs, _ := filepath.Abs(name)
+	r.say("saved " + abs + " (argand run " + name + " replays it)")
+}
+
+// statement runs a statement through the controller and writes its steps
+// or its error; ctrl+c while it runs ends the line mode.
+func (r *lineRun) statement(line string) (bool, int) {
+	m := r.m
+	steps, err := m.apply(sheet.Job{Ctx: r.ctx}, "", line)
+	if err != nil {
+		var e *calc.Error
+		var ro *readOnlyError
+		var stop *sheet.Interrupted
+		switch {
+		case errors.As(err, &stop):
+			fmt.Fprintln(r.w) // after the ^C the terminal echoed
+			return true, cli.Interrupted(r.w, stop.Line)
+		case errors.As(err, &ro):
+			r.say(ro.Error())
+		case errors.As(err, &e):
+			r.p.Error(e, line, "")
+		default:
+			r.say("error: " + err.Error())
+		}
+		return false, 0
+	}
+	f := m.format()
+	for i := range steps {
+		fmt.Fprint(r.w, wrapText(steps[i].Text(f, m.s.v.PolarFirst), r.width))
+	}
+	m.plainSaveErr(r.say)
+	return false, 0
 }
 
 // plainLocked asks what to do with a session held by another argand. It
