@@ -8,7 +8,6 @@ import (
 	"strings"
 
 	"argand/calc"
-	"argand/reduce/power"
 )
 
 // Lookup finds a spectrum by name; the worksheet supplies it.
@@ -202,7 +201,7 @@ func result(v calc.Quantity, st calc.Step, extra ...calc.Operand) (calc.Result, 
 			return calc.Result{}, fmt.Errorf("%w (%s); check the magnitudes given", err, x.Name)
 		}
 	}
-	return calc.Result{Value: v, Extra: extra, Steps: []calc.Step{st}, Notes: st.Notes}, nil
+	return calc.Result{Value: v, Extra: extra, Steps: []calc.Step{st}, Notes: st.Notes, Cautions: st.Cautions}, nil
 }
 
 func (k kit) callRMS(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -378,8 +377,8 @@ func (k kit) callMeter(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		Inputs:  []calc.Operand{spectrumInput(name, s)},
 		Results: []calc.Operand{{Name: "reading", Value: mag(reading, s.Dim)}, {Name: "true RMS", Value: mag(rms, s.Dim)},
 			{Name: "rectified average", Value: mag(avg, s.Dim)}, {Name: "error", Value: num(e)}, {Name: "form factor", Value: num(ff)}},
-		Notes: []string{"the meter reads " + pct(f, math.Abs(e)) + " " + word + " against the true RMS; a sine's form factor is π/(2√2) ≈ 1.111, this waveform's is " + f.Mag(ff, calc.Dim{}, 0),
-			power.Caution},
+		Notes:    []string{"the meter reads " + pct(f, math.Abs(e)) + " " + word + " against the true RMS; a sine's form factor is π/(2√2) ≈ 1.111, this waveform's is " + f.Mag(ff, calc.Dim{}, 0)},
+		Cautions: calc.CautionsOf(calc.CautionMains),
 	}
 	return result(mag(reading, s.Dim), st, calc.Operand{Name: "rms", Value: mag(rms, s.Dim)}, calc.Operand{Name: "avg", Value: mag(avg, s.Dim)},
 		calc.Operand{Name: "error", Value: num(e)}, calc.Operand{Name: "ff", Value: num(ff)})
@@ -434,7 +433,9 @@ func (k kit) callPower(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 
 // bankCautions are the capacitor-bank cautions carried by every bank
 // result.
-func bankCautions() []string { return []string{power.CapacitorCaution, power.Caution} }
+func bankCautions() []calc.StepCaution {
+	return calc.CautionsOf(calc.CautionCapacitor, calc.CautionMains)
+}
 
 func (k kit) callCheck(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	ssc, err := positive("bankcheck", args, 0, "Ssc", calc.DimPower, "the supply's short-circuit power in VA")
@@ -506,7 +507,7 @@ func (k kit) callCheck(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if p > 0 {
 		notes = append(notes, "with the reactor the bank is inductive above order "+f.Mag(n, calc.Dim{}, 0)+", so orders above it cannot resonate with the supply")
 	}
-	st.Notes = append(append(warn, notes...), bankCautions()...)
+	st.Notes, st.Cautions = append(warn, notes...), bankCautions()
 	ex := []calc.Operand{}
 	if c != nil && c.Freq > 0 {
 		ex = append(ex, calc.Operand{Name: "f", Value: mag(hr*c.Freq, calc.DimFrequency)})
@@ -586,7 +587,7 @@ func callDetune(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	notes = append(notes, "tuned to order "+f.Mag(d.N, calc.Dim{}, 0)+": the bank is inductive above it and cannot resonate with the supply at the orders above ("+
 		usual(d.N, true)+"); "+usual(d.N, false))
-	st.Notes = append(notes, bankCautions()...)
+	st.Notes, st.Cautions = notes, bankCautions()
 	ex := []calc.Operand{{Name: "n", Value: num(d.N)}, {Name: "fr", Value: mag(d.N*c.Freq, calc.DimFrequency)}, {Name: "rise", Value: num(d.Rise)},
 		{Name: "uc", Value: mag(d.UC, calc.DimVoltage)}, {Name: "c", Value: mag(d.C, calc.DimCapacitance)}, {Name: "xc", Value: mag(d.XC, calc.DimImpedance)},
 		{Name: "xl", Value: mag(d.XL, calc.DimImpedance)}, {Name: "qc", Value: vars(d.QC)}, {Name: "ql", Value: vars(d.QL)}, {Name: "i", Value: mag(d.I, calc.DimCurrent)}}
@@ -662,7 +663,7 @@ func callBankOut(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if p == 0 && v < vr {
 		notes = append(notes, "a capacitor below its rated voltage gives less than its rating: output goes with the square of the voltage")
 	}
-	st.Notes = append(notes, bankCautions()...)
+	st.Notes, st.Cautions = notes, bankCautions()
 	return result(vars(o.Q), st, calc.Operand{Name: "uc", Value: mag(o.UC, calc.DimVoltage)}, calc.Operand{Name: "qc", Value: vars(o.QC)}, calc.Operand{Name: "ql", Value: vars(o.QL)})
 }
 
@@ -744,7 +745,7 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if b.XR == 0 {
 		notes = append(notes, "lossless supply (X/R not given): the peak at the resonance is bounded only by resistance; give X/R for a finite peak")
 	}
-	st.Notes = append(notes, bankCautions()...)
+	st.Notes, st.Cautions = notes, bankCautions()
 	ex := []calc.Operand{}
 	if c != nil && c.Freq > 0 {
 		ex = append(ex, calc.Operand{Name: "f", Value: mag(hr*c.Freq, calc.DimFrequency)})

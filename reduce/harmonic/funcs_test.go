@@ -7,7 +7,6 @@ import (
 	"testing"
 
 	"argand/calc"
-	"argand/reduce/power"
 )
 
 func q(v complex128, d calc.Dim) calc.Arg { return calc.Arg{Q: calc.Quantity{V: v, Dim: d}} }
@@ -95,7 +94,10 @@ func TestCalls(t *testing.T) {
 			t.Errorf("%s: no step with rule and formula", c.fn)
 		}
 		notes := strings.Join(r.Notes, "\n")
-		if c.caution && (!strings.Contains(notes, power.Caution) || strings.HasPrefix(c.fn, "bank") && !strings.Contains(notes, "lethal charge")) {
+		for _, x := range r.Cautions {
+			notes += "\n" + x.Topic.Text()
+		}
+		if c.caution && (!strings.Contains(notes, calc.SafetyText) || strings.HasPrefix(c.fn, "bank") && !strings.Contains(notes, "lethal charge")) {
 			t.Errorf("%s: cautions missing: %q", c.fn, notes)
 		}
 		for _, x := range append(r.Extra, calc.Operand{Value: r.Value}) {

@@ -446,6 +446,11 @@ func callCurrent(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
+	// the peak basis doubles the current: a size near the float limit
+	// overflows there, and is refused rather than shown as Inf
+	if _, err := i.Check("current"); err != nil {
+		return calc.Result{}, err
+	}
 	r := calc.Result{Value: i, Steps: withSource(append(pre, steps...), source("current", args))}
 	if ph == ThreePhase {
 		r.Cautions = calc.CautionsOf(calc.CautionMains)

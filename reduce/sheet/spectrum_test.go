@@ -14,7 +14,7 @@ import (
 func runOn(t *testing.T, s *Sheet, lines ...string) {
 	t.Helper()
 	for _, l := range lines {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
 	}
@@ -115,7 +115,7 @@ func TestSpectrumErrors(t *testing.T) {
 		s := New()
 		runOn(t, s, c.pre...)
 		before := len(s.Steps())
-		_, err := s.Exec(c.line)
+		_, _, err := s.Exec(c.line)
 		le, ok := err.(*calc.Error)
 		if !ok || le.Col != c.col || !strings.Contains(le.Msg, c.want) {
 			t.Errorf("%q: error %v (col %d), want %q at column %d", c.line, err, colOf(err), c.want, c.col)
@@ -150,11 +150,11 @@ func TestSpectrumFile(t *testing.T) {
 	if got := real(value(t, s, "d").V); math.Abs(got-want) > 1e-12 {
 		t.Errorf("thd = %g, want %g", got, want)
 	}
-	_, err := s.Exec("spectrum Vb from " + bad)
+	_, _, err := s.Exec("spectrum Vb from " + bad)
 	if err == nil || !strings.Contains(err.Error(), "line 3") || !strings.Contains(err.Error(), "given twice") {
 		t.Errorf("bad file: %v", err)
 	}
-	if _, err := s.Exec("spectrum Vd from " + dir); err == nil || !strings.Contains(err.Error(), "not a regular file") {
+	if _, _, err := s.Exec("spectrum Vd from " + dir); err == nil || !strings.Contains(err.Error(), "not a regular file") {
 		t.Errorf("a directory: %v", err)
 	}
 }
@@ -232,7 +232,7 @@ func TestSpectrumNamedArguments(t *testing.T) {
 		{"detune(50 kW, 400 V, 7 %, three)", "Qc takes a reactive power in var"},
 		{"bankout(60 kvar, 440 V, 400 A)", "V takes a voltage in V"},
 	} {
-		_, err := s.Exec(c.line)
+		_, _, err := s.Exec(c.line)
 		if err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%s: %v, want %q", c.line, err, c.want)
 		}
