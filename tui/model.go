@@ -11,10 +11,15 @@
 // of the rows, rows put away, which form is shown first) is kept beside it
 // in the session file.
 //
-// Each part of the screen is a small model with its own update and view
-// (status, table, trail, sketch, entry line, hint, questions, network,
-// help); Model routes keys to the part that has the keyboard and lays the
-// parts out.
+// The session (session.go) is the controller without a screen: it runs
+// statements on a copy of the worksheet, keeps the undo history, names
+// and orders the rows and saves; the app and the line mode (plain.go)
+// both drive it. Each part of the screen has its own KeyMap in keys.go,
+// a help.KeyMap from which the hint line, the help screen and the
+// session-in-use screen are written; the parts draw themselves (tableView,
+// trailView, sketchPane, netView, questions, the entry line's field), and
+// Model routes a key to the part that has the keyboard (mode) and lays
+// the parts out. The engine reaches the app only through reduce/sheet.
 package tui
 
 import (

@@ -87,25 +87,10 @@ func (m *Model) failed(what string, err error) {
 // defined (not those re-evaluated because they read one): the newest row
 // is the top row.
 func (m *Model) applied(what string, steps []calc.Step, defined []string) {
-	defined = slices.DeleteFunc(slices.Clone(defined), func(n string) bool {
-		_, ok := m.s.sh.Lookup(n)
-		return !ok
-	})
 	res := ""
-	if len(defined) > 0 {
-		last := defined[len(defined)-1]
+	if last := m.s.bringUp(defined); last != "" {
 		q, _ := m.s.sh.Lookup(last)
 		res = last + " = " + m.format().Both(q, m.s.v.PolarFirst)
-		for _, d := range defined {
-			m.s.unhide(d)
-		}
-		rest := slices.DeleteFunc(slices.Clone(m.s.v.Order), func(x string) bool { return slices.Contains(defined, x) })
-		top := slices.Clone(defined)
-		slices.Reverse(top)
-		m.s.v.Order = append(top, rest...)
-		m.s.v.Selected = defined[len(defined)-1]
-		m.s.tidy()
-		m.s.save()
 	}
 	m.trail.back = 0
 	m.note(false, strings.TrimSpace(what+"  "+res))

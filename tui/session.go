@@ -421,3 +421,27 @@ func (s *session) unhide(name string) {
 
 // markIndex returns the position of name in the marks, or −1.
 func (s *session) markIndex(name string) int { return slices.Index(s.v.Marks, name) }
+
+// bringUp puts the names a change defined at the top of the table, the
+// last defined on top and selected, shows any that were put away, and
+// saves. It returns the last name still defined, or "".
+func (s *session) bringUp(defined []string) string {
+	defined = slices.DeleteFunc(slices.Clone(defined), func(n string) bool {
+		_, ok := s.sh.Lookup(n)
+		return !ok
+	})
+	if len(defined) == 0 {
+		return ""
+	}
+	for _, d := range defined {
+		s.unhide(d)
+	}
+	rest := slices.DeleteFunc(slices.Clone(s.v.Order), func(x string) bool { return slices.Contains(defined, x) })
+	top := slices.Clone(defined)
+	slices.Reverse(top)
+	s.v.Order = append(top, rest...)
+	s.v.Selected = defined[len(defined)-1]
+	s.tidy()
+	s.save()
+	return s.v.Selected
+}
