@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"argand/calc"
+	"argand/tui/cli"
 	"argand/tui/clip"
 	"argand/tui/store"
 
@@ -302,51 +303,58 @@ func (m *Model) copyCmd(what, text string) tea.Cmd {
 // helpLines is the help screen: every binding of every mode, by bubbles
 // help, then the safety caution.
 func (m *Model) helpLines() []string {
+	// tr goes on the plain text before styling: a styled line holds
+	// escape sequences of its own, which tr would show as escapes
+	para := func(text string, indent int) []string { return wrapLine(m.tr(text), m.width, indent) }
 	var out []string
 	if m.helpTopic != "" {
 		if t, ok := cli.Topic(m.helpTopic); ok {
-			out = append(out, m.th.label.Render("help "+m.helpTopic)+"   (esc closes; ↑↓ scroll)")
+			out = append(out, m.th.label.Render(m.tr("help "+m.helpTopic))+m.tr("   (esc closes; ↑↓ scroll)"))
 			for _, l := range strings.Split(strings.TrimRight(t, "\n"), "\n") {
-				out = append(out, wrapLine(l, m.width, 4)...)
+				out = append(out, para(l, 4)...)
 			}
 			out = append(out, "")
 		}
 	}
-	out = append(out, m.th.label.Render("argand: AC phasor work, step by step")+"   (esc closes; ↑↓ scroll)")
-	intro := "Rows are named values, newest at the top. Operations take the marked rows in the " +
-		"order marked, else the two newest (older first), which the hint line names before you press the key. " +
-		"Each becomes a worksheet statement. " + m.keys.Table.TrailFull.Help().Key + " shows the trail in full, every step whole."
-	out = append(out, wrapLine(intro, m.width, 0)...)
+	out = append(out, m.th.label.Render(m.tr("argand: AC phasor work, step by step"))+m.tr("   (esc closes; ↑↓ scroll)"))
+	out = append(out, para("Rows are named values, newest at the top. Operations take the marked rows in the "+
+		"order marked, else the two newest (older first), which the hint line names before you press the key. "+
+		"Each becomes a worksheet statement. "+m.keys.Table.TrailFull.Help().Key+" shows the trail in full, every step whole.", 0)...)
 	out = append(out, "")
-	hm := m.help
-	hm.Width = m.width
 	for _, md := range allModes {
-		out = append(out, m.th.heading.Render("keys: "+md.String()))
-		v := hm.FullHelpView([][]key.Binding{m.keys.Mode(md)})
-		for _, l := range strings.Split(v, "\n") {
-			// a description too long for a narrow screen continues under itself
-			l = strings.TrimRight(l, " ")
-			out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
-		}
+		out = append(out, m.th.heading.Render(m.tr("keys: "+md.String())))
+		out = append(out, m.helpKeys(m.keys.Mode(md))...)
 		out = append(out, "")
 	}
-	out = append(out, m.th.heading.Render("keys: while a statement runs (after about 0.1 s it shows a progress line)"))
-	for _, l := range strings.Split(hm.FullHelpView([][]key.Binding{{m.keys.Stop}}), "\n") {
-		l = strings.TrimRight(l, " ")
-		out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
-	}
-	out = append(out, "")
-	out = append(out, m.th.heading.Render("safety"))
-	out = append(out, wrapLine(calc.SafetyText, m.width, 0)...)
+	out = append(out, m.th.heading.Render(m.tr("keys: while a statement runs (after about 0.1 s it shows a progress line)")))
+	out = append(out, m.helpKeys([]key.Binding{m.keys.Stop})...)
+	out = append(out, "", m.th.heading.Render(m.tr("safety")))
+	out = append(out, para(calc.SafetyText, 0)...)
 	for _, c := range calc.Cautions() {
 		if c != calc.CautionMains {
-			out = append(out, wrapLine(c.String()+": "+c.Text(), m.width, 2)...)
+			out = append(out, para(c.String()+": "+c.Text(), 2)...)
 		}
 	}
 	out = append(out, "")
-	out = append(out, wrapLine("Statements: see argand help language; functions: argand help functions.", m.width, 0)...)
-	for i := range out {
-		out[i] = m.trStyled(out[i])
+	out = append(out, para("Statements: see argand help language; functions: argand help functions.", 0)...)
+	return out
+}
+
+// helpKeys lists bindings with their help, by bubbles help, each key and
+// description made printable (and ASCII where asked) before it is styled;
+// a description too long for a narrow screen continues under itself.
+func (m *Model) helpKeys(bs []key.Binding) []string {
+	shown := make([]key.Binding, len(bs))
+	for i, b := range bs {
+		shown[i] = b
+		shown[i].SetHelp(m.tr(b.Help().Key), m.tr(b.Help().Desc))
+	}
+	hm := m.help
+	hm.Width = m.width
+	var out []string
+	for _, l := range strings.Split(hm.FullHelpView([][]key.Binding{shown}), "\n") {
+		l = strings.TrimRight(l, " ")
+		out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
 	}
 	return out
 }

@@ -776,10 +776,10 @@ func TestCautionShown(t *testing.T) {
 			}
 			continue
 		}
-		if !strings.HasPrefix(fb, tt.want) || !strings.HasSuffix(fb, cautionSuffix) || lipgloss.Width(fb) > m.width {
+		if !strings.HasPrefix(fb, tt.want) || !strings.HasSuffix(fb, m.cautionSuffix()) || lipgloss.Width(fb) > m.width {
 			t.Errorf("%s: feedback %q", tt.stmt, fb)
 		}
-		if !strings.Contains(m.View(), cautionSuffix) {
+		if !strings.Contains(m.View(), m.cautionSuffix()) {
 			t.Errorf("%s: caution not on the screen", tt.stmt)
 		}
 		// the next action's outcome takes its place

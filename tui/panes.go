@@ -505,15 +505,23 @@ func (m *Model) msgLines() []string {
 }
 
 // cautionSuffix tells where a caution shown in one line is read whole:
-// the help screen has every caution's whole text.
-const cautionSuffix = " (? has it whole)"
+// the help screen, which has every caution's whole text, opened by the
+// help key of the part that has the keyboard.
+func (m *Model) cautionSuffix() string {
+	k := m.keys.Table.Help
+	if m.mode == modeLine {
+		k = m.keys.Line.Help
+	}
+	return " (" + m.tr(k.Help().Key) + " has it whole)"
+}
 
 // cautionLine is the caution of the last statement on one line, cut to
 // the width with the way to read it in full always shown.
 func (m *Model) cautionLine() string {
 	head := "caution: "
-	room := m.width - ansi.StringWidth(head) - ansi.StringWidth(cautionSuffix)
-	return head + ansi.Truncate(m.tr(m.caution.Line()), max(1, room), "…") + cautionSuffix
+	suffix := m.cautionSuffix()
+	room := m.width - ansi.StringWidth(head) - ansi.StringWidth(suffix)
+	return head + ansi.Truncate(m.tr(m.caution.Line()), max(1, room), "…") + suffix
 }
 
 // caret places the live parse error under the entry line: the column

@@ -132,7 +132,10 @@ func statements() string {
 	return "statements\n" + statementLines(append([]sheet.StatementHelp{
 		{Form: "NAME = EXPR", Doc: "define or redefine a named quantity"},
 		{Form: "EXPR", Doc: "evaluate; the result gets a name such as Z3 or V2"}},
-		sheet.StatementsHelp("")...))
+		append(sheet.StatementsHelp(""),
+			// not a worksheet statement: a word of the app and the line mode
+			sheet.StatementHelp{Form: "new session", Doc: "(app and line mode) a new, empty session; the old"},
+			sheet.StatementHelp{Doc: "  one is kept as a worksheet file, said where"})...))
 }
 
 // statementLines writes statement forms with what they do beside them,
@@ -150,9 +153,6 @@ func statementLines(hs []sheet.StatementHelp) string {
 			b.WriteString("  " + h.Form + strings.Repeat(" ", 23-n) + h.Doc + "\n")
 		}
 	}
-	// not a worksheet statement: a word of the app and the line mode
-	line("new session", "(app and line mode) a new, empty session; the old")
-	line("", "  one is kept as a worksheet file, said where")
 	return b.String()
 }
 
@@ -254,7 +254,8 @@ func Topic(name string) (text string, ok bool) {
 		return "statement decimal comma | decimal point\n" + language[i:j], true
 	}
 	var lines []string
-	for _, l := range strings.Split(language+"\n"+networks, "\n") {
+	helpText := language + statements() + "\n" + networks + "\nnetwork statements\n" + statementLines(sheet.StatementsHelp("networks"))
+	for _, l := range strings.Split(helpText, "\n") {
 		f := strings.Fields(l)
 		if len(f) > 0 && (f[0] == name || len(f) > 1 && f[0]+" "+f[1] == name) {
 			lines = append(lines, strings.TrimSpace(l))
