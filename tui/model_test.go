@@ -631,6 +631,7 @@ func TestGolden(t *testing.T) {
 		{"rows-80x24-ascii", 80, 24, true, []string{"home", " ", "down", " "}},
 		{"network-80x24", 80, 24, false, []string{"N", "tab", "right", "right"}},
 		{"network-120x40", 120, 40, false, []string{"N", "tab", "right"}},
+		{"network-80x24-ascii", 80, 24, true, []string{"N", "tab", "right"}},
 		{"help-80x24", 80, 24, false, []string{"?"}},
 		{"small-40x12", 40, 12, false, nil},
 	} {

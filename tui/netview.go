@@ -268,6 +268,39 @@ func netColumns(w int, compact bool) netCols {
 	return c
 }
 
+// fitColumns sizes the voltage and current columns to the values shown
+// (ASCII angles are longer: "@-21.15 deg"), and where the line would
+// still pass w, leaves out the column of equivalents, so that the power
+// column is never cut.
+func (m *Model) fitColumns(c netCols, w int) netCols {
+	f := m.format()
+	sv, si, ss := 7, 7, 5
+	for _, e := range m.net.v.Elements {
+		if e.Solved {
+			sv = max(sv, ansi.StringWidth(m.tr(f.Polar(e.V))))
+			si = max(si, ansi.StringWidth(m.tr(f.Polar(e.I))))
+			ss = max(ss, ansi.StringWidth(m.tr(f.Polar(e.S))))
+		}
+	}
+	c.v, c.i = min(sv, 22), min(si, 22)
+	width := func() int {
+		n := 3 + c.name + 1 + c.v + 1 + c.i + 1 + ss
+		for _, x := range []int{c.kind, c.nodes, c.value, c.in} {
+			if x > 0 {
+				n += x + 1
+			}
+		}
+		return n
+	}
+	if width() > w && c.in > 0 {
+		c.in = 0
+	}
+	if width() > w && c.kind > 0 {
+		c.kind = 0
+	}
+	return c
+}
+
 // row lays out one line of the table from its cells; value is the
 // component value or the equivalent the element is in, eq that
 // equivalent alone.
@@ -294,7 +327,7 @@ func (m *Model) netPane(w, h int) []string {
 	}
 	out := make([]string, 0, h)
 	out = append(out, m.th.section(m.tr("network "+n.name), m.tr(kind), w))
-	cols := netColumns(w, n.v.Compact != "")
+	cols := m.fitColumns(netColumns(w, n.v.Compact != ""), w)
 	out = append(out, m.th.dim.Render(fit(m.tr("   "+cols.row("element", "kind", "nodes", "value", "in", "voltage", "current", "power")), w)))
 	// leave room for the reduction step below the element table
 	listH := max(3, min(len(n.v.Elements), h-2-8))
