@@ -39,7 +39,7 @@ func TestThreePhaseVoltagesNamed(t *testing.T) {
 
 func execOK(t *testing.T, s *Sheet, line string) []calc.Step {
 	t.Helper()
-	steps, err := s.Exec(line)
+	steps, _, err := s.Exec(line)
 	if err != nil {
 		t.Fatalf("%s: %v", line, err)
 	}
@@ -120,7 +120,7 @@ func TestMarkedVoltages(t *testing.T) {
 		{"wyeunbal(l2l(400 V), 230∠-120 V, 230∠120 V, 10 Ω, 10 Ω, 10 Ω, neutral)", "marked line-to-line"},
 		{"l2l(3 A)", "takes a voltage"},
 	} {
-		if _, err := s.Exec(bad.line); err == nil || !strings.Contains(err.Error(), bad.msg) {
+		if _, _, err := s.Exec(bad.line); err == nil || !strings.Contains(err.Error(), bad.msg) {
 			t.Errorf("%s: %v, want an error saying %q", bad.line, err, bad.msg)
 		}
 	}
@@ -139,7 +139,7 @@ func TestWyeNeutralArgument(t *testing.T) {
 		{"wye(230 V, 10 Ω, 10 Ω, 10 Ω, 10 Ω, neutral)", "takes 5 argument"},
 		{"wyeunbal(230 V, 230 V, 10 Ω, 10 Ω, 10 Ω, 10 Ω, neutral)", "VcN takes a voltage"},
 	} {
-		if _, err := s.Exec(bad.line); err == nil || !strings.Contains(err.Error(), bad.msg) {
+		if _, _, err := s.Exec(bad.line); err == nil || !strings.Contains(err.Error(), bad.msg) {
 			t.Errorf("%s: %v, want an error saying %q", bad.line, err, bad.msg)
 		}
 	}
@@ -165,7 +165,7 @@ func TestNamedThreePhaseArguments(t *testing.T) {
 	if c.V != d.V {
 		t.Errorf("named %v, positional %v", c.V, d.V)
 	}
-	if _, err := s.Exec("balanced(Vline = 400 V, Zph = 10 Ω, conn = wye)"); err == nil || !strings.Contains(err.Error(), "VLL") {
+	if _, _, err := s.Exec("balanced(Vline = 400 V, Zph = 10 Ω, conn = wye)"); err == nil || !strings.Contains(err.Error(), "VLL") {
 		t.Errorf("an old parameter name: %v", err)
 	}
 }

@@ -16,11 +16,11 @@ func TestSweepFindings(t *testing.T) {
 	for _, line := range []string{
 		"resistor R1 = 20 Ω", "inductor L1 = 10 mH", "capacitor C1 = 1 µF", "Z = R1 + L1 + C1",
 	} {
-		if _, err := s.Exec(line); err != nil {
+		if _, _, err := s.Exec(line); err != nil {
 			t.Fatal(line, err)
 		}
 	}
-	steps, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 41 db ref 1 Ω")
+	steps, _, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 41 db ref 1 Ω")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -61,10 +61,10 @@ func TestSweepFindings(t *testing.T) {
 		}
 	}
 	// dB of a value with a unit needs its reference
-	if _, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 5 db"); err == nil || !strings.Contains(err.Error(), "db ref") {
+	if _, _, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 5 db"); err == nil || !strings.Contains(err.Error(), "db ref") {
 		t.Errorf("db without a reference: %v", err)
 	}
-	if _, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 5 db ref 1 V"); err == nil || !strings.Contains(err.Error(), "unit of the swept value") {
+	if _, _, err := s.Exec("sweep Z from 500 Hz to 5 kHz points 5 db ref 1 V"); err == nil || !strings.Contains(err.Error(), "unit of the swept value") {
 		t.Errorf("db ref in the wrong unit: %v", err)
 	}
 }
@@ -77,11 +77,11 @@ func abs(v complex128) float64 { return math.Hypot(real(v), imag(v)) }
 func TestSweepFindingsParallel(t *testing.T) {
 	s := New()
 	for _, line := range []string{"resistor Rp = 2.5 kΩ", "inductor Lp = 10 mH", "capacitor Cp = 1 µF", "Zp = Rp || Lp || Cp"} {
-		if _, err := s.Exec(line); err != nil {
+		if _, _, err := s.Exec(line); err != nil {
 			t.Fatal(line, err)
 		}
 	}
-	steps, err := s.Exec("sweep Zp from 1 kHz to 3 kHz points 101 linear")
+	steps, _, err := s.Exec("sweep Zp from 1 kHz to 3 kHz points 101 linear")
 	if err != nil {
 		t.Fatal(err)
 	}
