@@ -30,7 +30,7 @@ func TestBlankStart(t *testing.T) {
 			if how == "statement" {
 				typeLine(t, m, "new session")
 			} else {
-				press(m, "esc", "b")
+				press(m, "esc", m.keys.Table.Blank.Keys()[0])
 			}
 			if n := len(m.s.sh.Statements()); n != 0 {
 				t.Fatalf("%d statements after a blank start", n)
@@ -53,7 +53,7 @@ func TestBlankStart(t *testing.T) {
 			if b, _ := os.ReadFile(m.s.path); strings.Contains(string(b), "Zkeep") {
 				t.Errorf("session file still holds the old work:\n%s", b)
 			}
-			press(m, "esc", "u")
+			press(m, "esc", m.keys.Table.Undo.Keys()[0])
 			if _, ok := m.s.sh.Lookup("Zkeep"); !ok {
 				t.Errorf("undo did not bring the old session back")
 			}

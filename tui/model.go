@@ -272,7 +272,7 @@ func (m *Model) decimalFlag() {
 		return
 	}
 	if !m.s.sh.SetDecimalComma(true) {
-		if _, err := m.s.exec(sheet.Job{}, "decimal comma"); err != nil {
+		if _, _, err := m.s.exec(sheet.Job{}, "decimal comma"); err != nil {
 			m.note(true, "decimal comma not set: "+err.Error())
 			return
 		}

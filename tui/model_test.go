@@ -60,7 +60,7 @@ func keyMsg(k string) tea.KeyMsg {
 		"backspace": tea.KeyBackspace, "delete": tea.KeyDelete, "pgup": tea.KeyPgUp, "pgdown": tea.KeyPgDown,
 		"ctrl+c": tea.KeyCtrlC, "ctrl+u": tea.KeyCtrlU, "ctrl+k": tea.KeyCtrlK, "ctrl+a": tea.KeyCtrlA,
 		"ctrl+e": tea.KeyCtrlE, "ctrl+b": tea.KeyCtrlB, "ctrl+f": tea.KeyCtrlF, "ctrl+d": tea.KeyCtrlD,
-		"ctrl+z": tea.KeyCtrlZ, "ctrl+y": tea.KeyCtrlY, " ": tea.KeySpace, "f1": tea.KeyF1,
+		"ctrl+z": tea.KeyCtrlZ, "ctrl+o": tea.KeyCtrlO, "ctrl+t": tea.KeyCtrlT, "ctrl+y": tea.KeyCtrlY, " ": tea.KeySpace, "f1": tea.KeyF1,
 		"shift+up": tea.KeyShiftUp, "shift+down": tea.KeyShiftDown,
 	}
 	if t, ok := names[k]; ok {
@@ -597,7 +597,7 @@ func TestExportAndClipboard(t *testing.T) {
 			t.Errorf("replayed %s = %v, want %v", e.Name, q.V, e.Value.V)
 		}
 	}
-	cmd := press(m, "b")
+	cmd := press(m, "ctrl+o")
 	if cmd == nil {
 		t.Fatal("no clipboard command")
 	}

@@ -11,7 +11,7 @@ import (
 func mustRun(t *testing.T, s *Sheet, lines ...string) {
 	t.Helper()
 	for _, l := range lines {
-		if _, err := s.Exec(l); err != nil {
+		if _, _, err := s.Exec(l); err != nil {
 			t.Fatalf("%q: %v", l, err)
 		}
 	}
@@ -32,7 +32,7 @@ func TestDecimalStatement(t *testing.T) {
 		t.Errorf("settings: comma %v, point %v", cm.Settings().Comma, pt.Settings().Comma)
 	}
 	// the value shown in the step uses the marker in force
-	st, err := cm.Exec("L")
+	st, _, err := cm.Exec("L")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -45,15 +45,15 @@ func TestDecimalStatement(t *testing.T) {
 		"y = max(2,2)":      "decimal comma? write 2.2, or set decimal comma (for two arguments write 2, 2)",
 		"frequency 50,5 Hz": "decimal comma? write 50.5 Hz, or set decimal comma",
 	} {
-		_, err := pt.Exec(src)
+		_, _, err := pt.Exec(src)
 		if err == nil || !strings.Contains(err.Error(), msg) {
 			t.Errorf("%q: %v, want %q", src, err, msg)
 		}
 	}
-	if _, err := pt.Exec("decimal = 3"); err == nil || !strings.Contains(err.Error(), "reserved") {
+	if _, _, err := pt.Exec("decimal = 3"); err == nil || !strings.Contains(err.Error(), "reserved") {
 		t.Errorf("decimal as a name: %v", err)
 	}
-	if _, err := pt.Exec("decimal dot"); err == nil || !strings.Contains(err.Error(), "comma or point") {
+	if _, _, err := pt.Exec("decimal dot"); err == nil || !strings.Contains(err.Error(), "comma or point") {
 		t.Errorf("decimal dot: %v", err)
 	}
 }

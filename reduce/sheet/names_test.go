@@ -94,7 +94,7 @@ func TestNaturalNames(t *testing.T) {
 	lines := []string{"capacitor C = 22 µF", "S = 230 V * 6.2 A", "m = 3", "A = 2 * m", "x = 10 A + 5 A", "y = S / 2"}
 	notes := map[string]bool{}
 	for _, l := range lines {
-		steps, err := s.Exec(l)
+		steps, _, err := s.Exec(l)
 		if err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
@@ -130,7 +130,7 @@ func TestNaturalNames(t *testing.T) {
 		t.Errorf("capacitor C stands for its impedance, got %v", q.Dim)
 	}
 	// redefining keeps quiet: the note is said the first time only
-	steps, err := s.Exec("m = 4")
+	steps, _, err := s.Exec("m = 4")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -104,7 +104,7 @@ func TestLanguageChanged(t *testing.T) {
 	if len(sum.Changed) != 0 {
 		t.Errorf("at language %d: changed %v", calc.Language, sum.Changed)
 	}
-	if _, err := New().Exec("language 99"); err == nil || !strings.Contains(err.Error(), "newer argand") {
+	if _, _, err := New().Exec("language 99"); err == nil || !strings.Contains(err.Error(), "newer argand") {
 		t.Errorf("language 99: %v", err)
 	}
 	// a saved worksheet gets the current language line afresh
@@ -118,7 +118,7 @@ func TestLanguageChanged(t *testing.T) {
 // practice).
 func TestPowerFromAcos(t *testing.T) {
 	s := New()
-	if _, err := s.Exec("p = fromvi(230 V, 6.2 A, acos(0.78))"); err != nil {
+	if _, _, err := s.Exec("p = fromvi(230 V, 6.2 A, acos(0.78))"); err != nil {
 		t.Fatal(err)
 	}
 	var q calc.Quantity
@@ -139,10 +139,10 @@ func TestPowerFromAcos(t *testing.T) {
 func TestPartValuesInSeries(t *testing.T) {
 	for _, f := range []float64{50, 60} {
 		s := New()
-		if _, err := s.Exec(fmt.Sprintf("frequency %g Hz", f)); err != nil {
+		if _, _, err := s.Exec(fmt.Sprintf("frequency %g Hz", f)); err != nil {
 			t.Fatal(err)
 		}
-		steps, err := s.Exec("Zs = series(22 mH, 150 Ω)")
+		steps, _, err := s.Exec("Zs = series(22 mH, 150 Ω)")
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -170,7 +170,7 @@ func TestPartValuesInSeries(t *testing.T) {
 func TestElementTakesItsUnit(t *testing.T) {
 	s := New()
 	for _, l := range []string{"resistor R1 = 10k", "capacitor C1 = 100n", "inductor L1 = 2.2 mh", "resistor R2 = 4K7", "capacitor C2 = 4n7", "R1 = 12k"} {
-		steps, err := s.Exec(l)
+		steps, _, err := s.Exec(l)
 		if err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
@@ -189,7 +189,7 @@ func TestElementTakesItsUnit(t *testing.T) {
 			t.Errorf("%s = %v, want %v Ω", n, q.V, v)
 		}
 	}
-	_, err := s.Exec("inductor L2 = 2.2m")
+	_, _, err := s.Exec("inductor L2 = 2.2m")
 	if err == nil || !strings.Contains(err.Error(), "m after a number is the metre") {
 		t.Errorf("inductor L2 = 2.2m: %v", err)
 	}

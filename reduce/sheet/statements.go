@@ -526,6 +526,7 @@ func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	ev := s.evaluator(p.Source(), s.line)
 	ev.Seen = func(x calc.Expr, q calc.Quantity) { vals[x] = q }
 	r, err := ev.Eval(e)
+	s.since = max(s.since, ev.Since)
 	if err != nil {
 		return err
 	}
