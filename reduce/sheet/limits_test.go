@@ -25,12 +25,12 @@ func TestLimits(t *testing.T) {
 			s := New()
 			s.SetLimits(c.lim)
 			for i, st := range c.setup {
-				if _, err := s.ExecLine(st, i+1); err != nil {
+				if _, _, err := s.ExecLine(st, i+1); err != nil {
 					t.Fatalf("%q: %v", st, err)
 				}
 			}
 			before := strings.Join(s.Statements(), "\n")
-			_, err := s.ExecLine(c.stmt, len(c.setup)+1)
+			_, _, err := s.ExecLine(c.stmt, len(c.setup)+1)
 			if err == nil || !strings.Contains(err.Error(), c.want) {
 				t.Fatalf("%q gave %v, want %q", c.stmt, err, c.want)
 			}
@@ -43,7 +43,7 @@ func TestLimits(t *testing.T) {
 			l.Names, l.Bytes, l.Points, l.Elements, l.Budget = 0, 0, 0, 0, 0
 			s2.SetLimits(l)
 			for i, st := range append(c.setup, c.stmt) {
-				if _, err := s2.ExecLine(st, i+1); err != nil {
+				if _, _, err := s2.ExecLine(st, i+1); err != nil {
 					t.Fatalf("without the limit %q: %v", st, err)
 				}
 			}
