@@ -145,7 +145,7 @@ func (m *Model) lineKey(k tea.KeyMsg) tea.Cmd {
 		m.quitting = true
 		return tea.Quit
 	default:
-		if k.Type == tea.KeyRunes && k.Alt && !k.Paste {
+		if k.Alt && !k.Paste {
 			// esc and a key arriving together (a slow link) read as
 			// alt+key: leave the line, then act on the key
 			m.mode = modeRows

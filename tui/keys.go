@@ -58,8 +58,8 @@ type TableKeys struct {
 // ShortHelp implements help.KeyMap.
 func (k TableKeys) ShortHelp() []key.Binding {
 	return []key.Binding{brief(k.Help, "help"), brief(k.Focus, "type"), brief(k.Mark, "mark"),
-		brief(k.Undo, "undo"), brief(k.Quit, "quit"), brief(k.Networks, "networks"),
-		brief(k.TrailFull, "trail in full"), brief(k.Export, "export")}
+		brief(k.Undo, "undo"), brief(k.Quit, "quit"), brief(k.TrailFull, "trail in full"),
+		brief(k.Networks, "networks"), brief(k.Export, "export")}
 }
 
 // FullHelp implements help.KeyMap: the groups are the rows of the key

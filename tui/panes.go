@@ -579,8 +579,11 @@ func (m *Model) hintView() string {
 	}
 	// tr goes on the plain pieces, before styling: styled text holds
 	// escape sequences of its own
+	// the hint line names each binding by its first key (tab of tab/e),
+	// the help screen by all of them
 	k := func(b key.Binding) string {
-		return m.th.key.Render(m.tr(b.Help().Key)) + " " + m.tr(b.Help().Desc)
+		first, _, _ := strings.Cut(b.Help().Key, "/")
+		return m.th.key.Render(m.tr(first)) + " " + m.tr(b.Help().Desc)
 	}
 	var parts []string
 	if m.mode != modeRows {

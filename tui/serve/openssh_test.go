@@ -126,7 +126,7 @@ func TestOpenSSHClient(t *testing.T) {
 	}
 	go func() {
 		time.Sleep(1500 * time.Millisecond) // the first screen is drawn
-		pw.Write([]byte("y"))
+		pw.Write([]byte("\x0f"))            // ctrl+o: the value to the clipboard
 		time.Sleep(1500 * time.Millisecond) // the copy is sent
 		pw.Write([]byte("q"))
 	}()

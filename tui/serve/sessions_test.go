@@ -88,7 +88,7 @@ func TestConcurrentSessions(t *testing.T) {
 			a := open(t, c, map[string]string{"LANG": "C.UTF-8"})
 			a.wait(ready)
 			a.enter(fmt.Sprintf("Zs%d = %d+j1 Ω", i, i+10), fmt.Sprintf("%d.00 + j1.000 Ω", i+10))
-			a.send("y")
+			a.send("\x0f") // ctrl+o: the value to the clipboard
 			a.wait("\x1b]52;c;")
 			a.send("q")
 			outs[i] = a.end()
