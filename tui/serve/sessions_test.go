@@ -216,8 +216,8 @@ func TestPerKeyLimit(t *testing.T) {
 	first := open(t, c, nil)
 	first.wait(ready)
 	second := open(t, c, nil)
-	second.wait("this session is in use")
-	second.wait("read-only")
+	second.wait("your session is already open")
+	second.wait("without changing anything")
 	third := open(t, c, nil)
 	if got, want := third.end(), "argand: this key already has 2 sessions open, the most allowed; close one and try again\r\n"; got != want {
 		t.Errorf("third session got %q, want %q", got, want)
@@ -260,7 +260,7 @@ func TestIdle(t *testing.T) {
 	b := open(t, c, nil)
 	b.wait("session restored")
 	b.wait("Zidle")
-	if strings.Contains(b.out.String(), "in use") {
+	if strings.Contains(b.out.String(), "already open") {
 		t.Error("the idle session's lock was not released")
 	}
 	b.send("q")
@@ -344,7 +344,7 @@ func TestKilledServer(t *testing.T) {
 	b := open(t, c, nil)
 	b.wait("session restored")
 	b.wait("Zkept")
-	if strings.Contains(b.out.String(), "in use") {
+	if strings.Contains(b.out.String(), "already open") {
 		t.Error("the killed server's lock was still held")
 	}
 	st := statements(t, dir, key)
