@@ -16,7 +16,7 @@ func BenchmarkAfterLongStatement(b *testing.B) {
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
 			m := newModel(b, Options{})
 			long := "Zp = 1" + strings.Repeat("+1", n-1)
-			if _, err := m.s.exec(sheet.Job{}, long); err != nil {
+			if _, _, err := m.s.exec(sheet.Job{}, long); err != nil {
 				b.Fatal(err)
 			}
 			b.ResetTimer()

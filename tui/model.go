@@ -454,7 +454,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 			// the entry line the user cannot see would change work unseen.
 			// A size of 0 is a terminal that reports none (keys piped
 			// through ssh -tt): keys act there as they always did.
-			if key.Matches(msg, m.keys.Quit) {
+			if key.Matches(msg, m.keys.Table.Quit) {
 				m.quitting = true
 				return m, tea.Quit
 			}

@@ -18,7 +18,7 @@ func BenchmarkSweepApp(b *testing.B) {
 	for _, n := range sweepSizes {
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
 			m := newModel(b, Options{})
-			if _, err := m.s.exec(sheet.Job{}, "resistor Rf = 1 kΩ", "capacitor Cf = 1 µF", "Zrc = Rf + Cf"); err != nil {
+			if _, _, err := m.s.exec(sheet.Job{}, "resistor Rf = 1 kΩ", "capacitor Cf = 1 µF", "Zrc = Rf + Cf"); err != nil {
 				b.Fatal(err)
 			}
 			stmt := fmt.Sprintf("sweep Zrc from 10 Hz to 100 kHz points %d log", n)

@@ -135,12 +135,12 @@ func TestSweepRestricted(t *testing.T) {
 	for _, tc := range tests {
 		full := New()
 		for _, st := range append(append([]string(nil), base...), tc.stmts...) {
-			if _, err := full.Exec(st); err != nil {
+			if _, _, err := full.Exec(st); err != nil {
 				t.Fatalf("%s: %s: %v", tc.name, st, err)
 			}
 		}
 		stmt := "sweep " + tc.expr + " from 10 Hz to 100 kHz points 41 log"
-		if _, err := full.Exec(stmt); err != nil {
+		if _, _, err := full.Exec(stmt); err != nil {
 			t.Fatalf("%s: %v", tc.name, err)
 		}
 		sw := full.Sweeps()[len(full.Sweeps())-1]
@@ -170,7 +170,7 @@ func TestSweepRestricted(t *testing.T) {
 		t.Errorf("estimate per point %v with unrelated parts, %v without", b, a)
 	}
 	// 100000 points of a sweep that takes about 0.5 s fit the default budget
-	if _, err := big.Exec("sweep Zrc from 10 Hz to 100 kHz points 100000 log"); err != nil {
+	if _, _, err := big.Exec("sweep Zrc from 10 Hz to 100 kHz points 100000 log"); err != nil {
 		t.Errorf("100000 points refused: %v", err)
 	}
 }
