@@ -44,7 +44,7 @@ func BenchmarkSweepRun(b *testing.B) {
 			for i := 0; i < b.N; i++ {
 				sh := sheet.New()
 				for _, s := range []string{"resistor Rf = 1 kΩ", "capacitor Cf = 1 µF", "Zrc = Rf + Cf", stmt} {
-					if _, err := sh.Exec(s); err != nil {
+					if _, _, err := sh.Exec(s); err != nil {
 						b.Fatalf("%s: %v", s, err)
 					}
 				}
