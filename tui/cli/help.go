@@ -133,7 +133,12 @@ func statements() string {
 		{Form: "NAME = EXPR", Doc: "define or redefine a named quantity"},
 		{Form: "EXPR", Doc: "evaluate; the result gets a name such as Z3 or V2"}},
 		append(sheet.StatementsHelp(""),
-			// not a worksheet statement: a word of the app and the line mode
+			// not statements: marks on a three-phase voltage, and a word of
+			// the app and the line mode
+			sheet.StatementHelp{Form: "l2l(400 V)  l2n(230 V)", Doc: "mark a three-phase voltage line-to-line or"},
+			sheet.StatementHelp{Doc: "line-to-neutral: each three-phase function names"},
+			sheet.StatementHelp{Doc: "which it takes (VLL, VLN), converts a value marked"},
+			sheet.StatementHelp{Doc: "the other way with a note, and shows both forms"},
 			sheet.StatementHelp{Form: "new session", Doc: "(app and line mode) a new, empty session; the old"},
 			sheet.StatementHelp{Doc: "  one is kept as a worksheet file, said where"})...))
 }
