@@ -117,115 +117,194 @@ type pointError struct {
 func (e *pointError) Error() string { return e.msg }
 func (e *pointError) Unwrap() error { return e.err }
 
+// sweepSpec is a sweep statement as read: what to sweep, over which
+// frequencies, and how to show it. Reading the whole line before
+// evaluating anything lets a typing error be reported before any work.
+type sweepSpec struct {
+	e, from, to calc.Expr
+	ref         calc.Expr // the dB reference, nil when not stated
+	n           int       // points
+	log         bool
+	logGiven    bool // log or linear was written, not defaulted
+	db          bool
+}
+
 // stmtSweep runs: sweep EXPR from F1 to F2 [points N] [log|linear] [db [ref R]].
 // After the table it records what the sweep found (sweep.Find): extremes,
 // resonances and half-power bands, each located between the points.
 func (s *Sheet) stmtSweep(p *calc.Parser) error {
-	p.Next()
-	if p.Peek().Tok == calc.TokEOF {
-		return perr(p, "sweep needs a value: sweep Zin from 10 Hz to 10 kHz")
-	}
-	e := p.Expr()
-	if p.Err() != nil {
-		return p.Err()
-	}
-	if !expectWord(p, "from", "sweep") {
-		return p.Err()
-	}
-	f1E := p.Expr()
-	if p.Err() != nil || !expectWord(p, "to", "sweep") {
-		return p.Err()
-	}
-	f2E := p.Expr()
-	n, logScale, db := 41, true, false
-	given := false
-	var refE calc.Expr
-	for p.Err() == nil && p.Peek().Tok != calc.TokEOF {
-		switch {
-		case p.IsWord("points"):
-			p.Next()
-			t := p.Next()
-			k, err := strconv.Atoi(t.Text)
-			if t.Tok != calc.TokNumber || err != nil || k < 2 || k > s.limits.Points {
-				p.Failf(t, "points takes a whole number from 2 to %d", s.limits.Points)
-				return p.Err()
-			}
-			n = k
-		case p.IsWord("log"):
-			p.Next()
-			logScale, given = true, true
-		case p.IsWord("linear"):
-			p.Next()
-			logScale, given = false, true
-		case p.IsWord("db"), p.IsWord("dB"):
-			p.Next()
-			db = true
-			if p.IsWord("ref") {
-				p.Next()
-				if refE = p.Expr(); p.Err() != nil {
-					return p.Err()
-				}
-			}
-		default:
-			return perr(p, "sweep options are points N, log, linear and db [ref R]; found %q", p.Peek().Text)
-		}
-	}
-	if err := p.Err(); err != nil {
-		return err
-	}
-	freq := func(x calc.Expr) (float64, error) {
-		r, err := s.eval(p, x)
-		if err != nil {
-			return 0, err
-		}
-		_, _, col := x.Span()
-		q := r.Value
-		switch {
-		case q.Dim == calc.DimFrequency && q.IsReal():
-			return real(q.V), nil
-		case q.Dim == calc.DimAngularFrequency && q.IsReal():
-			return calc.HzOf(real(q.V)), nil
-		}
-		return 0, lineErr(s.line, col, width(p, x), "a sweep runs over frequencies in Hz or rad/s, not %s", calc.DimName(q.Dim, false))
-	}
-	a, err := freq(f1E)
+	sp, err := s.readSweep(p)
 	if err != nil {
 		return err
 	}
-	b, err := freq(f2E)
+	pts, err := s.sweepPoints(p, sp)
 	if err != nil {
 		return err
-	}
-	if !given && a <= 0 {
-		logScale = false
-	}
-	pts, err := sweep.Points(a, b, n, logScale)
-	if err != nil {
-		_, _, col := f1E.Span()
-		return lineErr(s.line, col, width(p, f1E), "%v", err)
-	}
-	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, e, s.needs(e))}, "points", "use fewer points"); msg != "" {
-		return lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
 	}
 	var ref calc.Quantity
 	refText := ""
-	if refE != nil {
-		r, err := s.eval(p, refE)
+	if sp.ref != nil {
+		r, err := s.eval(p, sp.ref)
 		if err != nil {
 			return err
 		}
-		ref, refText = r.Value, p.Text(refE)
+		ref, refText = r.Value, p.Text(sp.ref)
 	}
 	if s.dry {
 		// the value at the working frequency stands for the sweep
-		if _, err := s.eval(p, e); err != nil {
+		if _, err := s.eval(p, sp.e); err != nil {
 			return err
 		}
 		return nil
 	}
 	src := p.Source()
 	c := s.sampler()
-	c.restrict(e)
+	c.restrict(sp.e)
+	tab, err := s.sweepTable(p, c, sp.e, pts)
+	if err != nil {
+		return err
+	}
+	var lv sweepLevels
+	plotTab := tab
+	if sp.db {
+		if lv, err = s.sweepDecibels(p, sp, tab, ref, refText); err != nil {
+			return err
+		}
+		ref, refText = lv.ref, lv.refText
+		plotTab = relativeTo(tab, ref)
+	}
+	// read what the sweep found before changing the worksheet, so that a
+	// cancelled search leaves it as it was
+	fd := sweep.Find(tab, func(hz float64) (calc.Quantity, error) {
+		if err := c.stopped(); err != nil {
+			return calc.Quantity{}, err
+		}
+		return c.evalAt(src, sp.e, hz)
+	})
+	if err := c.stopped(); err != nil {
+		return err
+	}
+	s.sweeps = append(s.sweeps, &SweepResult{Source: src, Table: tab, DB: sp.db, Ref: ref})
+	s.record(s.sweepStep(p, sp, tab, plotTab, lv))
+	s.record(fd.Step(src, s.ctx.Format))
+	return nil
+}
+
+// readSweep reads a sweep statement up to the end of the line, the
+// options in any order, without evaluating anything.
+func (s *Sheet) readSweep(p *calc.Parser) (sweepSpec, error) {
+	p.Next()
+	if p.Peek().Tok == calc.TokEOF {
+		return sweepSpec{}, perr(p, "sweep needs a value: sweep Zin from 10 Hz to 10 kHz")
+	}
+	sp := sweepSpec{n: 41, log: true}
+	sp.e = p.Expr()
+	if p.Err() != nil {
+		return sp, p.Err()
+	}
+	if !expectWord(p, "from", "sweep") {
+		return sp, p.Err()
+	}
+	sp.from = p.Expr()
+	if p.Err() != nil || !expectWord(p, "to", "sweep") {
+		return sp, p.Err()
+	}
+	sp.to = p.Expr()
+	for p.Err() == nil && p.Peek().Tok != calc.TokEOF {
+		if err := s.sweepOption(p, &sp); err != nil {
+			return sp, err
+		}
+	}
+	if err := p.Err(); err != nil {
+		return sp, err
+	}
+	return sp, nil
+}
+
+// sweepOption reads one option of a sweep into sp: points N, log, linear
+// or db [ref R].
+func (s *Sheet) sweepOption(p *calc.Parser, sp *sweepSpec) error {
+	switch {
+	case p.IsWord("points"):
+		p.Next()
+		t := p.Next()
+		k, err := strconv.Atoi(t.Text)
+		if t.Tok != calc.TokNumber || err != nil || k < 2 || k > s.limits.Points {
+			p.Failf(t, "points takes a whole number from 2 to %d", s.limits.Points)
+			return p.Err()
+		}
+		sp.n = k
+	case p.IsWord("log"):
+		p.Next()
+		sp.log, sp.logGiven = true, true
+	case p.IsWord("linear"):
+		p.Next()
+		sp.log, sp.logGiven = false, true
+	case p.IsWord("db"), p.IsWord("dB"):
+		p.Next()
+		sp.db = true
+		if p.IsWord("ref") {
+			p.Next()
+			if sp.ref = p.Expr(); p.Err() != nil {
+				return p.Err()
+			}
+		}
+	default:
+		return perr(p, "sweep options are points N, log, linear and db [ref R]; found %q", p.Peek().Text)
+	}
+	return nil
+}
+
+// sweepFreq evaluates an end of a sweep's range as a frequency in Hz: a
+// sweep runs over frequencies, given in Hz or rad/s.
+func (s *Sheet) sweepFreq(p *calc.Parser, x calc.Expr) (float64, error) {
+	r, err := s.eval(p, x)
+	if err != nil {
+		return 0, err
+	}
+	_, _, col := x.Span()
+	q := r.Value
+	switch {
+	case q.Dim == calc.DimFrequency && q.IsReal():
+		return real(q.V), nil
+	case q.Dim == calc.DimAngularFrequency && q.IsReal():
+		return calc.HzOf(real(q.V)), nil
+	}
+	return 0, lineErr(s.line, col, width(p, x), "a sweep runs over frequencies in Hz or rad/s, not %s", calc.DimName(q.Dim, false))
+}
+
+// sweepPoints returns the frequencies a sweep visits, refusing a sweep
+// whose estimated work is past the budget before any point is computed.
+// A range from 0 Hz is linear unless log was asked for, so that the
+// default does not refuse it.
+func (s *Sheet) sweepPoints(p *calc.Parser, sp sweepSpec) ([]float64, error) {
+	a, err := s.sweepFreq(p, sp.from)
+	if err != nil {
+		return nil, err
+	}
+	b, err := s.sweepFreq(p, sp.to)
+	if err != nil {
+		return nil, err
+	}
+	logScale := sp.log
+	if !sp.logGiven && a <= 0 {
+		logScale = false
+	}
+	pts, err := sweep.Points(a, b, sp.n, logScale)
+	if err != nil {
+		_, _, col := sp.from.Span()
+		return nil, lineErr(s.line, col, width(p, sp.from), "%v", err)
+	}
+	if msg := s.overBudget("this sweep", work{samples: len(pts), perSample: s.sampleCost([]string{"f", "w", "ω"}, sp.e, s.needs(sp.e))}, "points", "use fewer points"); msg != "" {
+		return nil, lineErr(s.line, 1, utf8.RuneCountInString(p.Source()), "%s", msg)
+	}
+	return pts, nil
+}
+
+// sweepTable evaluates e at every point on the working copy c, reporting
+// progress and stopping when the statement is cancelled.
+func (s *Sheet) sweepTable(p *calc.Parser, c *Sheet, e calc.Expr, pts []float64) (*sweep.Table, error) {
+	src := p.Source()
 	done := 0
 	tab, err := sweep.Run(pts, func(hz float64) (calc.Quantity, error) {
 		if err := c.stopped(); err != nil {
@@ -238,45 +317,50 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 	})
 	if err != nil {
 		_, _, col := e.Span()
-		return lineErr(s.line, col, width(p, e), "%v", err)
+		return nil, lineErr(s.line, col, width(p, e), "%v", err)
 	}
-	var dbs []float64
-	var hasDB []bool
-	plotTab := tab
-	if db {
-		if refE == nil {
-			if !tab.Dim.IsDimensionless() {
-				return perr(p, "a level in dB is a ratio to a stated reference: write db ref 1 %s", calc.UnitSymbol(tab.Dim, tab.Kind, s.ctx.Format.ASCII))
-			}
-			ref, refText = calc.Number(1), "1"
+	return tab, nil
+}
+
+// sweepLevels are a sweep's levels in dB and the reference they are
+// taken to.
+type sweepLevels struct {
+	dbs     []float64
+	has     []bool // a level exists (not at a marked point, not of zero)
+	ref     calc.Quantity
+	refText string
+}
+
+// sweepDecibels works out the levels of a db sweep. Without ref only a
+// ratio has a level (to 1): a value with a unit needs its reference
+// stated, or the dB figure would hide the unit it is relative to.
+func (s *Sheet) sweepDecibels(p *calc.Parser, sp sweepSpec, tab *sweep.Table, ref calc.Quantity, refText string) (sweepLevels, error) {
+	if sp.ref == nil {
+		if !tab.Dim.IsDimensionless() {
+			return sweepLevels{}, perr(p, "a level in dB is a ratio to a stated reference: write db ref 1 %s", calc.UnitSymbol(tab.Dim, tab.Kind, s.ctx.Format.ASCII))
 		}
-		if dbs, hasDB, err = tab.Decibels(ref); err != nil {
-			at := e
-			if refE != nil {
-				at = refE
-			}
-			_, _, col := at.Span()
-			return lineErr(s.line, col, width(p, at), "%v", err)
-		}
-		plotTab = relativeTo(tab, ref)
+		ref, refText = calc.Number(1), "1"
 	}
-	// read what the sweep found before changing the worksheet, so that a
-	// cancelled search leaves it as it was
-	fd := sweep.Find(tab, func(hz float64) (calc.Quantity, error) {
-		if err := c.stopped(); err != nil {
-			return calc.Quantity{}, err
+	dbs, has, err := tab.Decibels(ref)
+	if err != nil {
+		at := sp.e
+		if sp.ref != nil {
+			at = sp.ref
 		}
-		return c.evalAt(src, e, hz)
-	})
-	if err := c.stopped(); err != nil {
-		return err
+		_, _, col := at.Span()
+		return sweepLevels{}, lineErr(s.line, col, width(p, at), "%v", err)
 	}
-	s.sweeps = append(s.sweeps, &SweepResult{Source: src, Table: tab, DB: db, Ref: ref})
-	st := calc.Step{Kind: "sweep", Source: src, Rule: "frequency sweep of " + p.Text(e) + " (" + strconv.Itoa(len(pts)) + " points)",
+	return sweepLevels{dbs: dbs, has: has, ref: ref, refText: refText}, nil
+}
+
+// sweepStep is the step of a finished sweep: a row a point with its value
+// (and level in dB), and the plot.
+func (s *Sheet) sweepStep(p *calc.Parser, sp sweepSpec, tab, plotTab *sweep.Table, lv sweepLevels) calc.Step {
+	st := calc.Step{Kind: "sweep", Source: p.Source(), Rule: "frequency sweep of " + p.Text(sp.e) + " (" + strconv.Itoa(len(tab.Points)) + " points)",
 		Formula: "each point re-evaluates every frequency-dependent value at f"}
-	if db {
-		st.Formula += ";  level = 20·log10(|x|/|" + refText + "|) dB"
-		st.Inputs = []calc.Operand{{Name: "dB reference", Value: ref}}
+	if sp.db {
+		st.Formula += ";  level = 20·log10(|x|/|" + lv.refText + "|) dB"
+		st.Inputs = []calc.Operand{{Name: "dB reference", Value: lv.ref}}
 	}
 	for k, pt := range tab.Points {
 		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0)}
@@ -284,20 +368,18 @@ func (s *Sheet) stmtSweep(p *calc.Parser) error {
 			row.Name += ": " + pt.Mark // no value to show
 		} else {
 			row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
-			if db && hasDB[k] {
-				row.Values = append(row.Values, calc.Operand{Name: "dB", Value: calc.Number(complex(dbs[k], 0))})
+			if sp.db && lv.has[k] {
+				row.Values = append(row.Values, calc.Operand{Name: "dB", Value: calc.Number(complex(lv.dbs[k], 0))})
 			}
 		}
 		st.Rows = append(st.Rows, row)
 	}
 	head := "plot:\n"
-	if db {
-		head = "plot (levels in dB re " + refText + "):\n"
+	if sp.db {
+		head = "plot (levels in dB re " + lv.refText + "):\n"
 	}
-	st.Notes = append(st.Notes, head+sweep.Plot(plotTab, 64, 10, db, s.ctx.Format.ASCII))
-	s.record(st)
-	s.record(fd.Step(src, s.ctx.Format))
-	return nil
+	st.Notes = append(st.Notes, head+sweep.Plot(plotTab, 64, 10, sp.db, s.ctx.Format.ASCII))
+	return st
 }
 
 // relativeTo returns the sweep divided by a reference, for a plot in dB
@@ -376,33 +458,7 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		}
 		done++
 		s.progress(done, site.MaxEvaluations)
-		c.lenient = map[string]error{}
-		changed := map[string]bool{}
-		for i, n := range names {
-			d := c.byName[n]
-			if d.elem != nil {
-				d.elem.raw = vals[i]
-				z, err := c.elementValue(d.elem)
-				if err != nil {
-					return calc.Quantity{}, err
-				}
-				d.value = z
-			} else {
-				d.value = vals[i]
-			}
-			changed[n] = true
-		}
-		if _, err := c.propagate(changed, ""); err != nil {
-			return calc.Quantity{}, err
-		}
-		if err := c.broken(e); err != nil {
-			return calc.Quantity{}, err
-		}
-		r, err := c.evaluator(src, s.line).Eval(e)
-		if err != nil {
-			return calc.Quantity{}, errPlain(err)
-		}
-		return r.Value, nil
+		return c.sampleAt(names, vals, src, s.line, e)
 	})
 	if err == nil {
 		err = c.stopped()
@@ -411,21 +467,59 @@ func (s *Sheet) spreadOf(p *calc.Parser, e calc.Expr) (site.RangeResult, error) 
 		_, _, col := e.Span()
 		return site.RangeResult{}, lineErr(s.line, col, width(p, e), "%v", err)
 	}
-	// a pole inside the box (a parallel resonance, an open circuit) makes
-	// the sampled maximum meaningless: say so rather than quote it as a range
-	nom := cmplx.Abs(rr.Nominal.V)
-	var warn string
-	switch {
-	case rr.Failed > 0:
-		warn = fmt.Sprintf("%d of %d samples failed (an open circuit or a short inside the tolerance box): the value is unbounded there and the range above is not a bound", rr.Failed, rr.Evaluations)
-	case nom > 0 && real(rr.MagMax.V) > 1e6*nom:
-		warn = "the maximum is over a million times the nominal value: a resonance (pole) lies inside the tolerance box, the value is unbounded there and mag_max is not a bound"
-	}
-	if warn != "" && len(rr.Steps) > 0 {
+	if warn := poleWarning(rr); warn != "" && len(rr.Steps) > 0 {
 		last := &rr.Steps[len(rr.Steps)-1]
 		last.Notes = append(last.Notes, warn)
 	}
 	return rr, nil
+}
+
+// sampleAt evaluates e on a working copy (c must be a sampler) with the
+// toleranced names set to one sample's values: an element takes the
+// sampled component value, so its impedance follows the frequency, and
+// everything that reads them is evaluated again.
+func (c *Sheet) sampleAt(names []string, vals []calc.Quantity, src string, line int, e calc.Expr) (calc.Quantity, error) {
+	c.lenient = map[string]error{}
+	changed := map[string]bool{}
+	for i, n := range names {
+		d := c.byName[n]
+		if d.elem != nil {
+			d.elem.raw = vals[i]
+			z, err := c.elementValue(d.elem)
+			if err != nil {
+				return calc.Quantity{}, err
+			}
+			d.value = z
+		} else {
+			d.value = vals[i]
+		}
+		changed[n] = true
+	}
+	if _, err := c.propagate(changed, ""); err != nil {
+		return calc.Quantity{}, err
+	}
+	if err := c.broken(e); err != nil {
+		return calc.Quantity{}, err
+	}
+	r, err := c.evaluator(src, line).Eval(e)
+	if err != nil {
+		return calc.Quantity{}, errPlain(err)
+	}
+	return r.Value, nil
+}
+
+// poleWarning returns the note for a range that is no bound: a pole
+// inside the box (a parallel resonance, an open circuit) makes the sampled
+// maximum meaningless, so it says so rather than quote it as a range.
+func poleWarning(rr site.RangeResult) string {
+	nom := cmplx.Abs(rr.Nominal.V)
+	switch {
+	case rr.Failed > 0:
+		return fmt.Sprintf("%d of %d samples failed (an open circuit or a short inside the tolerance box): the value is unbounded there and the range above is not a bound", rr.Failed, rr.Evaluations)
+	case nom > 0 && real(rr.MagMax.V) > 1e6*nom:
+		return "the maximum is over a million times the nominal value: a resonance (pole) lies inside the tolerance box, the value is unbounded there and mag_max is not a bound"
+	}
+	return ""
 }
 
 // tolerancesUnder lists the toleranced names an expression depends on,
