@@ -52,6 +52,15 @@ func (s *Sheet) spectrumFunc(name string) (*calc.Func, bool) {
 	return nil, false
 }
 
+// spectrumOrders are the orders of a spectrum statement as given, each
+// with the column it was typed at (for an error that names one order),
+// and a note on where they came from.
+type spectrumOrders struct {
+	entries []harmonic.Entry
+	cols    []int
+	note    string
+}
+
 // stmtSpectrum runs:
 //
 //	spectrum NAME h1 230 V, h3 6.9 V ∠ 10, h5 4 % ∠ -120, …
@@ -62,6 +71,35 @@ func (s *Sheet) spectrumFunc(name string) (*calc.Func, bool) {
 func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 	p.Next()
 	nameTok := p.Next()
+	if err := s.spectrumName(p, nameTok); err != nil {
+		return err
+	}
+	var ord spectrumOrders
+	if p.IsWord("from") {
+		path, col, err := spectrumPath(p, nameTok.Text)
+		if err != nil {
+			return err
+		}
+		if s.dry {
+			return nil
+		}
+		if ord, err = s.spectrumFile(path, col); err != nil {
+			return err
+		}
+	} else {
+		var err error
+		if ord, err = s.spectrumList(p, nameTok.Text); err != nil {
+			return err
+		}
+	}
+	return s.defineSpectrum(p, nameTok, ord)
+}
+
+// spectrumName checks the name a spectrum statement gives: a spectrum may
+// be given again under its name, but no other value or network may share
+// it, nor another spectrum a name that differs only in case, which a
+// reader would take for the same.
+func (s *Sheet) spectrumName(p *calc.Parser, nameTok calc.Item) error {
 	if _, again := s.spectra[nameTok.Text]; !again || nameTok.Tok != calc.TokIdent {
 		if !s.validName(p, nameTok) {
 			return p.Err()
@@ -82,80 +120,96 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 			return p.Err()
 		}
 	}
-	var entries []harmonic.Entry
-	var cols []int
-	var note string
-	if p.IsWord("from") {
-		from := p.Next()
-		rest := p.Source()[from.End:]
-		path := strings.TrimSpace(rest)
-		col := from.Col + 4 + utf8.RuneCountInString(rest[:len(rest)-len(strings.TrimLeft(rest, " \t"))])
-		if path == "" {
-			p.FailAt(col, 1, "spectrum %s from: the file name is missing", name)
-			return p.Err()
-		}
-		if s.dry {
-			return nil
-		}
-		var err error
-		entries, err = readSpectrumFile(path)
-		if err != nil {
-			return lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.Printable(path), err)
-		}
-		for range entries {
-			cols = append(cols, col)
-		}
-		note = "read from " + calc.Printable(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
-	} else {
-		if p.Peek().Tok == calc.TokEOF {
-			return perr(p, "spectrum %s needs its orders, as in: spectrum %s h1 230 V, h5 4 %%, h7 3 %% ∠ 40   (or: spectrum %s from FILE)", name, name, name)
-		}
-		for {
-			t := p.Next()
-			order, ok := orderWord(t)
-			switch {
-			case t.Tok == calc.TokEOF:
-				p.FailAt(t.Col, 1, "expected an order such as h5 after the comma, found the end of the line")
-				return p.Err()
-			case !ok:
-				p.Failf(t, "expected an order such as h1, h5 or h7, found %q", t.Text)
-				return p.Err()
-			case p.IsOp("="):
-				p.Failf(p.Peek(), "write the value right after the order, without '=': h%d 100 A", order)
-				return p.Err()
-			}
-			if p.Peek().Tok == calc.TokEOF || p.IsOp(",") {
-				return perr(p, "order h%d needs a value: a magnitude with its unit or a percentage of the fundamental", order)
-			}
-			e := p.Expr()
-			if err := p.Err(); err != nil {
-				return err
-			}
-			if len(entries) >= harmonic.MaxOrder {
-				p.Failf(t, "a spectrum holds at most %d orders", harmonic.MaxOrder)
-				return p.Err()
-			}
-			r, err := s.eval(p, e)
-			if err != nil {
-				return err
-			}
-			entries = append(entries, harmonic.Entry{Order: order, Value: r.Value, Percent: percentOf(e), HasAngle: hasAngle(e, r.Value)})
-			cols = append(cols, t.Col)
-			if p.Peek().Tok == calc.TokEOF {
-				break
-			}
-			if !p.IsOp(",") {
-				return perr(p, "expected ',' before the next order, found %q", p.Peek().Text)
-			}
-			p.Next()
-		}
+	return nil
+}
+
+// spectrumPath reads the file name after from: the rest of the line as
+// typed (a path is not tokens), and the column it starts at.
+func spectrumPath(p *calc.Parser, name string) (string, int, error) {
+	from := p.Next()
+	rest := p.Source()[from.End:]
+	path := strings.TrimSpace(rest)
+	col := from.Col + 4 + utf8.RuneCountInString(rest[:len(rest)-len(strings.TrimLeft(rest, " \t"))])
+	if path == "" {
+		p.FailAt(col, 1, "spectrum %s from: the file name is missing", name)
+		return "", col, p.Err()
 	}
-	sp, err := harmonic.Build(entries)
+	return path, col, nil
+}
+
+// spectrumFile reads a spectrum's orders from a file; an error names the
+// file at the column of its name.
+func (s *Sheet) spectrumFile(path string, col int) (spectrumOrders, error) {
+	entries, err := readSpectrumFile(path)
+	if err != nil {
+		return spectrumOrders{}, lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.Printable(path), err)
+	}
+	ord := spectrumOrders{entries: entries}
+	for range entries {
+		ord.cols = append(ord.cols, col)
+	}
+	ord.note = "read from " + calc.Printable(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
+	return ord, nil
+}
+
+// spectrumList reads and evaluates the orders typed on the line: h5 22 %
+// ∠ 170, separated by commas.
+func (s *Sheet) spectrumList(p *calc.Parser, name string) (spectrumOrders, error) {
+	var ord spectrumOrders
+	if p.Peek().Tok == calc.TokEOF {
+		return ord, perr(p, "spectrum %s needs its orders, as in: spectrum %s h1 230 V, h5 4 %%, h7 3 %% ∠ 40   (or: spectrum %s from FILE)", name, name, name)
+	}
+	for {
+		t := p.Next()
+		order, ok := orderWord(t)
+		switch {
+		case t.Tok == calc.TokEOF:
+			p.FailAt(t.Col, 1, "expected an order such as h5 after the comma, found the end of the line")
+			return ord, p.Err()
+		case !ok:
+			p.Failf(t, "expected an order such as h1, h5 or h7, found %q", t.Text)
+			return ord, p.Err()
+		case p.IsOp("="):
+			p.Failf(p.Peek(), "write the value right after the order, without '=': h%d 100 A", order)
+			return ord, p.Err()
+		}
+		if p.Peek().Tok == calc.TokEOF || p.IsOp(",") {
+			return ord, perr(p, "order h%d needs a value: a magnitude with its unit or a percentage of the fundamental", order)
+		}
+		e := p.Expr()
+		if err := p.Err(); err != nil {
+			return ord, err
+		}
+		if len(ord.entries) >= harmonic.MaxOrder {
+			p.Failf(t, "a spectrum holds at most %d orders", harmonic.MaxOrder)
+			return ord, p.Err()
+		}
+		r, err := s.eval(p, e)
+		if err != nil {
+			return ord, err
+		}
+		ord.entries = append(ord.entries, harmonic.Entry{Order: order, Value: r.Value, Percent: percentOf(e), HasAngle: hasAngle(e, r.Value)})
+		ord.cols = append(ord.cols, t.Col)
+		if p.Peek().Tok == calc.TokEOF {
+			return ord, nil
+		}
+		if !p.IsOp(",") {
+			return ord, perr(p, "expected ',' before the next order, found %q", p.Peek().Text)
+		}
+		p.Next()
+	}
+}
+
+// defineSpectrum builds the spectrum from its orders and keeps it under
+// its name; what reads a spectrum given again is evaluated again.
+func (s *Sheet) defineSpectrum(p *calc.Parser, nameTok calc.Item, ord spectrumOrders) error {
+	name := nameTok.Text
+	sp, err := harmonic.Build(ord.entries)
 	if err != nil {
 		var ee *harmonic.EntryError
 		col, n := nameTok.Col, utf8.RuneCountInString(name)
-		if errors.As(err, &ee) && ee.Index >= 0 && ee.Index < len(cols) {
-			col, n = cols[ee.Index], 1
+		if errors.As(err, &ee) && ee.Index >= 0 && ee.Index < len(ord.cols) {
+			col, n = ord.cols[ee.Index], 1
 		}
 		return lineErr(s.line, col, n, "spectrum %s: %v", name, err)
 	}
@@ -168,8 +222,8 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 	_, existed := s.spectra[name]
 	s.spectra[name] = &spectrumDef{s: sp, line: s.line}
 	st := harmonic.Describe(p.Source(), name, sp, &s.ctx)
-	if note != "" {
-		st.Notes = append([]string{note}, st.Notes...)
+	if ord.note != "" {
+		st.Notes = append([]string{ord.note}, st.Notes...)
 	}
 	s.record(st)
 	if existed {

@@ -589,19 +589,9 @@ func (s *Sheet) setExtras(name, src string, extra []calc.Operand) []calc.Operand
 func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result, vals map[calc.Expr]calc.Quantity) calc.Step {
 	st := calc.Step{Source: p.Source(), Notes: r.Notes, Cautions: r.Cautions}
 	operand := func(x calc.Expr) {
-		if _, ok := x.(*calc.Lit); ok {
-			return
+		if v, ok := vals[x]; ok && !isLit(x) {
+			st.Inputs = append(st.Inputs, calc.Operand{Name: p.Text(x), Value: v})
 		}
-		if u, ok := x.(*calc.Unary); ok {
-			if _, ok := u.X.(*calc.Lit); ok {
-				return
-			}
-		}
-		v, ok := vals[x]
-		if !ok {
-			return
-		}
-		st.Inputs = append(st.Inputs, calc.Operand{Name: p.Text(x), Value: v})
 	}
 	inner := e
 	for {
@@ -611,34 +601,13 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result, vals map[ca
 		}
 		break
 	}
-	isLit := func(x calc.Expr) bool {
-		if u, ok := x.(*calc.Unary); ok {
-			x = u.X
-		}
-		_, ok := x.(*calc.Lit)
-		return ok
-	}
 	switch n := inner.(type) {
 	case *calc.Binary:
-		a, b := p.Text(n.X), p.Text(n.Y)
 		if (n.Op == "+" || n.Op == "-") && isLit(n.X) && isLit(n.Y) {
 			st.Rule = "value as entered (rectangular form)"
 			break
 		}
-		switch n.Op {
-		case "+":
-			st.Rule, st.Formula = "sum", a+" + "+b
-		case "-":
-			st.Rule, st.Formula = "difference (first minus second)", a+" − "+b
-		case "*":
-			st.Rule, st.Formula = "product", a+" · "+b
-		case "/":
-			st.Rule, st.Formula = "quotient (first over second)", a+" / "+b
-		case "^":
-			st.Rule, st.Formula = "power (principal value)", "("+a+")^("+b+")"
-		case "||":
-			st.Rule, st.Formula = "parallel: product over sum", "("+a+")·("+b+") / (("+a+") + ("+b+"))"
-		}
+		st.Rule, st.Formula = binaryRule(n.Op, p.Text(n.X), p.Text(n.Y))
 		operand(n.X)
 		operand(n.Y)
 	case *calc.Polar:
@@ -651,16 +620,7 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result, vals map[ca
 		st.Rule = "negation"
 		operand(n.X)
 	case *calc.Call:
-		f, ok := s.funcTable()[n.Fun]
-		if !ok {
-			for _, b := range calc.Builtins() {
-				if b.Name == n.Fun || (n.Fun == "abs" && b.Name == "mag") || (n.Fun == "angle" && b.Name == "arg") {
-					b := b
-					f = &b
-				}
-			}
-		}
-		if f != nil {
+		if f := s.funcOf(n.Fun); f != nil {
 			st.Rule, st.Formula = f.Doc, f.Formula
 		}
 		for _, a := range n.Args {
@@ -679,120 +639,129 @@ func (s *Sheet) describe(p *calc.Parser, e calc.Expr, r calc.Result, vals map[ca
 	return st
 }
 
+// isLit reports a literal, signed or not: a value as typed, which a step
+// does not list again among its inputs.
+func isLit(x calc.Expr) bool {
+	if u, ok := x.(*calc.Unary); ok {
+		x = u.X
+	}
+	_, ok := x.(*calc.Lit)
+	return ok
+}
+
+// binaryRule names a binary operation and writes its formula over the
+// operands as typed (a and b), in the words of a hand calculation.
+func binaryRule(op, a, b string) (rule, formula string) {
+	switch op {
+	case "+":
+		return "sum", a + " + " + b
+	case "-":
+		return "difference (first minus second)", a + " − " + b
+	case "*":
+		return "product", a + " · " + b
+	case "/":
+		return "quotient (first over second)", a + " / " + b
+	case "^":
+		return "power (principal value)", "(" + a + ")^(" + b + ")"
+	case "||":
+		return "parallel: product over sum", "(" + a + ")·(" + b + ") / ((" + a + ") + (" + b + "))"
+	}
+	return "", ""
+}
+
+// funcOf finds the function a call names, for its rule and formula: one
+// of argand's packages, or a built-in (abs and angle being mag and arg).
+func (s *Sheet) funcOf(name string) *calc.Func {
+	f, ok := s.funcTable()[name]
+	if !ok {
+		for _, b := range calc.Builtins() {
+			if b.Name == name || (name == "abs" && b.Name == "mag") || (name == "angle" && b.Name == "arg") {
+				b := b
+				f = &b
+			}
+		}
+	}
+	return f
+}
+
+// elementKind returns the kind of element a statement's first word
+// defines. The kinds name themselves by the statements' words (resistor,
+// voltage source), so no second list of element words is kept here.
+func elementKind(word string) (reduce.ElementKind, bool) {
+	for k := reduce.Resistor; k <= reduce.CurrentSource; k++ {
+		if first, _, _ := strings.Cut(k.String(), " "); first == word {
+			return k, true
+		}
+	}
+	return 0, false
+}
+
+// elementDim is the unit dimension of an element kind's component value.
+func elementDim(k reduce.ElementKind) calc.Dim {
+	switch k {
+	case reduce.Inductor:
+		return calc.DimInductance
+	case reduce.Capacitor:
+		return calc.DimCapacitance
+	case reduce.VoltageSource:
+		return calc.DimVoltage
+	case reduce.CurrentSource:
+		return calc.DimCurrent
+	}
+	return calc.DimImpedance
+}
+
+// elementLine is an element statement as read: its keyword, kind, name,
+// value and, inside a network block, the nodes it joins.
+type elementLine struct {
+	kw, name calc.Item
+	kind     reduce.ElementKind
+	e        calc.Expr
+	from, to string
+	fromTok  calc.Item
+}
+
 // stmtElement defines an element: a named component value that remembers
 // its kind, so its impedance follows the working frequency. Inside a
 // network block it also joins two nodes.
 func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
-	kw := p.Next()
-	kind := map[string]reduce.ElementKind{"resistor": reduce.Resistor, "inductor": reduce.Inductor,
-		"capacitor": reduce.Capacitor, "impedance": reduce.Impedance}[kw.Text]
-	want := map[reduce.ElementKind]calc.Dim{reduce.Resistor: calc.DimImpedance, reduce.Inductor: calc.DimInductance,
-		reduce.Capacitor: calc.DimCapacitance, reduce.Impedance: calc.DimImpedance,
-		reduce.VoltageSource: calc.DimVoltage, reduce.CurrentSource: calc.DimCurrent}
-	if kw.Text == "voltage" || kw.Text == "current" {
-		p.Next() // source
-		kind = reduce.VoltageSource
-		if kw.Text == "current" {
-			kind = reduce.CurrentSource
-		}
-	}
-	nameTok := p.Next()
-	if !s.validName(p, nameTok) {
-		return p.Err()
-	}
-	if !p.IsOp("=") {
-		return perr(p, "expected '=' after the element name %s", nameTok.Text)
-	}
-	p.Next()
-	if p.Peek().Tok == calc.TokEOF {
-		return perr(p, "%s %s needs a value", kind, nameTok.Text)
-	}
-	e := p.Expr()
-	var from, to string
-	var fromTok calc.Item
-	if p.Err() == nil && p.IsWord("from") {
-		p.Next()
-		fromTok = p.Peek()
-		from = nodeName(p)
-		if !expectWord(p, "to", kind.String()+" "+nameTok.Text) {
-			return p.Err()
-		}
-		to = nodeName(p)
-	}
-	p.ExpectEnd()
-	if err := p.Err(); err != nil {
-		return err
-	}
-	if net == nil && from != "" {
-		p.Failf(fromTok, "nodes (from … to …) belong inside a network block: start one with network NAME reference NODE")
-		return p.Err()
-	}
-	if net != nil && from == "" {
-		p.FailAt(p.EndCol(), 1, "an element inside a network joins two nodes: add from NODE to NODE")
-		return p.Err()
-	}
-	if kind.IsSource() && net == nil {
-		p.Failf(kw, "a source belongs inside a network block (network NAME reference NODE … end)")
-		return p.Err()
-	}
-	r, err := s.eval(p, e)
+	el, err := s.readElement(p, net)
 	if err != nil {
 		return err
 	}
-	pos, end, col := e.Span()
+	raw, notes, err := s.elementRaw(p, el)
+	if err != nil {
+		return err
+	}
+	pos, end, col := el.e.Span()
 	n := utf8.RuneCountInString(p.Source()[pos:end])
-	if q, ok := calc.AsUnit(e, r.Value, want[kind], calc.KindPlain); ok {
-		// a number scaled by a prefix alone takes the element's unit
-		r.Value = q
-		r.Notes = append(r.Notes, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(kind.String()), kind))
-		s.since = max(s.since, 2)
-	}
-	if r.Value.Dim != want[kind] {
-		return lineErr(s.line, col, n, "%s %s takes a value in %s, got %s%s", article(kind.String()), kind, calc.UnitSymbol(want[kind], 0, false), calc.DimName(r.Value.Dim, false), metreHint(r.Value, want[kind]))
-	}
-	if (kind == reduce.Resistor || kind == reduce.Inductor || kind == reduce.Capacitor) && !r.Value.IsReal() {
-		return lineErr(s.line, col, n, "%s %s takes a real value; use impedance for a complex one", article(kind.String()), kind)
-	}
-	el := &element{kind: kind, raw: r.Value, from: from, to: to}
+	elem := &element{kind: el.kind, raw: raw, from: el.from, to: el.to}
 	if net != nil {
-		el.net = net.name
+		elem.net = net.name
 		if lim := s.limits.Elements; lim > 0 && len(net.elems) >= lim {
-			p.Failf(nameTok, "network %s has %d elements, the most allowed here", net.name, lim)
+			p.Failf(el.name, "network %s has %d elements, the most allowed here", net.name, lim)
 			return p.Err()
 		}
 	}
-	v, err2 := s.elementValue(el)
+	v, err2 := s.elementValue(elem)
 	if err2 != nil {
 		return lineErr(s.line, col, n, "%v", err2)
 	}
-	if old, ok := s.byName[nameTok.Text]; ok {
+	if old, ok := s.byName[el.name.Text]; ok {
 		if old.elem == nil || net != nil {
-			p.Failf(nameTok, "%s is already defined (line %d)", nameTok.Text, old.line)
+			p.Failf(el.name, "%s is already defined (line %d)", el.name.Text, old.line)
 			return p.Err()
 		}
 	}
-	d := &def{name: nameTok.Text, src: p.Source(), line: s.line, value: v, elem: el, deps: map[string]bool{}}
-	if kind == reduce.Inductor || kind == reduce.Capacitor {
+	d := &def{name: el.name.Text, src: p.Source(), line: s.line, value: v, elem: elem, deps: map[string]bool{}}
+	if el.kind == reduce.Inductor || el.kind == reduce.Capacitor {
 		d.deps["f"] = true
 	}
 	_, existed := s.byName[d.name]
 	if err := s.setValue(d); err != nil {
-		return lineErr(s.line, nameTok.Col, 1, "%v", err)
+		return lineErr(s.line, el.name.Col, 1, "%v", err)
 	}
-	st := calc.Step{Kind: "element", Source: p.Source(), Rule: kind.String(), Notes: r.Notes}
-	switch kind {
-	case reduce.Inductor:
-		st.Formula = "Z = jωL, ω = 2π·f"
-	case reduce.Capacitor:
-		st.Formula = "Z = 1/(jωC) = −j/(ωC), ω = 2π·f"
-	case reduce.Resistor:
-		st.Formula = "Z = R"
-	}
-	if kind == reduce.Inductor || kind == reduce.Capacitor {
-		st.Inputs = []calc.Operand{{Name: "value", Value: r.Value}, {Name: "f", Value: calc.Real(s.ctx.Freq, calc.DimFrequency)}}
-	}
-	st.Results = []calc.Operand{{Name: d.name, Value: v}}
-	s.record(st)
+	s.record(s.elementStep(p, el.kind, d.name, raw, v, notes))
 	if net != nil {
 		net.elems = append(net.elems, d.name)
 	}
@@ -802,6 +771,105 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 		}
 	}
 	return nil
+}
+
+// readElement reads an element statement to the end of the line and
+// checks that it stands where it may: nodes and sources inside a network
+// block only, and no element there without its nodes.
+func (s *Sheet) readElement(p *calc.Parser, net *network) (elementLine, error) {
+	el := elementLine{kw: p.Next()}
+	kind, ok := elementKind(el.kw.Text)
+	if !ok {
+		p.Failf(el.kw, "%q does not start an element", el.kw.Text)
+		return el, p.Err()
+	}
+	el.kind = kind
+	if el.kind.IsSource() {
+		p.Next() // source
+	}
+	el.name = p.Next()
+	if !s.validName(p, el.name) {
+		return el, p.Err()
+	}
+	if !p.IsOp("=") {
+		return el, perr(p, "expected '=' after the element name %s", el.name.Text)
+	}
+	p.Next()
+	if p.Peek().Tok == calc.TokEOF {
+		return el, perr(p, "%s %s needs a value", el.kind, el.name.Text)
+	}
+	el.e = p.Expr()
+	if p.Err() == nil && p.IsWord("from") {
+		p.Next()
+		el.fromTok = p.Peek()
+		el.from = nodeName(p)
+		if !expectWord(p, "to", el.kind.String()+" "+el.name.Text) {
+			return el, p.Err()
+		}
+		el.to = nodeName(p)
+	}
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return el, err
+	}
+	if net == nil && el.from != "" {
+		p.Failf(el.fromTok, "nodes (from … to …) belong inside a network block: start one with network NAME reference NODE")
+		return el, p.Err()
+	}
+	if net != nil && el.from == "" {
+		p.FailAt(p.EndCol(), 1, "an element inside a network joins two nodes: add from NODE to NODE")
+		return el, p.Err()
+	}
+	if el.kind.IsSource() && net == nil {
+		p.Failf(el.kw, "a source belongs inside a network block (network NAME reference NODE … end)")
+		return el, p.Err()
+	}
+	return el, nil
+}
+
+// elementRaw evaluates an element's component value and checks it fits
+// the kind. A number scaled by a prefix alone (2.2 m) takes the
+// element's unit, with a note saying so; a resistor, inductor or
+// capacitor takes a real value, a complex one being an impedance.
+func (s *Sheet) elementRaw(p *calc.Parser, el elementLine) (calc.Quantity, []string, error) {
+	r, err := s.eval(p, el.e)
+	if err != nil {
+		return calc.Quantity{}, nil, err
+	}
+	kind, want := el.kind, elementDim(el.kind)
+	pos, end, col := el.e.Span()
+	n := utf8.RuneCountInString(p.Source()[pos:end])
+	if q, ok := calc.AsUnit(el.e, r.Value, want, calc.KindPlain); ok {
+		r.Value = q
+		r.Notes = append(r.Notes, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(kind.String()), kind))
+		s.since = max(s.since, 2)
+	}
+	if r.Value.Dim != want {
+		return calc.Quantity{}, nil, lineErr(s.line, col, n, "%s %s takes a value in %s, got %s%s", article(kind.String()), kind, calc.UnitSymbol(want, 0, false), calc.DimName(r.Value.Dim, false), metreHint(r.Value, want))
+	}
+	if (kind == reduce.Resistor || kind == reduce.Inductor || kind == reduce.Capacitor) && !r.Value.IsReal() {
+		return calc.Quantity{}, nil, lineErr(s.line, col, n, "%s %s takes a real value; use impedance for a complex one", article(kind.String()), kind)
+	}
+	return r.Value, r.Notes, nil
+}
+
+// elementStep is the step of an element definition: for an inductor or a
+// capacitor, the formula and the frequency its impedance was taken at.
+func (s *Sheet) elementStep(p *calc.Parser, kind reduce.ElementKind, name string, raw, v calc.Quantity, notes []string) calc.Step {
+	st := calc.Step{Kind: "element", Source: p.Source(), Rule: kind.String(), Notes: notes}
+	switch kind {
+	case reduce.Inductor:
+		st.Formula = "Z = jωL, ω = 2π·f"
+	case reduce.Capacitor:
+		st.Formula = "Z = 1/(jωC) = −j/(ωC), ω = 2π·f"
+	case reduce.Resistor:
+		st.Formula = "Z = R"
+	}
+	if kind == reduce.Inductor || kind == reduce.Capacitor {
+		st.Inputs = []calc.Operand{{Name: "value", Value: raw}, {Name: "f", Value: calc.Real(s.ctx.Freq, calc.DimFrequency)}}
+	}
+	st.Results = []calc.Operand{{Name: name, Value: v}}
+	return st
 }
 
 // reevaluate re-evaluates what depends on the changed names and records
