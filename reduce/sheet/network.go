@@ -421,43 +421,121 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 	return any, nil
 }
 
+// theveninLine is a thevenin statement as read: the name to define, the
+// network and the two nodes, with their tokens for errors.
+type theveninLine struct {
+	name, netTok, aTok, bTok calc.Item
+	nw                       *network
+	a, b                     string
+}
+
+// stmtThevenin runs: thevenin NAME = NETWORK between NODE and NODE. NAME
+// is the open-circuit voltage, with NAME.vth, NAME.zth and NAME.in; a
+// port with an ideal current source across it has only the Norton form,
+// NAME being I_N with NAME.in and NAME.yn. Either follows the network
+// when its values change.
 func (s *Sheet) stmtThevenin(p *calc.Parser) error {
-	p.Next()
-	nameTok := p.Next()
-	if !s.validName(p, nameTok) {
-		return p.Err()
-	}
-	if !p.IsOp("=") {
-		return perr(p, "expected '=': thevenin NAME = NETWORK between NODE and NODE")
-	}
-	p.Next()
-	netTok := p.Next()
-	nw, ok := s.nets[netTok.Text]
-	if !ok {
-		p.Failf(netTok, "no network named %q", netTok.Text)
-		return p.Err()
-	}
-	if !expectWord(p, "between", "thevenin") {
-		return p.Err()
-	}
-	aTok := p.Peek()
-	a := nodeName(p)
-	if !expectWord(p, "and", "thevenin") {
-		return p.Err()
-	}
-	bTok := p.Peek()
-	b := nodeName(p)
-	p.ExpectEnd()
-	if err := p.Err(); err != nil {
+	tl, err := s.readThevenin(p)
+	if err != nil {
 		return err
 	}
+	net, err := s.theveninNet(p, tl)
+	if err != nil {
+		return err
+	}
+	vth, zth, steps, err := nodal.Thevenin(net, tl.a, tl.b, s.ctx.Basis)
+	deps := map[string]bool{"f": true, "net:" + tl.nw.name: true}
+	for k := range tl.nw.deps {
+		deps[k] = true
+	}
+	if err != nil {
+		return s.defineNorton(p, tl, net, deps, err)
+	}
+	s.recordPart(p.Source(), steps)
+	nw, a, b, name := tl.nw, tl.a, tl.b, tl.name.Text
+	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(vth, calc.DimVoltage), deps: deps}
+	d.recalc = func() (calc.Quantity, []calc.Operand, error) {
+		net, err := s.build(nw)
+		if err != nil {
+			return calc.Quantity{}, nil, err
+		}
+		vth, zth, _, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
+		return calc.Q(vth, calc.DimVoltage), theveninExtras(vth, zth), err
+	}
+	if e := s.setValue(d); e != nil {
+		return lineErr(s.line, tl.name.Col, 1, "%v", e)
+	}
+	st := calc.Step{Kind: "thevenin", Source: p.Source(), Rule: "Thevenin equivalent of " + nw.name + " between " + a + " and " + b,
+		Formula: "V_th = V(" + a + ") − V(" + b + ") open-circuit; Z_th with sources set to zero"}
+	if zth != 0 {
+		st.Formula += "; I_N = V_th/Z_th"
+	} else {
+		st.Notes = append(st.Notes, "Z_th = 0: an ideal voltage source between these nodes has no Norton form")
+	}
+	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), theveninExtras(vth, zth))...)
+	s.record(st)
+	return nil
+}
+
+// theveninExtras are the NAME.key results of a Thevenin equivalent: I_N
+// only where Z_th is not zero, an ideal voltage source having no Norton
+// form.
+func theveninExtras(vth, zth complex128) []calc.Operand {
+	extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
+	if zth != 0 {
+		extra = append(extra, calc.Operand{Name: "in", Value: calc.Q(vth/zth, calc.DimCurrent)})
+	}
+	return extra
+}
+
+// readThevenin reads a thevenin statement to the end of the line.
+func (s *Sheet) readThevenin(p *calc.Parser) (theveninLine, error) {
+	var tl theveninLine
+	p.Next()
+	tl.name = p.Next()
+	if !s.validName(p, tl.name) {
+		return tl, p.Err()
+	}
+	if !p.IsOp("=") {
+		return tl, perr(p, "expected '=': thevenin NAME = NETWORK between NODE and NODE")
+	}
+	p.Next()
+	tl.netTok = p.Next()
+	nw, ok := s.nets[tl.netTok.Text]
+	if !ok {
+		p.Failf(tl.netTok, "no network named %q", tl.netTok.Text)
+		return tl, p.Err()
+	}
+	tl.nw = nw
+	if !expectWord(p, "between", "thevenin") {
+		return tl, p.Err()
+	}
+	tl.aTok = p.Peek()
+	tl.a = nodeName(p)
+	if !expectWord(p, "and", "thevenin") {
+		return tl, p.Err()
+	}
+	tl.bTok = p.Peek()
+	tl.b = nodeName(p)
+	p.ExpectEnd()
+	if err := p.Err(); err != nil {
+		return tl, err
+	}
+	return tl, nil
+}
+
+// theveninNet builds the network a thevenin statement names and checks
+// its two nodes: a compact network has no named nodes, and an error for a
+// node not there lists those that are.
+func (s *Sheet) theveninNet(p *calc.Parser, tl theveninLine) (*reduce.Network, error) {
+	nw := tl.nw
 	net, err := s.build(nw)
 	if err != nil {
-		return lineErr(s.line, netTok.Col, len(netTok.Text), "%v", err)
+		return nil, lineErr(s.line, tl.netTok.Col, len(tl.netTok.Text), "%v", err)
 	}
 	if nw.compact != nil {
-		p.Failf(netTok, "%s is a compact series-parallel network and has no named nodes: write it as a node block (network %s reference NODE … end) to take a Thevenin equivalent", nw.name, nw.name)
-		return p.Err()
+		p.Failf(tl.netTok, "%s is a compact series-parallel network and has no named nodes: write it as a node block (network %s reference NODE … end) to take a Thevenin equivalent", nw.name, nw.name)
+		return nil, p.Err()
 	}
 	known := map[string]bool{}
 	var nodes []string
@@ -469,74 +547,43 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 			}
 		}
 	}
-	for _, t := range []calc.Item{aTok, bTok} {
+	for _, t := range []calc.Item{tl.aTok, tl.bTok} {
 		if !known[t.Text] {
 			p.Failf(t, "network %s has no node %q (its nodes: %s)", nw.name, t.Text, strings.Join(nodes, ", "))
-			return p.Err()
+			return nil, p.Err()
 		}
 	}
-	if a == b {
-		p.Failf(bTok, "the two nodes must differ")
-		return p.Err()
+	if tl.a == tl.b {
+		p.Failf(tl.bTok, "the two nodes must differ")
+		return nil, p.Err()
 	}
-	vth, zth, steps, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
-	name := nameTok.Text
-	deps := map[string]bool{"f": true, "net:" + nw.name: true}
-	for k := range nw.deps {
-		deps[k] = true
+	return net, nil
+}
+
+// defineNorton defines the Norton equivalent where the Thevenin one does
+// not exist (thErr says why): an ideal current source across the port has
+// no finite Z_th, but its I_N and Y_N are defined.
+func (s *Sheet) defineNorton(p *calc.Parser, tl theveninLine, net *reduce.Network, deps map[string]bool, thErr error) error {
+	nw, a, b, name := tl.nw, tl.a, tl.b, tl.name.Text
+	in, yn, nsteps, nerr := nodal.Norton(net, a, b, s.ctx.Basis)
+	if nerr != nil {
+		return lineErr(s.line, 1, 8, "%v", thErr)
 	}
-	if err != nil {
-		// an ideal current source has only the Norton form
-		in, yn, nsteps, nerr := nodal.Norton(net, a, b, s.ctx.Basis)
-		if nerr != nil {
-			return lineErr(s.line, 1, 8, "%v", err)
-		}
-		s.recordPart(p.Source(), nsteps)
-		d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: deps}
-		d.recalc = func() (calc.Quantity, []calc.Operand, error) {
-			net, err := s.build(nw)
-			if err != nil {
-				return calc.Quantity{}, nil, err
-			}
-			in, yn, _, err := nodal.Norton(net, a, b, s.ctx.Basis)
-			return calc.Q(in, calc.DimCurrent), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}}, err
-		}
-		if e := s.setValue(d); e != nil {
-			return lineErr(s.line, nameTok.Col, 1, "%v", e)
-		}
-		ex := s.setExtras(name, p.Source(), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}})
-		s.record(calc.Step{Kind: "norton", Source: p.Source(), Rule: "Norton equivalent only: " + err.Error(), Results: ex})
-		return nil
-	}
-	s.recordPart(p.Source(), steps)
-	extras := func(vth, zth complex128) []calc.Operand {
-		extra := []calc.Operand{{Name: "vth", Value: calc.Q(vth, calc.DimVoltage)}, {Name: "zth", Value: calc.Q(zth, calc.DimImpedance)}}
-		if zth != 0 {
-			extra = append(extra, calc.Operand{Name: "in", Value: calc.Q(vth/zth, calc.DimCurrent)})
-		}
-		return extra
-	}
-	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(vth, calc.DimVoltage), deps: deps}
+	s.recordPart(p.Source(), nsteps)
+	d := &def{name: name, src: p.Source(), line: s.line, value: calc.Q(in, calc.DimCurrent), deps: deps}
 	d.recalc = func() (calc.Quantity, []calc.Operand, error) {
 		net, err := s.build(nw)
 		if err != nil {
 			return calc.Quantity{}, nil, err
 		}
-		vth, zth, _, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
-		return calc.Q(vth, calc.DimVoltage), extras(vth, zth), err
+		in, yn, _, err := nodal.Norton(net, a, b, s.ctx.Basis)
+		return calc.Q(in, calc.DimCurrent), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}}, err
 	}
 	if e := s.setValue(d); e != nil {
-		return lineErr(s.line, nameTok.Col, 1, "%v", e)
+		return lineErr(s.line, tl.name.Col, 1, "%v", e)
 	}
-	st := calc.Step{Kind: "thevenin", Source: p.Source(), Rule: "Thevenin equivalent of " + nw.name + " between " + a + " and " + b,
-		Formula: "V_th = V(" + a + ") − V(" + b + ") open-circuit; Z_th with sources set to zero"}
-	if zth != 0 {
-		st.Formula += "; I_N = V_th/Z_th"
-	} else {
-		st.Notes = append(st.Notes, "Z_th = 0: an ideal voltage source between these nodes has no Norton form")
-	}
-	st.Results = append([]calc.Operand{{Name: name, Value: d.value}}, s.setExtras(name, p.Source(), extras(vth, zth))...)
-	s.record(st)
+	ex := s.setExtras(name, p.Source(), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}})
+	s.record(calc.Step{Kind: "norton", Source: p.Source(), Rule: "Norton equivalent only: " + thErr.Error(), Results: ex})
 	return nil
 }
 

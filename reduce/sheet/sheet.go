@@ -316,9 +316,10 @@ var readOnlyNames = map[string]string{
 }
 
 // Reserved reports why name cannot name a quantity, or "" when it can.
-// Constants, functions, statement keywords, f and w/ω are reserved. Unit
-// symbols are not: a unit only ever follows a number, so "10 S" is ten
-// siemens whatever S names, and S = 230 V * 6.2 A reads as written.
+// Constants, functions, statement keywords (from the keyword table),
+// spectra, f and w/ω are reserved. Unit symbols are not: a unit only ever
+// follows a number, so "10 S" is ten siemens whatever S names, and
+// S = 230 V * 6.2 A reads as written.
 func (s *Sheet) Reserved(name string) string {
 	if why, ok := readOnlyNames[name]; ok {
 		return why
@@ -495,92 +496,49 @@ func (s *Sheet) cycle(name string, deps map[string]bool) string {
 	return ""
 }
 
+// propagation is one run of propagate. when[name] is the tick at which a
+// name changed (the inputs at tick 0) and evaluated[d] the tick of d's
+// last evaluation in this run: a definition is due when a name it reads
+// changed after that.
+type propagation struct {
+	changed   map[string]bool
+	when      map[string]int
+	evaluated map[*def]int
+	tick      int
+	hits      int        // definitions whose value changed
+	step      *calc.Step // lists each change, old and new
+}
+
 // propagate re-evaluates every definition that depends on a changed name
-// (or on the frequency, when freq is set), in definition order, repeating
-// until nothing more changes, and re-solves networks that use them. It
-// returns one step listing what changed.
+// (a new frequency changes the names f, w and ω), in definition order,
+// repeating until nothing more changes, and re-solves networks that use
+// them. It returns one step listing what changed, or nil when nothing did
+// or the worksheet is a quiet working copy; reason heads that step.
 //
 // A definition is evaluated again only when a name it reads changed after
 // its own last evaluation: definitions stand in dependency order, so one
 // pass usually settles them, and a later pass touches only what reads a
 // re-solved network.
 func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
-	step := &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"}
-	// when[name] is the tick at which a name changed; evaluated[d] the
-	// tick of d's last evaluation here. The inputs changed at tick 0.
-	tick := 1
-	when := make(map[string]int, len(changed))
-	for k := range changed {
-		when[k] = 0
+	pr := &propagation{
+		changed:   changed,
+		when:      make(map[string]int, len(changed)),
+		evaluated: map[*def]int{},
+		tick:      1,
+		step:      &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"},
 	}
-	evaluated := map[*def]int{}
-	hits := 0
+	for k := range changed {
+		pr.when[k] = 0
+	}
 	for pass := 0; pass <= len(s.defs)+1; pass++ {
 		if err := s.stopped(); err != nil {
 			return nil, err
 		}
-		more := false
-		for _, d := range s.defs {
-			if d.expr == nil && d.elem == nil && d.recalc == nil {
-				continue
-			}
-			last, seen := evaluated[d]
-			if !seen {
-				last = -1
-			}
-			hit := false
-			for k := range d.deps {
-				if t, ok := when[k]; ok && t > last {
-					hit = true
-					break
-				}
-			}
-			if d.elem != nil && d.elem.kind != reduce.Resistor {
-				if t, ok := when["f"]; ok && t > last {
-					hit = true
-				}
-			}
-			if !hit || changed[d.name] && d.owner == "" && pass == 0 && d.expr == nil {
-				continue
-			}
-			evaluated[d] = tick
-			tick++
-			nv, extra, err := s.reeval(d)
-			if err != nil {
-				if s.lenient != nil {
-					s.lenient[d.name] = err
-					continue
-				}
-				return nil, fmt.Errorf("while re-evaluating %s (line %d): %w", d.name, d.line, err)
-			}
-			note := func(d *def, nv calc.Quantity) {
-				old := d.value
-				if nv.V == old.V && nv.Dim == old.Dim {
-					return
-				}
-				d.value = nv
-				when[d.name] = tick
-				tick++
-				more = true
-				if !changed[d.name] {
-					changed[d.name] = true
-					hits++
-					if !s.quiet {
-						step.Inputs = append(step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
-						step.Results = append(step.Results, calc.Operand{Name: d.name, Value: nv})
-					}
-				}
-			}
-			note(d, nv)
-			// the NAME.key results of a function follow their owner, and
-			// what reads them follows in turn
-			for _, x := range extra {
-				if e, ok := s.byName[d.name+"."+x.Name]; ok {
-					note(e, x.Value)
-				}
-			}
+		more, err := s.propagatePass(pr, pass)
+		if err != nil {
+			return nil, err
 		}
-		nets, err := s.resolveNets(changed, when, &tick)
+		nets, err := s.resolveNets(changed, pr.when, &pr.tick)
 		if err != nil {
 			return nil, err
 		}
@@ -591,10 +549,93 @@ func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, e
 			break
 		}
 	}
-	if hits == 0 || s.quiet {
+	if pr.hits == 0 || s.quiet {
 		return nil, nil
 	}
-	return step, nil
+	return pr.step, nil
+}
+
+// propagatePass evaluates again, in definition order, each definition due
+// in this pass, and reports whether any value changed. In a lenient run a
+// definition that fails is set aside with its error instead of failing
+// the whole.
+func (s *Sheet) propagatePass(pr *propagation, pass int) (bool, error) {
+	more := false
+	for _, d := range s.defs {
+		if !pr.due(d, pass) {
+			continue
+		}
+		pr.evaluated[d] = pr.tick
+		pr.tick++
+		nv, extra, err := s.reeval(d)
+		if err != nil {
+			if s.lenient != nil {
+				s.lenient[d.name] = err
+				continue
+			}
+			return false, fmt.Errorf("while re-evaluating %s (line %d): %w", d.name, d.line, err)
+		}
+		if s.noteChange(pr, d, nv) {
+			more = true
+		}
+		// the NAME.key results of a function follow their owner, and
+		// what reads them follows in turn
+		for _, x := range extra {
+			if e, ok := s.byName[d.name+"."+x.Name]; ok && s.noteChange(pr, e, x.Value) {
+				more = true
+			}
+		}
+	}
+	return more, nil
+}
+
+// due reports whether d must be evaluated again: it is computed (not a
+// value set from outside), and a name it reads, or for a reactive element
+// the frequency, changed since its last evaluation. A changed input is
+// not evaluated over in the first pass, which would undo the change.
+func (pr *propagation) due(d *def, pass int) bool {
+	if d.expr == nil && d.elem == nil && d.recalc == nil {
+		return false
+	}
+	last, seen := pr.evaluated[d]
+	if !seen {
+		last = -1
+	}
+	hit := false
+	for k := range d.deps {
+		if t, ok := pr.when[k]; ok && t > last {
+			hit = true
+			break
+		}
+	}
+	if d.elem != nil && d.elem.kind != reduce.Resistor {
+		if t, ok := pr.when["f"]; ok && t > last {
+			hit = true
+		}
+	}
+	return hit && !(pr.changed[d.name] && d.owner == "" && pass == 0 && d.expr == nil)
+}
+
+// noteChange stores a re-evaluated value and, when it differs, marks the
+// name changed now and lists it on the step (once, with the value before).
+// It reports whether the value changed.
+func (s *Sheet) noteChange(pr *propagation, d *def, nv calc.Quantity) bool {
+	old := d.value
+	if nv.V == old.V && nv.Dim == old.Dim {
+		return false
+	}
+	d.value = nv
+	pr.when[d.name] = pr.tick
+	pr.tick++
+	if !pr.changed[d.name] {
+		pr.changed[d.name] = true
+		pr.hits++
+		if !s.quiet {
+			pr.step.Inputs = append(pr.step.Inputs, calc.Operand{Name: d.name + " (before)", Value: old})
+			pr.step.Results = append(pr.step.Results, calc.Operand{Name: d.name, Value: nv})
+		}
+	}
+	return true
 }
 
 // reeval computes a definition's value again from its expression or
