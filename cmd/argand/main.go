@@ -11,8 +11,8 @@
 //	argand --version
 //
 // Flags: --json, --digits N, --ascii, --polar, --plain, --new,
-// --decimal-comma. Exit codes: 0 ok, 1 a check failed, 2 bad input or
-// usage, 130 interrupted (ctrl+c).
+// --decimal-comma, --help (or -h). Exit codes: 0 ok, 1 a check failed,
+// 2 bad input or usage, 130 interrupted (ctrl+c).
 package main
 
 import (

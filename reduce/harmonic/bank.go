@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+
+	"argand/calc"
 )
 
 // Detuned is a capacitor bank with a series (detuning) reactor, sized for
@@ -53,7 +55,7 @@ func Detune(q, v, p, f, vr float64, three bool) (Detuned, error) {
 	xeff := v / q * v
 	d.XC = xeff / (1 - p)
 	d.XL = p * d.XC
-	w := 2 * math.Pi * f
+	w := calc.Context{Freq: f}.Omega()
 	d.C = 1 / (w * d.XC)
 	d.L = d.XL / w
 	d.UC = v / (1 - p)

@@ -40,6 +40,8 @@ var keywords []keyword
 
 func init() { keywords = keywordTable() }
 
+// keywordTable is the table itself, one entry a statement; the length
+// bound on functions does not apply to it.
 func keywordTable() []keyword {
 	return []keyword{
 		{word: "frequency", where: outside, run: (*Sheet).stmtFrequency,

@@ -99,6 +99,9 @@ func (s *Sheet) Network(name string) (*reduce.Network, error) {
 	return s.build(nw)
 }
 
+// stmtNetwork runs: network NAME [reference NODE], which opens a node
+// block (its elements follow, one a line, until end), or network NAME =
+// EXPR fed by SOURCE, a compact series-parallel network on one line.
 func (s *Sheet) stmtNetwork(p *calc.Parser) error {
 	p.Next()
 	nameTok := p.Next()
@@ -145,6 +148,10 @@ func (s *Sheet) closeBlock(p *calc.Parser) error {
 	return s.closeNetwork(p)
 }
 
+// closeNetwork solves the open block and keeps it as a network. Without a
+// reference written, a node called gnd, 0, ground, N or n is taken, as
+// schematics commonly name it. A block that fails to solve is not kept,
+// nor are its elements, so the worksheet stays as before the block.
 func (s *Sheet) closeNetwork(p *calc.Parser) error {
 	nw := s.open
 	if len(nw.elems) == 0 {
@@ -188,6 +195,8 @@ func (s *Sheet) closeNetwork(p *calc.Parser) error {
 	return nil
 }
 
+// dropElements removes the named elements, those of a block that was not
+// kept.
 func (s *Sheet) dropElements(names []string) {
 	drop := map[string]bool{}
 	for _, n := range names {
@@ -326,6 +335,9 @@ func (s *Sheet) solveAgain(nw *network) error {
 	return nil
 }
 
+// defineSolution defines a solved network's results as names
+// (NET.E.v, NET.E.i, NET.E.s for each element, and the node voltages), so
+// that expressions can read them.
 func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
 	var names []string
 	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }

@@ -304,6 +304,8 @@ func (s *Sheet) Names() []string {
 	return out
 }
 
+// evaluator returns an evaluator over the worksheet's names and
+// functions, its errors located in src at line.
 func (s *Sheet) evaluator(src string, line int) *calc.Evaluator {
 	return &calc.Evaluator{Env: s, Src: src, Line: line}
 }

@@ -156,6 +156,9 @@ func (s *Sheet) Validate(src string) *calc.Error {
 	return nil
 }
 
+// execErr runs a statement and returns its error as a located
+// *calc.Error, for Validate, whose callers place errors by line and
+// column.
 func (s *Sheet) execErr(src string, n int) *calc.Error {
 	err := s.exec(src, n)
 	if le, ok := err.(*calc.Error); ok {
@@ -218,6 +221,10 @@ func (s *Sheet) Clone() *Sheet {
 	return &c
 }
 
+// exec runs one statement as line n. The line is parsed once: one parser
+// reads it, the keyword table (lookupKeyword) tells a statement from an
+// expression by its first tokens, and the statement reads on from there.
+// Inside a network block only the table's block lines are allowed.
 func (s *Sheet) exec(src string, n int) error {
 	if len(src) > calc.MaxLine {
 		return lineErr(n, 1, 1, "line too long: %d bytes (the limit is %d)", len(src), calc.MaxLine)
@@ -295,6 +302,8 @@ func word(p *calc.Parser, context string, choices ...string) (string, bool) {
 	return "", false
 }
 
+// eval evaluates an expression of the statement being run, noting the
+// newest language version its reading used.
 func (s *Sheet) eval(p *calc.Parser, e calc.Expr) (calc.Result, error) {
 	ev := s.evaluator(p.Source(), s.line)
 	r, err := ev.Eval(e)
@@ -305,8 +314,11 @@ func (s *Sheet) eval(p *calc.Parser, e calc.Expr) (calc.Result, error) {
 	return r, nil
 }
 
+// stmtFrequency runs: frequency F, in Hz or rad/s. Every value that
+// depends on the frequency (a reactance, a network) is evaluated again at
+// once, so the worksheet never shows values of two frequencies.
 func (s *Sheet) stmtFrequency(p *calc.Parser) error {
-	kw := p.Next()
+	p.Next()
 	if p.Peek().Tok == calc.TokEOF {
 		return perr(p, "frequency needs a value, such as frequency 60 Hz")
 	}
@@ -339,10 +351,9 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 	if hz <= 0 || !finite(hz) {
 		return lineErr(s.line, col, n, "frequency must be greater than 0 (got %s)", s.ctx.Format.Mag(real(q.V), q.Dim, 0))
 	}
-	if !finite(2 * 3.141592653589793 * hz) {
+	if !finite(calc.Context{Freq: hz}.Omega()) {
 		return lineErr(s.line, col, n, "frequency too large: ω = 2π·f would overflow the largest number argand holds, so no reactance could be computed at it")
 	}
-	_ = kw
 	old := s.ctx.Freq
 	s.ctx.Freq = hz
 	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f", Notes: r.Notes,
@@ -376,6 +387,8 @@ func (s *Sheet) setting(p *calc.Parser, choices []string, apply func(w string) c
 	return nil
 }
 
+// stmtBasis runs: basis rms | peak, the basis phasors are read in, which
+// decides the factor ½ in S = ½·V·I*.
 func (s *Sheet) stmtBasis(p *calc.Parser) error {
 	return s.setting(p, []string{"rms", "peak"}, func(w string) calc.Step {
 		if w == "peak" {
@@ -387,6 +400,8 @@ func (s *Sheet) stmtBasis(p *calc.Parser) error {
 	})
 }
 
+// stmtAngles runs: angles deg | rad, the unit angles are shown in and a
+// bare angle is read in.
 func (s *Sheet) stmtAngles(p *calc.Parser) error {
 	return s.setting(p, []string{"deg", "rad", "degrees", "radians"}, func(w string) calc.Step {
 		s.ctx.Format.Radians = w == "rad" || w == "radians"
@@ -397,6 +412,7 @@ func (s *Sheet) stmtAngles(p *calc.Parser) error {
 	})
 }
 
+// stmtDigits runs: digits N, the significant figures shown.
 func (s *Sheet) stmtDigits(p *calc.Parser) error {
 	p.Next()
 	t := p.Peek()
@@ -418,6 +434,8 @@ func (s *Sheet) stmtDigits(p *calc.Parser) error {
 	return nil
 }
 
+// stmtSequence runs: sequence abc | acb, the phase sequence, which
+// decides the sign of the 30° between line and phase voltages.
 func (s *Sheet) stmtSequence(p *calc.Parser) error {
 	return s.setting(p, []string{"abc", "acb"}, func(w string) calc.Step {
 		if w == "acb" {
@@ -483,6 +501,8 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 	}
 }
 
+// depsOf lists the names an expression reads, so that it is evaluated
+// again when one changes; ω and any call read the working frequency f.
 func depsOf(e calc.Expr) map[string]bool {
 	deps := map[string]bool{}
 	calc.Walk(e, func(x calc.Expr) {
@@ -499,6 +519,9 @@ func depsOf(e calc.Expr) map[string]bool {
 	return deps
 }
 
+// stmtAssignOrEval runs a line that is no statement: NAME = EXPR, or an
+// expression alone, which takes a name from its kind (autoName). A name
+// given to an element changes the element's value, its kind kept.
 func (s *Sheet) stmtAssignOrEval(p *calc.Parser) error {
 	src := p.Source()
 	var name string
