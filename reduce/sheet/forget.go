@@ -38,8 +38,9 @@ func (s *Sheet) dependents(name string) []string {
 	return out
 }
 
-// nameTarget reads the name a forget or rename statement acts on.
-func (s *Sheet) nameTarget(p *calc.Parser, verb string) (*def, calc.Item, bool) {
+// nameTarget reads the name a forget or rename statement acts on; verb
+// and done (its past participle) word the errors.
+func (s *Sheet) nameTarget(p *calc.Parser, verb, done string) (*def, calc.Item, bool) {
 	t := p.Next()
 	d, ok := s.byName[t.Text]
 	switch {
@@ -53,7 +54,7 @@ func (s *Sheet) nameTarget(p *calc.Parser, verb string) (*def, calc.Item, bool) 
 		p.Failf(t, "%s is an element of network %s and stays with it", t.Text, d.elem.net)
 	default:
 		if deps := s.dependents(t.Text); len(deps) > 0 {
-			p.Failf(t, "%s cannot be %s: %s depend%s on it", t.Text, map[string]string{"forget": "forgotten", "rename": "renamed"}[verb],
+			p.Failf(t, "%s cannot be %s: %s depend%s on it", t.Text, done,
 				strings.Join(deps, ", "), map[bool]string{true: "s", false: ""}[len(deps) == 1])
 			return nil, t, false
 		}
@@ -69,7 +70,7 @@ func (s *Sheet) stmtForget(p *calc.Parser) error {
 	if t := p.Peek(); t.Tok == calc.TokIdent && s.spectra[t.Text] != nil {
 		return s.forgetSpectrum(p)
 	}
-	d, _, ok := s.nameTarget(p, "forget")
+	d, _, ok := s.nameTarget(p, "forget", "forgotten")
 	if !ok {
 		return p.Err()
 	}
@@ -104,7 +105,7 @@ func (s *Sheet) forgetSpectrum(p *calc.Parser) error {
 // renamed, since their statements name it.
 func (s *Sheet) stmtRename(p *calc.Parser) error {
 	p.Next()
-	d, _, ok := s.nameTarget(p, "rename")
+	d, _, ok := s.nameTarget(p, "rename", "renamed")
 	if !ok {
 		return p.Err()
 	}

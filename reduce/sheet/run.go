@@ -189,7 +189,13 @@ func (ru *runner) run(line string) bool {
 	s := ru.s
 	ru.sum.Lines++
 	ru.lines = append(ru.lines, line)
-	defines, reads := namesOf(line)
+	// the names a line defines and reads matter only once a line has
+	// failed: until then a line is read once, by the statement's parser
+	var defines, reads []string
+	named := len(ru.failed) > 0
+	if named {
+		defines, reads = namesOf(line)
+	}
 	dep := lost{}
 	for _, nm := range reads {
 		if i := strings.IndexByte(nm, '.'); i > 0 {
@@ -230,6 +236,9 @@ func (ru *runner) run(line string) bool {
 		ru.report(Problem{Err: le, Src: src, Root: s.line})
 		f := strings.Fields(line)
 		ru.endFailed = len(f) > 0 && f[0] == "end"
+		if !named {
+			defines, _ = namesOf(line)
+		}
 		for _, nm := range defines {
 			ru.failed[nm] = lost{s.line, s.line}
 		}
@@ -263,7 +272,8 @@ func (ru *runner) finish() Summary {
 
 // namesOf returns the names a line would define (the name before its
 // first "=", or the name after "network") and the names it reads (every
-// other word). It looks at tokens only, so it works on a line that fails.
+// other word). It looks at tokens only, so it works on a line that fails;
+// the runner asks only for a line that failed or follows a failure.
 func namesOf(line string) (defines, reads []string) {
 	if i := strings.IndexByte(line, '#'); i >= 0 {
 		line = line[:i]
