@@ -17,7 +17,7 @@ func (c *Context) BareAngle(x float64) float64 {
 	if c.Format.Radians {
 		return x
 	}
-	return x * 3.141592653589793 / 180
+	return x * math.Pi / 180
 }
 
 // Omega returns the working angular frequency ω = 2π·f in rad/s. It is

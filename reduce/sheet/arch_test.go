@@ -76,7 +76,8 @@ func TestFunctionsShort(t *testing.T) {
 // ω = 2π·f is worked out in one place, calc.Context.Omega, so that every
 // reactance and every ω shown agree to the last bit. A product of 2, π and
 // anything else anywhere else in calc or reduce fails here (2·π/n, an
-// angle step, is no frequency and passes).
+// angle step, is no frequency and passes), and so does π written out as
+// digits.
 func TestOmegaOnlyThroughContext(t *testing.T) {
 	files := 0
 	for _, dir := range []string{"../../calc", "../../reduce"} {
@@ -94,6 +95,12 @@ func TestOmegaOnlyThroughContext(t *testing.T) {
 				for _, at := range twoPiProducts(fd.Body) {
 					t.Errorf("%s: %s works out 2π times a value: take ω from calc.Context.Omega", fset.Position(at), fd.Name.Name)
 				}
+				ast.Inspect(fd.Body, func(n ast.Node) bool {
+					if l, ok := n.(*ast.BasicLit); ok && isPi(l) {
+						t.Errorf("%s: %s writes π as %s: use math.Pi", fset.Position(l.Pos()), fd.Name.Name, l.Value)
+					}
+					return true
+				})
 			}
 		}
 	}
