@@ -125,6 +125,8 @@ type Sheet struct {
 	// startComma is the decimal marker the first statement was read with:
 	// saved worksheets state it after their language line.
 	startComma bool
+	// title is the job's title, from the title statement.
+	title string
 }
 
 // New returns an empty worksheet at the default settings with every
