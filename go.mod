@@ -13,6 +13,7 @@ require (
 	github.com/mattn/go-runewidth v0.0.19
 	github.com/muesli/termenv v0.16.0
 	golang.org/x/crypto v0.59.0
+	golang.org/x/net v0.63.0
 	gonum.org/v1/gonum v0.17.0
 	pgregory.net/rapid v1.3.0
 )

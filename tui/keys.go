@@ -152,17 +152,17 @@ func (k NetKeys) FullHelp() [][]key.Binding {
 
 // ExportKeys choose what to export.
 type ExportKeys struct {
-	Markdown, Text, Sheet, Cancel key.Binding
+	Markdown, Text, Sheet, HTML, Cancel key.Binding
 }
 
 // ShortHelp implements help.KeyMap.
 func (k ExportKeys) ShortHelp() []key.Binding {
-	return []key.Binding{brief(k.Markdown, "Markdown"), brief(k.Text, "text"), brief(k.Sheet, "worksheet"), brief(k.Cancel, "cancel")}
+	return []key.Binding{brief(k.Markdown, "Markdown"), brief(k.Text, "text"), brief(k.Sheet, "worksheet"), brief(k.HTML, "record"), brief(k.Cancel, "cancel")}
 }
 
 // FullHelp implements help.KeyMap.
 func (k ExportKeys) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{k.Markdown, k.Text, k.Sheet, k.Cancel}}
+	return [][]key.Binding{{k.Markdown, k.Text, k.Sheet, k.HTML, k.Cancel}}
 }
 
 // HelpKeys scroll and close the help screen.
@@ -263,7 +263,7 @@ func DefaultKeyMap() KeyMap {
 			Undo:      kb([]string{"z", "ctrl+z"}, "z", "undo the last change"),
 			Redo:      kb([]string{"Z", "ctrl+y"}, "Z", "redo what was undone"),
 			Networks:  kb([]string{"N"}, "N", "open the newest network: structure, reduction, branch values"),
-			Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text) or save as worksheet"),
+			Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text, HTML record) or save as worksheet"),
 			Clip:      kb([]string{"ctrl+o"}, "ctrl+o", "send the selected value to the terminal clipboard (OSC 52)"),
 			ClipTrail: kb([]string{"ctrl+t"}, "ctrl+t", "send the whole trail to the terminal clipboard (OSC 52)"),
 			TrailBack: kb([]string{"pgup", "["}, "pgup/[", "scroll the trail back"),
@@ -315,6 +315,7 @@ func DefaultKeyMap() KeyMap {
 			Markdown: kb([]string{"m"}, "m", "trail as Markdown file"),
 			Text:     kb([]string{"t"}, "t", "trail as plain text file"),
 			Sheet:    kb([]string{"w"}, "w", "session as a worksheet (argand run replays it)"),
+			HTML:     kb([]string{"h"}, "h", "job record: one HTML file, steps, diagrams, checks and the worksheet"),
 			Cancel:   kb([]string{"esc", "q"}, "esc", "cancel"),
 		},
 		Help: HelpKeys{

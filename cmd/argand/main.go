@@ -7,6 +7,10 @@
 //	argand eval EXPR...    evaluate each argument and print the steps
 //	argand run FILE|-      run a worksheet and print every step
 //	argand help [TOPIC]    print help
+//	argand export --html OUT.html [WORKSHEET|-]
+//	                       write a job record (the saved session by default)
+//	argand export --source RECORD.html
+//	                       print the worksheet a record holds
 //	argand serve [FLAGS]   serve the app over SSH (loopback unless --listen)
 //	argand --version
 //
@@ -46,6 +50,8 @@ type flags struct {
 	version bool
 	help    bool
 	args    []string
+	// export's flags: --html OUT, --source RECORD, --date YYYY-MM-DD
+	export map[string]string
 }
 
 // parse reads flags anywhere before "--"; everything else is an argument.
@@ -88,6 +94,19 @@ func parse(argv []string) (flags, error) {
 			f.version = true
 		case "help":
 			f.help = true
+		case "html", "source", "date":
+			if !hasVal {
+				if i+1 >= len(argv) {
+					return f, fmt.Errorf("--%s needs a value (see argand help)", name)
+				}
+				i++
+				val = argv[i]
+			}
+			if f.export == nil {
+				f.export = map[string]string{}
+			}
+			f.export[name] = val
+			continue
 		case "digits":
 			if !hasVal {
 				if i+1 >= len(argv) {
@@ -173,6 +192,12 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":
 		return cli.Help(f.args[1:], out, errw, f.opt)
+	case "export":
+		return runExport(f, in, out, errw)
+	}
+	if f.export != nil {
+		fmt.Fprintln(errw, "argand: --html, --source and --date belong to argand export (see argand help)")
+		return cli.ExitBadInput
 	}
 	if len(f.args) > 1 {
 		fmt.Fprintf(errw, "argand: unexpected %q (see argand help)\n", f.args[1])

@@ -28,6 +28,11 @@ func (s *Sheet) stmtTitle(p *calc.Parser) error {
 		p.FailAt(kw.Col, utf8.RuneCountInString(src), "a title holds at most %d characters, this one %d", MaxTitle, n)
 		return p.Err()
 	}
+	if calc.Printable(text) != text {
+		// a title is shown on screens and in records as it is written
+		p.FailAt(kw.Col, utf8.RuneCountInString(src), "a title holds no control, invisible or direction-changing character (it shows here as %s)", calc.Printable(text))
+		return p.Err()
+	}
 	s.title = text
 	s.record(calc.Step{Kind: "setting", Source: src, Rule: "job title: " + text})
 	return nil

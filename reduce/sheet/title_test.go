@@ -20,6 +20,8 @@ func TestTitle(t *testing.T) {
 		{[]string{"title # only a comment"}, "", "needs the job's title"},
 		{[]string{long}, "", "at most 200 characters"},
 		{[]string{"title = 3"}, "", "reserved"},
+		{[]string{"title bay\x1b[2J 3"}, "", "no control"},
+		{[]string{"title bay \u202e3"}, "", "no control"},
 		{[]string{"Z = 3+j4 Ω"}, "", ""},
 	}
 	for _, tc := range tests {
