@@ -151,6 +151,10 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		// locale: only an explicit --ascii applies to every session
 		return runServe(f.args[1:], out, errw, f)
 	}
+	if f.export != nil && (len(f.args) == 0 || f.args[0] != "export") {
+		fmt.Fprintln(errw, "argand: --html, --source and --date belong to argand export (see argand help)")
+		return cli.ExitBadInput
+	}
 	if !f.opt.ASCII && !cli.UTF8Locale(os.Getenv) {
 		f.opt.ASCII = true
 	}
@@ -194,10 +198,6 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 		return cli.Help(f.args[1:], out, errw, f.opt)
 	case "export":
 		return runExport(f, in, out, errw)
-	}
-	if f.export != nil {
-		fmt.Fprintln(errw, "argand: --html, --source and --date belong to argand export (see argand help)")
-		return cli.ExitBadInput
 	}
 	if len(f.args) > 1 {
 		fmt.Fprintf(errw, "argand: unexpected %q (see argand help)\n", f.args[1])

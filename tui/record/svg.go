@@ -247,6 +247,9 @@ func (p *page) triangleCaption(name string, P, Q float64) string {
 	case Q == 0:
 		way = "unity"
 	}
+	if P < 0 {
+		way += "; P < 0: active power delivered, by the passive sign convention"
+	}
 	return "Power triangle of " + name + ", drawn from its value: P = " + p.f.Mag(P, calc.DimPower, calc.KindActive) +
 		", Q = " + p.f.Mag(Q, calc.DimPower, calc.KindReactive) + ", |S| = " + p.f.Mag(S, calc.DimPower, calc.KindMagnitude) +
 		", φ = " + p.f.AngleValue(math.Atan2(Q, P)) + ", power factor cos φ = " + f.Rect(calc.Real(pf, calc.Dim{})) + " " + way + "."
