@@ -32,6 +32,15 @@ usage:
   argand help [TOPIC]    topics: language, functions, networks, safety, or a
                          function or statement name (argand help acos)
   argand serve [FLAGS]   serve the app over SSH (127.0.0.1:2222; serve --help)
+  argand export --html OUT.html [--date YYYY-MM-DD] [WORKSHEET]
+                         write a job record: one HTML file, no script, no
+                         outside resources; every step in both forms,
+                         diagrams, checks, cautions and the worksheet itself
+                         (default: the saved session; - for standard input;
+                         the date is today unless given)
+  argand export --source RECORD.html
+                         print the worksheet a record holds (argand run
+                         replays it)
   argand --version
 
 flags:

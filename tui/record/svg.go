@@ -45,8 +45,11 @@ func (p *page) diagrams(n int, s *calc.Step) {
 		svg, caption := p.phasorSVG(arrows)
 		p.figure(n, svg, caption)
 	}
+	drawn := map[complex128]bool{}
 	for _, o := range s.Results {
-		if calc.QuantityName(o.Value) == "complex-power" && cmplx.Abs(o.Value.V) > 0 {
+		// a function's result and its .s extra are one power: one triangle
+		if calc.QuantityName(o.Value) == "complex-power" && cmplx.Abs(o.Value.V) > 0 && !drawn[o.Value.V] {
+			drawn[o.Value.V] = true
 			svg, caption := p.triangleSVG(o)
 			p.figure(n, svg, caption)
 		}
