@@ -66,6 +66,7 @@ func TestControlsOnScreen(t *testing.T) {
 				check("message of a refused change", m.View(), true)
 				check("export as text", m.trailText(), false)
 				check("export as Markdown", m.trailMarkdown(), false)
+				check("export as HTML record", m.recordHTML(), false)
 				m.Close()
 			}
 			var out bytes.Buffer

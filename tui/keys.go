@@ -315,7 +315,7 @@ func DefaultKeyMap() KeyMap {
 			Markdown: kb([]string{"m"}, "m", "trail as Markdown file"),
 			Text:     kb([]string{"t"}, "t", "trail as plain text file"),
 			Sheet:    kb([]string{"w"}, "w", "session as a worksheet (argand run replays it)"),
-			HTML:     kb([]string{"h"}, "h", "job record: one HTML file, steps, diagrams, checks and the worksheet"),
+			HTML:     kb([]string{"r"}, "r", "job record: one HTML file, steps, diagrams, checks and the worksheet"),
 			Cancel:   kb([]string{"esc", "q"}, "esc", "cancel"),
 		},
 		Help: HelpKeys{

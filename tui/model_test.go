@@ -574,6 +574,7 @@ func TestExportAndClipboard(t *testing.T) {
 		{"m", "t.md", "# argand trail"},
 		{"t", "t.txt", "Za = 3+j4"},
 		{"w", "s.argand", "network bench reference gnd"},
+		{"r", "r.html", `<pre id="argand-worksheet" class="source">`},
 	} {
 		press(m, "x", c.key, "ctrl+u")
 		for _, r := range filepath.Join(dir, c.file) {

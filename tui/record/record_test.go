@@ -6,6 +6,7 @@ import (
 	"io"
 	"os"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -354,4 +355,25 @@ func stepsJSON(t *testing.T, src string) string {
 		t.Fatalf("%v %+v", err, sum.Problems)
 	}
 	return b.String()
+}
+
+// TestReadmeRecord: the README's record example is testdata/bench.argand,
+// and the size the README gives is the size of its record.
+func TestReadmeRecord(t *testing.T) {
+	b, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Skip("README.md not found:", err)
+	}
+	readme := string(b)
+	src := readFile(t, "testdata/bench.argand")
+	if !strings.Contains(readme, "```\n"+src+"```\n") {
+		t.Error("README's record example is not testdata/bench.argand")
+	}
+	m := regexp.MustCompile(`export --html bench-record.html --date 2026-03-14 bench.argand\nwrote \S+ \((\d+) bytes\)`).FindStringSubmatch(readme)
+	if m == nil {
+		t.Fatal("README shows no export of bench.argand")
+	}
+	if got := strconv.Itoa(len(render(t, src))); got != m[1] {
+		t.Errorf("README says %s bytes, the record has %s", m[1], got)
+	}
 }
