@@ -103,8 +103,8 @@ func keywordTable() []keyword {
 				{"", "  differently now are noted and listed"}}},
 		{word: "title", where: outside, run: (*Sheet).stmtTitle,
 			help: [][2]string{
-				{"title Workshop supply, bay 3", "the job's title, the rest of the line; it heads the"},
-				{"", "  record of argand export --html"}}},
+				{"title Bay 3, feeder B", "the job's title: the rest of the line"},
+				{"", "  (it heads the record of argand export --html)"}}},
 		{word: "forget", where: outside, run: (*Sheet).stmtForget,
 			help: [][2]string{{"forget NAME", "remove a value nothing else reads"}}},
 		{word: "rename", where: outside, run: (*Sheet).stmtRename,
