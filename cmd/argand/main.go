@@ -7,7 +7,7 @@
 //	argand eval EXPR...    evaluate each argument and print the steps
 //	argand run FILE|-      run a worksheet and print every step
 //	argand help [TOPIC]    print help
-//	argand export --html OUT.html [WORKSHEET|-]
+//	argand export --html OUT.html [--date YYYY-MM-DD] [WORKSHEET|-]
 //	                       write a job record (the saved session by default)
 //	argand export --source RECORD.html
 //	                       print the worksheet a record holds
