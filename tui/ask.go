@@ -311,14 +311,14 @@ func (m *Model) helpLines() []string {
 	var out []string
 	if m.helpTopic != "" {
 		if t, ok := cli.Topic(m.helpTopic); ok {
-			out = append(out, m.th.label.Render(m.tr("help "+m.helpTopic))+m.tr("   (esc closes; ↑↓ scroll)"))
+			out = append(out, m.helpTitle("help "+m.helpTopic)...)
 			for _, l := range strings.Split(strings.TrimRight(t, "\n"), "\n") {
 				out = append(out, para(l, 4)...)
 			}
 			out = append(out, "")
 		}
 	}
-	out = append(out, m.th.label.Render(m.tr("argand: AC phasor work, step by step"))+m.tr("   (esc closes; ↑↓ scroll)"))
+	out = append(out, m.helpTitle("argand: AC phasor work, step by step")...)
 	out = append(out, para("Rows are named values, newest at the top. Operations take the marked rows in the "+
 		"order marked, else the two newest (older first), which the hint line names before you press the key. "+
 		"Each becomes a worksheet statement. "+m.keys.Table.TrailFull.Help().Key+" shows the trail in full, every step whole.", 0)...)
@@ -342,6 +342,16 @@ func (m *Model) helpLines() []string {
 	return out
 }
 
+// helpTitle is a title of the help screen with how to close and scroll
+// it, on a line of its own when the two do not fit on one.
+func (m *Model) helpTitle(title string) []string {
+	title, how := m.tr(title), m.tr("(esc closes; ↑↓ scroll)")
+	if ansi.StringWidth(title)+3+ansi.StringWidth(how) > m.width {
+		return []string{m.th.label.Render(title), how}
+	}
+	return []string{m.th.label.Render(title) + "   " + how}
+}
+
 // helpKeys lists bindings with their help, by bubbles help, each key and
 // description made printable (and ASCII where asked) before it is styled;
 // a description too long for a narrow screen continues under itself.
@@ -352,11 +362,26 @@ func (m *Model) helpKeys(bs []key.Binding) []string {
 		shown[i].SetHelp(m.tr(b.Help().Key), m.tr(b.Help().Desc))
 	}
 	hm := m.help
-	hm.Width = m.width
+	// no width: the help component would give up on a group wider than
+	// the screen; the lines are wrapped below instead
+	hm.Width = 0
 	var out []string
 	for _, l := range strings.Split(hm.FullHelpView([][]key.Binding{shown}), "\n") {
 		l = strings.TrimRight(l, " ")
-		out = append(out, wrapLine(l, m.width, min(descCol(l), 16))...)
+		c := descCol(l)
+		if c == 0 || c > m.width/2 || ansi.StringWidth(l) <= m.width {
+			out = append(out, wrapLine(l, m.width, min(c, 16))...)
+			continue
+		}
+		// the description wraps in its own column, the keys beside it
+		desc := strings.TrimLeft(l[strings.Index(l, "  "):], " ")
+		for i, d := range wrapLine(desc, m.width-c, 0) {
+			lead := l[:len(l)-len(desc)]
+			if i > 0 {
+				lead = strings.Repeat(" ", c)
+			}
+			out = append(out, lead+d)
+		}
 	}
 	return out
 }

@@ -67,7 +67,5 @@ func (m *Model) fullView() []string {
 	for len(out) < page+1 {
 		out = append(out, "")
 	}
-	k := func(key, what string) string { return m.th.key.Render(m.tr(key)) + " " + m.tr(what) }
-	out = append(out, k("↑↓", "line")+"  "+k("pgup pgdn", "page")+"  "+k("g G", "first, latest")+"  "+k("esc", "back"))
-	return out
+	return append(out, m.keyHints(m.keys.Full.ShortHelp()))
 }

@@ -53,6 +53,9 @@ type TableKeys struct {
 	Clip, ClipTrail               key.Binding
 	TrailBack, TrailOn, TrailLast key.Binding
 	TrailFull, Help, Quit         key.Binding
+	// Pane shows the next pane on a narrow screen, where one pane shows
+	// at a time.
+	Pane key.Binding
 }
 
 // ShortHelp implements help.KeyMap.
@@ -79,6 +82,7 @@ func (k TableKeys) FullHelp() [][]key.Binding {
 		{k.Rename, k.Copy, k.Delete, k.Raise, k.Lower},
 		{k.Clip, k.ClipTrail, k.Export},
 		{k.TrailBack, k.TrailOn, k.TrailLast},
+		{k.Pane},
 		{k.TrailFull, k.Help, k.Quit},
 	}
 }
@@ -137,6 +141,7 @@ type NetKeys struct {
 	TakeV, TakeI, TakeS        key.Binding
 	Thevenin, Next, Clip       key.Binding
 	Close, Help, Quit          key.Binding
+	Pane                       key.Binding // the next pane, on a narrow screen
 }
 
 // ShortHelp implements help.KeyMap.
@@ -147,7 +152,7 @@ func (k NetKeys) ShortHelp() []key.Binding {
 
 // FullHelp implements help.KeyMap.
 func (k NetKeys) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{k.Up, k.Down, k.StepOn, k.StepBack, k.TakeV, k.TakeI, k.TakeS, k.Thevenin, k.Next, k.Clip, k.Close, k.Help, k.Quit}}
+	return [][]key.Binding{{k.Up, k.Down, k.StepOn, k.StepBack, k.TakeV, k.TakeI, k.TakeS, k.Thevenin, k.Next, k.Clip, k.Close, k.Pane, k.Help, k.Quit}}
 }
 
 // ExportKeys choose what to export.
@@ -195,7 +200,7 @@ type FullKeys struct {
 
 // ShortHelp implements help.KeyMap.
 func (k FullKeys) ShortHelp() []key.Binding {
-	return []key.Binding{brief(k.PageDown, "page"), brief(k.Top, "first"), brief(k.End, "latest"), brief(k.Close, "back")}
+	return []key.Binding{brief(k.Close, "back"), brief(k.Down, "line"), brief(k.PageDown, "page"), brief(k.Top, "first"), brief(k.End, "latest")}
 }
 
 // FullHelp implements help.KeyMap.
@@ -219,6 +224,10 @@ type KeyMap struct {
 	// Stop stops a statement running off the update loop.
 	Stop key.Binding
 }
+
+// paneHelp is the help of the key that cycles the panes, the same in
+// the entries table and the network view.
+const paneHelp = "under 60 columns: show the next pane (entries, trail, sketch, network)"
 
 // DefaultKeyMap returns argand's key scheme: arrows, Home/End and
 // PgUp/PgDn move; letters act.
@@ -272,6 +281,7 @@ func DefaultKeyMap() KeyMap {
 			TrailFull: kb([]string{"T"}, "T", "read the trail in full: every step whole, at full width"),
 			Help:      kb([]string{"?", "f1"}, "?", "this help"),
 			Quit:      kb([]string{"q", "ctrl+c"}, "q", "quit (the session is already saved)"),
+			Pane:      kb([]string{"m"}, "m", paneHelp),
 		},
 		Edit: EditKeys{
 			Left:  kb([]string{"left", "ctrl+b"}, "←", "cursor left"),
@@ -308,6 +318,7 @@ func DefaultKeyMap() KeyMap {
 			Next:     kb([]string{"tab"}, "tab", "next network"),
 			Clip:     kb([]string{"ctrl+o"}, "ctrl+o", "send the element's values to the terminal clipboard"),
 			Close:    kb([]string{"esc", "q"}, "esc/q", "back to the entries"),
+			Pane:     kb([]string{"m"}, "m", paneHelp),
 			Help:     kb([]string{"?", "f1"}, "?", "help"),
 			Quit:     kb([]string{"ctrl+c"}, "ctrl+c", "quit"),
 		},

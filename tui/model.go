@@ -73,8 +73,9 @@ type Options struct {
 	Limits sheet.Limits
 }
 
-// Minimum terminal size for the full screen; below it a short notice is
-// shown instead.
+// Minimum terminal size for the full screen, every pane at once; a
+// narrower one takes the narrow layout (narrow.go), and one smaller still
+// a short notice.
 const (
 	minWidth  = 60
 	minHeight = 16
@@ -98,6 +99,7 @@ type Model struct {
 	trail   trailView
 	full    trailView // the trail in full, at the screen's width
 	sketch  sketchPane
+	pane    pane // the pane a narrow screen shows
 	ask     *questions
 	net     *netView
 	helpTop int
@@ -449,7 +451,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case spinner.TickMsg:
 		return m, m.jobSpin(msg)
 	case tea.KeyMsg:
-		if m.width > 0 && m.height > 0 && (m.width < minWidth || m.height < minHeight) {
+		if m.width > 0 && m.height > 0 && m.tooSmallSize() {
 			// the screen shows only the notice: a key acting on rows or
 			// the entry line the user cannot see would change work unseen.
 			// A size of 0 is a terminal that reports none (keys piped
@@ -480,6 +482,9 @@ func (m *Model) takePending() tea.Cmd {
 }
 
 func (m *Model) key(k tea.KeyMsg) tea.Cmd {
+	if cmd, ok := m.paneKey(k); ok {
+		return cmd
+	}
 	switch m.mode {
 	case modeLocked:
 		switch {
@@ -532,8 +537,11 @@ func (m *Model) View() string {
 		return ""
 	}
 	w, h := m.width, m.height
-	if w < minWidth || h < minHeight {
+	if m.tooSmallSize() {
 		return m.tooSmall()
+	}
+	if m.narrow() {
+		return m.finish(m.narrowView())
 	}
 	var lines []string
 	switch m.mode {
@@ -579,7 +587,8 @@ func (m *Model) finish(lines []string) string {
 func (m *Model) tooSmall() string {
 	lines := []string{
 		"argand: terminal too small",
-		fmt.Sprintf("%d×%d; needs %d×%d", m.width, m.height, minWidth, minHeight),
+		fmt.Sprintf("%d×%d; needs %d×%d", m.width, m.height, narrowWidth, narrowHeight),
+		fmt.Sprintf("(%d×%d: every pane at once)", minWidth, minHeight),
 		"enlarge the window,",
 		"or run argand --plain",
 		"q quits; work is saved",

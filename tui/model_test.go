@@ -391,10 +391,14 @@ func TestPaste(t *testing.T) {
 
 func TestSmallAndResize(t *testing.T) {
 	m := newModel(t, Options{})
-	for _, sz := range [][2]int{{40, 12}, {0, 0}, {1, 1}, {59, 30}, {200, 15}, {80, 24}, {300, 100}, {60, 16}} {
+	sizes := [][2]int{{40, 12}, {0, 0}, {1, 1}, {59, 30}, {200, 15}, {80, 24}, {300, 100}, {60, 16},
+		{39, 20}, {40, 19}, {40, 20}, {59, 19}, {59, 20}, {60, 15}}
+	for _, sz := range sizes {
 		m.Update(tea.WindowSizeMsg{Width: sz[0], Height: sz[1]})
 		v := m.View()
-		if sz[0] < minWidth || sz[1] < minHeight {
+		wide := sz[0] >= minWidth && sz[1] >= minHeight
+		narrow := sz[0] >= narrowWidth && sz[1] >= narrowHeight
+		if !wide && !narrow {
 			if sz[1] >= 1 && sz[0] >= 20 && !strings.Contains(v, "too small") {
 				t.Errorf("%v: no too-small notice:\n%s", sz, v)
 			}
@@ -960,7 +964,7 @@ func TestSmallIgnoresKeys(t *testing.T) {
 			typeLine(t, m, "Za = 3 Ω")
 			before := len(m.s.sh.Statements())
 			mode := m.mode
-			m.Update(tea.WindowSizeMsg{Width: 40, Height: 20})
+			m.Update(tea.WindowSizeMsg{Width: narrowWidth - 1, Height: narrowHeight})
 			var cmd tea.Cmd
 			for _, k := range tc.keys {
 				msg := keyMsg(k)

@@ -24,6 +24,18 @@ func (m *Model) format() calc.Format {
 
 // statusView is the top line: the settings every number depends on.
 func (m *Model) statusView() string {
+	flags, parts := m.statusParts()
+	s := m.th.label.Render("argand") + "  "
+	if len(flags) > 0 {
+		s += m.th.err.Render("["+strings.Join(flags, ", ")+"]") + "  "
+	}
+	return s + m.tr(strings.Join(parts, " · "))
+}
+
+// statusParts are the flags of the session (read-only, not saved, a
+// network being written), written for the screen, and the settings in
+// the order the top line shows them.
+func (m *Model) statusParts() (flags, parts []string) {
 	st := m.s.sh.Settings()
 	f := m.format()
 	ang := "degrees"
@@ -42,13 +54,11 @@ func (m *Model) statusView() string {
 	if st.Comma {
 		dec = "comma"
 	}
-	parts := []string{
+	parts = []string{
 		f.Mag(st.Freq, calc.DimFrequency, 0),
 		"ω " + f.Mag(calc.Context{Freq: st.Freq}.Omega(), calc.DimAngularFrequency, calc.KindAngle),
 		ang, strconv.Itoa(st.Digits) + " digits", basis, dec, first,
 	}
-	s := m.th.label.Render("argand") + "  "
-	var flags []string
 	if m.s.readOnly {
 		flags = append(flags, "READ-ONLY")
 	}
@@ -58,10 +68,7 @@ func (m *Model) statusView() string {
 	if n := m.s.sh.OpenNetwork(); n != "" {
 		flags = append(flags, m.tr("writing network "+n))
 	}
-	if len(flags) > 0 {
-		s += m.th.err.Render("["+strings.Join(flags, ", ")+"]") + "  "
-	}
-	return s + m.tr(strings.Join(parts, " · "))
+	return flags, parts
 }
 
 // tableView is the entries table, newest at the top.
@@ -142,17 +149,7 @@ type tableCells struct{ name, a, b, eq string }
 // forms and what the value is at the working frequency.
 func (m *Model) tableLine(c tableCells, nameW, c1, c2, w int) string {
 	name := c.name
-	selMark := " "
-	if name == m.s.v.Selected {
-		selMark = m.th.g.sel
-	}
-	mark := "  "
-	if k := m.s.markIndex(name); k >= 0 {
-		mark = m.th.g.mark + strconv.Itoa(k+1)
-		if k >= 9 {
-			mark = m.th.g.mark + "+"
-		}
-	}
+	selMark, mark := m.rowMarks(name)
 	line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  "
 	eq := c.eq
 	if _, lc, ok := strings.Cut(eq, " + "); ok && ansi.StringWidth(line+eq) > w {
@@ -168,6 +165,22 @@ func (m *Model) tableLine(c tableCells, nameW, c1, c2, w int) string {
 		return m.th.marked.Render(line)
 	}
 	return line
+}
+
+// rowMarks are the signs before a row's name: the selection marker or a
+// space, and the mark with its number in the order marked or two spaces.
+func (m *Model) rowMarks(name string) (sel, mark string) {
+	sel, mark = " ", "  "
+	if name == m.s.v.Selected {
+		sel = m.th.g.sel
+	}
+	if k := m.s.markIndex(name); k >= 0 {
+		mark = m.th.g.mark + strconv.Itoa(k+1)
+		if k >= 9 {
+			mark = m.th.g.mark + "+"
+		}
+	}
+	return sel, mark
 }
 
 // equivalent describes what an impedance or admittance is at the working
@@ -287,8 +300,7 @@ func stepLines(m *Model, st *calc.Step, f calc.Format, polar bool, width int) []
 }
 
 func (t *trailView) scroll(m *Model, by int) {
-	_, _, sketchW := m.layout()
-	t.build(m, m.width-sketchW-1)
+	t.build(m, m.trailWidth())
 	t.back = max(0, min(t.back+by, len(t.lines)-1))
 }
 
@@ -323,6 +335,9 @@ func (t *trailView) view(m *Model, w, h int) []string {
 type sketchPane struct {
 	key   string
 	lines []string
+	// title and info of the lines' first line, for a layout that writes
+	// its own
+	title, info string
 }
 
 func (p *sketchPane) view(m *Model, w, h int) []string {
@@ -354,13 +369,15 @@ func (p *sketchPane) view(m *Model, w, h int) []string {
 	// one complex power on its own is drawn as its power triangle
 	if len(names) == 1 {
 		if q, ok := m.s.sh.Lookup(names[0]); ok && q.Dim == calc.DimPower && q.Kind == calc.KindApparent && q.V != 0 {
-			out := []string{m.th.section("power triangle", m.tr(names[0]+": P, Q and S"), w)}
+			p.title, p.info = "power triangle", m.tr(names[0]+": P, Q and S")
+			out := []string{m.th.section(p.title, p.info, w)}
 			out = append(out, sketch.Triangle(real(q.V), imag(q.V), w, h-1, sketch.Options{ASCII: m.opt.ASCII, Comma: m.s.sh.Settings().Comma})...)
 			p.key, p.lines = k, out
 			return out
 		}
 	}
-	out := []string{m.th.section("sketch", m.tr(what), w)}
+	p.title, p.info = "sketch", m.tr(what)
+	out := []string{m.th.section(p.title, p.info, w)}
 	rows := h - 1
 	var note string
 	if len(skipped) > 0 {
@@ -446,7 +463,12 @@ func (m *Model) entryView() string {
 			if m.s.sh.Settings().Comma {
 				example = "Zc = 1/(j·ω·4,7 µF)"
 			}
-			return m.th.dim.Render(p + m.tr("tab or e: type a statement, such as "+example))
+			hint := m.tr("tab or e: type a statement, such as " + example)
+			if ansi.StringWidth(p+hint) > m.width {
+				// a narrow screen: the example whole or not at all
+				hint = m.tr("tab or e: type a statement")
+			}
+			return m.th.dim.Render(p + hint)
 		}
 		s, _ := m.line.f.render(w, func(c string) string { return c })
 		return m.th.dim.Render(p + s)
