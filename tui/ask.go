@@ -328,7 +328,10 @@ func (m *Model) helpLines() []string {
 		out = append(out, m.helpKeys(m.keys.Mode(md))...)
 		out = append(out, "")
 	}
-	out = append(out, m.th.heading.Render(m.tr("keys: while a statement runs (after about 0.1 s it shows a progress line)")))
+	// a heading too long for a narrow screen wraps, each line styled
+	for _, l := range wrapLine(m.tr("keys: while a statement runs (after about 0.1 s it shows a progress line)"), m.width, 2) {
+		out = append(out, m.th.heading.Render(l))
+	}
 	out = append(out, m.helpKeys([]key.Binding{m.keys.Stop})...)
 	out = append(out, "", m.th.heading.Render(m.tr("safety")))
 	out = append(out, para(calc.SafetyText, 0)...)

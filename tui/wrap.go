@@ -28,7 +28,7 @@ func wrapLine(s string, width, indent int) []string {
 	if lead > width/2 {
 		lead = width / 2
 	}
-	chunks := glue(strings.Fields(s))
+	chunks := loosen(glue(strings.Fields(s)), width-indent)
 	var out []string
 	cur := strings.Repeat(" ", lead)
 	curW := lead
@@ -56,6 +56,9 @@ func wrapLine(s string, width, indent int) []string {
 		// a piece wider than the room left is cut into parts
 		for curW+cw > width {
 			part := cut(c, width-curW)
+			// before a number, not inside it, when the piece holds
+			// something else
+			part = backOffNumber(part, c[len(part):])
 			if part == "" { // a wide rune that does not fit at all
 				_, n := utf8.DecodeRuneInString(c)
 				part = c[:n]
@@ -75,6 +78,28 @@ func wrapLine(s string, width, indent int) []string {
 	}
 	if !empty {
 		out = append(out, cur)
+	}
+	return out
+}
+
+// loosen splits again the glued pieces wider than room: a value with its
+// angle too long for a line breaks before the angle (and between the
+// parts of a sum) rather than inside a number, a unit staying with its
+// number.
+func loosen(chunks []string, room int) []string {
+	var out []string
+	for _, c := range chunks {
+		if ansi.StringWidth(c) <= room || !strings.Contains(c, " ") {
+			out = append(out, c)
+			continue
+		}
+		for _, w := range strings.Fields(c) {
+			if n := len(out); n > 0 && isUnitWord(w) && endsInNumber(out[n-1]) && ansi.StringWidth(out[n-1]+" "+w) <= room {
+				out[n-1] += " " + w
+				continue
+			}
+			out = append(out, w)
+		}
 	}
 	return out
 }

@@ -1,0 +1,229 @@
+package tui
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"argand/tui/internal/golden"
+
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/x/ansi"
+)
+
+// narrowGoldens are the screens of the narrow layout kept as goldens:
+// at the smallest size it takes, at a phone's usual 50×30, and at the
+// widest narrow width. Keys as in TestGolden.
+var narrowGoldens = []struct {
+	name  string
+	w, h  int
+	ascii bool
+	keys  []string
+}{
+	{"narrow-rows-40x20", 40, 20, false, []string{"home", " ", "down", " "}},
+	{"narrow-trail-40x20", 40, 20, false, []string{"m"}},
+	{"narrow-network-40x20", 40, 20, false, []string{"m", "m", "m", "right", "right", "down"}},
+	{"narrow-help-40x20", 40, 20, false, []string{"?"}},
+	{"narrow-rows-50x30", 50, 30, false, []string{"down", "down", "down", " ", "down", "down", " "}},
+	{"narrow-sketch-50x30", 50, 30, false, []string{"down", "down", "down", " ", "down", "down", " ", "m", "m"}},
+	{"narrow-rows-50x30-ascii", 50, 30, true, []string{"end", " ", "up", " "}},
+	{"narrow-rows-59x24", 59, 24, false, []string{"end", "o"}},
+	{"narrow-network-59x24", 59, 24, false, []string{"N", "tab", "right"}},
+}
+
+func TestNarrowGolden(t *testing.T) {
+	for _, c := range narrowGoldens {
+		t.Run(c.name, func(t *testing.T) {
+			m := newModel(t, Options{ASCII: c.ascii})
+			m.note(false, "")
+			m.Update(tea.WindowSizeMsg{Width: c.w, Height: c.h})
+			press(m, c.keys...)
+			got := m.View()
+			checkScreen(t, c.name, got, c.w, c.h)
+			golden.Check(t, filepath.Join("testdata", c.name+".golden"), got)
+		})
+	}
+}
+
+// The goldens as kept on disk pass the same checks as the views that
+// write them: no number cut at the right edge, nothing wider than the
+// screen.
+func TestNarrowGoldenFiles(t *testing.T) {
+	for _, c := range narrowGoldens {
+		b, err := os.ReadFile(filepath.Join("testdata", c.name+".golden"))
+		if err != nil {
+			t.Fatalf("%v (go test -update writes it)", err)
+		}
+		checkScreen(t, c.name, string(b), c.w, c.h)
+	}
+}
+
+// cutAtEdge finds a number cut short at the right edge of a line: an
+// ellipsis ("…", "~" in ASCII) straight after a digit or decimal mark,
+// or a line that fills the width and ends in a digit or decimal mark
+// whose last word is no word of the whole texts (whole, from the same
+// session written without a width).
+var cutAtEdge = regexp.MustCompile(`[0-9.,](…|~)\s*$`)
+
+// checkScreen checks a screen of the narrow layout line by line: the
+// height, no line wider than the width, no number cut at its right edge.
+func checkScreen(t *testing.T, what, screen string, w, h int) {
+	t.Helper()
+	lines := strings.Split(screen, "\n")
+	if len(lines) != h {
+		t.Errorf("%s: %d lines, want %d", what, len(lines), h)
+	}
+	for i, l := range lines {
+		plain := ansi.Strip(l)
+		if lw := ansi.StringWidth(plain); lw > w {
+			t.Errorf("%s: line %d is %d cells wide (screen %d): %q", what, i+1, lw, w, plain)
+		}
+		if cutAtEdge.MatchString(plain) {
+			t.Errorf("%s: line %d ends in a number cut short: %q", what, i+1, plain)
+		}
+	}
+}
+
+// checkEdges is checkScreen with the second test for a cut number: a
+// line filling the width that ends in a digit must end in a word found
+// whole in the session's texts.
+func checkEdges(t *testing.T, what, screen string, w, h int, whole map[string]bool) {
+	t.Helper()
+	checkScreen(t, what, screen, w, h)
+	for i, l := range strings.Split(screen, "\n") {
+		plain := ansi.Strip(l)
+		r, _ := utf8.DecodeLastRuneInString(plain)
+		if ansi.StringWidth(plain) < w || !numberRune(r) {
+			continue
+		}
+		f := strings.Fields(plain)
+		if last := f[len(f)-1]; !whole[last] {
+			t.Errorf("%s: line %d fills the width and ends in %q, not a whole word: %q", what, i+1, last, plain)
+		}
+	}
+}
+
+// wholeWords are the words of a session's texts written without a width
+// limit: the trail, every row in both forms, the help and the screen at
+// a width where nothing is cut.
+func wholeWords(m *Model) map[string]bool {
+	w, h, mode := m.width, m.height, m.mode
+	var texts []string
+	texts = append(texts, m.trailText())
+	f := m.format()
+	for _, r := range m.s.rows() {
+		q, _ := m.s.sh.Lookup(r)
+		texts = append(texts, r, f.Rect(q), f.Polar(q), equivalent(f, q, m.s.sh.Context().Omega()))
+	}
+	m.width, m.height = 400, 400
+	texts = append(texts, m.View(), strings.Join(m.helpLines(), "\n"), m.msg, m.signature())
+	m.width, m.height, m.mode = w, h, mode
+	out := map[string]bool{}
+	for _, t := range texts {
+		for _, f := range strings.Fields(ansi.Strip(m.tr(t))) {
+			out[f] = true
+		}
+	}
+	return out
+}
+
+// narrowStates put a model in each state a narrow screen shows, from the
+// entries table: the panes, a network step by step, help and the trail
+// in full scrolled through, a question, the export choice, an error
+// being typed and a long outcome.
+var narrowStates = []struct {
+	name string
+	keys []string
+}{
+	{"entries", nil},
+	{"entries marked", []string{"home", " ", "down", " ", "end"}},
+	{"polar first", []string{"o", "end"}},
+	{"trail", []string{"m"}},
+	{"trail back", []string{"m", "pgup", "pgup"}},
+	{"sketch", []string{"down", "down", "down", " ", "down", "down", " ", "m", "m"}},
+	{"power triangle", []string{"e", "S1 = 3+j4 kVA", "enter", "esc", "m", "m"}},
+	{"network", []string{"m", "m", "m"}},
+	{"network steps", []string{"N", "tab", "right", "right", "right", "down", "down"}},
+	{"network end", []string{"N", "right", "right", "right", "right", "right", "right", "right", "right"}},
+	{"help", []string{"?"}},
+	{"trail in full", []string{"T"}},
+	{"trail in full, first", []string{"T", "home"}},
+	{"question", []string{"v"}},
+	{"question asked twice", []string{"t", "enter"}},
+	{"export", []string{"x"}},
+	{"error typed", []string{"e", "Zq = (12.5 + j7.25"}},
+	{"call typed", []string{"e", "Vk = vdiv(230 V, 12.5 Ω"}},
+	{"long outcome", []string{"e", "Zlong = 123.456789 + j987.654321 kΩ", "enter", "esc"}},
+	{"more digits", []string{">", ">", ">", ">", ">", ">", "end"}},
+	{"caution", []string{"e", "Qc = pfc(10 kW, 0.7, 0.95, 400 V, three)", "enter"}},
+	{"17 digits", []string{"e", "digits 17", "enter", "Zfeeder_section_12 = 123.456789123+j987.654321987 kΩ", "enter",
+		"Yshunt = 1/Zfeeder_section_12", "enter", "esc", "home", " ", "down", " "}},
+	{"17 digits, network", []string{"e", "digits 17", "enter", "esc", "m", "m", "m", "right", "right"}},
+	{"17 digits, trail", []string{"e", "digits 17", "enter", "Zw = 1.23456789+j9.87654321 Ω", "enter", "esc", "m"}},
+}
+
+// pressText sends keys; a key longer than one character that is no key
+// name is typed as text.
+func pressText(m *Model, keys ...string) {
+	for _, k := range keys {
+		if utf8.RuneCountInString(k) > 1 && keyMsg(k).Type == tea.KeyRunes {
+			for _, r := range k {
+				m.Update(keyMsg(string(r)))
+			}
+			continue
+		}
+		press(m, k)
+	}
+}
+
+// Every state of the narrow layout at every width from 40 to 59, at a
+// phone's heights: no line wider than the screen, no number cut at the
+// right edge. Help and the trail in full are paged through to the end.
+func TestNarrowNoNumberCut(t *testing.T) {
+	for _, ascii := range []bool{false, true} {
+		for _, st := range narrowStates {
+			m := newModel(t, Options{ASCII: ascii})
+			pressText(m, st.keys...)
+			whole := wholeWords(m)
+			for w := narrowWidth; w < minWidth; w++ {
+				for _, h := range []int{narrowHeight, 30} {
+					m.Update(tea.WindowSizeMsg{Width: w, Height: h})
+					name := st.name + " " + sizeName(w, h, ascii)
+					v := m.View()
+					checkEdges(t, name, v, w, h, whole)
+					if m.mode != modeHelp && m.mode != modeTrail {
+						continue
+					}
+					// paged through to the end and back to the start
+					for i := 0; i < 200; i++ {
+						press(m, "pgdown")
+						next := m.View()
+						if next == v {
+							break
+						}
+						v = next
+						checkEdges(t, name+" paged", v, w, h, whole)
+					}
+					for i := 0; i < 200 && m.helpTop > 0; i++ {
+						press(m, "pgup")
+					}
+					if m.mode == modeTrail {
+						press(m, "end")
+					}
+				}
+			}
+		}
+	}
+}
+
+func sizeName(w, h int, ascii bool) string {
+	s := fmt.Sprintf("%dx%d", w, h)
+	if ascii {
+		s += " ascii"
+	}
+	return s
+}
