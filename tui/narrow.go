@@ -178,12 +178,12 @@ func (m *Model) narrowStatus() string {
 		sep = "  "
 	}
 	for _, p := range parts {
-		p = m.tr(p)
-		if used+ansi.StringWidth(sep+p) > m.width {
+		p = m.tr(sep + p)
+		if used+ansi.StringWidth(p) > m.width {
 			continue
 		}
-		s += sep + p
-		used += ansi.StringWidth(sep + p)
+		s += p
+		used += ansi.StringWidth(p)
 		sep = " · "
 	}
 	return s
@@ -199,7 +199,7 @@ func (m *Model) paneHead(label string, info []string) string {
 	s := next
 	for i := len(info) - 1; i >= 0; i-- {
 		// the first parts of info matter most: drop from the end
-		if t := strings.Join(info[:i+1], ", ") + " · " + next; ansi.StringWidth(t) <= room {
+		if t := m.tr(strings.Join(info[:i+1], ", ")+" · ") + next; ansi.StringWidth(t) <= room {
 			s = t
 			break
 		}

@@ -195,6 +195,18 @@ func TestNarrowNoNumberCut(t *testing.T) {
 					name := st.name + " " + sizeName(w, h, ascii)
 					v := m.View()
 					checkEdges(t, name, v, w, h, whole)
+					if ascii && m.mode != modeHelp && m.mode != modeTrail {
+						// written in ASCII, not made ASCII at the last
+						// step, where a symbol becomes "?"
+						// (the typed text apart, and "…", which the
+						// screen writes "~")
+						entry := m.entryView()
+						for _, l := range m.narrowView() {
+							if l != entry && strings.ContainsFunc(l, func(r rune) bool { return r >= utf8.RuneSelf && r != '…' }) {
+								t.Errorf("%s: not ASCII before the screen: %q", name, l)
+							}
+						}
+					}
 					if m.mode != modeHelp && m.mode != modeTrail {
 						continue
 					}
