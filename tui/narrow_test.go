@@ -11,6 +11,8 @@ import (
 
 	"argand/tui/internal/golden"
 
+	"github.com/charmbracelet/bubbles/key"
+
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 )
@@ -238,4 +240,120 @@ func sizeName(w, h int, ascii bool) string {
 		s += " ascii"
 	}
 	return s
+}
+
+// The pane key shows entries, trail, sketch and the network in turn on a
+// narrow screen, and back to the entries; with no network it goes from
+// the sketch to the entries and says why. On a wide screen it only says
+// what it is for.
+func TestNarrowPaneKey(t *testing.T) {
+	m := newModel(t, Options{})
+	m.Update(tea.WindowSizeMsg{Width: 40, Height: 20})
+	for _, want := range []string{"── trail", "── sketch", "── network ladder", "── entries", "── trail"} {
+		press(m, "m")
+		if v := m.View(); !strings.Contains(v, want) {
+			t.Errorf("after m: no %q:\n%s", want, v)
+		}
+	}
+	// esc leaves the network view for the pane it was opened from
+	press(m, "N", "esc")
+	if v := m.View(); m.mode != modeRows || !strings.Contains(v, "── trail") {
+		t.Errorf("esc from the network: mode %v\n%s", m.mode, v)
+	}
+
+	plain := filepath.Join(t.TempDir(), "plain.argand")
+	if err := os.WriteFile(plain, []byte("Z1 = 5 Ω\n"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	blank := newModel(t, Options{File: plain})
+	blank.Update(tea.WindowSizeMsg{Width: 40, Height: 20})
+	press(blank, "m", "m", "m")
+	if v := blank.View(); !strings.Contains(v, "── entries") || !strings.Contains(v, "no network") {
+		t.Errorf("no network: \n%s", v)
+	}
+
+	wide := newModel(t, Options{})
+	press(wide, "m")
+	if wide.mode != modeRows || !strings.Contains(wide.msg, "under 60 columns") {
+		t.Errorf("m on a wide screen: mode %v, %q", wide.mode, wide.msg)
+	}
+	press(wide, "N", "m")
+	if wide.mode != modeNet {
+		t.Errorf("m closed the network view on a wide screen")
+	}
+}
+
+// At 40×20 every key of every part is written in the help screen, which
+// pages to its end; the keys that open it are on the hint line of each
+// part that has one.
+func TestNarrowHelpReachable(t *testing.T) {
+	m := newModel(t, Options{})
+	m.Update(tea.WindowSizeMsg{Width: narrowWidth, Height: narrowHeight})
+	for _, md := range []mode{modeRows, modeLine, modePrompt, modeNet} {
+		mm := modelIn(t, md)
+		mm.Update(tea.WindowSizeMsg{Width: narrowWidth, Height: narrowHeight})
+		lines := strings.Split(mm.View(), "\n")
+		hint := lines[len(lines)-1]
+		var k key.Binding
+		switch md {
+		case modeRows:
+			k = mm.keys.Table.Help
+		case modeLine:
+			k = mm.keys.Line.Help
+		case modeNet:
+			k = mm.keys.Net.Help
+		default:
+			continue // a question is answered or cancelled first
+		}
+		first, _, _ := strings.Cut(k.Help().Key, "/")
+		if !strings.Contains(hint, first+" help") {
+			t.Errorf("%s: hint line %q does not offer %s help", md, hint, first)
+		}
+	}
+	press(m, "?")
+	var seen []string
+	for i := 0; i < 100; i++ {
+		lines := strings.Split(m.View(), "\n")
+		seen = append(seen, lines[:len(lines)-1]...)
+		if strings.Contains(lines[len(lines)-1], fmt.Sprintf("of %d lines", len(m.helpLines()))) &&
+			strings.Contains(lines[len(lines)-1], fmt.Sprintf("-%d of", len(m.helpLines()))) {
+			break
+		}
+		press(m, "pgdown")
+	}
+	// descriptions wrap in their column: read them with the lines joined
+	all := strings.Join(strings.Fields(strings.Join(seen, " ")), " ")
+	for _, md := range allModes {
+		for _, b := range m.keys.Mode(md) {
+			if !strings.Contains(all, b.Help().Key) || !strings.Contains(all, strings.Join(strings.Fields(b.Help().Desc), " ")) {
+				t.Errorf("%s: %q %q not found paging through help at 40x20", md, b.Help().Key, b.Help().Desc)
+			}
+		}
+	}
+	press(m, "esc")
+	if m.mode != modeRows {
+		t.Errorf("esc left help in %v", m.mode)
+	}
+}
+
+// A statement typed at 40×20 leaves its result readable whole: both
+// forms in the outcome under the entry line and in the table, each value
+// on a line with nothing of it cut. (40+j30)·50/(90+j30) = 25 + j8.333 Ω
+// = 26.35 Ω ∠18.43°, product over sum (common practice).
+func TestNarrowResultReadable(t *testing.T) {
+	m := newModel(t, Options{})
+	m.Update(tea.WindowSizeMsg{Width: narrowWidth, Height: narrowHeight})
+	typeLine(t, m, "Zr = parallel(40+j30 Ω, 50 Ω)")
+	v := m.View()
+	for _, want := range []string{"25.00 + j8.333 Ω", "26.35 Ω ∠18.43°"} {
+		n := 0
+		for _, l := range strings.Split(v, "\n") {
+			if strings.Contains(l, want) {
+				n++
+			}
+		}
+		if n < 2 {
+			t.Errorf("%q on %d lines, want the outcome and the table:\n%s", want, n, v)
+		}
+	}
 }

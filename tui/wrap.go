@@ -113,7 +113,14 @@ func glue(words []string) []string {
 	for _, w := range words {
 		switch {
 		case len(out) > 0 && joinNext:
+			sign := out[len(out)-1]
 			out[len(out)-1] += " " + w
+			if n := len(out); n > 1 && isImag(w) && (sign == "+" || sign == "-" || sign == "−") && endsInNumber(out[n-2]) {
+				// the imaginary part stays with the real part:
+				// "3.000 + j4.000" is one value
+				out[n-2] += " " + out[n-1]
+				out = out[:n-1]
+			}
 		case len(out) > 0 && isAngle(w):
 			out[len(out)-1] += " " + w
 		case len(out) > 0 && isUnitWord(w) && endsInNumber(out[len(out)-1]):
@@ -124,6 +131,12 @@ func glue(words []string) []string {
 		joinNext = w == "=" || w == "+" || w == "-" || w == "−" || w == "·"
 	}
 	return out
+}
+
+// isImag reports the imaginary part of a value written in rectangular
+// form, "j4.000".
+func isImag(w string) bool {
+	return len(w) > 1 && w[0] == 'j' && (w[1] >= '0' && w[1] <= '9' || w[1] == '.')
 }
 
 // isAngle reports the angle of a polar value, "∠36.87°" or in ASCII

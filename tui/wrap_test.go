@@ -23,6 +23,15 @@ func TestWrapLine(t *testing.T) {
 			[]string{"    note: Capacitor banks: a", "          capacitor can hold a", "          lethal charge"}},
 		// a word longer than the line is cut by cells
 		{"abcdefghij", 4, 0, []string{"abcd", "efgh", "ij"}},
+		// a rectangular value stays whole, its imaginary part with its
+		// real part
+		{"Zr = 25.00 + j8.333 Ω = 26.35 Ω ∠18.43°", 24, 2, []string{"Zr = 25.00 + j8.333 Ω", "  = 26.35 Ω ∠18.43°"}},
+		// a value too long for a line breaks before its angle, its unit
+		// kept with its number; not inside a number
+		{"    995.34046362044476 kΩ ∠82.874983715379045°", 40, 6,
+			[]string{"    995.34046362044476 kΩ", "      ∠82.874983715379045°"}},
+		// a word longer than the line is cut before a number in it
+		{"Zfeeder_12345", 10, 0, []string{"Zfeeder_", "12345"}},
 	}
 	for _, tt := range tests {
 		got := wrapLine(tt.in, tt.width, tt.indent)
