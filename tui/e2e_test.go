@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -55,27 +56,41 @@ func (r *tmuxRun) wait(want string) string {
 	return ""
 }
 
-func TestTmuxEndToEnd(t *testing.T) {
+// buildForTmux builds the binary into dir for an end-to-end test, or
+// skips the test where it cannot run.
+func buildForTmux(t *testing.T, dir string) string {
+	t.Helper()
 	if testing.Short() {
 		t.Skip("builds the binary and runs tmux")
 	}
 	if _, err := exec.LookPath("tmux"); err != nil {
 		t.Skip("tmux not installed; the end-to-end test needs it (CI installs it in .ci/run)")
 	}
-	dir := t.TempDir()
 	bin := filepath.Join(dir, "argand")
 	build := exec.Command("go", "build", "-o", bin, "argand/cmd/argand")
 	if out, err := build.CombinedOutput(); err != nil {
 		t.Fatalf("build: %v\n%s", err, out)
 	}
+	return bin
+}
+
+// starter returns a function that starts bin in a fresh tmux session of
+// w×h cells, its home and state directory in dir.
+func (r *tmuxRun) starter(bin, dir string, w, h int) func() {
 	state := filepath.Join(dir, "state")
-	r := &tmuxRun{t: t, sock: filepath.Join(dir, "tmux.sock"), name: "e2e"}
-	start := func() {
+	r.t.Cleanup(func() { exec.Command("tmux", "-S", r.sock, "kill-server").Run() })
+	return func() {
 		cmdline := "env -i PATH=" + os.Getenv("PATH") + " HOME=" + dir + " XDG_STATE_HOME=" + state +
 			" LANG=en_US.UTF-8 TERM=xterm-256color NO_COLOR=1 " + bin
-		r.tmux("new-session", "-d", "-s", r.name, "-x", "80", "-y", "24", cmdline)
+		r.tmux("new-session", "-d", "-s", r.name, "-x", fmt.Sprint(w), "-y", fmt.Sprint(h), cmdline)
 	}
-	t.Cleanup(func() { exec.Command("tmux", "-S", r.sock, "kill-server").Run() })
+}
+
+func TestTmuxEndToEnd(t *testing.T) {
+	dir := t.TempDir()
+	bin := buildForTmux(t, dir)
+	r := &tmuxRun{t: t, sock: filepath.Join(dir, "tmux.sock"), name: "e2e"}
+	start := r.starter(bin, dir, 80, 24)
 
 	start()
 	r.wait("example data")
@@ -129,6 +144,51 @@ func TestTmuxEndToEnd(t *testing.T) {
 	}
 	if strings.Contains(screen, "vdiv(Vq") {
 		t.Errorf("the undone divider came back:\n%s", screen)
+	}
+	r.keys("q")
+}
+
+// At 40×20, a phone's terminal held upright: a statement typed, the
+// panes cycled with the pane key, and the result read whole in the
+// table. (40+j30)·50/(90+j30) = 25 + j8.333 Ω = 26.35 Ω ∠18.43°,
+// product over sum (common practice).
+func TestTmuxNarrow(t *testing.T) {
+	dir := t.TempDir()
+	bin := buildForTmux(t, dir)
+	r := &tmuxRun{t: t, sock: filepath.Join(dir, "tmux.sock"), name: "narrow"}
+	r.starter(bin, dir, 40, 20)()
+	r.wait("── entries")
+	r.keys("e")
+	r.text("Zp = parallel(40+j30 ohm, 50 ohm)")
+	r.keys("Enter", "Escape")
+	screen := r.wait("Zp ")
+	for _, want := range []string{"25.00 + j8.333 Ω", "26.35 Ω ∠18.43°"} {
+		if !strings.Contains(screen, want) {
+			t.Errorf("result %q not on the screen:\n%s", want, screen)
+		}
+	}
+	// the panes in turn: the trail has the statement, the sketch the
+	// selected row, then the network of the example, then the entries
+	r.keys("m")
+	screen = r.wait("── trail")
+	if !strings.Contains(screen, "parallel(40+j30") {
+		t.Errorf("the trail lacks the statement:\n%s", screen)
+	}
+	r.keys("m")
+	r.wait("── sketch")
+	r.keys("m")
+	r.wait("── network")
+	r.keys("m")
+	r.wait("── entries")
+	// help opens and closes
+	r.keys("?")
+	r.wait("keys: entries")
+	r.keys("Escape")
+	r.wait("── entries")
+	for _, l := range strings.Split(r.tmux("capture-pane", "-p", "-t", r.name), "\n") {
+		if n := len([]rune(l)); n > 40 {
+			t.Errorf("line of %d cells at 40 columns: %q", n, l)
+		}
 	}
 	r.keys("q")
 }
