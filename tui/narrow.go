@@ -108,10 +108,16 @@ func (m *Model) nextPane() {
 	}
 }
 
+// netShown reports that the narrow screen shows the network view: while
+// it has the keyboard, or asks a question for it.
+func (m *Model) netShown() bool {
+	return m.net != nil && (m.mode == modeNet || m.mode == modePrompt && m.back == modeNet)
+}
+
 // nextName names the pane the pane key shows next.
 func (m *Model) nextName() string {
 	switch {
-	case m.mode == modeNet:
+	case m.netShown():
 		return paneNames[paneTable]
 	case m.pane < paneSketch:
 		return paneNames[m.pane+1]
@@ -139,7 +145,7 @@ func (m *Model) narrowView() []string {
 	bodyH := m.height - 3 - len(fb)
 	var body []string
 	switch {
-	case m.net != nil && (m.mode == modeNet || m.mode == modePrompt && m.back == modeNet):
+	case m.netShown():
 		body = m.narrowNet(bodyH)
 	case m.pane == paneTrail:
 		body = m.narrowTrail(bodyH)
@@ -624,21 +630,45 @@ func (m *Model) narrowNet(h int) []string {
 	out := []string{m.paneHead("network "+n.name, []string{kind})}
 	detail := m.netDetail()
 	title, body := m.netStep()
-	var step []string
+	var step [][]string
+	lines := 0
 	for _, b := range body {
-		step = append(step, wrapLine(m.tr(b), w, hangIndent(b))...)
+		step = append(step, wrapLine(m.tr(b), w, hangIndent(b)))
+		lines += len(step[len(step)-1])
 	}
-	listH := max(3, min(len(n.v.Elements), h-1-len(detail)-len(m.titleLines(title))-len(step)))
+	listH := max(3, min(len(n.v.Elements), h-1-len(detail)-len(m.titleLines(title))-lines))
 	out = append(out, m.narrowNetRows(listH)...)
 	for len(out) < 1+listH {
 		out = append(out, "")
 	}
 	out = append(out, detail...)
 	out = append(out, m.titleLines(title)...)
-	if room := h - len(out); len(step) > room && room > 1 {
-		step = append(step[:1], step[len(step)-room+1:]...)
+	return append(out, keepEnds(step, h-len(out))...)
+}
+
+// keepEnds returns the lines of the groups (a line of text each, wrapped)
+// that fit in room lines: all when they fit, else the first group and as
+// many of the last as fit whole, so that what a step combines and its
+// result are kept and no line is shown without the rest of its text.
+func keepEnds(groups [][]string, room int) []string {
+	n := 0
+	for _, g := range groups {
+		n += len(g)
 	}
-	return append(out, step...)
+	if n <= room {
+		return slices.Concat(groups...)
+	}
+	var head []string
+	if len(groups) > 0 && len(groups[0]) < room {
+		head, room = groups[0], room-len(groups[0])
+		groups = groups[1:]
+	}
+	var tail [][]string
+	for i := len(groups) - 1; i >= 0 && len(groups[i]) <= room; i-- {
+		tail = append([][]string{groups[i]}, tail...)
+		room -= len(groups[i])
+	}
+	return append(head, slices.Concat(tail...)...)
 }
 
 // narrowNetRows are the element lines of the narrow network view, around

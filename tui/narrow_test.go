@@ -357,3 +357,26 @@ func TestNarrowResultReadable(t *testing.T) {
 		}
 	}
 }
+
+// A reduction step too long for its room keeps its first line and its
+// result, each line of text whole or not at all.
+func TestKeepEnds(t *testing.T) {
+	g := [][]string{{"a1", "a2"}, {"b1"}, {"c1", "c2"}, {"d1"}}
+	tests := []struct {
+		room int
+		want string
+	}{
+		{6, "a1 a2 b1 c1 c2 d1"},
+		{5, "a1 a2 c1 c2 d1"},
+		{4, "a1 a2 d1"},
+		{3, "a1 a2 d1"},
+		{2, "d1"},
+		{1, "d1"},
+		{0, ""},
+	}
+	for _, tt := range tests {
+		if got := strings.Join(keepEnds(g, tt.room), " "); got != tt.want {
+			t.Errorf("keepEnds(room %d) = %q, want %q", tt.room, got, tt.want)
+		}
+	}
+}
