@@ -647,9 +647,9 @@ func (m *Model) narrowNet(h int) []string {
 }
 
 // keepEnds returns the lines of the groups (a line of text each, wrapped)
-// that fit in room lines: all when they fit, else the first group and as
-// many of the last as fit whole, so that what a step combines and its
-// result are kept and no line is shown without the rest of its text.
+// that fit in room lines: all when they fit, else the last (a step's
+// result), the first (what it combines) and as many before the last as
+// fit, each group whole or not at all.
 func keepEnds(groups [][]string, room int) []string {
 	n := 0
 	for _, g := range groups {
@@ -658,17 +658,22 @@ func keepEnds(groups [][]string, room int) []string {
 	if n <= room {
 		return slices.Concat(groups...)
 	}
+	last := groups[len(groups)-1]
+	if len(last) > room {
+		return nil
+	}
+	room -= len(last)
+	rest := groups[:len(groups)-1]
 	var head []string
-	if len(groups) > 0 && len(groups[0]) < room {
-		head, room = groups[0], room-len(groups[0])
-		groups = groups[1:]
+	if len(rest) > 0 && len(rest[0]) <= room {
+		head, room, rest = rest[0], room-len(rest[0]), rest[1:]
 	}
 	var tail [][]string
-	for i := len(groups) - 1; i >= 0 && len(groups[i]) <= room; i-- {
-		tail = append([][]string{groups[i]}, tail...)
-		room -= len(groups[i])
+	for i := len(rest) - 1; i >= 0 && len(rest[i]) <= room; i-- {
+		tail = append([][]string{rest[i]}, tail...)
+		room -= len(rest[i])
 	}
-	return append(head, slices.Concat(tail...)...)
+	return slices.Concat(append(append([][]string{head}, tail...), last)...)
 }
 
 // narrowNetRows are the element lines of the narrow network view, around

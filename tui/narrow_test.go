@@ -358,8 +358,8 @@ func TestNarrowResultReadable(t *testing.T) {
 	}
 }
 
-// A reduction step too long for its room keeps its first line and its
-// result, each line of text whole or not at all.
+// A reduction step too long for its room keeps its result, then its
+// first line, each line of text whole or not at all.
 func TestKeepEnds(t *testing.T) {
 	g := [][]string{{"a1", "a2"}, {"b1"}, {"c1", "c2"}, {"d1"}}
 	tests := []struct {
@@ -372,6 +372,7 @@ func TestKeepEnds(t *testing.T) {
 		{3, "a1 a2 d1"},
 		{2, "d1"},
 		{1, "d1"},
+		{7, "a1 a2 b1 c1 c2 d1"},
 		{0, ""},
 	}
 	for _, tt := range tests {
