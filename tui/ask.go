@@ -434,7 +434,14 @@ func (m *Model) lockedView() []string {
 	out = append(out, "", m.th.heading.Render(m.tr("How do you want to go on?")))
 	for _, b := range m.keys.Lock.FullHelp()[0] {
 		key := m.th.key.Render(m.tr(pad(b.Help().Key, 3)))
-		out = append(out, "  "+key+" "+fit(m.tr(b.Help().Desc), m.width-6))
+		// a narrow screen has each way on whole, wrapped beside its key
+		for i, l := range wrapLine(m.tr(b.Help().Desc), m.width-6, 0) {
+			if i == 0 {
+				out = append(out, "  "+key+" "+l)
+			} else {
+				out = append(out, "      "+l)
+			}
+		}
 	}
 	out = append(out, "")
 	for _, l := range wrapLine(m.tr("session file: "+m.lockPath), m.width, 2) {
