@@ -374,14 +374,14 @@ func (m *Model) narrowFeedback() []string {
 	return out
 }
 
-// narrowCaution is the caution of the last statement in two lines at
-// most, with where to read it whole always shown.
+// narrowCaution is the caution of the last statement in feedbackMax
+// lines at most, with where to read it whole always shown.
 func (m *Model) narrowCaution() []string {
 	suffix := m.cautionSuffix()
 	ls := wrapLine("caution: "+m.tr(m.caution.Line())+suffix, m.width, 2)
-	if len(ls) > 2 {
-		ls = ls[:2]
-		ls[1] = fitWhole(ls[1]+" "+strings.Repeat("x", m.width), m.width-ansi.StringWidth(suffix)) + suffix
+	if n := feedbackMax; len(ls) > n {
+		ls = ls[:n]
+		ls[n-1] = fitWhole(ls[n-1]+" "+strings.Repeat("x", m.width), m.width-ansi.StringWidth(suffix)) + suffix
 	}
 	for i := range ls {
 		ls[i] = m.th.err.Render(ls[i])
