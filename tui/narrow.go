@@ -488,8 +488,10 @@ func (m *Model) narrowTrail(h int) []string {
 // narrowSketch is the sketch (or power triangle) across the narrow
 // screen, under a title line of the narrow layout.
 func (m *Model) narrowSketch(h int) []string {
-	ls := m.sketch.view(m, m.width, h)
-	out := []string{m.paneHead(m.sketch.title, []string{m.sketch.info})}
+	ls := m.sketch.view(m, m.width, h-1)
+	// what is drawn (and how to mark more) has a line of its own: the
+	// title line has room for the pane key only
+	out := []string{m.paneHead(m.sketch.title, nil), m.th.dim.Render(fitWhole(m.sketch.info, m.width))}
 	return append(out, ls[1:]...)
 }
 
