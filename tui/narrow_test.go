@@ -381,3 +381,48 @@ func TestKeepEnds(t *testing.T) {
 		}
 	}
 }
+
+// The README's narrow screen is the app's, at 40×20, on the plant room
+// of its first worked example (invented example data).
+func TestReadmeNarrowScreen(t *testing.T) {
+	b, err := os.ReadFile("../README.md")
+	if err != nil {
+		t.Skip("README.md not found:", err)
+	}
+	readme := string(b)
+	_, ex, ok := strings.Cut(readme, "Power and power-factor correction, a plant room")
+	if !ok {
+		t.Fatal("README has no plant room example")
+	}
+	_, ex, _ = strings.Cut(ex, "```\n")
+	ex, _, _ = strings.Cut(ex, "```")
+	_, shot, ok := strings.Cut(readme, "opened with `argand plant.argand` at 40×20:\n\n")
+	if !ok {
+		t.Fatal("README has no narrow screen")
+	}
+	var want []string
+	for _, l := range strings.Split(shot, "\n") {
+		if !strings.HasPrefix(l, "    ") {
+			break
+		}
+		want = append(want, strings.TrimPrefix(l, "    "))
+	}
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "plant.argand"), []byte(ex), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	// opened as the README says, from its directory
+	t.Chdir(dir)
+	m := newModel(t, Options{File: "plant.argand", Dir: filepath.Join(dir, "state")})
+	m.Update(tea.WindowSizeMsg{Width: 40, Height: 20})
+	got := strings.Split(m.View(), "\n")
+	if len(got) != len(want) {
+		t.Fatalf("README screen has %d lines, the app %d:\n%s", len(want), len(got), m.View())
+	}
+	for i := range got {
+		g := strings.TrimRight(got[i], " ")
+		if g != want[i] {
+			t.Errorf("README screen line %d is %q, the app writes %q", i+1, want[i], g)
+		}
+	}
+}
