@@ -475,7 +475,12 @@ func TestWindowAndTerminal(t *testing.T) {
 	if err := a.sess.WindowChange(10, 40); err != nil {
 		t.Fatal(err)
 	}
-	a.wait("40×10; needs 60×16")
+	a.wait("40×10; needs 40×20")
+	// a phone's terminal held upright: the narrow layout, one pane
+	if err := a.sess.WindowChange(20, 40); err != nil {
+		t.Fatal(err)
+	}
+	a.wait("m → trail")
 	if err := a.sess.WindowChange(30, 100); err != nil {
 		t.Fatal(err)
 	}
