@@ -289,7 +289,16 @@ func (m *Model) hintKeys() []key.Binding {
 	switch m.mode {
 	case modeRows:
 		short := m.keys.Table.ShortHelp()
-		bs := []key.Binding{short[0], brief(m.keys.Table.Pane, "pane"), short[1]}
+		tk := m.keys.Table
+		switch m.pane {
+		case paneTrail:
+			// the trail pane is read: its own keys first
+			return []key.Binding{short[0], brief(tk.Pane, "pane"), brief(tk.TrailBack, "back"), brief(tk.TrailOn, "on"),
+				brief(tk.TrailLast, "latest"), brief(tk.TrailFull, "in full"), short[1]}
+		case paneSketch:
+			return []key.Binding{short[0], brief(tk.Pane, "pane"), brief(tk.Mark, "mark"), brief(tk.Down, "row"), brief(tk.Unmark, "clear"), short[1]}
+		}
+		bs := []key.Binding{short[0], brief(tk.Pane, "pane"), short[1]}
 		if h := m.operandText(); h != "" {
 			var b key.Binding
 			b.SetHelp("", h)
