@@ -44,6 +44,12 @@ func (m *Model) startAsk(title string, qs []question, done func([]string)) {
 }
 
 func (q *questions) view(m *Model, w int) string {
+	label := q.label(m)
+	return m.th.label.Render(label) + q.answer(m, w-ansi.StringWidth(label))
+}
+
+// label is the question asked, with its number and the offered answer.
+func (q *questions) label(m *Model) string {
 	cur := q.qs[q.i]
 	label := cur.label
 	if len(q.qs) > 1 {
@@ -52,9 +58,13 @@ func (q *questions) view(m *Model, w int) string {
 	if cur.def != "" {
 		label += " [" + cur.def + "]"
 	}
-	label = m.tr(label) + ": "
-	s, _ := q.f.render(max(4, w-ansi.StringWidth(label)), func(c string) string { return m.th.cursor.Render(c) })
-	return m.th.label.Render(label) + s
+	return m.tr(label) + ": "
+}
+
+// answer draws the answer being typed in w cells (at least 4).
+func (q *questions) answer(m *Model, w int) string {
+	s, _ := q.f.render(max(4, w), func(c string) string { return m.th.cursor.Render(c) })
+	return s
 }
 
 // askKey handles a key while a question is open.

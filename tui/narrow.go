@@ -142,7 +142,8 @@ func (m *Model) narrowView() []string {
 	}
 	fb := m.narrowFeedback()
 	hint := m.narrowHint()
-	bodyH := m.height - 3 - len(fb)
+	entry := m.narrowEntry()
+	bodyH := m.height - 2 - len(entry) - len(fb)
 	var body []string
 	switch {
 	case m.netShown():
@@ -160,9 +161,28 @@ func (m *Model) narrowView() []string {
 	lines := make([]string, 0, m.height)
 	lines = append(lines, m.narrowStatus())
 	lines = append(lines, body[:bodyH]...)
-	lines = append(lines, m.entryView())
+	lines = append(lines, entry...)
 	lines = append(lines, fb...)
 	return append(lines, hint)
+}
+
+// narrowEntry is the entry line; a question too long to leave room for
+// its answer beside it is asked on the lines above, wrapped, and answered
+// on the line itself.
+func (m *Model) narrowEntry() []string {
+	if m.mode != modePrompt || m.ask == nil {
+		return []string{m.entryView()}
+	}
+	label := m.ask.label(m)
+	if ansi.StringWidth(label)+12 <= m.width {
+		return []string{m.entryView()}
+	}
+	var out []string
+	for _, l := range capLines(wrapLine(label, m.width, 2), 3, m.width) {
+		out = append(out, m.th.label.Render(l))
+	}
+	p := m.tr(linePrompt)
+	return append(out, m.th.label.Render(p)+m.ask.answer(m, m.width-ansi.StringWidth(p)))
 }
 
 // narrowStatus is the status line of a narrow screen: the flags of the

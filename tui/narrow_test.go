@@ -156,6 +156,8 @@ var narrowStates = []struct {
 	{"trail in full, first", []string{"T", "home"}},
 	{"question", []string{"v"}},
 	{"question asked twice", []string{"t", "enter"}},
+	{"question with a long offer", []string{"e", "Zfeeder_section_one = 5 Ω", "enter", "Zfeeder_section_two = 7 Ω", "enter",
+		"Zfeeder_section_three = 9 Ω", "enter", "esc", "home", " ", "down", " ", "down", " ", "c", "enter"}},
 	{"export", []string{"x"}},
 	{"error typed", []string{"e", "Zq = (12.5 + j7.25"}},
 	{"call typed", []string{"e", "Vk = vdiv(230 V, 12.5 Ω"}},
