@@ -58,7 +58,7 @@ func (m *Model) fullView() []string {
 	out := []string{m.th.section("trail in full", info, m.width)}
 	for i := start; i < end; i++ {
 		l := t.lines[i]
-		s := fit(l.text, m.width)
+		s := fitWhole(l.text, m.width) // a plot's line is cut between its words, not inside a number
 		if l.head {
 			s = m.th.label.Render(s)
 		}

@@ -158,6 +158,8 @@ var narrowStates = []struct {
 	{"question asked twice", []string{"t", "enter"}},
 	{"question with a long offer", []string{"e", "Zfeeder_section_one = 5 Ω", "enter", "Zfeeder_section_two = 7 Ω", "enter",
 		"Zfeeder_section_three = 9 Ω", "enter", "esc", "home", " ", "down", " ", "down", " ", "c", "enter"}},
+	{"sweep plot", []string{"e", "Zs = 10 Ω + 10 mH + 100 nF", "enter", "sweep Zs from 1 kHz to 20 kHz points 61 log", "enter", "esc", "m"}},
+	{"sweep plot in full", []string{"e", "Zs = 10 Ω + 10 mH + 100 nF", "enter", "sweep Zs from 1 kHz to 20 kHz points 61 log", "enter", "esc", "T"}},
 	{"export", []string{"x"}},
 	{"error typed", []string{"e", "Zq = (12.5 + j7.25"}},
 	{"call typed", []string{"e", "Vk = vdiv(230 V, 12.5 Ω"}},

@@ -319,7 +319,7 @@ func (t *trailView) view(m *Model, w, h int) []string {
 	start := max(0, end-body)
 	for i := start; i < end; i++ {
 		l := t.lines[i]
-		s := fit(l.text, w)
+		s := fitWhole(l.text, w) // a plot's line is cut between its words, not inside a number
 		if l.head {
 			s = m.th.label.Render(s)
 		}
