@@ -33,6 +33,12 @@ type Operand struct {
 type Row struct {
 	Name   string
 	Values []Operand // each Operand.Name is the column key, such as "v"
+	// Key is the value the row stands for, when it stands for one (a sweep
+	// point's frequency): Name shows it rounded, and a table written for
+	// another program takes it whole from here. Key.Name is "" when none.
+	Key Operand
+	// Note says why a row has no values (a pole at a sweep point).
+	Note string
 }
 
 // CheckOutcome is the verdict of a check statement.

@@ -6,6 +6,7 @@
 //	argand FILE            open a worksheet in the app
 //	argand eval EXPR...    evaluate each argument and print the steps
 //	argand run FILE|-      run a worksheet and print every step
+//	                       (--csv: its tables and results as CSV)
 //	argand help [TOPIC]    print help
 //	argand export --html OUT.html [--date YYYY-MM-DD] [WORKSHEET|-]
 //	                       write a job record (the saved session by default)
@@ -14,7 +15,7 @@
 //	argand serve [FLAGS]   serve the app over SSH (loopback unless --listen)
 //	argand --version
 //
-// Flags: --json, --digits N, --ascii, --polar, --plain, --new,
+// Flags: --json, --csv, --digits N, --ascii, --polar, --plain, --new,
 // --decimal-comma, --help (or -h). Exit codes: 0 ok, 1 a check failed,
 // 2 bad input or usage, 130 interrupted (ctrl+c).
 package main
@@ -29,6 +30,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"path/filepath"
 	"strconv"
 	"strings"
 
@@ -80,6 +82,8 @@ func parse(argv []string) (flags, error) {
 		switch name {
 		case "json":
 			f.opt.JSON = true
+		case "csv":
+			f.opt.CSV = true
 		case "ascii":
 			f.opt.ASCII = true
 		case "plain":
@@ -126,6 +130,9 @@ func parse(argv []string) (flags, error) {
 		if hasVal && name != "digits" {
 			return f, fmt.Errorf("--%s takes no value", name)
 		}
+	}
+	if f.opt.JSON && f.opt.CSV {
+		return f, fmt.Errorf("--json and --csv are two output forms: choose one")
 	}
 	return f, nil
 }
@@ -193,6 +200,8 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 			return cli.ExitBadInput
 		}
 		defer file.Close()
+		// a worksheet's readings files lie beside it
+		f.opt.Dir = filepath.Dir(f.args[1])
 		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":
 		return cli.Help(f.args[1:], out, errw, f.opt)

@@ -17,6 +17,10 @@ type Limits struct {
 	Points   int     // points of one sweep
 	Elements int     // elements of one network block; 0 is no bound
 	Budget   float64 // the largest budget a statement may set, seconds
+	// NoFiles refuses the statements that read a file named in the
+	// worksheet (readings): a server must not open its own files for
+	// whoever types a path.
+	NoFiles bool
 }
 
 // DefaultLimits are the limits of a new worksheet.

@@ -127,6 +127,8 @@ type Sheet struct {
 	startComma bool
 	// title is the job's title, from the title statement.
 	title string
+	// dir is the directory a readings file's relative path starts from.
+	dir string
 }
 
 // New returns an empty worksheet at the default settings with every

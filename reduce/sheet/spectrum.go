@@ -80,6 +80,9 @@ func (s *Sheet) stmtSpectrum(p *calc.Parser) error {
 		if err != nil {
 			return err
 		}
+		if s.limits.NoFiles {
+			return lineErr(s.line, col, utf8.RuneCountInString(path), "spectrum %s from: files cannot be read here (this argand serves sessions over the network); type the orders on the line", nameTok.Text)
+		}
 		if s.dry {
 			return nil
 		}

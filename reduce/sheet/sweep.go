@@ -363,9 +363,10 @@ func (s *Sheet) sweepStep(p *calc.Parser, sp sweepSpec, tab, plotTab *sweep.Tabl
 		st.Inputs = []calc.Operand{{Name: "dB reference", Value: lv.ref}}
 	}
 	for k, pt := range tab.Points {
-		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0)}
+		row := calc.Row{Name: s.ctx.Format.Mag(pt.Freq, calc.DimFrequency, 0), Key: calc.Operand{Name: "f", Value: calc.Real(pt.Freq, calc.DimFrequency)}}
 		if pt.Mark != "" {
 			row.Name += ": " + pt.Mark // no value to show
+			row.Note = pt.Mark
 		} else {
 			row.Values = []calc.Operand{{Name: "value", Value: pt.Value}}
 			if sp.db && lv.has[k] {

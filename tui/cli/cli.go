@@ -39,13 +39,20 @@ type Options struct {
 	// Comma starts the worksheet under the decimal comma (--decimal-comma);
 	// a worksheet's own decimal statement still rules from its line on.
 	Comma bool
+	// CSV writes the steps as CSV tables (--csv, see csvOut); the checks'
+	// summary and errors go to the error stream as text.
+	CSV bool
+	// Dir is the directory a worksheet's readings files are read relative
+	// to: the worksheet file's own; "" is the working directory.
+	Dir string
 }
 
 // Printer writes steps and errors in one of the two output forms.
 type Printer struct {
 	W   io.Writer // steps and, in JSON mode, errors
-	Err io.Writer // errors in text mode
+	Err io.Writer // errors in text and CSV mode
 	O   Options
+	csv *csvOut
 }
 
 func (p *Printer) format(s *sheet.Sheet) calc.Format {
@@ -56,6 +63,13 @@ func (p *Printer) format(s *sheet.Sheet) calc.Format {
 
 // Steps writes steps.
 func (p *Printer) Steps(s *sheet.Sheet, steps []calc.Step) {
+	if p.O.CSV {
+		if p.csv == nil {
+			p.csv = newCSV(p.W)
+		}
+		p.csv.Steps(steps)
+		return
+	}
 	f := p.format(s)
 	for i := range steps {
 		if p.O.JSON {
@@ -98,6 +112,11 @@ func (p *Printer) Summary(pass, fail int) {
 	if pass+fail == 0 {
 		return
 	}
+	if p.O.CSV {
+		// standard output holds only the tables
+		fmt.Fprintf(p.Err, "checks: %d passed, %d failed\n", pass, fail)
+		return
+	}
 	if p.O.JSON {
 		fmt.Fprintf(p.W, "{\"kind\":\"summary\",\"checks_passed\":%d,\"checks_failed\":%d}\n", pass, fail)
 		return
@@ -118,6 +137,7 @@ func NewSheet(o Options) (*sheet.Sheet, error) {
 	// from the start, not transliterated afterwards out of alignment
 	s.Context().Format.ASCII = o.ASCII
 	s.SetDecimalComma(o.Comma)
+	s.SetDir(o.Dir)
 	return s, nil
 }
 
@@ -292,6 +312,12 @@ func (p *Printer) RunSummary(sum sheet.Summary) {
 	}
 	if len(errs)+len(skipped)+len(sum.Changed) == 0 {
 		p.Summary(sum.Pass, sum.Fail)
+		return
+	}
+	if p.O.CSV {
+		q := *p
+		q.W, q.O.CSV = p.Err, false
+		q.RunSummary(sum)
 		return
 	}
 	if p.O.JSON {

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"strings"
 
 	"argand/calc"
@@ -19,7 +20,7 @@ func Batch(file string, in io.Reader, w, ew io.Writer, o Options) int {
 // BatchContext is Batch stopped by ctx (ctrl+c), as RunContext.
 func BatchContext(ctx context.Context, file string, in io.Reader, w, ew io.Writer, o Options) int {
 	if file == "" {
-		if !o.JSON {
+		if !o.JSON && !o.CSV {
 			fmt.Fprintln(w, "# built-in example worksheet (example data, invented scenario)")
 		}
 		return RunContext(ctx, strings.NewReader(ExampleIn(o.Comma)), "example", w, ew, o)
@@ -30,5 +31,6 @@ func BatchContext(ctx context.Context, file string, in io.Reader, w, ew io.Write
 		return ExitBadInput
 	}
 	defer f.Close()
+	o.Dir = filepath.Dir(file)
 	return RunContext(ctx, f, file, w, ew, o)
 }

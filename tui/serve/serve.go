@@ -52,7 +52,7 @@ const (
 // largest budget of estimated work a statement may be given (package
 // sheet refuses work estimated beyond the budget before it starts).
 func DefaultLimits() sheet.Limits {
-	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30}
+	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30, NoFiles: true}
 }
 
 // DefaultHandshake bounds the time from connecting to opening a session:
