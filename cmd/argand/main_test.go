@@ -105,6 +105,10 @@ func TestCommandLine(t *testing.T) {
 		{"run no file", []string{"run"}, 2, "", "run takes one"},
 		{"run json", []string{"--json", "run", ws("motor.argand")}, 0, `"unit":"Ω"`, ""},
 		{"two words", []string{"a", "b"}, 2, "", "unexpected"},
+		{"csv", []string{"--csv", "eval", "3+j4 Ω"}, 0, "line,kind,name,re,im,mag,deg,unit,quantity,basis\r\n1,eval,Z1,3,4,5,", ""},
+		{"csv run check fails", []string{"--csv", "run", ws("checkfail.argand")}, 1, "line,check,verdict\r\n", "checks: 1 passed, 1 failed"},
+		{"csv and json", []string{"--csv", "--json", "eval", "1"}, 2, "", "--json and --csv are two output forms"},
+		{"csv takes no value", []string{"--csv=x", "eval", "1"}, 2, "", "--csv takes no value"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -262,6 +266,35 @@ func TestPlainPiped(t *testing.T) {
 	for _, want := range []string{"line mode", "Zpiped = 3.000 + j4.000 Ω", "6.000 + j8.000 Ω"} {
 		if !strings.Contains(out.String(), want) {
 			t.Errorf("--plain with piped statements lacks %q:\n%s", want, out.String())
+		}
+	}
+}
+
+// TestReadingsBesideWorksheet: argand run reads a readings file named by
+// a relative path from the worksheet's folder, not the working directory;
+// a perturbed reading fails its check with exit 1. Example data: an
+// invented 12 V bench circuit, I = 12 V / 10 Ω.
+func TestReadingsBesideWorksheet(t *testing.T) {
+	dir := t.TempDir()
+	sheet := "resistor R1 = 10 Ω\nI1 = 12 V / R1\nreadings bench.csv\ncheck I1 is I_R1 within 0.5%\n"
+	if err := os.WriteFile(filepath.Join(dir, "job.argand"), []byte(sheet), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		reading string
+		code    int
+	}{{"1.2", 0}, {"1.21", 1}} {
+		body := "name,value,unit\r\nI_R1," + c.reading + ",A\r\n"
+		if err := os.WriteFile(filepath.Join(dir, "bench.csv"), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		code, out, errs := argand(t, "C", "", "--csv", "run", filepath.Join(dir, "job.argand"))
+		if code != c.code {
+			t.Errorf("reading %s A: exit %d, want %d\n%s%s", c.reading, code, c.code, out, errs)
+		}
+		// CSV is UTF-8 in every locale, as JSON is
+		if !strings.Contains(out, "3,readings,I_R1,"+c.reading+",0,"+c.reading+",0,A,phasor,rms\r\n") || !strings.Contains(out, "R1,10,0,10,0,Ω,") {
+			t.Errorf("reading %s A: output\n%s", c.reading, out)
 		}
 	}
 }

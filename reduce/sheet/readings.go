@@ -277,15 +277,10 @@ func (s *Sheet) readingRow(rec []string, line int, at func(int) int) (Reading, e
 	case comma && !s.ctx.Format.Comma:
 		return Reading{}, bad(1, "%s has a decimal comma: write %s, or put decimal comma before the readings line", calc.Printable(val), strings.ReplaceAll(calc.Printable(val), ",", "."))
 	}
-	q, col, msg := s.readingValue(val, unit, comma, line)
+	q, field, msg := s.readingValue(val, unit, comma, line)
 	if msg != "" {
-		field := 1
-		if col > utf8.RuneCountInString(val) {
-			field = 2
-		}
 		return Reading{}, bad(field, "%s: %s", msg, readingsForm)
 	}
-	_ = col
 	return Reading{Name: name, Value: q, Line: line}, nil
 }
 
@@ -310,16 +305,13 @@ func (s *Sheet) readingName(name string) string {
 }
 
 // readingValue reads a value and its unit as one literal of the worksheet
-// language. It returns the column of a refusal (in val + " " + unit) and
-// the refusal, or the value.
+// language: the value alone first, so that a refusal of it points at the
+// value field (1), then with the unit, whose refusal points at the field
+// the column falls in (1 or 2).
 func (s *Sheet) readingValue(val, unit string, comma bool, line int) (calc.Quantity, int, string) {
-	src := val
-	if unit != "" {
-		src += " " + unit
-	}
-	e, perr := calc.ParseExprComma(src, line, comma)
+	e, perr := calc.ParseExprComma(val, line, comma)
 	if perr != nil {
-		return calc.Quantity{}, perr.Col, perr.Msg
+		return calc.Quantity{}, 1, perr.Msg
 	}
 	var off calc.Expr
 	calc.Walk(e, func(x calc.Expr) {
@@ -336,14 +328,27 @@ func (s *Sheet) readingValue(val, unit string, comma bool, line int) (calc.Quant
 		}
 	})
 	if off != nil {
-		pos, end, col := off.Span()
-		return calc.Quantity{}, col, fmt.Sprintf("%q is not a number with a unit (a reading is a measured value: no names, functions or arithmetic)", calc.Printable(src[pos:end]))
+		pos, end, _ := off.Span()
+		return calc.Quantity{}, 1, fmt.Sprintf("%q is not a number with a unit (a reading is a measured value: no names, functions or arithmetic)", calc.Printable(val[pos:end]))
+	}
+	src := val
+	if unit != "" {
+		src += " " + unit
+	}
+	field := func(col int) int {
+		if col > utf8.RuneCountInString(val) {
+			return 2
+		}
+		return 1
+	}
+	if e, perr = calc.ParseExprComma(src, line, comma); perr != nil {
+		return calc.Quantity{}, field(perr.Col), perr.Msg
 	}
 	ctx := s.ctx
 	ev := &calc.Evaluator{Env: readingEnv{&ctx}, Src: src, Line: line}
 	res, err := ev.Eval(e)
 	if err != nil {
-		return calc.Quantity{}, err.Col, err.Msg
+		return calc.Quantity{}, field(err.Col), err.Msg
 	}
 	return res.Value, 0, ""
 }

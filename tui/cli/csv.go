@@ -141,11 +141,13 @@ func csvNum(x float64) string {
 	return strconv.FormatFloat(x, 'g', -1, 64)
 }
 
-// csvText makes a text field safe: control characters shown as visible
-// escapes, and a leading character a spreadsheet would take for the start
+// csvText makes a text field safe: control characters and line breaks
+// shown as visible escapes (a tab as a space), and a leading character a spreadsheet would take for the start
 // of a formula (= + - @ tab CR) guarded by an apostrophe.
 func csvText(s string) string {
-	s = calc.Printable(s)
+	// Printable keeps the line feed, the line break of text; a field
+	// keeps none, so that tables are found by their empty lines
+	s = strings.ReplaceAll(calc.Printable(s), "\n", `\x0a`)
 	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
 		return "'" + s
 	}
