@@ -99,10 +99,10 @@ func keywordTable() []keyword {
 		{word: "readings", where: outside, run: (*Sheet).stmtReadings,
 			help: [][2]string{
 				{"readings FILE", "measured values from a CSV file of rows name,value,unit"},
-				{"", "  (such as V_R1,229.6,V; a header row name,value,unit"},
-				{"", "  optional; # starts a comment), each a name for check:"},
-				{"", "  check N.R1.v is V_R1 within 2%, or check X reads V_R1"},
-				{"", "  FILE is relative to the worksheet's folder"}}},
+				{"", "  (V_R1,229.6,V; a header row name,value,unit optional;"},
+				{"", "  # starts a comment); each becomes a name for check …"},
+				{"", "  is and check … reads: check N.R1.v is V_R1 within 2%;"},
+				{"", "  a relative FILE lies beside the worksheet"}}},
 		{word: "language", where: outside, run: (*Sheet).stmtLanguage,
 			help: [][2]string{
 				{"language 2", "the input language a worksheet was written in; saved"},

@@ -45,6 +45,8 @@ usage:
 
 flags:
   --json       one JSON object per line (same in every locale)
+  --csv        tables and results as CSV (RFC 4180, units in the headers,
+               numbers exact with a point; checks' summary on stderr)
   --digits N   significant figures shown (1 to 17, default 4)
   --ascii      ASCII only: ohm, u, @, deg (automatic in a non-UTF-8 locale)
   --polar      show the polar form first
@@ -269,10 +271,16 @@ func Topic(name string) (text string, ok bool) {
 	}
 	var lines []string
 	helpText := language + statements() + "\n" + networks + "\nnetwork statements\n" + statementLines(sheet.StatementsHelp("networks"))
+	more := false // the lines of a form's help that follow it
 	for _, l := range strings.Split(helpText, "\n") {
 		f := strings.Fields(l)
-		if len(f) > 0 && (f[0] == name || len(f) > 1 && f[0]+" "+f[1] == name) {
-			lines = append(lines, strings.TrimSpace(l))
+		switch {
+		case len(f) > 0 && (f[0] == name || len(f) > 1 && f[0]+" "+f[1] == name):
+			lines, more = append(lines, strings.TrimSpace(l)), true
+		case more && strings.HasPrefix(l, strings.Repeat(" ", 25)):
+			lines = append(lines, "  "+strings.TrimSpace(l))
+		default:
+			more = false
 		}
 	}
 	if len(lines) > 0 {

@@ -19,7 +19,7 @@ func TestReadmeWorksheets(t *testing.T) {
 	if err != nil {
 		t.Skip("README.md not found:", err)
 	}
-	blocks := regexp.MustCompile("(?s)```\n(.*?)```").FindAllStringSubmatch(string(b), -1)
+	blocks := worksheetBlocks(string(b))
 	ran := 0
 	for _, m := range blocks {
 		src := m[1]
@@ -50,7 +50,7 @@ func TestReadmeWorksheetsDecimalComma(t *testing.T) {
 	if err != nil {
 		t.Skip("README.md not found:", err)
 	}
-	blocks := regexp.MustCompile("(?s)```\n(.*?)```").FindAllStringSubmatch(string(b), -1)
+	blocks := worksheetBlocks(string(b))
 	ran, withDecimals := 0, 0
 	for _, m := range blocks {
 		src := m[1]
@@ -128,5 +128,98 @@ func TestReadmeSafety(t *testing.T) {
 	}
 	if !strings.Contains(string(b), calc.SafetyText) {
 		t.Errorf("README.md lacks the safety text:\n%s", calc.SafetyText)
+	}
+}
+
+// fence is a fenced block of README.md: its info string (csv, text or
+// none) and its text.
+type fence struct{ tag, body string }
+
+// fences splits README.md into its fenced blocks, line by line, so that a
+// block with an info string does not shift the pairing of the others.
+func fences(readme string) []fence {
+	var out []fence
+	var cur *fence
+	for _, l := range strings.SplitAfter(readme, "\n") {
+		if strings.HasPrefix(l, "```") {
+			if cur == nil {
+				cur = &fence{tag: strings.TrimSpace(l[3:])}
+			} else {
+				out = append(out, *cur)
+				cur = nil
+			}
+			continue
+		}
+		if cur != nil {
+			cur.body += l
+		}
+	}
+	return out
+}
+
+// worksheetBlocks returns README.md's untagged blocks as the submatches
+// the tests read (index 1 the text): a block tagged csv or text is data
+// or a fragment, not a worksheet.
+func worksheetBlocks(readme string) [][]string {
+	var out [][]string
+	for _, f := range fences(readme) {
+		if f.tag == "" {
+			out = append(out, []string{"", f.body})
+		}
+	}
+	return out
+}
+
+// readmeBlock returns the first fenced block of README.md tagged tag ("" for
+// none) that holds text.
+func readmeBlock(t *testing.T, readme, tag, text string) string {
+	t.Helper()
+	for _, f := range fences(readme) {
+		if f.tag == tag && strings.Contains(f.body, text) {
+			return f.body
+		}
+	}
+	t.Fatalf("README.md has no block tagged %q holding %q", tag, text)
+	return ""
+}
+
+// The README's CSV round trip is what argand does: the element table it
+// shows is the bridge's --csv output (first five fields), and its readings
+// file, beside the bridge worksheet with the lines it adds, passes every
+// check.
+func TestReadmeCSV(t *testing.T) {
+	b, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Skip("README.md not found:", err)
+	}
+	readme := string(b)
+	bridge := readmeBlock(t, readme, "", "network bridge reference gnd")
+	shown := readmeBlock(t, readme, "", "$ argand run --csv bridge.argand")
+	var out, errw strings.Builder
+	Run(strings.NewReader(bridge), "bridge.argand", &out, &errw, Options{CSV: true})
+	var got []string
+	for _, part := range strings.Split(out.String(), "\r\n\r\n") {
+		if strings.HasPrefix(part, "name,re v") {
+			for _, l := range strings.Split(strings.TrimSpace(part), "\r\n") {
+				f := strings.Split(l, ",")
+				got = append(got, strings.Join(f[:5], ","))
+			}
+		}
+	}
+	lines := strings.Split(strings.TrimSpace(shown), "\n")
+	if want := strings.Join(lines[2:], "\n"); strings.Join(got, "\n") != want {
+		t.Errorf("README shows\n%s\nargand writes\n%s", want, strings.Join(got, "\n"))
+	}
+	dir := t.TempDir()
+	csvText := readmeBlock(t, readme, "csv", "name,value,unit")
+	if err := os.WriteFile(dir+"/bridge-readings.csv", []byte(csvText), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	added := readmeBlock(t, readme, "text", "readings bridge-readings.csv")
+	out.Reset()
+	errw.Reset()
+	code := Run(strings.NewReader(bridge+added), "bridge.argand", &out, &errw, Options{Dir: dir})
+	if code != ExitOK || !strings.Contains(out.String(), "checks: 4 passed, 0 failed") {
+		t.Errorf("README readings: exit %d\n%s%s", code, out.String(), errw.String())
 	}
 }
