@@ -52,7 +52,7 @@ const (
 // largest budget of estimated work a statement may be given (package
 // sheet refuses work estimated beyond the budget before it starts).
 func DefaultLimits() sheet.Limits {
-	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30, NoFiles: true}
+	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30}
 }
 
 // DefaultHandshake bounds the time from connecting to opening a session:
@@ -125,6 +125,9 @@ func (c *Config) fill() {
 	if c.Limits.Budget <= 0 {
 		c.Limits.Budget = d.Budget
 	}
+	// whatever the limits, a server opens none of its own files for a
+	// path a client types (readings, spectrum from FILE)
+	c.Limits.NoFiles = true
 	if c.Log == nil {
 		c.Log = log.New(io.Discard, "", 0)
 	}

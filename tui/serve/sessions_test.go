@@ -390,7 +390,7 @@ func startChild(t *testing.T, dir string) (*exec.Cmd, string) {
 }
 
 // TestWorksheetLimits: a worksheet limit refuses the statement with the
-// app's own message and the session goes on.
+// app's own message and the session goes on; a readings file is refused.
 func TestWorksheetLimits(t *testing.T) {
 	dir := t.TempDir()
 	key := newKey(t)
@@ -407,6 +407,9 @@ func TestWorksheetLimits(t *testing.T) {
 	a.wait("points takes a whole number from 2 to 50")
 	a.send("\x15", "budget 60 s", "\r")
 	a.wait("a budget lies from 0.1 s to 20 s here")
+	// a served session opens no file on the server, whatever the limits
+	a.send("\x15", "readings /etc/hostname", "\r")
+	a.wait("files cannot be read here")
 	a.send("\x15", "\x1b")
 	a.enter("Zlim = 1+j1 Ω", "1.000 + j1.000 Ω")
 	a.send("q")
