@@ -281,6 +281,16 @@ func (s *Sheet) readingRow(rec []string, line int, at func(int) int) (Reading, e
 	if msg != "" {
 		return Reading{}, bad(field, "%s: %s", msg, readingsForm)
 	}
+	// a reading is of one quantity, whose unit a record written back
+	// (FormatReadings) can name: not a compound such as V·s or /C
+	sym := readingUnit(q)
+	if back, _, msg := s.readingValue("1", sym, false, line); msg != "" || back.Dim != q.Dim {
+		field := 2
+		if unit == "" {
+			field = 1 // the unit was written in the value field
+		}
+		return Reading{}, bad(field, "%q is not in a unit of one measured quantity: write the value in V, A, W, var, VA, Ω, S, Hz, F, H, s, rad or ° (or no unit for a ratio)", calc.Printable(strings.TrimSpace(val+" "+unit)))
+	}
 	return Reading{Name: name, Value: q, Line: line}, nil
 }
 

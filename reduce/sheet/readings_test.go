@@ -85,6 +85,8 @@ func TestReadingsErrors(t *testing.T) {
 		{"no value", "a, ,V\n", false, 1, 3, "value of a is missing"},
 		{"bad number", "a,23O.1,V\n", false, 1, 3, "name,value,unit"},
 		{"bad unit", "a,1,Vx\n", false, 1, 5, "name,value,unit"},
+		{"compound unit", "a,2,/C\n", false, 1, 5, "not in a unit of one measured quantity"},
+		{"compound in the value", "a,2 /C,\n", false, 1, 3, "not in a unit of one measured quantity"},
 		{"a name as value", "a,b,V\n", false, 1, 3, "not a number with a unit"},
 		{"a function", "a,sqrt(2),V\n", false, 1, 3, "not a number with a unit"},
 		{"arithmetic", "a,2*3,V\n", false, 1, 3, "not a number with a unit"},
