@@ -273,9 +273,9 @@ func (s *Sheet) readingRow(rec []string, line int, at func(int) int) (Reading, e
 	comma := strings.ContainsRune(val, ',')
 	switch {
 	case comma && strings.ContainsRune(val, '.'):
-		return Reading{}, bad(1, "%s holds both a comma and a point: write the value with one decimal marker and no thousands separator", calc.Printable(val))
+		return Reading{}, bad(1, "%q holds both a comma and a point: write the value with one decimal marker and no thousands separator", calc.Printable(val))
 	case comma && !s.ctx.Format.Comma:
-		return Reading{}, bad(1, "%s has a decimal comma: write %s, or put decimal comma before the readings line", calc.Printable(val), strings.ReplaceAll(calc.Printable(val), ",", "."))
+		return Reading{}, bad(1, "%q has a decimal comma: write %q, or put decimal comma before the readings line", calc.Printable(val), strings.ReplaceAll(calc.Printable(val), ",", "."))
 	}
 	q, field, msg := s.readingValue(val, unit, comma, line)
 	if msg != "" {

@@ -90,7 +90,7 @@ func TestReadingsErrors(t *testing.T) {
 		{"a name as value", "a,b,V\n", false, 1, 3, "not a number with a unit"},
 		{"a function", "a,sqrt(2),V\n", false, 1, 3, "not a number with a unit"},
 		{"arithmetic", "a,2*3,V\n", false, 1, 3, "not a number with a unit"},
-		{"comma under point", "a,\"229,6\",V\n", false, 1, 3, "write 229.6, or put decimal comma"},
+		{"comma under point", "a,\"229,6\",V\n", false, 1, 3, `write "229.6", or put decimal comma`},
 		{"both markers", "a,\"1.229,6\",V\n", true, 1, 3, "both a comma and a point"},
 		{"bare quote", "a,2\"3,V\n", false, 1, 4, "double the quote"},
 		{"open quote", "a,\"23,V\n", false, 1, 0, "close the quote"},
