@@ -23,6 +23,7 @@ var sheetSeeds = []string{
 	"spectrum I h1 100 A ∠ -20, h3 35 % ∠ 60, h5 22 %\nthd(I)\ncrest(I)\nkfactor(I, 120 A)",
 	"spectrum V h1 230 V, h5 3 % ∠ -60\nspectrum I h1 10 A ∠ -30, h5 20 % ∠ 40\nhpower(V, I)\navgmeter(V)",
 	"spectrum I h1 100 %, h5 20 %, h5 3 %", "spectrum I from /nonexistent", "spectrum I from .",
+	"readings /nonexistent", "readings .", "readings", "readings \"\"", "readings = 2", "x = readings",
 	"detune(50 kvar, 400 V, 7 %, three, 440 V)\nbankout(60 kvar, 440 V, 400 V, 7 %)",
 	"spectrum I h1 100 A, h5 22 %\nbankcheck(10 MVA, 400 kvar, I, 7 %)\nbankscan(10 MVA, 400 kvar, 400 V, 0.07, 8, 15)",
 	"inductor L1 = 10 mH\ncapacitor C1 = 1 µF\nZ = 20 Ω + L1 + C1\nsweep Z from 500 Hz to 5 kHz points 21 db ref 1 Ω",
