@@ -63,7 +63,10 @@ func (s *Sheet) defineReadings(p *calc.Parser, rs []Reading, path string) error 
 	fresh := 0
 	for _, r := range rs {
 		d, ok := s.byName[r.Name]
+		_, isNet := s.nets[r.Name]
 		switch {
+		case isNet:
+			return &readings.Error{Line: r.Line, Col: 1, Msg: fmt.Sprintf("%s is a network; give the reading another name", r.Name)}
 		case !ok:
 			fresh++
 		case d.elem != nil:

@@ -54,6 +54,13 @@ func TestReadingsStatement(t *testing.T) {
 			t.Errorf("a reading named %s: %v", name, err)
 		}
 	}
+	runOn(t, s, "capacitor C9 = 1 µF", "network N9 = R1 + C9 fed by 1 V", "spectrum H9 h1 1 A")
+	for _, name := range []string{"N9", "H9", "sqrt", "N9.R1.v"} {
+		writeFile(t, dir, "taken.csv", name+",1,V\n")
+		if _, _, err := s.Exec("readings taken.csv"); err == nil {
+			t.Errorf("a reading named %s was accepted", name)
+		}
+	}
 	for _, line := range []string{"readings", "readings missing.csv", "readings ."} {
 		if _, _, err := s.Exec(line); err == nil {
 			t.Errorf("%s: accepted", line)
