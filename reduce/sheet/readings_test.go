@@ -29,7 +29,7 @@ func TestReadingsStatement(t *testing.T) {
 	writeFile(t, dir, "bad.csv", "V_R1,9.449,V\nI_R1,x y,A\n")
 	s := New()
 	s.SetDir(dir)
-	runOn(t, s, "resistor R1 = 10 Ω", "I1 = 944.9 mA", "V1 = R1 * I1", "readings site.csv")
+	runOn(t, s, "resistor R1 = 10 Ω", "I1 = 944.9 mA", "V1 = R1 * I1", `readings "site.csv"`)
 	steps := execOK(t, s, "check V1 is V_R1 within 0.01%")
 	if c := steps[len(steps)-1].Check; c == nil || !c.Pass {
 		t.Errorf("check against the reading: %+v", c)
