@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"strings"
 	"time"
 
@@ -60,5 +61,6 @@ func runExport(f flags, in io.Reader, out, errw io.Writer) int {
 	}
 	defer file.Close()
 	e.Name = args[0]
+	f.opt.Dir = filepath.Dir(args[0]) // a worksheet's readings files lie beside it
 	return cli.ExportHTML(ctx, file, e, out, errw, f.opt)
 }

@@ -272,7 +272,8 @@ func TestPlainPiped(t *testing.T) {
 
 // TestReadingsBesideWorksheet: argand run reads a readings file named by
 // a relative path from the worksheet's folder, not the working directory;
-// a perturbed reading fails its check with exit 1. Example data: an
+// a perturbed reading fails its check with exit 1; export --html reads it
+// alike. Example data: an
 // invented 12 V bench circuit, I = 12 V / 10 Ω.
 func TestReadingsBesideWorksheet(t *testing.T) {
 	dir := t.TempDir()
@@ -295,6 +296,11 @@ func TestReadingsBesideWorksheet(t *testing.T) {
 		// CSV is UTF-8 in every locale, as JSON is
 		if !strings.Contains(out, "3,readings,I_R1,"+c.reading+",0,"+c.reading+",0,A,phasor,rms\r\n") || !strings.Contains(out, "R1,10,0,10,0,Ω,") {
 			t.Errorf("reading %s A: output\n%s", c.reading, out)
+		}
+		// a job record of the worksheet reads the same file
+		code, out, errs = argand(t, utf8Lang, "", "export", "--html", filepath.Join(dir, "job.html"), "--date", "2026-03-14", filepath.Join(dir, "job.argand"))
+		if code != c.code {
+			t.Errorf("export with reading %s A: exit %d, want %d\n%s%s", c.reading, code, c.code, out, errs)
 		}
 	}
 }
