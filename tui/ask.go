@@ -276,6 +276,8 @@ func (m *Model) exportKey(k tea.KeyMsg) tea.Cmd {
 			def = "session.argand"
 		}
 		write("save the session as a worksheet (argand run FILE replays it)", def, m.worksheetText)
+	case key.Matches(k, km.CSV):
+		write("export the tables and results as CSV (as argand run --csv)", "argand-trail.csv", m.trailCSV)
 	case key.Matches(k, km.HTML):
 		write("write a job record (HTML: steps, diagrams, checks, the worksheet)", "argand-record.html", m.recordHTML)
 	case key.Matches(k, km.Cancel):

@@ -157,17 +157,17 @@ func (k NetKeys) FullHelp() [][]key.Binding {
 
 // ExportKeys choose what to export.
 type ExportKeys struct {
-	Markdown, Text, Sheet, HTML, Cancel key.Binding
+	Markdown, Text, Sheet, HTML, CSV, Cancel key.Binding
 }
 
 // ShortHelp implements help.KeyMap.
 func (k ExportKeys) ShortHelp() []key.Binding {
-	return []key.Binding{brief(k.Markdown, "Markdown"), brief(k.Text, "text"), brief(k.Sheet, "worksheet"), brief(k.HTML, "record"), brief(k.Cancel, "cancel")}
+	return []key.Binding{brief(k.Markdown, "Markdown"), brief(k.Text, "text"), brief(k.Sheet, "worksheet"), brief(k.HTML, "record"), brief(k.CSV, "CSV"), brief(k.Cancel, "cancel")}
 }
 
 // FullHelp implements help.KeyMap.
 func (k ExportKeys) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{k.Markdown, k.Text, k.Sheet, k.HTML, k.Cancel}}
+	return [][]key.Binding{{k.Markdown, k.Text, k.Sheet, k.HTML, k.CSV, k.Cancel}}
 }
 
 // HelpKeys scroll and close the help screen.
@@ -272,7 +272,7 @@ func DefaultKeyMap() KeyMap {
 			Undo:      kb([]string{"z", "ctrl+z"}, "z", "undo the last change"),
 			Redo:      kb([]string{"Z", "ctrl+y"}, "Z", "redo what was undone"),
 			Networks:  kb([]string{"N"}, "N", "open the newest network: structure, reduction, branch values"),
-			Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text, HTML record) or save as worksheet"),
+			Export:    kb([]string{"x"}, "x", "export the trail (Markdown, text, HTML record, CSV) or save as worksheet"),
 			Clip:      kb([]string{"ctrl+o"}, "ctrl+o", "send the selected value to the terminal clipboard (OSC 52)"),
 			ClipTrail: kb([]string{"ctrl+t"}, "ctrl+t", "send the whole trail to the terminal clipboard (OSC 52)"),
 			TrailBack: kb([]string{"pgup", "["}, "pgup/[", "scroll the trail back"),
@@ -327,6 +327,7 @@ func DefaultKeyMap() KeyMap {
 			Text:     kb([]string{"t"}, "t", "trail as plain text file"),
 			Sheet:    kb([]string{"w"}, "w", "session as a worksheet (argand run replays it)"),
 			HTML:     kb([]string{"r"}, "r", "job record: one HTML file, steps, diagrams, checks and the worksheet"),
+			CSV:      kb([]string{"c"}, "c", "tables and results as a CSV file, as argand run --csv writes them"),
 			Cancel:   kb([]string{"esc", "q"}, "esc", "cancel"),
 		},
 		Help: HelpKeys{

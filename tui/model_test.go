@@ -579,6 +579,7 @@ func TestExportAndClipboard(t *testing.T) {
 		{"t", "t.txt", "Za = 3+j4"},
 		{"w", "s.argand", "network bench reference gnd"},
 		{"r", "r.html", `<pre id="argand-worksheet" class="source">`},
+		{"c", "t.csv", "\r\nname,re v (V),im v (V),|v| (V),arg v (°),"},
 	} {
 		press(m, "x", c.key, "ctrl+u")
 		for _, r := range filepath.Join(dir, c.file) {

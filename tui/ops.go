@@ -9,6 +9,7 @@ import (
 
 	"argand/calc"
 	"argand/reduce/sheet"
+	"argand/tui/cli"
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
@@ -684,6 +685,14 @@ func (m *Model) trailText() string {
 	for _, st := range m.s.sh.Steps() {
 		b.WriteString(st.Text(f, m.s.v.PolarFirst))
 	}
+	return b.String()
+}
+
+// trailCSV is the whole trail's tables and results as CSV, as argand run
+// --csv writes them.
+func (m *Model) trailCSV() string {
+	var b strings.Builder
+	_ = cli.WriteCSV(&b, m.s.sh.Steps()) // a strings.Builder takes every write
 	return b.String()
 }
 

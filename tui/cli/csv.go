@@ -51,6 +51,9 @@ func newCSV(w io.Writer) *csvOut {
 	return &csvOut{w: cw}
 }
 
+// WriteCSV writes steps as CSV tables, as --csv does.
+func WriteCSV(w io.Writer, steps []calc.Step) error { return newCSV(w).Steps(steps) }
+
 // Steps writes the steps' tables and flushes them.
 func (c *csvOut) Steps(steps []calc.Step) error {
 	for i := range steps {
