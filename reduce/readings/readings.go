@@ -75,36 +75,23 @@ func (e *Error) Error() string {
 // readingsForm is what every message about a row says to type.
 const readingsForm = "each row is name,value,unit as in V_R1,229.6,V or I_L1,\"1.18∠-38\",A"
 
-// Parse reads a readings file: CSV (RFC 4180, CRLF or LF line
-// ends, a byte order mark ignored) of rows name,value,unit. A first row
+// Parse reads a readings file: CSV (RFC 4180, CRLF or LF line ends, a
+// byte order mark ignored) of rows name,value,unit. A first row
 // name,value,unit (in any case) is a header and skipped; a line starting
 // with # is a comment. A name is a worksheet name (not a reserved word,
 // no '.'), once in the file. A value is a number as typed in the
-// worksheet, with a decimal point, rectangular (3+j4) or polar (230∠-30)
-// and read with the unit after it; a value with a decimal comma must be
-// quoted ("229,6") and is read so only under decimal comma, and only
-// when it holds no point too. At most MaxBytes and
-// MaxRows.
+// worksheet, with a decimal point, rectangular (3+j4) or polar (230∠-30),
+// read with the unit after it; a value with a decimal comma must be
+// quoted ("229,6") and is read so only under decimal comma, and only when
+// it holds no point too. At most MaxBytes and MaxRows.
 func Parse(data []byte, o Options) ([]Reading, error) {
 	if len(data) > MaxBytes {
 		return nil, fmt.Errorf("the file is larger than %d bytes, the most a readings file may hold: split it", MaxBytes)
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	lines := bytes.Split(data, []byte("\n"))
-	if !utf8.Valid(data) {
-		for i, l := range lines {
-			if !utf8.Valid(l) {
-				good := 0
-				for len(l) > 0 {
-					r, w := utf8.DecodeRune(l)
-					if r == utf8.RuneError && w == 1 {
-						break
-					}
-					l, good = l[w:], good+1
-				}
-				return nil, &Error{Line: i + 1, Col: good + 1, Msg: "invalid UTF-8 byte: save the file as UTF-8"}
-			}
-		}
+	if err := badUTF8(lines); err != nil {
+		return nil, err
 	}
 	r := csv.NewReader(bytes.NewReader(data))
 	r.FieldsPerRecord = -1
@@ -154,6 +141,25 @@ func Parse(data []byte, o Options) ([]Reading, error) {
 		return nil, fmt.Errorf("no readings in the file: %s", readingsForm)
 	}
 	return out, nil
+}
+
+// badUTF8 locates the first byte of the file that is not UTF-8, or nil.
+func badUTF8(lines [][]byte) error {
+	for i, l := range lines {
+		if utf8.Valid(l) {
+			continue
+		}
+		good := 0
+		for len(l) > 0 {
+			r, w := utf8.DecodeRune(l)
+			if r == utf8.RuneError && w == 1 {
+				break
+			}
+			l, good = l[w:], good+1
+		}
+		return &Error{Line: i + 1, Col: good + 1, Msg: "invalid UTF-8 byte: save the file as UTF-8"}
+	}
+	return nil
 }
 
 // csvHint turns a CSV syntax error into what to type.
