@@ -127,8 +127,13 @@ func (s *Server) handle(sess ssh.Session) {
 	in.tokens = in.burst()
 	in.seen.Store(time.Now().UnixNano())
 
-	// the look is the client's: its TERM, NO_COLOR, LANG and background,
-	// on a renderer of this session's own
+	sess.Exit(s.run(sess, s.options(getenv, out, kd), in, winch, e))
+}
+
+// options are the app's options for one connection: the look is the
+// client's (its TERM, NO_COLOR, LANG and background, on a renderer of this
+// session's own), the session state is its key's.
+func (s *Server) options(getenv func(string) string, out *lockedWriter, kd string) tui.Options {
 	color := tui.ColorWanted(getenv)
 	r := lipgloss.NewRenderer(out)
 	switch {
@@ -138,7 +143,7 @@ func (s *Server) handle(sess ssh.Session) {
 		r.SetColorProfile(termenv.ANSI)
 	}
 	r.SetHasDarkBackground(termbg.Dark(getenv))
-	opt := tui.Options{
+	return tui.Options{
 		ASCII:      s.cfg.ASCII || !cli.UTF8Locale(getenv),
 		Color:      color,
 		PolarFirst: s.cfg.PolarFirst,
@@ -150,6 +155,12 @@ func (s *Server) handle(sess ssh.Session) {
 		Renderer:   r,
 		Limits:     s.cfg.Limits,
 	}
+}
+
+// run runs the app on the connection until the user quits, the client
+// goes or a limit ends it, and returns the exit status for the client.
+func (s *Server) run(sess ssh.Session, opt tui.Options, in *input, winch <-chan ssh.Window, e *ending) int {
+	out := opt.Out
 	m := tui.New(opt)
 	defer m.Close()
 	p := tea.NewProgram(m, tea.WithInput(in), tea.WithOutput(out), tea.WithAltScreen(),
@@ -179,12 +190,11 @@ func (s *Server) handle(sess ssh.Session) {
 		e.end("closed", "") // the client went away
 	}
 	e.end("quit", "") // settles the reason: no later change
-	code := 0
 	if e.line != "" {
 		fmt.Fprintf(out, "\r\nargand: %s\r\n", e.line)
-		code = 1
+		return 1
 	}
-	sess.Exit(code)
+	return 0
 }
 
 // watchIdle ends the session after cfg.Idle without input.

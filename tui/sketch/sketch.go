@@ -432,54 +432,8 @@ func Render(items []Item, width, height int, opt Options) []string {
 	if width <= 0 {
 		return make([]string, height)
 	}
-
-	// Groups by unit, in order of first appearance.
-	var groups []group
-	index := map[string]int{}
-	var bad []string
-	labels := make([][]rune, len(items))
-	for i, it := range items {
-		l := clean(it.Label, opt.ASCII)
-		if len(l) == 0 {
-			l = []rune("(" + strconv.Itoa(i+1) + ")")
-		}
-		if len(l) > maxLabel {
-			l = l[:maxLabel]
-		}
-		labels[i] = l
-		if !finite(it.V) {
-			bad = append(bad, string(l))
-			continue
-		}
-		g, ok := index[it.Unit]
-		if !ok {
-			g = len(groups)
-			index[it.Unit] = g
-			groups = append(groups, group{unit: it.Unit})
-		}
-		if m := math.Hypot(real(it.V), imag(it.V)); m > groups[g].full {
-			groups[g].full = m
-		}
-	}
-	var scales []string
-	for i := range groups {
-		if groups[i].full > 0 {
-			groups[i].full = niceCeil(groups[i].full)
-			scales = append(scales, opt.format(groups[i].full, groups[i].unit))
-		}
-	}
-
-	var segs []string
-	switch {
-	case len(items) == 0:
-		segs = append(segs, "nothing to draw")
-	case len(scales) == 1:
-		segs = append(segs, "scale: + = "+scales[0])
-	case len(scales) > 1:
-		segs = append(segs, "own scale per unit, + = "+scales[0])
-		segs = append(segs, scales[1:]...)
-	}
-
+	sc := scaleItems(items, opt)
+	segs := sc.legend(len(items), opt)
 	base := len(segs)
 	legend := wrap(segs, width)
 	// The legend grows when labels find no room, and the plot shrinks with
@@ -489,7 +443,7 @@ func Render(items []Item, width, height int, opt Options) []string {
 		if width < minWidth || plotH < minHeight {
 			return tooSmall(width, height)
 		}
-		cv, unplaced, ok := plot(items, labels, groups, index, width, plotH, opt)
+		cv, unplaced, ok := plot(items, sc, width, plotH, opt)
 		if !ok {
 			return tooSmall(width, height)
 		}
@@ -497,8 +451,8 @@ func Render(items []Item, width, height int, opt Options) []string {
 		if len(unplaced) > 0 {
 			segs = append(segs, "no room to label: "+strings.Join(unplaced, ", "))
 		}
-		if len(bad) > 0 {
-			segs = append(segs, "not drawn (not finite or too large): "+strings.Join(bad, ", "))
+		if len(sc.bad) > 0 {
+			segs = append(segs, "not drawn (not finite or too large): "+strings.Join(sc.bad, ", "))
 		}
 		next := wrap(segs, width)
 		if len(next) <= len(legend) || round >= 3 {
@@ -515,11 +469,75 @@ func Render(items []Item, width, height int, opt Options) []string {
 	}
 }
 
+// scaled is the items' labels and their groups by unit, each with its
+// full scale.
+type scaled struct {
+	labels [][]rune
+	groups []group
+	index  map[string]int // group of each unit
+	bad    []string       // labels of items not finite, not drawn
+}
+
+// scaleItems labels the items and groups them by unit, in order of first
+// appearance, each group scaled to a round number at or above its
+// largest magnitude.
+func scaleItems(items []Item, opt Options) scaled {
+	sc := scaled{labels: make([][]rune, len(items)), index: map[string]int{}}
+	for i, it := range items {
+		l := clean(it.Label, opt.ASCII)
+		if len(l) == 0 {
+			l = []rune("(" + strconv.Itoa(i+1) + ")")
+		}
+		if len(l) > maxLabel {
+			l = l[:maxLabel]
+		}
+		sc.labels[i] = l
+		if !finite(it.V) {
+			sc.bad = append(sc.bad, string(l))
+			continue
+		}
+		g, ok := sc.index[it.Unit]
+		if !ok {
+			g = len(sc.groups)
+			sc.index[it.Unit] = g
+			sc.groups = append(sc.groups, group{unit: it.Unit})
+		}
+		if m := math.Hypot(real(it.V), imag(it.V)); m > sc.groups[g].full {
+			sc.groups[g].full = m
+		}
+	}
+	for i := range sc.groups {
+		if sc.groups[i].full > 0 {
+			sc.groups[i].full = niceCeil(sc.groups[i].full)
+		}
+	}
+	return sc
+}
+
+// legend is the first part of the legend: the scale, or one per unit.
+func (sc scaled) legend(n int, opt Options) []string {
+	var scales []string
+	for _, g := range sc.groups {
+		if g.full > 0 {
+			scales = append(scales, opt.format(g.full, g.unit))
+		}
+	}
+	switch {
+	case n == 0:
+		return []string{"nothing to draw"}
+	case len(scales) == 1:
+		return []string{"scale: + = " + scales[0]}
+	case len(scales) > 1:
+		return append([]string{"own scale per unit, + = " + scales[0]}, scales[1:]...)
+	}
+	return nil
+}
+
 // plot draws the axes and arrows on a width × h canvas and reports the
 // labels it found no room for; ok is false when the area is too small.
-func plot(items []Item, labels [][]rune, groups []group, index map[string]int, width, h int, opt Options) (cv *canvas, unplaced []string, ok bool) {
+func plot(items []Item, sc scaled, width, h int, opt Options) (cv *canvas, unplaced []string, ok bool) {
 	maxW := 0
-	for _, l := range labels {
+	for _, l := range sc.labels {
 		maxW = max(maxW, len(l))
 	}
 	cv = newCanvas(width, h)
@@ -530,16 +548,35 @@ func plot(items []Item, labels [][]rune, groups []group, index map[string]int, w
 	if R < 2 {
 		return nil, nil, false
 	}
+	cv.axes(cx, cy, R, opt)
+	arrows := arrowsOf(items, sc, cx, cy, R)
+	cv.arrows(arrows, cx, cy)
+	// Longer labels are harder to fit: place them first.
+	order := make([]int, len(arrows))
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(i, j int) bool { return len(arrows[order[i]].label) > len(arrows[order[j]].label) })
+	for _, i := range order {
+		a := arrows[i]
+		if !cv.place(a.label, labelSpots(a, cx, cy, h)) {
+			unplaced = append(unplaced, string(a.label))
+		}
+	}
+	return cv, unplaced, true
+}
 
-	// Axes, with + at full scale and the axis names.
+// axes draws the axes through (cx, cy), with + at full scale R and the
+// real axis's name.
+func (cv *canvas) axes(cx, cy int, R float64, opt Options) {
 	hAxis, vAxis := '.', ':'
 	if !opt.ASCII && runewidth.RuneWidth('·') == 1 {
 		hAxis, vAxis = '·', '·'
 	}
-	for col := 0; col < width; col++ {
+	for col := 0; col < cv.w; col++ {
 		cv.set(cy, col, hAxis, kAxis)
 	}
-	for r := 0; r < h; r++ {
+	for r := 0; r < cv.h; r++ {
 		cv.set(r, cx, vAxis, kAxis)
 	}
 	cv.set(cy, cx, '+', kAxis)
@@ -548,16 +585,19 @@ func plot(items []Item, labels [][]rune, groups []group, index map[string]int, w
 	for _, p := range [][2]int{{cy, cx + ir}, {cy, cx - ir}, {cy - jr, cx}, {cy + jr, cx}} {
 		cv.set(p[0], p[1], '+', kMark)
 	}
-	cv.write(cy, width-2, []rune("Re"))
+	cv.write(cy, cv.w-2, []rune("Re"))
+}
 
-	// Geometry of each arrow.
+// arrowsOf works out each finite item's arrow from the origin (cx, cy) at
+// its group's scale, R columns to full scale.
+func arrowsOf(items []Item, sc scaled, cx, cy int, R float64) []arrow {
 	arrows := make([]arrow, 0, len(items))
 	for i, it := range items {
 		if !finite(it.V) {
 			continue
 		}
-		a := arrow{label: labels[i], r: cy, c: cx}
-		g := groups[index[it.Unit]]
+		a := arrow{label: sc.labels[i], r: cy, c: cx}
+		g := sc.groups[sc.index[it.Unit]]
 		if it.V == 0 || g.full == 0 {
 			a.zero = true
 			arrows = append(arrows, a)
@@ -576,8 +616,12 @@ func plot(items []Item, labels [][]rune, groups []group, index map[string]int, w
 		}
 		arrows = append(arrows, a)
 	}
+	return arrows
+}
 
-	// Shafts first, then tips over them, then labels where they fit.
+// arrows draws the shafts first, then the tips over them, then the
+// imaginary axis's name where no tip is.
+func (cv *canvas) arrows(arrows []arrow, cx, cy int) {
 	for _, a := range arrows {
 		if a.zero {
 			continue
@@ -605,19 +649,6 @@ func plot(items []Item, labels [][]rune, groups []group, index map[string]int, w
 			break
 		}
 	}
-	// Longer labels are harder to fit: place them first.
-	order := make([]int, len(arrows))
-	for i := range order {
-		order[i] = i
-	}
-	sort.SliceStable(order, func(i, j int) bool { return len(arrows[order[i]].label) > len(arrows[order[j]].label) })
-	for _, i := range order {
-		a := arrows[i]
-		if !cv.place(a.label, labelSpots(a, cx, cy, h)) {
-			unplaced = append(unplaced, string(a.label))
-		}
-	}
-	return cv, unplaced, true
 }
 
 // labelSpots lists where a label may go, best first: beside the tip on the

@@ -22,130 +22,164 @@ func Triangle(p, q float64, width, height int, opt Options) []string {
 		return make([]string, height)
 	}
 	if math.IsNaN(p) || math.IsNaN(q) || math.IsInf(p, 0) || math.IsInf(q, 0) {
-		out := make([]string, height)
-		out[0] = string([]rune("power triangle: P or Q not finite, not drawn")[:min(44, width)])
-		return out
+		return notDrawn("power triangle: P or Q not finite, not drawn", width, height)
 	}
 	s := math.Hypot(p, q)
 	if math.IsInf(s, 0) {
-		out := make([]string, height)
-		out[0] = string([]rune("power triangle: S too large, not drawn")[:min(38, width)])
-		return out
+		return notDrawn("power triangle: S too large, not drawn", width, height)
 	}
-	phi := 0.0
-	if s > 0 {
-		phi = math.Atan2(q, p) * 180 / math.Pi
-	}
-	phiName, deg := "φ", "°"
+	phiName := "φ"
 	if opt.ASCII {
-		phiName, deg = "phi", " deg"
+		phiName = "phi"
 	}
-	pl := []rune("P = " + opt.format(p, "W"))
-	ql := []rune("Q = " + opt.format(q, "var"))
-	sl := []rune("S = " + opt.format(s, "VA"))
-	var segs []string
-	segs = append(segs, string(sl), phiName+" = "+opt.mark(strconv.FormatFloat(roundSig(phi, 4), 'f', -1, 64))+deg)
-	switch {
-	case s == 0:
-		segs = []string{"no power: P = Q = 0"}
-	case q > 0:
-		segs = append(segs, "pf "+opt.mark(strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64))+" lagging (Q > 0, inductive)")
-	case q < 0:
-		segs = append(segs, "pf "+opt.mark(strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64))+" leading (Q < 0, capacitive)")
-	default:
-		segs = append(segs, "pf 1")
+	lb := triLabels{
+		p:   []rune("P = " + opt.format(p, "W")),
+		q:   []rune("Q = " + opt.format(q, "var")),
+		s:   []rune("S = " + opt.format(s, "VA")),
+		phi: []rune(phiName),
 	}
-	legend := wrap(segs, width)
+	legend := wrap(triangleLegend(p, q, s, string(lb.s), opt), width)
 	h := height - len(legend)
 	if width < minWidth || h < minHeight {
 		return tooSmall(width, height)
 	}
 	cv := newCanvas(width, h)
 	if s > 0 {
-		// Room: one row for P's label beside the horizontal leg, the Q
-		// label beside the vertical leg.
-		colsAvail := float64(width - 2 - (len(ql) + 1))
-		rowsAvail := float64(h - 2)
-		if colsAvail < 4 {
+		g, ok := triangleGeometry(p, q, s, width, h, len(lb.q))
+		if !ok {
 			return tooSmall(width, height)
 		}
-		// Sides relative to S lie in [0, 1] and one of them is at least
-		// 1/√2, so the scale stays finite even for extreme P and Q.
-		a, b := math.Abs(p)/s, math.Abs(q)/s
-		scale := math.Inf(1) // columns per unit of a or b
-		if a > 0 {
-			scale = colsAvail / a
-		}
-		if b > 0 {
-			scale = min(scale, 2*rowsAvail/b)
-		}
-		dx := clampInt(int(math.Round(a*scale)), 0, int(colsAvail))
-		dy := clampInt(int(math.Round(b*scale/2)), 0, int(rowsAvail))
-		sx, sy := 1, -1 // screen directions of +P and +Q
-		x0 := 1
-		if p < 0 {
-			sx = -1
-			x0 = width - 2
-		}
-		y0 := h - 2
-		if q < 0 {
-			sy = 1
-			y0 = 1
-		}
-		if q == 0 {
-			y0 = h / 2
-		}
-		xa, yb := x0+sx*dx, y0+sy*dy
-		// Legs, hypotenuse, corners.
-		for c := min(x0, xa); c <= max(x0, xa); c++ {
-			cv.set(y0, c, '-', kShaft)
-		}
-		for r := min(y0, yb); r <= max(y0, yb); r++ {
-			cv.set(r, xa, '|', kShaft)
-		}
-		hg := shaftGlyph(math.Atan2(float64(-sy*dy)*2, float64(sx*dx)) * 180 / math.Pi)
-		line(y0, x0, yb, xa, func(r, c int) { cv.set(r, c, hg, kShaft) })
-		cv.set(y0, x0, '*', kTip)
-		cv.set(y0, xa, '+', kTip)
-		cv.set(yb, xa, '+', kTip)
+		g.draw(cv)
+		g.label(cv, lb, width)
+	}
+	return append(cv.lines(), legend...)
+}
 
-		// P below (or above) the horizontal leg, centred; Q beside the
-		// vertical leg on the outside; S at the hypotenuse's middle on the
-		// side away from the right angle.
-		pr := y0 - sy
-		pc := (x0+xa)/2 - len(pl)/2
-		cv.place(pl, [][2]int{{pr, pc}, {pr, clampInt(pc, 0, width-len(pl))}, {y0 - 2*sy, pc}})
-		qr := (y0 + yb) / 2
-		qc := xa + 2
-		if sx < 0 {
-			qc = xa - 1 - len(ql)
-		}
-		cv.place(ql, [][2]int{{qr, qc}, {qr - 1, qc}, {qr + 1, qc}, {y0 + sy, clampInt(qc, 0, width-len(ql))}})
-		mr, mc := (y0+yb)/2, (x0+xa)/2
-		sc := mc - len(sl) - 1
-		if sx < 0 {
-			sc = mc + 2
-		}
-		var spots [][2]int
-		for _, dr := range []int{0, sy, 2 * sy, -sy} {
-			for _, dc := range []int{0, -2 * sx, -4 * sx, 2 * sx} {
-				spots = append(spots, [2]int{mr + dr, sc + dc})
-			}
-		}
-		spots = append(spots, [2]int{0, 0})
-		cv.place(sl, spots)
-		// φ inside the angle at the origin.
-		pn := []rune(phiName)
-		fc := x0 + sx*3
-		if sx < 0 {
-			fc -= len(pn) - 1
-		}
-		if dx > 0 && dy > 0 {
-			cv.place(pn, [][2]int{{y0 + sy, fc}, {y0 + sy, fc + sx*2}, {y0 + 2*sy, fc + sx*3}})
+// notDrawn returns height lines, the first saying why nothing is drawn.
+func notDrawn(msg string, width, height int) []string {
+	out := make([]string, height)
+	r := []rune(msg)
+	out[0] = string(r[:min(len(r), width)])
+	return out
+}
+
+// triangleLegend is the legend under the triangle: S, the angle
+// φ = atan2(Q, P) and the power factor |P|/|S| with its sense.
+func triangleLegend(p, q, s float64, sl string, opt Options) []string {
+	if s == 0 {
+		return []string{"no power: P = Q = 0"}
+	}
+	phiName, deg := "φ", "°"
+	if opt.ASCII {
+		phiName, deg = "phi", " deg"
+	}
+	phi := math.Atan2(q, p) * 180 / math.Pi
+	segs := []string{sl, phiName + " = " + opt.mark(strconv.FormatFloat(roundSig(phi, 4), 'f', -1, 64)) + deg}
+	pf := "pf " + opt.mark(strconv.FormatFloat(roundSig(math.Abs(p)/s, 3), 'f', -1, 64))
+	switch {
+	case q > 0:
+		segs = append(segs, pf+" lagging (Q > 0, inductive)")
+	case q < 0:
+		segs = append(segs, pf+" leading (Q < 0, capacitive)")
+	default:
+		segs = append(segs, "pf 1")
+	}
+	return segs
+}
+
+// triLabels are the texts written on the triangle.
+type triLabels struct{ p, q, s, phi []rune }
+
+// triGeom places the triangle on the canvas: the origin (x0, y0), the
+// screen directions of +P and +Q (sx, sy), the legs' lengths in cells
+// (dx, dy), and the far corners xa (end of P) and yb (end of Q).
+type triGeom struct {
+	x0, y0, sx, sy, dx, dy, xa, yb int
+}
+
+// triangleGeometry scales the triangle to a width × h canvas, leaving a
+// row for P's label and room for Q's label (qLen cells) beside the
+// vertical leg; ok is false when the canvas is too narrow.
+func triangleGeometry(p, q, s float64, width, h, qLen int) (g triGeom, ok bool) {
+	colsAvail := float64(width - 2 - (qLen + 1))
+	rowsAvail := float64(h - 2)
+	if colsAvail < 4 {
+		return g, false
+	}
+	// Sides relative to S lie in [0, 1] and one of them is at least
+	// 1/√2, so the scale stays finite even for extreme P and Q.
+	a, b := math.Abs(p)/s, math.Abs(q)/s
+	scale := math.Inf(1) // columns per unit of a or b
+	if a > 0 {
+		scale = colsAvail / a
+	}
+	if b > 0 {
+		scale = min(scale, 2*rowsAvail/b)
+	}
+	g.dx = clampInt(int(math.Round(a*scale)), 0, int(colsAvail))
+	g.dy = clampInt(int(math.Round(b*scale/2)), 0, int(rowsAvail))
+	g.sx, g.sy, g.x0, g.y0 = 1, -1, 1, h-2
+	if p < 0 {
+		g.sx, g.x0 = -1, width-2
+	}
+	if q < 0 {
+		g.sy, g.y0 = 1, 1
+	}
+	if q == 0 {
+		g.y0 = h / 2
+	}
+	g.xa, g.yb = g.x0+g.sx*g.dx, g.y0+g.sy*g.dy
+	return g, true
+}
+
+// draw draws the legs, the hypotenuse and the corners.
+func (g triGeom) draw(cv *canvas) {
+	for c := min(g.x0, g.xa); c <= max(g.x0, g.xa); c++ {
+		cv.set(g.y0, c, '-', kShaft)
+	}
+	for r := min(g.y0, g.yb); r <= max(g.y0, g.yb); r++ {
+		cv.set(r, g.xa, '|', kShaft)
+	}
+	hg := shaftGlyph(math.Atan2(float64(-g.sy*g.dy)*2, float64(g.sx*g.dx)) * 180 / math.Pi)
+	line(g.y0, g.x0, g.yb, g.xa, func(r, c int) { cv.set(r, c, hg, kShaft) })
+	cv.set(g.y0, g.x0, '*', kTip)
+	cv.set(g.y0, g.xa, '+', kTip)
+	cv.set(g.yb, g.xa, '+', kTip)
+}
+
+// label writes P below (or above) the horizontal leg, centred; Q beside
+// the vertical leg on the outside; S at the hypotenuse's middle on the
+// side away from the right angle; φ inside the angle at the origin.
+func (g triGeom) label(cv *canvas, lb triLabels, width int) {
+	pr := g.y0 - g.sy
+	pc := (g.x0+g.xa)/2 - len(lb.p)/2
+	cv.place(lb.p, [][2]int{{pr, pc}, {pr, clampInt(pc, 0, width-len(lb.p))}, {g.y0 - 2*g.sy, pc}})
+	qr := (g.y0 + g.yb) / 2
+	qc := g.xa + 2
+	if g.sx < 0 {
+		qc = g.xa - 1 - len(lb.q)
+	}
+	cv.place(lb.q, [][2]int{{qr, qc}, {qr - 1, qc}, {qr + 1, qc}, {g.y0 + g.sy, clampInt(qc, 0, width-len(lb.q))}})
+	mr, mc := (g.y0+g.yb)/2, (g.x0+g.xa)/2
+	sc := mc - len(lb.s) - 1
+	if g.sx < 0 {
+		sc = mc + 2
+	}
+	var spots [][2]int
+	for _, dr := range []int{0, g.sy, 2 * g.sy, -g.sy} {
+		for _, dc := range []int{0, -2 * g.sx, -4 * g.sx, 2 * g.sx} {
+			spots = append(spots, [2]int{mr + dr, sc + dc})
 		}
 	}
-	out := cv.lines()
-	return append(out, legend...)
+	spots = append(spots, [2]int{0, 0})
+	cv.place(lb.s, spots)
+	fc := g.x0 + g.sx*3
+	if g.sx < 0 {
+		fc -= len(lb.phi) - 1
+	}
+	if g.dx > 0 && g.dy > 0 {
+		cv.place(lb.phi, [][2]int{{g.y0 + g.sy, fc}, {g.y0 + g.sy, fc + g.sx*2}, {g.y0 + 2*g.sy, fc + g.sx*3}})
+	}
 }
 
 func clampInt(x, lo, hi int) int { return max(lo, min(x, hi)) }
