@@ -48,7 +48,7 @@ func TestDecimalKey(t *testing.T) {
 	for _, r := range "x = atan2(4,5; " {
 		m.Update(keyMsg(string(r)))
 	}
-	if h := m.signature(); !strings.Contains(h, "atan2(y; ") || !strings.Contains(h, "«x»") {
+	if h := m.line.Signature(); !strings.Contains(h, "atan2(y; ") || !strings.Contains(h, "«x»") {
 		t.Errorf("parameters under the line: %q", h)
 	}
 	press(m, "ctrl+u", "esc")

@@ -1,6 +1,8 @@
 package tui
 
 import (
+	"strings"
+
 	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/bubbles/key"
 )
@@ -26,6 +28,13 @@ func (m mode) String() string { return modeNames[m] }
 
 func kb(keys []string, k, desc string) key.Binding {
 	return key.NewBinding(key.WithKeys(keys...), key.WithHelp(k, desc))
+}
+
+// firstKey is the first name of b's keys as help writes them ("tab" of
+// "tab/e"), for messages and hints that name the key.
+func firstKey(b key.Binding) string {
+	k, _, _ := strings.Cut(b.Help().Key, "/")
+	return k
 }
 
 // brief returns b with a shorter description, for the hint line: the keys

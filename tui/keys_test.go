@@ -32,7 +32,7 @@ func TestKeysUniquePerMode(t *testing.T) {
 
 func TestHelpListsEveryBinding(t *testing.T) {
 	m := newModel(t, Options{})
-	help := strings.Join(m.helpLines(), "\n")
+	help := strings.Join(m.helpScr.lines(), "\n")
 	for _, md := range allModes {
 		for _, b := range m.keys.Mode(md) {
 			if !strings.Contains(help, b.Help().Key) || !strings.Contains(help, b.Help().Desc) {
@@ -64,7 +64,8 @@ func modelIn(t *testing.T, md mode) *Model {
 	typeLine(t, m, "Zc = 5 Ω")
 	m.s.v.Selected = m.s.rows()[1]
 	m.s.v.Marks = []string{"Zb"}
-	m.trail.scroll(m, 5)
+	m.sync()
+	m.trail.ScrollBy(5)
 	m.line.history = []string{"Zx = 1 Ω", "Zy = 2 Ω"}
 	m.line.hpos = 1
 	m.line.f.set("Zq = 12")
@@ -102,7 +103,7 @@ func state(m *Model) string {
 		ask = fmt.Sprint(m.ask.i, m.ask.f.String(), m.ask.f.pos)
 	}
 	return fmt.Sprint(m.View(), m.mode, m.msg, m.s.v, m.line.f.String(), m.line.f.pos, m.trail.back, m.full.back,
-		len(m.s.sh.Statements()), m.helpTop, net, ask, m.quitting)
+		len(m.s.sh.Statements()), m.helpScr.top, net, ask, m.quitting)
 }
 
 func TestEveryBindingActs(t *testing.T) {

@@ -36,7 +36,6 @@ import (
 	"argand/tui/cli"
 	"argand/tui/store"
 
-	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/bubbles/spinner"
 	tea "github.com/charmbracelet/bubbletea"
@@ -81,11 +80,12 @@ const (
 	minHeight = 16
 )
 
-// Model is the app's top-level bubbletea model.
+// Model is the app's top-level bubbletea model: it composes the parts,
+// routes a key to the part that has the keyboard, acts on what the part
+// returns through the session, and lays the parts out.
 type Model struct {
 	opt    Options
 	keys   KeyMap
-	help   help.Model
 	th     theme
 	s      *session
 	lock   *store.FileLock
@@ -99,13 +99,14 @@ type Model struct {
 	trail   trailView
 	full    trailView // the trail in full, at the screen's width
 	sketch  sketchPane
-	pane    pane // the pane a narrow screen shows
-	ask     *questions
-	net     *netView
-	helpTop int
-	// helpTopic is the name asked about with help NAME, shown at the top
-	// of the help screen; "" for the general help
-	helpTopic string
+	pane    pane           // the pane a narrow screen shows
+	paneTop int            // the first row a narrow screen's table shows
+	ask     *questions     // the questions asked, if any
+	askDone func([]string) // takes the answers
+	net     *netView       // the network shown, if any
+	helpScr helpScreen
+	lockScr lockScreen
+	export  exportMenu
 
 	msg    string // last outcome, shown under the entry line
 	msgErr bool
@@ -134,7 +135,14 @@ func New(opt Options) *Model {
 	if opt.Out == nil {
 		opt.Out = io.Discard
 	}
-	m := &Model{opt: opt, keys: DefaultKeyMap(), help: newHelp(opt.Renderer), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
+	m := &Model{opt: opt, keys: DefaultKeyMap(), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
+	m.line = newEntryLine(m.keys, m.th, func(src string) *calc.Error { return m.s.sh.Validate(src) })
+	m.table = newTableView(m.keys, m.th)
+	m.trail = newTrailView(m.keys, m.th, false)
+	m.full = newTrailView(m.keys, m.th, true)
+	m.sketch = newSketchPane(m.keys, m.th)
+	m.helpScr = newHelpScreen(m.keys, m.th, newHelp(opt.Renderer))
+	m.export = newExportMenu(m.keys, m.th)
 	m.s.v.PolarFirst = opt.PolarFirst
 	m.s.limits = opt.Limits
 	m.start()
@@ -204,6 +212,7 @@ func (m *Model) start() {
 		} else {
 			m.lockErr = err
 		}
+		m.lockScr = newLockScreen(m.keys, m.th, path, m.lockPID, m.lockErr)
 		return
 	}
 	m.lock = lk
@@ -481,84 +490,41 @@ func (m *Model) takePending() tea.Cmd {
 	return tea.Batch(cmds...)
 }
 
-func (m *Model) key(k tea.KeyMsg) tea.Cmd {
-	if cmd, ok := m.paneKey(k); ok {
-		return cmd
-	}
-	switch m.mode {
-	case modeLocked:
-		switch {
-		case key.Matches(k, m.keys.Lock.Read):
-			m.chooseLocked(true)
-		case key.Matches(k, m.keys.Lock.Separate):
-			m.chooseLocked(false)
-		case key.Matches(k, m.keys.Lock.Quit):
-			m.quitting = true
-			return tea.Quit
-		}
-		return nil
-	case modeHelp:
-		switch {
-		case key.Matches(k, m.keys.Help.Up):
-			m.helpTop = max(0, m.helpTop-max(1, m.height/2))
-		case key.Matches(k, m.keys.Help.Down):
-			m.helpTop += max(1, m.height/2)
-		case key.Matches(k, m.keys.Help.Close):
-			m.mode = m.back
-		case key.Matches(k, m.keys.Help.Quit):
-			m.quitting = true
-			return tea.Quit
-		}
-		return nil
-	case modeLine:
-		return m.lineKey(k)
-	case modePrompt:
-		return m.askKey(k)
-	case modeNet:
-		return m.netKey(k)
-	case modeExport:
-		return m.exportKey(k)
-	case modeTrail:
-		return m.fullKey(k)
-	}
-	return m.rowsKey(k)
-}
-
-func (m *Model) openHelp() {
-	m.back = m.mode
-	m.mode = modeHelp
-	m.helpTop = 0
-	m.helpTopic = ""
-}
-
 // View implements tea.Model.
 func (m *Model) View() string {
 	if m.quitting {
 		return ""
 	}
-	w, h := m.width, m.height
 	if m.tooSmallSize() {
 		return m.tooSmall()
 	}
+	m.sync()
+	return m.finish(m.screen())
+}
+
+// screen chooses the layout for the part that has the keyboard and
+// returns its lines: a part of its own on the whole screen, the network
+// view between the status and the feedback lines, or the main layout.
+func (m *Model) screen() []string {
 	if m.narrow() {
-		return m.finish(m.narrowView())
+		return m.narrowView()
 	}
-	var lines []string
 	switch m.mode {
 	case modeLocked:
-		lines = m.lockedView()
+		return lines(m.lockScr.View())
 	case modeHelp:
-		lines = m.helpView()
+		return lines(m.helpScr.View())
 	case modeTrail:
-		lines = m.fullView()
+		return lines(m.full.View())
 	case modeNet:
-		lines = append([]string{m.statusView()}, m.netPane(w, h-3)...)
-		lines = append(lines, m.feedbackView(), m.hintView())
-	default:
-		lines = m.mainView()
+		out := append([]string{m.statusView()}, lines(m.net.View())...)
+		return append(out, m.feedbackView(), m.hintView())
 	}
-	return m.finish(lines)
+	return m.mainView()
 }
+
+// lines splits a part's view into its lines.
+func lines(view string) []string { return strings.Split(view, "\n") }
 
 // finish fits the lines to the screen: exactly height lines, none wider
 // than the width, ASCII only when asked.
@@ -614,13 +580,13 @@ func (m *Model) layout() (tableH, lowerH, sketchW int) {
 }
 
 func (m *Model) mainView() []string {
-	tableH, lowerH, sketchW := m.layout()
+	_, lowerH, sketchW := m.layout()
 	lines := make([]string, 0, m.height)
 	lines = append(lines, m.statusView())
-	lines = append(lines, m.table.view(m, m.width, tableH)...)
+	lines = append(lines, strings.Split(m.table.View(), "\n")...)
 	trailW := m.width - sketchW - 1
-	tl := m.trail.view(m, trailW, lowerH)
-	sk := m.sketch.view(m, sketchW, lowerH)
+	tl := strings.Split(m.trail.View(), "\n")
+	sk := strings.Split(m.sketch.View(), "\n")
 	sep := m.th.rule.Render(m.th.g.vbar)
 	for i := 0; i < lowerH; i++ {
 		a, b := "", ""

@@ -134,11 +134,11 @@ func (m *Model) nextName() string {
 func (m *Model) narrowView() []string {
 	switch m.mode {
 	case modeLocked:
-		return m.lockedView()
+		return lines(m.lockScr.View())
 	case modeHelp:
-		return m.helpView()
+		return lines(m.helpScr.View())
 	case modeTrail:
-		return m.fullView()
+		return lines(m.full.View())
 	}
 	fb := m.narrowFeedback()
 	hint := m.narrowHint()
@@ -173,7 +173,7 @@ func (m *Model) narrowEntry() []string {
 	if m.mode != modePrompt || m.ask == nil {
 		return []string{m.entryView()}
 	}
-	label := m.ask.label(m)
+	label := m.ask.Label()
 	if ansi.StringWidth(label)+12 <= m.width {
 		return []string{m.entryView()}
 	}
@@ -182,7 +182,7 @@ func (m *Model) narrowEntry() []string {
 		out = append(out, m.th.label.Render(l))
 	}
 	p := m.tr(linePrompt)
-	return append(out, m.th.label.Render(p)+m.ask.answer(m, m.width-ansi.StringWidth(p)))
+	return append(out, m.th.label.Render(p)+m.ask.Answer(m.width-ansi.StringWidth(p)))
 }
 
 // narrowStatus is the status line of a narrow screen: the flags of the
@@ -241,7 +241,7 @@ func (m *Model) narrowHint() string {
 		k := m.tr(m.keys.Stop.Help().Key)
 		return m.th.key.Render(k) + fitWhole(m.tr(" stops it; the session stays as it was"), m.width-ansi.StringWidth(k))
 	}
-	if sig := m.signature(); sig != "" {
+	if sig := m.line.Signature(); sig != "" {
 		// the parameter typed is marked by brackets as well as by style
 		return fitWhole(ansi.Strip(sig), m.width)
 	}
@@ -267,21 +267,36 @@ type hintItem struct {
 
 // bindingHint names a binding by its first key (tab of tab/e), then
 // what it does.
-func (m *Model) bindingHint(b key.Binding) hintItem {
-	first, _, _ := strings.Cut(b.Help().Key, "/")
-	k, d := m.tr(first), m.tr(b.Help().Desc)
-	return hintItem{text: k + " " + d, styled: m.th.key.Render(k) + " " + d}
+func (m *Model) bindingHint(b key.Binding) hintItem { return m.th.bindingHint(b) }
+
+// bindingHint is Model.bindingHint in the theme's look.
+func (t theme) bindingHint(b key.Binding) hintItem {
+	k, d := t.tr(firstKey(b)), t.tr(b.Help().Desc)
+	return hintItem{text: k + " " + d, styled: t.key.Render(k) + " " + d}
+}
+
+// hintFit is a hint line of the bindings bs, as many as fit width whole.
+func (t theme) hintFit(bs []key.Binding, width int) string {
+	hs := make([]hintItem, len(bs))
+	for i, b := range bs {
+		hs[i] = t.bindingHint(b)
+	}
+	return joinHints(hs, width)
 }
 
 // joinHints writes the hints that fit the width whole, in order: after
 // one that does not fit only optional ones are left out, since the rest
 // would read as if they were all.
-func (m *Model) joinHints(hs []hintItem) string {
+func (m *Model) joinHints(hs []hintItem) string { return joinHints(hs, m.width) }
+
+// joinHints writes the hints that fit width whole, in order, as
+// Model.joinHints.
+func joinHints(hs []hintItem, width int) string {
 	var parts []string
 	used := -2
 	for _, h := range hs {
 		w := ansi.StringWidth(h.text) + 2
-		if used+w > m.width {
+		if used+w > width {
 			if h.optional {
 				continue
 			}
@@ -291,15 +306,6 @@ func (m *Model) joinHints(hs []hintItem) string {
 		used += w
 	}
 	return strings.Join(parts, "  ")
-}
-
-// keyHints is a hint line of the bindings bs, as many as fit whole.
-func (m *Model) keyHints(bs []key.Binding) string {
-	hs := make([]hintItem, len(bs))
-	for i, b := range bs {
-		hs[i] = m.bindingHint(b)
-	}
-	return m.joinHints(hs)
 }
 
 // hintKeys are the keys the narrow hint line offers, in order: help, the
@@ -371,7 +377,7 @@ func (m *Model) narrowFeedback() []string {
 	if m.job != nil {
 		return []string{m.th.label.Render(fitWhole(m.tr(m.jobView()), w))}
 	}
-	if col, marks, msg, ok := m.caret(); ok {
+	if col, marks, msg, ok := m.line.Caret(); ok {
 		out := []string{strings.Repeat(" ", col) + m.th.err.Render(marks)}
 		for _, l := range capLines(wrapLine(msg, w, 2), feedbackMax-1, w) {
 			out = append(out, m.th.err.Render(l))
@@ -384,7 +390,7 @@ func (m *Model) narrowFeedback() []string {
 	case m.mode == modePrompt && m.ask != nil && m.msgErr && m.msg != "":
 		ls, style = wrapLine("error: "+m.tr(m.msg), w, 2), m.th.err.Render
 	case m.mode == modePrompt && m.ask != nil:
-		ls, style = wrapLine(m.tr(m.ask.title), w, 2), m.th.dim.Render
+		ls, style = wrapLine(m.ask.Title(), w, 2), m.th.dim.Render
 	case m.caution != 0 && !m.msgErr:
 		return m.narrowCaution()
 	default:
@@ -487,18 +493,17 @@ func numberRune(r rune) bool {
 // narrowTrail is the trail across the whole narrow screen, at the
 // latest step or scrolled back.
 func (m *Model) narrowTrail(h int) []string {
-	t := &m.trail
 	w := m.width
-	t.build(m, w)
-	t.back = max(0, min(t.back, len(t.lines)-1))
+	tl := m.trail.lines()
+	back := m.trail.clamp(m.trail.back)
 	info := []string{fmt.Sprintf("%d steps", len(m.s.sh.Steps())), m.keys.Table.TrailFull.Help().Key + " in full"}
-	if t.back > 0 {
-		info = []string{fmt.Sprintf("%d lines back", t.back)}
+	if back > 0 {
+		info = []string{fmt.Sprintf("%d lines back", back)}
 	}
 	out := []string{m.paneHead("trail", info)}
-	end := len(t.lines) - t.back
+	end := len(tl) - back
 	for i := max(0, end-(h-1)); i < end; i++ {
-		l := t.lines[i]
+		l := tl[i]
 		s := l.text
 		if l.pre {
 			s = fitWhole(s, w)
@@ -508,7 +513,7 @@ func (m *Model) narrowTrail(h int) []string {
 		}
 		out = append(out, s)
 	}
-	if len(t.lines) == 0 {
+	if len(tl) == 0 {
 		out = append(out, m.th.dim.Render("no steps yet"))
 	}
 	return out
@@ -517,10 +522,12 @@ func (m *Model) narrowTrail(h int) []string {
 // narrowSketch is the sketch (or power triangle) across the narrow
 // screen, under a title line of the narrow layout.
 func (m *Model) narrowSketch(h int) []string {
-	ls := m.sketch.view(m, m.width, h-1)
+	m.sketch.SetSize(m.width, h-1)
+	ls := lines(m.sketch.View())
+	title, info := m.sketch.Heading()
 	// what is drawn (and how to mark more) has a line of its own: the
 	// title line has room for the pane key only
-	out := []string{m.paneHead(m.sketch.title, nil), m.th.dim.Render(fitWhole(m.sketch.info, m.width))}
+	out := []string{m.paneHead(title, nil), m.th.dim.Render(fitWhole(info, m.width))}
 	return append(out, ls[1:]...)
 }
 
@@ -544,7 +551,7 @@ func (m *Model) narrowTable(h int) []string {
 		return out
 	}
 	nameW := 4
-	for _, r := range rows[max(0, m.table.top-h):min(len(rows), m.table.top+2*h)] {
+	for _, r := range rows[max(0, m.paneTop-h):min(len(rows), m.paneTop+2*h)] {
 		nameW = max(nameW, min(narrowName, ansi.StringWidth(m.tr(r))))
 	}
 	h1, h2 := "rectangular", "polar"
@@ -561,10 +568,10 @@ func (m *Model) narrowTable(h int) []string {
 		return blocks[i]
 	}
 	body := h - 2
-	m.table.top = narrowTop(slices.Index(rows, m.s.v.Selected), m.table.top, body, len(rows), func(i int) int { return len(block(i)) })
-	for i := m.table.top; i < len(rows); i++ {
+	m.paneTop = narrowTop(slices.Index(rows, m.s.v.Selected), m.paneTop, body, len(rows), func(i int) int { return len(block(i)) })
+	for i := m.paneTop; i < len(rows); i++ {
 		b := block(i)
-		if len(out)-2+len(b) > body && i > m.table.top {
+		if len(out)-2+len(b) > body && i > m.paneTop {
 			break
 		}
 		out = append(out, b...)
@@ -609,7 +616,7 @@ func (m *Model) rowBlock(name string, nameW int) []string {
 		a, b = b, a
 	}
 	eq := m.tr(equivalent(f, q, m.s.sh.Context().Omega()))
-	sel, mark := m.rowMarks(name)
+	sel, mark := rowMarks(m.th.g, name, m.s.v.Selected, m.s.v.Marks)
 	w, nm := m.width, m.tr(name)
 	indent := 4 + nameW + 2
 	var ls []string
@@ -660,7 +667,7 @@ func (m *Model) narrowNet(h int) []string {
 	}
 	out := []string{m.paneHead("network "+n.name, []string{kind})}
 	detail := m.netDetail()
-	title, body := m.netStep()
+	title, body := m.net.stepShown()
 	var step [][]string
 	lines := 0
 	for _, b := range body {

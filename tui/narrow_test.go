@@ -122,7 +122,7 @@ func wholeWords(m *Model) map[string]bool {
 		texts = append(texts, r, f.Rect(q), f.Polar(q), equivalent(f, q, m.s.sh.Context().Omega()))
 	}
 	m.width, m.height = 400, 400
-	texts = append(texts, m.View(), strings.Join(m.helpLines(), "\n"), m.msg, m.signature())
+	texts = append(texts, m.View(), strings.Join(m.helpScr.lines(), "\n"), m.msg, m.line.Signature())
 	m.width, m.height, m.mode = w, h, mode
 	out := map[string]bool{}
 	for _, t := range texts {
@@ -226,7 +226,7 @@ func TestNarrowNoNumberCut(t *testing.T) {
 						v = next
 						checkEdges(t, name+" paged", v, w, h, whole)
 					}
-					for i := 0; i < 200 && m.helpTop > 0; i++ {
+					for i := 0; i < 200 && m.helpScr.top > 0; i++ {
 						press(m, "pgup")
 					}
 					if m.mode == modeTrail {
@@ -319,8 +319,8 @@ func TestNarrowHelpReachable(t *testing.T) {
 	for i := 0; i < 100; i++ {
 		lines := strings.Split(m.View(), "\n")
 		seen = append(seen, lines[:len(lines)-1]...)
-		if strings.Contains(lines[len(lines)-1], fmt.Sprintf("of %d lines", len(m.helpLines()))) &&
-			strings.Contains(lines[len(lines)-1], fmt.Sprintf("-%d of", len(m.helpLines()))) {
+		if strings.Contains(lines[len(lines)-1], fmt.Sprintf("of %d lines", len(m.helpScr.lines()))) &&
+			strings.Contains(lines[len(lines)-1], fmt.Sprintf("-%d of", len(m.helpScr.lines()))) {
 			break
 		}
 		press(m, "pgdown")

@@ -7,7 +7,6 @@ import (
 	"strings"
 
 	"argand/calc"
-
 	"argand/reduce/sheet"
 
 	"github.com/charmbracelet/bubbles/key"
@@ -19,40 +18,56 @@ import (
 // reduction one combination at a time with the parts combined picked out,
 // and every element's voltage, current and power. The worksheet hands it
 // the network and its reduction as structure; the view only draws them.
+// It is a component: Update moves the selection and the step shown and
+// returns what the parent is to do (takeMsg, theveninMsg, nextNetMsg,
+// clipMsg, closeMsg, helpMsg, quitMsg, noteMsg); View draws the view.
 type netView struct {
+	keys          NetKeys
+	th            theme
+	width, height int
+	f             calc.Format
+	polar         bool // the polar form first, where both are written
+
 	name string
 	v    *sheet.NetworkView
 	step int // steps shown: 0 is the network as drawn
 	sel  int // selected element
 }
 
-// openNet opens the named network, or the newest one.
-func (m *Model) openNet(name string) {
-	names := m.s.sh.NetworkNames()
-	if len(names) == 0 {
-		m.note(true, "no networks in this worksheet: type network NAME reference NODE, its elements, then end (argand help networks)")
-		return
+// takeMsg asks the parent to add the selected element's voltage, current
+// or power (suffix v, i or s) as a row.
+type takeMsg struct {
+	elem         sheet.ViewElement
+	suffix, what string
+}
+
+// theveninMsg asks the parent for the Thevenin equivalent between two
+// nodes of the network shown.
+type theveninMsg struct{}
+
+// nextNetMsg asks the parent to show the next network.
+type nextNetMsg struct{}
+
+// clipMsg asks the parent to send text to the terminal clipboard.
+type clipMsg struct{ what, text string }
+
+func newNetView(km KeyMap, th theme, name string, v *sheet.NetworkView) netView {
+	return netView{keys: km.Net, th: th, width: 80, height: 21, name: name, v: v}
+}
+
+// SetSize sets the view's size.
+func (n *netView) SetSize(w, h int) { n.width, n.height = w, h }
+
+// SetFormat sets how values are written.
+func (n *netView) SetFormat(f calc.Format, polar bool) { n.f, n.polar = f, polar }
+
+// keep keeps the step and selection of old when it shows the same
+// network.
+func (n *netView) keep(old *netView) {
+	if old != nil && old.name == n.name {
+		n.step = min(old.step, n.steps())
+		n.sel = min(old.sel, len(n.v.Elements)-1)
 	}
-	if name == "" {
-		name = names[len(names)-1]
-	}
-	v, err := m.s.sh.NetworkView(name)
-	if err != nil {
-		m.note(true, err.Error())
-		return
-	}
-	if len(v.Elements) == 0 {
-		m.note(true, "network "+name+" has no elements")
-		return
-	}
-	nv := &netView{name: name, v: v}
-	if m.net != nil && m.net.name == name {
-		nv.step = min(m.net.step, nv.steps())
-		nv.sel = min(m.net.sel, len(v.Elements)-1)
-	}
-	m.net = nv
-	m.mode = modeNet
-	m.note(false, fmt.Sprintf("network %s: → steps through its reduction, v i s take a branch value as a row", name))
 }
 
 // steps counts the steps shown: the reductions, then the work back to
@@ -93,49 +108,48 @@ func (n *netView) within(k int) map[string]string {
 	return out
 }
 
-func (m *Model) netKey(k tea.KeyMsg) tea.Cmd {
-	km := m.keys.Net
-	n := m.net
-	if msg, ok := n.update(k, km); ok {
-		if msg != "" {
-			m.note(false, msg)
-		}
-		return nil
+// Update handles a key while the network view has the keyboard.
+func (n netView) Update(msg tea.Msg) (netView, tea.Msg) {
+	k, ok := msg.(tea.KeyMsg)
+	if !ok {
+		return n, nil
 	}
+	km := n.keys
+	if note, ok := n.move(k); ok {
+		if note != "" {
+			return n, noteMsg{text: note}
+		}
+		return n, nil
+	}
+	e, ok := n.selected()
 	switch {
-	case key.Matches(k, km.TakeV):
-		m.takeBranch("v", "voltage")
-	case key.Matches(k, km.TakeI):
-		m.takeBranch("i", "current")
-	case key.Matches(k, km.TakeS):
-		m.takeBranch("s", "complex power")
+	case key.Matches(k, km.TakeV) && ok:
+		return n, takeMsg{elem: e, suffix: "v", what: "voltage"}
+	case key.Matches(k, km.TakeI) && ok:
+		return n, takeMsg{elem: e, suffix: "i", what: "current"}
+	case key.Matches(k, km.TakeS) && ok:
+		return n, takeMsg{elem: e, suffix: "s", what: "complex power"}
 	case key.Matches(k, km.Thevenin):
-		m.netThevenin()
+		return n, theveninMsg{}
 	case key.Matches(k, km.Next):
-		names := m.s.sh.NetworkNames()
-		next := names[(slices.Index(names, n.name)+1)%len(names)]
-		m.net = nil
-		m.openNet(next)
-	case key.Matches(k, km.Clip):
-		if e, ok := n.selected(); ok {
-			return m.copyCmd(e.Name+"'s values", m.branchText(e, true))
-		}
+		return n, nextNetMsg{}
+	case key.Matches(k, km.Clip) && ok:
+		return n, clipMsg{what: e.Name + "'s values", text: e.Name + ": " + n.values(e, true)}
 	case key.Matches(k, km.Close):
-		m.mode = modeRows
-		m.note(false, "")
+		return n, closeMsg{}
 	case key.Matches(k, km.Help):
-		m.openHelp()
+		return n, helpMsg{}
 	case key.Matches(k, km.Quit):
-		m.quitting = true
-		return tea.Quit
+		return n, quitMsg{}
 	}
-	return nil
+	return n, nil
 }
 
-// update moves within the view: the selected element and the reduction
+// move moves within the view: the selected element and the reduction
 // step shown. It reports whether k was such a key, with a message when
 // the move could not be made.
-func (n *netView) update(k tea.KeyMsg, km NetKeys) (string, bool) {
+func (n *netView) move(k tea.KeyMsg) (string, bool) {
+	km := n.keys
 	switch {
 	case key.Matches(k, km.Up):
 		n.sel = max(0, n.sel-1)
@@ -165,82 +179,20 @@ func (n *netView) selected() (sheet.ViewElement, bool) {
 	return n.v.Elements[n.sel], true
 }
 
-// takeBranch asks a name for the selected element's voltage, current or
-// power (suffix v, i or s) and defines it as a new row.
-func (m *Model) takeBranch(suffix, what string) {
-	n := m.net
-	e, ok := n.selected()
-	if !ok {
-		return
-	}
-	src := n.name + "." + e.Name + "." + suffix
-	if _, ok := m.s.sh.Lookup(src); !ok {
-		m.note(true, "no "+what+" for "+e.Name+" (the network has no solution)")
-		return
-	}
-	def := suffix + e.Name
-	if _, taken := m.s.sh.Lookup(def); taken {
-		def, _ = m.newName(src)
-	}
-	m.startAsk(what+" of "+e.Name+" as a new row", []question{{label: "name", def: def}}, func(a []string) {
-		m.run(what+" of "+e.Name, strings.TrimSpace(a[0])+" = "+src)
-	})
-}
-
-// netThevenin asks for two nodes and a name, and defines the Thevenin
-// equivalent between them with its impedance as a row of its own.
-func (m *Model) netThevenin() {
-	n := m.net
-	if n.v.Compact != "" {
-		m.note(true, "network "+n.name+" is a compact form and has no named nodes: a Thevenin equivalent needs a node block")
-		return
-	}
-	a, b := "", n.v.Reference
-	for _, x := range n.v.Nodes {
-		if x != b {
-			a = x
-		}
-	}
-	def, _ := m.newName("0 V")
-	def = "T" + strings.TrimPrefix(def, "V")
-	m.startAsk("Thevenin equivalent of "+n.name+" between two nodes ("+strings.Join(n.v.Nodes, " ")+")",
-		[]question{{label: "first node", def: a}, {label: "second node", def: b}, {label: "name", def: def}},
-		func(ans []string) {
-			st := "thevenin " + ans[2] + " = " + n.name + " between " + ans[0] + " and " + ans[1]
-			z := "Z" + ans[2] + " = " + ans[2] + ".zth"
-			c := m.s.sh.Clone()
-			if _, _, err := c.Exec(st); err != nil {
-				m.note(true, "Thevenin: "+errText(err))
-				return
-			}
-			if _, _, err := c.Exec(z); err == nil {
-				m.run("Thevenin equivalent (V_th is "+ans[2]+", Z_th is Z"+ans[2]+")", st, z)
-			} else {
-				m.run("equivalent", st)
-			}
-		})
-	m.back = modeNet
-}
-
-// branchText is an element's solved values as text.
-func (m *Model) branchText(e sheet.ViewElement, both bool) string {
-	return e.Name + ": " + m.branchValues(e, both)
-}
-
-// branchValues is an element's voltage, current and power as text.
-func (m *Model) branchValues(e sheet.ViewElement, both bool) string {
+// values is an element's voltage, current and power as text, each in
+// both forms when both is set.
+func (n netView) values(e sheet.ViewElement, both bool) string {
 	if !e.Solved {
 		return "no solution (the network has no source)"
 	}
-	f := m.format()
 	var parts []string
 	for _, x := range []struct {
 		l string
 		q calc.Quantity
 	}{{"V", e.V}, {"I", e.I}, {"S", e.S}} {
-		v := f.Polar(x.q)
+		v := n.f.Polar(x.q)
 		if both {
-			v = f.Both(x.q, m.s.v.PolarFirst)
+			v = n.f.Both(x.q, n.polar)
 		}
 		parts = append(parts, x.l+" = "+v)
 	}
@@ -272,14 +224,14 @@ func netColumns(w int, compact bool) netCols {
 // (ASCII angles are longer: "@-21.15 deg"), and where the line would
 // still pass w, leaves out the column of equivalents, so that the power
 // column is never cut.
-func (m *Model) fitColumns(c netCols, w int) netCols {
-	f := m.format()
+func (n netView) fitColumns(c netCols, w int) netCols {
+	f := n.f
 	sv, si, ss := 7, 7, 5
-	for _, e := range m.net.v.Elements {
+	for _, e := range n.v.Elements {
 		if e.Solved {
-			sv = max(sv, ansi.StringWidth(m.tr(f.Polar(e.V))))
-			si = max(si, ansi.StringWidth(m.tr(f.Polar(e.I))))
-			ss = max(ss, ansi.StringWidth(m.tr(f.Polar(e.S))))
+			sv = max(sv, ansi.StringWidth(n.th.tr(f.Polar(e.V))))
+			si = max(si, ansi.StringWidth(n.th.tr(f.Polar(e.I))))
+			ss = max(ss, ansi.StringWidth(n.th.tr(f.Polar(e.S))))
 		}
 	}
 	c.v, c.i = min(sv, 22), min(si, 22)
@@ -317,46 +269,45 @@ func (c netCols) row(name, kind, nodes, value, eq, v, i, s string) string {
 	return line + pad(v, c.v) + " " + pad(i, c.i) + " " + s
 }
 
-// netPane draws the network view in w × h cells: the element table, the
-// selected element's values, and the reduction step shown.
-func (m *Model) netPane(w, h int) []string {
-	n := m.net
+// View draws the network view in its width and height: the element
+// table, the selected element's values, and the reduction step shown.
+func (n netView) View() string {
+	w, h := n.width, n.height
 	kind := "node block, reference " + n.v.Reference + ", nodes " + strings.Join(n.v.Nodes, " ")
 	if n.v.Compact != "" {
 		kind = "compact form " + n.v.Compact
 	}
 	out := make([]string, 0, h)
-	out = append(out, m.th.section(m.tr("network "+n.name), m.tr(kind), w))
-	cols := m.fitColumns(netColumns(w, n.v.Compact != ""), w)
-	out = append(out, m.th.dim.Render(fit(m.tr("   "+cols.row("element", "kind", "nodes", "value", "in", "voltage", "current", "power")), w)))
+	out = append(out, n.th.section(n.th.tr("network "+n.name), n.th.tr(kind), w))
+	cols := n.fitColumns(netColumns(w, n.v.Compact != ""), w)
+	out = append(out, n.th.dim.Render(fit(n.th.tr("   "+cols.row("element", "kind", "nodes", "value", "in", "voltage", "current", "power")), w)))
 	// leave room for the reduction step below the element table
 	listH := max(3, min(len(n.v.Elements), h-2-8))
-	out = append(out, m.netRows(cols, w, listH)...)
+	out = append(out, n.rows(cols, w, listH)...)
 	for len(out) < 2+listH {
 		out = append(out, "")
 	}
 	if n.sel >= 0 && n.sel < len(n.v.Elements) {
 		e := n.v.Elements[n.sel]
-		out = append(out, fit(m.tr(m.th.g.sel+" "+e.Name+" "+kindWord(e.Kind)+" "+e.ValueText(m.format())+"  "+m.branchValues(e, false)), w))
+		out = append(out, fit(n.th.tr(n.th.g.sel+" "+e.Name+" "+kindWord(e.Kind)+" "+e.ValueText(n.f)+"  "+n.values(e, false)), w))
 	}
-	title, body := m.netStep()
-	out = append(out, m.th.section(title, "", w))
+	title, body := n.stepShown()
+	out = append(out, n.th.section(title, "", w))
 	for _, b := range body {
 		if len(out) >= h {
 			break
 		}
-		out = append(out, fit(m.tr(b), w))
+		out = append(out, fit(n.th.tr(b), w))
 	}
 	for len(out) < h {
 		out = append(out, "")
 	}
-	return out[:h]
+	return strings.Join(out[:h], "\n")
 }
 
 // netRows draws the rows of the element table around the selection.
-func (m *Model) netRows(cols netCols, w, listH int) []string {
-	n := m.net
-	f := m.format()
+func (n netView) rows(cols netCols, w, listH int) []string {
+	f := n.f
 	within := n.within(n.step)
 	cur := n.merge(n.step)
 	hot := n.hot(n.step)
@@ -366,10 +317,10 @@ func (m *Model) netRows(cols netCols, w, listH int) []string {
 		e := n.v.Elements[i]
 		sel, hi := " ", "  "
 		if i == n.sel {
-			sel = m.th.g.sel
+			sel = n.th.g.sel
 		}
 		if hot[e.Name] {
-			hi = m.th.g.hi
+			hi = n.th.g.hi
 			if ansi.StringWidth(hi) < 2 {
 				hi += " "
 			}
@@ -385,12 +336,12 @@ func (m *Model) netRows(cols netCols, w, listH int) []string {
 		if e.Solved {
 			v, c, s = f.Polar(e.V), f.Polar(e.I), f.Polar(e.S)
 		}
-		line := fit(m.tr(sel+hi+cols.row(e.Name, kindWord(e.Kind), e.From+m.th.g.arrow+e.To, val, eq, v, c, s)), w)
+		line := fit(n.th.tr(sel+hi+cols.row(e.Name, kindWord(e.Kind), e.From+n.th.g.arrow+e.To, val, eq, v, c, s)), w)
 		switch {
 		case i == n.sel:
-			line = m.th.sel.Render(pad(line, w))
+			line = n.th.sel.Render(pad(line, w))
 		case hot[e.Name]:
-			line = m.th.hi.Render(line)
+			line = n.th.hi.Render(line)
 		}
 		out = append(out, line)
 	}
@@ -398,9 +349,8 @@ func (m *Model) netRows(cols netCols, w, listH int) []string {
 }
 
 // netStep returns the title and lines of the reduction step shown.
-func (m *Model) netStep() (string, []string) {
-	n := m.net
-	f := m.format()
+func (n netView) stepShown() (string, []string) {
+	f := n.f
 	switch {
 	case len(n.v.Steps) == 0:
 		return "no step-by-step reduction", []string{n.v.Why, "The values above come from the nodal solution of the worksheet."}
@@ -420,16 +370,16 @@ func (m *Model) netStep() (string, []string) {
 	var body []string
 	if cur := st.Merge; cur != nil {
 		title = fmt.Sprintf("reduction step %d of %d", n.step, n.steps())
-		body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", m.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), m.th.g.hi))
+		body = append(body, fmt.Sprintf("%s %s = %s  (marked %s above)", n.th.g.hi, cur.Name, strings.Join(cur.Parts, " with "), n.th.g.hi))
 	} else {
 		title = fmt.Sprintf("working back, step %d of %d", n.step, n.steps())
 		names := slices.Clone(st.Hot)
 		sort.Strings(names)
 		if len(names) > 0 {
-			body = append(body, fmt.Sprintf("%s %s (marked %s above)", m.th.g.hi, strings.Join(names, ", "), m.th.g.hi))
+			body = append(body, fmt.Sprintf("%s %s (marked %s above)", n.th.g.hi, strings.Join(names, ", "), n.th.g.hi))
 		}
 	}
-	body = append(body, strings.Split(strings.TrimRight(st.Step.Text(f, m.s.v.PolarFirst), "\n"), "\n")[1:]...)
+	body = append(body, strings.Split(strings.TrimRight(st.Step.Text(f, n.polar), "\n"), "\n")[1:]...)
 	return title, body
 }
 

@@ -93,7 +93,7 @@ func (m *Model) applied(what string, steps []calc.Step, defined []string) {
 		q, _ := m.s.sh.Lookup(last)
 		res = last + " = " + m.format().Both(q, m.s.v.PolarFirst)
 	}
-	m.trail.back = 0
+	m.trail.Latest()
 	m.note(false, strings.TrimSpace(what+"  "+res))
 	m.caution = cautionOf(steps)
 }
@@ -285,20 +285,17 @@ type rowAction struct {
 	do func(m *Model) tea.Cmd
 }
 
-// rowActions pairs each binding of the entries table with its action.
+// rowActions pairs each binding of the entries table with its action;
+// the table moves its selection itself.
 func (m *Model) rowActions() []rowAction {
 	k := m.keys.Table
 	act := func(f func(m *Model)) func(m *Model) tea.Cmd {
 		return func(m *Model) tea.Cmd { f(m); return nil }
 	}
 	return []rowAction{
-		{k.Up, act(func(m *Model) { m.moveSel(-1, false) })},
-		{k.Down, act(func(m *Model) { m.moveSel(1, false) })},
-		{k.Top, act(func(m *Model) { m.moveSel(0, true) })},
-		{k.Bottom, act(func(m *Model) { m.moveSel(-1, true) })},
 		{k.Mark, act((*Model).toggleMark)},
 		{k.Unmark, act((*Model).clearMarks)},
-		{k.Focus, act(func(m *Model) { m.mode = modeLine; m.line.validate(m) })},
+		{k.Focus, act(func(m *Model) { m.mode = modeLine })},
 		{k.Recall, act((*Model).recall)},
 		{k.Add, act(func(m *Model) { m.binary("add", "+") })},
 		{k.Sub, act(func(m *Model) { m.binary("subtract", "-") })},
@@ -339,73 +336,20 @@ func (m *Model) rowActions() []rowAction {
 		{k.Undo, act((*Model).undo)},
 		{k.Redo, act((*Model).redo)},
 		{k.Networks, act(func(m *Model) { m.openNet("") })},
-		{k.Export, act(func(m *Model) {
-			m.mode = modeExport
-			m.note(false, "export: "+m.keyList(m.keys.Export.ShortHelp()[:3]))
-		})},
+		{k.Export, act((*Model).openExport)},
 		{k.Clip, (*Model).clipRow},
 		{k.ClipTrail, func(m *Model) tea.Cmd { return m.copyCmd("the trail", m.trailText()) }},
-		{k.TrailBack, act(func(m *Model) { m.trail.scroll(m, 5) })},
-		{k.TrailOn, act(func(m *Model) { m.trail.scroll(m, -5) })},
-		{k.TrailLast, act(func(m *Model) { m.trail.back = 0; m.note(false, "trail at the latest step") })},
+		{k.TrailBack, act(func(m *Model) { m.trail.ScrollBy(5) })},
+		{k.TrailOn, act(func(m *Model) { m.trail.ScrollBy(-5) })},
+		{k.TrailLast, act(func(m *Model) { m.trail.Latest(); m.note(false, "trail at the latest step") })},
 		{k.TrailFull, act((*Model).openFull)},
-		{k.Help, act((*Model).openHelp)},
+		{k.Help, act(func(m *Model) { m.openHelp("") })},
 		{k.Quit, func(m *Model) tea.Cmd { m.quitting = true; return tea.Quit }},
 	}
 }
 
-// keyList writes bindings as "key what, key what" for a message.
-func (m *Model) keyList(bs []key.Binding) string {
-	var parts []string
-	for _, b := range bs {
-		parts = append(parts, b.Help().Key+" "+b.Help().Desc)
-	}
-	return strings.Join(parts, ", ")
-}
-
 // undoKey names the undo key, for messages that offer it.
 func (m *Model) undoKey() string { return m.keys.Table.Undo.Help().Key }
-
-// rowsKey handles a key while the entries table has the keyboard: a bound
-// key acts; a paste or the first character of a statement goes to the
-// entry line.
-func (m *Model) rowsKey(k tea.KeyMsg) tea.Cmd {
-	for _, a := range m.rowActions() {
-		if key.Matches(k, a.b) {
-			return a.do(m)
-		}
-	}
-	if k.Paste {
-		// a paste is text for the entry line, wherever the keyboard was
-		m.mode = modeLine
-		return m.lineKey(k)
-	}
-	if k.Type == tea.KeyRunes && !k.Alt {
-		// typing starts a statement: the first character goes to the line
-		if rs := k.Runes; len(rs) > 0 && startsStatement(rs[0]) {
-			m.mode = modeLine
-			return m.lineKey(k)
-		}
-	}
-	return nil
-}
-
-// moveSel moves the selection by d rows, or to row d from the top (0) or
-// the bottom (−1) when to is set.
-func (m *Model) moveSel(d int, to bool) {
-	rows := m.s.rows()
-	if len(rows) == 0 {
-		return
-	}
-	i := slices.Index(rows, m.s.v.Selected) + d
-	if to {
-		i = d
-		if d < 0 {
-			i = len(rows) - 1
-		}
-	}
-	m.s.v.Selected = rows[max(0, min(i, len(rows)-1))]
-}
 
 func (m *Model) toggleMark() {
 	n := m.s.v.Selected
@@ -442,9 +386,8 @@ func (m *Model) recall() {
 		m.note(true, "no row to recall")
 		return
 	}
-	m.line.f.set(m.recallText(n))
+	m.line.SetValue(m.recallText(n))
 	m.mode = modeLine
-	m.line.validate(m)
 	m.note(false, "recalled "+n+": edit and press enter to redefine it (what depends on it follows)")
 }
 
@@ -549,7 +492,7 @@ func (m *Model) switchDecimal() {
 func (m *Model) undo() {
 	switch {
 	case m.s.doUndo():
-		m.trail.back = 0
+		m.trail.Latest()
 		m.note(false, fmt.Sprintf("undone (%d more to undo, %s redoes)", len(m.s.undo), m.keys.Table.Redo.Help().Key))
 	case m.s.readOnly:
 		m.note(true, m.s.errReadOnly().Error())
@@ -575,12 +518,6 @@ func (m *Model) clipRow() tea.Cmd {
 	}
 	q, _ := m.s.sh.Lookup(n)
 	return m.copyCmd(n, n+" = "+m.format().Both(q, m.s.v.PolarFirst))
-}
-
-// startsStatement reports characters that no binding takes and that begin
-// a statement: digits, letters not bound, '(' and '#'.
-func startsStatement(r rune) bool {
-	return r >= '0' && r <= '9' || r == '(' || r == '.' || r >= 0x80
 }
 
 // recallText is the statement that defines name, for editing.

@@ -1,14 +1,10 @@
 package tui
 
 import (
-	"fmt"
-	"math"
 	"strconv"
 	"strings"
 
 	"argand/calc"
-	"argand/reduce/sheet"
-	"argand/tui/sketch"
 
 	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/x/ansi"
@@ -71,410 +67,12 @@ func (m *Model) statusParts() (flags, parts []string) {
 	return flags, parts
 }
 
-// tableView is the entries table, newest at the top.
-type tableView struct {
-	top int // first row shown
-}
-
-func (t *tableView) view(m *Model, w, h int) []string {
-	rows := m.s.rows()
-	out := make([]string, 0, h)
-	info := fmt.Sprintf("%d rows", len(rows))
-	if n := len(m.s.v.Marks); n > 0 {
-		info += ", marked " + strings.Join(m.s.v.Marks, " ")
-	}
-	if n := len(m.s.v.Hidden); n > 0 {
-		info += fmt.Sprintf(", %d put away", n)
-	}
-	out = append(out, m.th.section("entries", m.tr(info), w))
-	nameW := 8
-	for _, r := range rows {
-		nameW = max(nameW, min(14, ansi.StringWidth(r)))
-	}
-	h1, h2 := "rectangular", "polar"
-	if m.s.v.PolarFirst {
-		h1, h2 = h2, h1
-	}
-	body := h - 2
-	sel := 0
-	for i, r := range rows {
-		if r == m.s.v.Selected {
-			sel = i
-		}
-	}
-	if sel < t.top {
-		t.top = sel
-	}
-	if sel >= t.top+body {
-		t.top = sel - body + 1
-	}
-	t.top = max(0, min(t.top, len(rows)-body))
-	// format the rows shown, then size the columns to them
-	f := m.format()
-	omega := m.s.sh.Context().Omega()
-	var shown []tableCells
-	c1, c2 := ansi.StringWidth(h1), ansi.StringWidth(h2)
-	for i := t.top; i < len(rows) && i < t.top+body; i++ {
-		q, _ := m.s.sh.Lookup(rows[i])
-		a, b := f.Rect(q), f.Polar(q)
-		if m.s.v.PolarFirst {
-			a, b = b, a
-		}
-		c := tableCells{rows[i], a, b, equivalent(f, q, omega)}
-		c1 = max(c1, ansi.StringWidth(a))
-		c2 = max(c2, ansi.StringWidth(b))
-		shown = append(shown, c)
-	}
-	c1, c2 = min(c1, 30), min(c2, 26)
-	freq := f.Mag(m.s.sh.Settings().Freq, calc.DimFrequency, 0)
-	head := "    " + pad("name", nameW) + "  " + pad(h1, c1) + "  " + pad(h2, c2) + "  " + "at " + freq
-	out = append(out, m.th.dim.Render(fit(m.tr(head), w)))
-	if body < 1 {
-		return out
-	}
-	if len(rows) == 0 {
-		out = append(out, m.th.dim.Render(fit(m.tr("    no entries yet: tab, then type a value such as Z1 = 3+j4 Ω"), w)))
-		return out
-	}
-	for _, c := range shown {
-		out = append(out, m.tableLine(c, nameW, c1, c2, w))
-	}
-	return out
-}
-
-// tableCells are the formatted cells of one row of the table.
-type tableCells struct{ name, a, b, eq string }
-
-// tableLine draws one row of the table: selection and mark, name, both
-// forms and what the value is at the working frequency.
-func (m *Model) tableLine(c tableCells, nameW, c1, c2, w int) string {
-	name := c.name
-	selMark, mark := m.rowMarks(name)
-	line := selMark + mark + " " + pad(m.tr(name), nameW) + "  " + pad(c.a, c1) + "  " + pad(c.b, c2) + "  "
-	eq := c.eq
-	if _, lc, ok := strings.Cut(eq, " + "); ok && ansi.StringWidth(line+eq) > w {
-		// R is the real part, already in the rectangular form: the
-		// L or C alone, whole, says more than both cut
-		eq = lc
-	}
-	line = fit(line+eq, w)
-	switch {
-	case name == m.s.v.Selected:
-		return m.th.sel.Render(pad(line, w))
-	case mark != "  ":
-		return m.th.marked.Render(line)
-	}
-	return line
-}
-
-// rowMarks are the signs before a row's name: the selection marker or a
-// space, and the mark with its number in the order marked or two spaces.
-func (m *Model) rowMarks(name string) (sel, mark string) {
-	sel, mark = " ", "  "
-	if name == m.s.v.Selected {
-		sel = m.th.g.sel
-	}
-	if k := m.s.markIndex(name); k >= 0 {
-		mark = m.th.g.mark + strconv.Itoa(k+1)
-		if k >= 9 {
-			mark = m.th.g.mark + "+"
-		}
-	}
-	return sel, mark
-}
-
-// equivalent describes what an impedance or admittance is at the working
-// frequency: series R with L or C (Z = R + jωL, or R − j/(ωC)), or for an
-// admittance the parallel G with C or L (Y = G + jωC, or G − j/(ωL)).
-func equivalent(f calc.Format, q calc.Quantity, omega float64) string {
-	if omega <= 0 || math.IsInf(omega, 0) || math.IsNaN(omega) {
-		return ""
-	}
-	if q.Kind == calc.KindMagnitude || q.Kind == calc.KindSigned {
-		// a size or a signed real is not an element: |Z| is no resistance
-		return ""
-	}
-	re, im := real(q.V), imag(q.V)
-	switch q.Dim {
-	case calc.DimImpedance:
-		var parts []string
-		if re != 0 || im == 0 {
-			parts = append(parts, "R "+f.Mag(re, calc.DimImpedance, 0))
-		}
-		switch {
-		case im > 0:
-			parts = append(parts, "L "+f.Mag(im/omega, calc.DimInductance, 0))
-		case im < 0:
-			parts = append(parts, "C "+f.Mag(-1/(omega*im), calc.DimCapacitance, 0))
-		}
-		return strings.Join(parts, " + ")
-	case calc.DimAdmittance:
-		s := "G " + f.Mag(re, calc.DimAdmittance, 0)
-		switch {
-		case im > 0:
-			s += " ‖ C " + f.Mag(im/omega, calc.DimCapacitance, 0)
-		case im < 0:
-			s += " ‖ L " + f.Mag(-1/(omega*im), calc.DimInductance, 0)
-		}
-		if f.ASCII {
-			s = calc.ASCIIText(s)
-		}
-		return s
-	}
-	return ""
-}
-
-// trailView is the step trail, scrollable through the whole session.
-type trailView struct {
-	back  int // lines scrolled back from the latest
-	key   trailKey
-	lines []trailLine
-}
-
-type trailKey struct {
-	sh    *sheet.Sheet
-	n     int
-	f     calc.Format
-	polar bool
-	width int
-}
-
-type trailLine struct {
-	text string
-	head bool
-	pre  bool // a line of a plot: cut, never wrapped, at narrow widths
-}
-
-// build renders every step of the session once for width cells; the trail
-// only grows while the sheet stays the same, so new steps are appended.
-func (t *trailView) build(m *Model, width int) {
-	steps := m.s.sh.Steps()
-	k := trailKey{sh: m.s.sh, n: len(steps), f: m.format(), polar: m.s.v.PolarFirst, width: width}
-	if k == t.key {
-		return
-	}
-	from := 0
-	if t.key.sh == k.sh && t.key.f == k.f && t.key.polar == k.polar && t.key.width == k.width && t.key.n <= k.n {
-		from = t.key.n
-	} else {
-		t.lines = t.lines[:0]
-	}
-	for i := from; i < len(steps); i++ {
-		t.lines = append(t.lines, stepLines(m, &steps[i], k.f, k.polar, width)...)
-	}
-	t.key = k
-}
-
-// stepLines writes one step as trail lines wrapped to width: continuation
-// lines hang under their line, notes wrap word by word, and a note of
-// several lines (a plot) keeps its shape.
-func stepLines(m *Model, st *calc.Step, f calc.Format, polar bool, width int) []trailLine {
-	c := *st
-	c.Notes = nil
-	var out []trailLine
-	wrapped := func(l string, head bool) {
-		l = m.tr(l)
-		for _, w := range wrapLine(l, width, hangIndent(l)) {
-			out = append(out, trailLine{text: w, head: head})
-		}
-	}
-	for j, l := range strings.Split(strings.TrimRight(c.Text(f, polar), "\n"), "\n") {
-		wrapped(l, j == 0)
-	}
-	for _, n := range st.Notes {
-		n = strings.TrimRight(n, "\n")
-		if f.ASCII {
-			n = calc.ASCIIText(n)
-		}
-		first, rest, _ := strings.Cut(n, "\n")
-		wrapped("    note: "+first, false)
-		if rest == "" {
-			continue
-		}
-		// a note of several lines (a plot) keeps its shape
-		for _, l := range strings.Split(rest, "\n") {
-			out = append(out, trailLine{text: m.tr("      " + l), pre: true})
-		}
-	}
-	return out
-}
-
-func (t *trailView) scroll(m *Model, by int) {
-	t.build(m, m.trailWidth())
-	t.back = max(0, min(t.back+by, len(t.lines)-1))
-}
-
-func (t *trailView) view(m *Model, w, h int) []string {
-	t.build(m, w)
-	t.back = max(0, min(t.back, len(t.lines)-1))
-	n := len(m.s.sh.Steps())
-	info := fmt.Sprintf("%d steps, T in full", n)
-	if t.back > 0 {
-		info = fmt.Sprintf("%d lines back (L: latest)", t.back)
-	}
-	out := make([]string, 0, h)
-	out = append(out, m.th.section("trail", info, w))
-	body := h - 1
-	end := len(t.lines) - t.back
-	start := max(0, end-body)
-	for i := start; i < end; i++ {
-		l := t.lines[i]
-		s := fitWhole(l.text, w) // a plot's line is cut between its words, not inside a number
-		if l.head {
-			s = m.th.label.Render(s)
-		}
-		out = append(out, s)
-	}
-	if len(t.lines) == 0 {
-		out = append(out, m.th.dim.Render("no steps yet"))
-	}
-	return out
-}
-
-// sketchPane draws the marked rows (or the selected one) as arrows.
-type sketchPane struct {
-	key   string
-	lines []string
-	// title and info of the lines' first line, for a layout that writes
-	// its own
-	title, info string
-}
-
-func (p *sketchPane) view(m *Model, w, h int) []string {
-	names := m.s.v.Marks
-	what := "marked rows"
-	if len(names) == 0 && m.s.v.Selected != "" {
-		names = []string{m.s.v.Selected}
-		what = "selected row; space marks more"
-	}
-	k := fmt.Sprintf("%p|%d|%s|%d|%d|%v", m.s.sh, len(m.s.sh.Steps()), strings.Join(names, ","), w, h, m.opt.ASCII)
-	if k == p.key {
-		return p.lines
-	}
-	items := make([]sketch.Item, 0, len(names))
-	var skipped []string
-	for _, n := range names {
-		q, ok := m.s.sh.Lookup(n)
-		if !ok {
-			continue
-		}
-		if !drawable(q) {
-			// a magnitude, a signed real or a count has no angle: an
-			// arrow at 0° would claim one
-			skipped = append(skipped, n)
-			continue
-		}
-		items = append(items, sketch.Item{Label: n, V: sketchValue(q), Unit: calc.UnitSymbol(q.Dim, q.Kind, m.opt.ASCII)})
-	}
-	// one complex power on its own is drawn as its power triangle
-	if len(names) == 1 {
-		if q, ok := m.s.sh.Lookup(names[0]); ok && q.Dim == calc.DimPower && q.Kind == calc.KindApparent && q.V != 0 {
-			p.title, p.info = "power triangle", m.tr(names[0]+": P, Q and S")
-			out := []string{m.th.section(p.title, p.info, w)}
-			out = append(out, sketch.Triangle(real(q.V), imag(q.V), w, h-1, sketch.Options{ASCII: m.opt.ASCII, Comma: m.s.sh.Settings().Comma})...)
-			p.key, p.lines = k, out
-			return out
-		}
-	}
-	p.title, p.info = "sketch", m.tr(what)
-	out := []string{m.th.section(p.title, p.info, w)}
-	rows := h - 1
-	var note string
-	if len(skipped) > 0 {
-		note = m.tr(strings.Join(skipped, ", ") + ": no angle, not drawn")
-		if len([]rune(note)) > w {
-			note = string([]rune(note)[:w])
-		}
-		rows--
-	}
-	if len(items) == 0 {
-		out = append(out, m.th.dim.Render("nothing to draw"))
-	} else {
-		out = append(out, sketch.Render(items, w, rows, sketch.Options{ASCII: m.opt.ASCII, Comma: m.s.sh.Settings().Comma})...)
-	}
-	if note != "" {
-		out = append(out, m.th.dim.Render(note))
-	}
-	p.key, p.lines = k, out
-	return out
-}
-
-// drawable reports a quantity that has a direction in the complex plane:
-// a phasor or complex quantity. A real number of a kind that is real by
-// meaning (an active or reactive power, a resistance, a magnitude) has no
-// angle, and an arrow along an axis would claim one.
-func drawable(q calc.Quantity) bool {
-	return !q.Scalar() && q.Kind != calc.KindAngle
-}
-
-// sketchValue is where a quantity is drawn in the complex plane. A
-// reactive power kept as a real number of var is the imaginary part of
-// S = P + jQ, so it is drawn as j·Q; an active power stays on the real
-// axis, where P lies.
-func sketchValue(q calc.Quantity) complex128 {
-	if q.Dim == calc.DimPower && q.Kind == calc.KindReactive && imag(q.V) == 0 {
-		return complex(0, real(q.V))
-	}
-	return q.V
-}
-
-// entryLine is the line where statements are typed, with live feedback:
-// each change is checked by the worksheet (parsed and tried on a copy) so
-// an error and its place show before enter is pressed.
-type entryLine struct {
-	f       field
-	err     *calc.Error
-	checked string
-	history []string
-	hpos    int
-}
-
-func (e *entryLine) validate(m *Model) {
-	s := e.f.String()
-	if s == e.checked {
-		return
-	}
-	e.checked = s
-	e.err = nil
-	if strings.TrimSpace(s) != "" {
-		e.err = m.s.sh.Validate(s)
-	}
-}
-
-const linePrompt = "› "
-
-func (m *Model) promptText() string {
-	p := linePrompt
-	if n := m.s.sh.OpenNetwork(); n != "" {
-		p = n + " › "
-	}
-	return m.tr(p)
-}
-
+// entryView is the entry line, or the question asked in its place.
 func (m *Model) entryView() string {
 	if m.mode == modePrompt && m.ask != nil {
-		return m.ask.view(m, m.width)
+		return m.ask.View()
 	}
-	p := m.promptText()
-	w := m.width - ansi.StringWidth(p)
-	if m.mode != modeLine {
-		if m.line.f.String() == "" {
-			example := "Zc = 1/(j·ω·4.7 µF)"
-			if m.s.sh.Settings().Comma {
-				example = "Zc = 1/(j·ω·4,7 µF)"
-			}
-			hint := m.tr("tab or e: type a statement, such as " + example)
-			if ansi.StringWidth(p+hint) > m.width {
-				// a narrow screen: the example whole or not at all
-				hint = m.tr("tab or e: type a statement")
-			}
-			return m.th.dim.Render(p + hint)
-		}
-		s, _ := m.line.f.render(w, func(c string) string { return c })
-		return m.th.dim.Render(p + s)
-	}
-	s, _ := m.line.f.render(w, func(c string) string { return m.th.cursor.Render(c) })
-	return m.th.label.Render(p) + s
+	return m.line.View()
 }
 
 // feedbackView is the line under the entry line: the live parse error
@@ -483,7 +81,7 @@ func (m *Model) feedbackView() string {
 	if m.job != nil {
 		return m.th.label.Render(m.tr(m.jobView()))
 	}
-	if col, marks, msg, ok := m.caret(); ok {
+	if col, marks, msg, ok := m.line.Caret(); ok {
 		// the caret stays under its column; the message follows it when
 		// it fits, else it takes the hint line below in full
 		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) <= m.width {
@@ -496,7 +94,7 @@ func (m *Model) feedbackView() string {
 			// a refused answer says why in place of the title
 			return m.th.err.Render(fit("error: "+m.tr(m.msg), m.width))
 		}
-		return m.th.dim.Render(m.tr(m.ask.title))
+		return m.th.dim.Render(m.ask.Title())
 	}
 	if m.caution != 0 && !m.msgErr {
 		return m.th.err.Render(m.cautionLine())
@@ -546,46 +144,17 @@ func (m *Model) cautionLine() string {
 	return head + ansi.Truncate(m.tr(m.caution.Line()), max(1, room), "…") + suffix
 }
 
-// caret places the live parse error under the entry line: the column
-// of the caret (in cells, on the screen), the marks and the message.
-func (m *Model) caret() (col int, marks, msg string, ok bool) {
-	if m.mode != modeLine || m.line.err == nil {
-		return 0, "", "", false
-	}
-	e := m.line.err
-	p := m.promptText()
-	start := m.line.f.window(m.width - ansi.StringWidth(p))
-	col = ansi.StringWidth(p)
-	text := m.line.f.text
-	for i := start; i < e.Col-1 && i < len(text); i++ {
-		col += cellWidth(text[i])
-	}
-	if e.Col-1 > len(text) {
-		col++
-	}
-	// the marks cover the marked characters as drawn: an escape is wider
-	n := 0
-	for i := max(e.Col-1, 0); i < e.Col-1+max(e.Len, 1) && i < len(text); i++ {
-		n += cellWidth(text[i])
-	}
-	n = max(1, min(n, 20))
-	col = max(0, min(col, m.width-1))
-	n = min(n, m.width-col)
-	marks = m.th.g.caret + strings.Repeat("~", n-1)
-	return col, marks, "error: " + m.tr(e.Msg), true
-}
-
 // hintView is one line of the keys most likely wanted next.
 func (m *Model) hintView() string {
 	if m.job != nil {
 		return m.th.key.Render(m.tr(m.keys.Stop.Help().Key)) + m.tr(" stops it; the session stays as it was")
 	}
-	if sig := m.signature(); sig != "" {
+	if sig := m.line.Signature(); sig != "" {
 		// inside a call the parameters matter more than the complaint
 		// that the call is not closed yet
 		return sig
 	}
-	if col, marks, msg, ok := m.caret(); ok {
+	if col, marks, msg, ok := m.line.Caret(); ok {
 		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
 			// the message did not fit beside its caret: it has this line
 			return m.th.err.Render(msg)
@@ -599,22 +168,15 @@ func (m *Model) hintView() string {
 			return ls[1]
 		}
 	}
-	// tr goes on the plain pieces, before styling: styled text holds
-	// escape sequences of its own
 	// the hint line names each binding by its first key (tab of tab/e),
 	// the help screen by all of them
-	k := func(b key.Binding) string {
-		first, _, _ := strings.Cut(b.Help().Key, "/")
-		return m.th.key.Render(m.tr(first)) + " " + m.tr(b.Help().Desc)
+	switch m.mode {
+	case modeRows:
+		return m.tableHint(m.th.hintKey)
+	case modeExport:
+		return m.export.View()
 	}
-	var parts []string
-	if m.mode != modeRows {
-		for _, b := range m.keys.For(m.mode).ShortHelp() {
-			parts = append(parts, k(b))
-		}
-		return strings.Join(parts, "  ")
-	}
-	return m.tableHint(k)
+	return m.th.hint(m.keys.For(m.mode).ShortHelp())
 }
 
 // tableHint is the hint line of the entries table: the most wanted keys

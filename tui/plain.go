@@ -243,7 +243,7 @@ func (r *lineRun) statement(line string) (bool, int) {
 // plainLocked asks what to do with a session held by another argand. It
 // reports false when the user chose to quit.
 func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
-	title, why := m.lockedText()
+	title, why := lockedText(m.lockPID, m.lockErr)
 	say("argand: " + title)
 	for _, l := range why {
 		say(l)

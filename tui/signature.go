@@ -1,10 +1,7 @@
 package tui
 
 import (
-	"strings"
-
 	"argand/calc"
-	"argand/reduce/sheet"
 )
 
 // callAt finds the call the cursor is in: the innermost "name(" not yet
@@ -57,81 +54,4 @@ func callAt(src string, pos int, comma bool) (fun string, arg int, named string,
 		}
 	}
 	return "", 0, "", false
-}
-
-// signature is the line shown under the entry line while the cursor is in
-// a call: the function's parameters with the one being typed marked (by
-// brackets, not by colour alone), and what that one takes.
-func (m *Model) signature() string {
-	if m.mode != modeLine {
-		return ""
-	}
-	f := &m.line.f
-	src := string(f.text[:f.pos])
-	name, arg, named, ok := callAt(src, len(src), m.s.sh.Settings().Comma)
-	if !ok {
-		return ""
-	}
-	var fn *calc.Func
-	for _, x := range sheet.Functions() {
-		if x.Name == name {
-			x := x
-			fn = &x
-			break
-		}
-	}
-	if fn == nil || len(fn.Params) == 0 {
-		if fn != nil {
-			return m.tr(fn.Name + fn.ArgList())
-		}
-		return ""
-	}
-	cur := -1
-	if named != "" {
-		for i, p := range fn.Params {
-			if p.Name == named {
-				cur = i
-			}
-		}
-	} else {
-		cur = min(arg, len(fn.Params)-1)
-		if arg >= len(fn.Params) && fn.Max >= 0 && fn.Max <= len(fn.Params) {
-			cur = -1 // more arguments than it takes: none is marked
-		}
-	}
-	open, closeMark := "«", "»"
-	if m.opt.ASCII {
-		open, closeMark = "<", ">"
-	}
-	parts := make([]string, len(fn.Params))
-	for i, p := range fn.Params {
-		s := p.Name
-		if p.Optional {
-			s = "[" + s + "]"
-		}
-		if i == cur {
-			s = m.th.key.Render(m.tr(open + s + closeMark))
-		} else {
-			s = m.tr(s)
-		}
-		parts[i] = s
-	}
-	// the separator the user types: ';' under the decimal comma
-	line := m.tr(fn.Name+"(") + strings.Join(parts, m.tr(m.sep()))
-	if fn.Max < 0 || fn.Max > len(fn.Params) {
-		line += m.tr(m.sep() + "...")
-	}
-	line += m.tr(")")
-	if cur >= 0 {
-		p := fn.Params[cur]
-		what := p.Name
-		if p.Kind != calc.ParamAny {
-			what += ": " + p.Kind.String()
-		}
-		if p.Doc != "" {
-			what += "; " + p.Doc
-		}
-		line += m.tr("   " + what)
-	}
-	return line
 }

@@ -8,6 +8,7 @@ import (
 	"argand/tui/store"
 
 	"github.com/charmbracelet/bubbles/help"
+	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/lipgloss"
 	"github.com/charmbracelet/x/ansi"
 )
@@ -39,10 +40,12 @@ type theme struct {
 	key     lipgloss.Style // key names in the hint line
 	cursor  lipgloss.Style
 	heading lipgloss.Style
+	// ascii spells every symbol in ASCII (tr)
+	ascii bool
 }
 
 func newTheme(o Options) theme {
-	t := theme{g: utf8Glyphs}
+	t := theme{g: utf8Glyphs, ascii: o.ASCII}
 	if o.ASCII {
 		t.g = asciiGlyphs
 	}
@@ -130,26 +133,47 @@ var asciiReplacer = strings.NewReplacer("↑↓", "up/down", "→←", "right/le
 // shown as their escapes (calc.Printable), and in ASCII mode every symbol
 // argand uses is spelled in ASCII, before widths are measured. It takes
 // plain text only: styled text holds escape sequences of its own.
-func (m *Model) tr(s string) string {
+func (t theme) tr(s string) string {
 	s = calc.Printable(s)
-	if !m.opt.ASCII {
+	if !t.ascii {
 		return s
 	}
 	return calc.ASCIIText(asciiReplacer.Replace(s))
 }
 
+// tr is the theme's tr, for the parts of the screen the Model draws.
+func (m *Model) tr(s string) string { return m.th.tr(s) }
+
+// hint writes bindings as the hint line names them: each by its first
+// key (tab of tab/e) and its description, two spaces apart. tr goes on
+// the plain pieces, before styling: styled text holds escape sequences of
+// its own.
+func (t theme) hint(bs []key.Binding) string {
+	parts := make([]string, len(bs))
+	for i, b := range bs {
+		parts[i] = t.hintKey(b)
+	}
+	return strings.Join(parts, "  ")
+}
+
+// hintKey writes one binding for the hint line.
+func (t theme) hintKey(b key.Binding) string {
+	first, _, _ := strings.Cut(b.Help().Key, "/")
+	return t.key.Render(t.tr(first)) + " " + t.tr(b.Help().Desc)
+}
+
 // trStyled is tr for text the app has already styled: the style sequences
 // (ESC [ … m) are kept and only the text between them goes through tr, so
 // a styled heading is not shown as its escapes.
-func (m *Model) trStyled(s string) string {
+func (t theme) trStyled(s string) string {
 	var b strings.Builder
 	for len(s) > 0 {
 		i := strings.Index(s, "\x1b[")
 		if i < 0 {
-			b.WriteString(m.tr(s))
+			b.WriteString(t.tr(s))
 			break
 		}
-		b.WriteString(m.tr(s[:i]))
+		b.WriteString(t.tr(s[:i]))
 		j := i + 2
 		for j < len(s) && (s[j] >= '0' && s[j] <= '9' || s[j] == ';') {
 			j++
@@ -159,7 +183,7 @@ func (m *Model) trStyled(s string) string {
 			s = s[j+1:]
 			continue
 		}
-		b.WriteString(m.tr(s[i : i+1]))
+		b.WriteString(t.tr(s[i : i+1]))
 		s = s[i+1:]
 	}
 	return b.String()

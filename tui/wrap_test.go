@@ -58,7 +58,7 @@ func TestTrailWrapsCaution(t *testing.T) {
 	_, _, sketchW := m.layout()
 	paneW := m.width - sketchW - 1
 	var all []string
-	for _, l := range m.trail.lines {
+	for _, l := range m.trail.lines() {
 		if w := ansi.StringWidth(l.text); w > paneW && !l.pre {
 			t.Errorf("trail line wider than the pane (%d > %d): %q", w, paneW, l.text)
 		}
@@ -133,7 +133,7 @@ func TestASCIISweepPlot(t *testing.T) {
 	press(m, "T")
 	m.View()
 	pre := 0
-	for _, l := range m.full.lines {
+	for _, l := range m.full.lines() {
 		for _, r := range l.text {
 			if r >= 0x80 {
 				t.Errorf("not ASCII: %q", l.text)
