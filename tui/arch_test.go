@@ -90,3 +90,26 @@ func TestFunctionsShort(t *testing.T) {
 		t.Errorf("only %d functions checked", checked)
 	}
 }
+
+// The line mode drives the controller without a screen: nothing in
+// plain.go names the app's Model or makes one.
+func TestLineModeWithoutModel(t *testing.T) {
+	fset := token.NewFileSet()
+	f, err := parser.ParseFile(fset, "plain.go", nil, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	idents := 0
+	ast.Inspect(f, func(n ast.Node) bool {
+		if id, ok := n.(*ast.Ident); ok {
+			idents++
+			if id.Name == "Model" || id.Name == "New" {
+				t.Errorf("%s: the line mode uses %s", fset.Position(id.Pos()), id.Name)
+			}
+		}
+		return true
+	})
+	if idents < 100 {
+		t.Errorf("only %d identifiers in plain.go", idents)
+	}
+}

@@ -117,7 +117,7 @@ func TestUnreadableSessionReadOnly(t *testing.T) {
 			}
 			// the lock is let go: this instance writes nothing
 			other := newModel(t, Options{Dir: dir})
-			if other.mode == modeLocked && other.lockErr == nil {
+			if other.mode == modeLocked && other.lockScr.err == nil {
 				t.Errorf("a read-only instance still holds the lock")
 			}
 		})

@@ -23,18 +23,14 @@
 package tui
 
 import (
-	"errors"
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
 	"strings"
 	"time"
 
 	"argand/calc"
 	"argand/reduce/sheet"
-	"argand/tui/cli"
-	"argand/tui/store"
 
 	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/bubbles/spinner"
@@ -88,7 +84,6 @@ type Model struct {
 	keys   KeyMap
 	th     theme
 	s      *session
-	lock   *store.FileLock
 	mode   mode
 	back   mode // mode to return to from help or a question
 	width  int
@@ -114,9 +109,6 @@ type Model struct {
 	// of the outcome so that it is seen without scrolling the trail
 	caution calc.Caution
 
-	lockPath string // session held by another process, or not lockable
-	lockPID  int
-	lockErr  error // why the lock could not be taken, when no one holds it
 	quitting bool
 
 	job     *job         // the change running off the update loop, if any
@@ -135,7 +127,7 @@ func New(opt Options) *Model {
 	if opt.Out == nil {
 		opt.Out = io.Discard
 	}
-	m := &Model{opt: opt, keys: DefaultKeyMap(), th: newTheme(opt), s: newSession(opt.ASCII), width: 80, height: 24}
+	m := &Model{opt: opt, keys: DefaultKeyMap(), th: newTheme(opt), width: 80, height: 24}
 	m.line = newEntryLine(m.keys, m.th, func(src string) *calc.Error { return m.s.sh.Validate(src) })
 	m.table = newTableView(m.keys, m.th)
 	m.trail = newTrailView(m.keys, m.th, false)
@@ -143,285 +135,35 @@ func New(opt Options) *Model {
 	m.sketch = newSketchPane(m.keys, m.th)
 	m.helpScr = newHelpScreen(m.keys, m.th, newHelp(opt.Renderer))
 	m.export = newExportMenu(m.keys, m.th)
-	m.s.v.PolarFirst = opt.PolarFirst
-	m.s.limits = opt.Limits
-	m.start()
+	m.s = openSession(opt, m.undoKey())
+	m.told()
+	if h := m.s.held; h != nil {
+		m.mode = modeLocked
+		m.lockScr = newLockScreen(m.keys, m.th, h.path, h.pid, h.err)
+	}
 	return m
 }
 
-// sessionPath returns the session file for opt: one for the last session,
-// and one per worksheet file opened.
-func (m *Model) sessionPath(suffix string) (string, error) {
-	dir := m.opt.Dir
-	if dir == "" {
-		d, err := store.Dir()
-		if err != nil {
-			return "", err
-		}
-		dir = d
-	}
-	name := "session"
-	if m.opt.File != "" {
-		abs, err := filepath.Abs(m.opt.File)
-		if err != nil {
-			abs = m.opt.File
-		}
-		name = "worksheet-" + fileKey(abs)
-	}
-	return filepath.Join(dir, name+suffix+".json"), nil
-}
-
-// fileKey names a worksheet's session file: its base name (safe
-// characters only) and a hash of its full path (FNV-1a, 32 bits).
-func fileKey(abs string) string {
-	h := uint32(2166136261)
-	for i := 0; i < len(abs); i++ {
-		h ^= uint32(abs[i])
-		h *= 16777619
-	}
-	base := filepath.Base(abs)
-	var b strings.Builder
-	for _, r := range base {
-		if r < 0x80 && (r == '-' || r == '_' || r == '.' || r >= '0' && r <= '9' || r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z') {
-			b.WriteRune(r)
-		}
-		if b.Len() >= 32 {
-			break
-		}
-	}
-	return fmt.Sprintf("%s-%08x", b.String(), h)
-}
-
-func (m *Model) start() {
-	path, err := m.sessionPath("")
-	if err != nil {
-		m.note(true, "no place to keep the session ("+err.Error()+"): changes are not saved")
-		m.fresh()
-		m.decimalFlag()
-		return
-	}
-	lk, err := store.Lock(path)
-	if err != nil {
-		// never two writers: a session that is held elsewhere, or that
-		// cannot be locked at all, is not saved to; the user chooses a
-		// read-only view or a separate session
-		m.mode = modeLocked
-		m.lockPath = path
-		if pid, locked := lockedBy(err); locked {
-			m.lockPID = pid
-		} else {
-			m.lockErr = err
-		}
-		m.lockScr = newLockScreen(m.keys, m.th, path, m.lockPID, m.lockErr)
-		return
-	}
-	m.lock = lk
-	m.s.path = path
-	m.restore()
-}
-
-// restore loads the session file, or starts afresh when there is none.
-// What taking the lock changed (a directory made private) is added to the
-// outcome, never replaced by it.
-func (m *Model) restore() {
-	ok, note, unreadable := m.s.loadFile(m.s.path)
-	switch {
-	case unreadable:
-		// the file may be fine, only out of reach: keep it as it is, and
-		// save nothing over it
-		m.s.readOnly = true
-		m.s.roWhy = "the session file cannot be read"
-		m.lock.Unlock()
-		m.lock = nil
-		m.fresh()
-		m.note(true, "read-only: "+note+"; showing a fresh worksheet, nothing is saved")
-	case ok && m.opt.New:
-		if note != "" {
-			note += "; "
-		}
-		msg := note + m.blankStart()
-		if m.opt.File != "" {
-			m.fresh()
-			m.s.save()
-		}
-		m.note(false, msg)
-	case m.opt.New:
-		m.s.loadWorksheet("", m.opt.Comma)
-		if m.opt.File != "" {
-			m.fresh()
-		}
-		m.note(false, "a new, empty session")
-		m.s.save()
-	case ok:
-		if m.opt.File != "" {
-			m.note(note != "", "restored your session on "+m.opt.File+" (the file itself is unchanged until you save with x w)")
-		} else {
-			m.note(note != "", fmt.Sprintf("session restored: %d rows, %d steps", len(m.s.rows()), len(m.s.sh.Steps())))
-		}
-		if note != "" {
-			m.msg += "; " + note
-		}
-		m.s.save()
-	default:
-		m.fresh()
-		if note != "" {
-			m.note(true, note)
-		}
-		m.s.save()
-	}
-	m.decimalFlag()
-	if notes := m.lock.Notes(); len(notes) > 0 {
-		m.msg += "; " + strings.Join(notes, "; ")
-	}
-}
-
-// decimalFlag applies --decimal-comma: at once to an empty session, and
-// to one with statements by the statement decimal comma, which the
-// session keeps, so that what was typed before still reads as typed.
-func (m *Model) decimalFlag() {
-	if !m.opt.Comma || m.s.sh.Settings().Comma || m.s.readOnly {
-		return
-	}
-	if !m.s.sh.SetDecimalComma(true) {
-		if _, _, err := m.s.exec(sheet.Job{}, "decimal comma"); err != nil {
-			m.note(true, "decimal comma not set: "+err.Error())
-			return
-		}
-	}
-	m.s.save()
-}
-
-// blankStart starts a new, empty session: the one in use is kept as a
-// worksheet file beside the session file (argand FILE opens it) and is one
-// undo away. It returns what to tell the user.
-func (m *Model) blankStart() string {
-	if m.s.readOnly {
-		return m.s.errReadOnly().Error()
-	}
-	kept := ""
-	if len(m.s.sh.Statements()) > 0 && m.s.path != "" {
-		name := strings.TrimSuffix(m.s.path, filepath.Ext(m.s.path)) + ".before-new-" + time.Now().UTC().Format("20060102-150405") + ".argand"
-		if err := store.Save(name, []byte(m.worksheetText())); err != nil {
-			return "no new session: the one in use could not be kept as a file (" + err.Error() + ")"
-		}
-		kept = name
-	}
-	m.s.checkpoint()
-	pf := m.s.v.PolarFirst
-	comma := m.s.sh.Settings().Comma
-	m.s.sh, m.s.v, m.s.worksheet = newSheet(m.s.ascii), view{PolarFirst: pf}, ""
-	// the decimal marker is how the user writes numbers: a new session
-	// keeps it
-	m.s.sh.SetDecimalComma(comma)
-	m.s.tidy()
-	m.s.save()
-	msg := "a new, empty session"
-	switch {
-	case kept != "":
-		msg += " (u brings the old one back); the old one is kept in " + kept
-	case len(m.s.undo) > 0 && len(m.s.undo[len(m.s.undo)-1].sh.Statements()) > 0:
-		msg += "; undo brings the previous one back (it is not kept as a file: no place to keep it)"
-	}
-	m.note(false, msg)
-	return msg
-}
-
-// fresh opens the worksheet file or the built-in example.
-func (m *Model) fresh() {
-	pf := m.s.v.PolarFirst
-	if m.opt.File != "" {
-		m.s.worksheet = m.opt.File
-		b, err := os.ReadFile(m.opt.File)
-		switch {
-		case err != nil:
-			m.s.loadWorksheet("", m.opt.Comma)
-			m.note(true, "could not open "+m.opt.File+": "+err.Error())
-		default:
-			if err := m.s.loadWorksheet(string(b), m.opt.Comma); err != nil {
-				m.note(true, m.opt.File+": "+err.Error())
-			} else {
-				m.note(false, "opened "+m.opt.File)
-			}
-			if ch := m.s.sh.Changed(); len(ch) > 0 {
-				// written for an older reading of input: say which lines
-				// read differently now (each has a note in the trail)
-				ls := make([]string, len(ch))
-				for i, l := range ch {
-					ls[i] = fmt.Sprint(l)
-				}
-				m.msg += fmt.Sprintf("; written in language %d, lines %s read differently now (see their notes)", m.s.sh.Language(), strings.Join(ls, ", "))
-			}
-		}
-	} else {
-		m.s.loadWorksheet(cli.ExampleIn(m.opt.Comma), m.opt.Comma)
-		m.note(false, "first start: the built-in example worksheet (invented example data). ? for help")
-	}
-	m.s.v.PolarFirst = pf
-	if m.opt.Digits > 0 && m.s.sh.Settings().Digits != m.opt.Digits {
-		m.s.sh.Exec(fmt.Sprintf("digits %d", m.opt.Digits))
-	}
-	m.s.tidy()
-}
-
 // Close releases the session lock.
-func (m *Model) Close() {
-	m.lock.Unlock()
-	m.lock = nil
-}
+func (m *Model) Close() { m.s.close() }
 
 // chooseLocked acts on the answer to a session held elsewhere.
 func (m *Model) chooseLocked(readOnly bool) {
 	m.mode = modeRows
-	if readOnly {
-		m.s.path = m.lockPath
-		m.s.readOnly = true
-		m.s.holder = m.lockPID
-		whose := "the session of the other argand"
-		if m.lockErr != nil {
-			m.s.roWhy = "the session could not be locked"
-			whose = "the session, not locked"
-		}
-		data, err := store.Load(m.lockPath)
-		if err == nil {
-			var sh *sheet.Sheet
-			var f file
-			var left []leftOut
-			if sh, f, left, err = decode(data, m.s.ascii); err == nil {
-				m.s.sh, m.s.v, m.s.worksheet = sh, f.View, f.Worksheet
-				m.s.tidy()
-				m.note(false, "read-only: "+whose+"; nothing you do here is kept")
-				if len(left) > 0 {
-					m.msg += fmt.Sprintf("; %d statement(s) of it could not be shown", len(left))
-				}
-				return
-			}
-		}
-		m.fresh()
-		if errors.Is(err, os.ErrNotExist) {
-			m.note(false, "read-only: no session saved yet; a fresh worksheet, nothing you do here is kept")
-			return
-		}
-		m.note(true, "read-only, but the session file could not be read ("+err.Error()+"); showing a fresh worksheet")
-		return
-	}
-	for n := 2; n < 100; n++ {
-		path, err := m.sessionPath(fmt.Sprintf("-%d", n))
-		if err != nil {
-			break
-		}
-		lk, err := store.Lock(path)
-		if err != nil {
-			continue
-		}
-		m.lock = lk
-		m.s.path = path
-		m.restore()
-		m.note(false, "separate session in "+path)
-		return
-	}
-	m.fresh()
-	m.note(true, "no separate session could be locked; changes are not saved")
+	m.s.choose(readOnly)
+	m.told()
 }
+
+// blankStart starts a new, empty session and says so; the undo key
+// brings the old one back.
+func (m *Model) blankStart() {
+	if msg, ok := m.s.blankStart(); ok {
+		m.note(false, msg)
+	}
+}
+
+// told shows what the session said it did.
+func (m *Model) told() { m.note(m.s.msgErr, m.s.msg) }
 
 func (m *Model) note(isErr bool, s string) {
 	m.msg = s

@@ -727,7 +727,7 @@ func TestSketchScalarsNotDrawn(t *testing.T) {
 func TestFirstStartLocked(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "state", "argand")
 	first := newModel(t, Options{Dir: dir})
-	if first.lock == nil || first.mode == modeLocked {
+	if first.s.lock == nil || first.mode == modeLocked {
 		t.Fatalf("first start holds no lock: %q", first.msg)
 	}
 	typeLine(t, first, "Zfirst = 1 Ω")

@@ -9,7 +9,6 @@ import (
 
 	"argand/calc"
 	"argand/reduce/sheet"
-	"argand/tui/cli"
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
@@ -616,87 +615,13 @@ func (m *Model) askCopy() {
 }
 
 // trailText is the whole trail as plain text.
-func (m *Model) trailText() string {
-	var b strings.Builder
-	f := m.format()
-	for _, st := range m.s.sh.Steps() {
-		b.WriteString(st.Text(f, m.s.v.PolarFirst))
-	}
-	return b.String()
-}
+func (m *Model) trailText() string { return m.s.trailText() }
 
-// trailCSV is the whole trail's tables and results as CSV, as argand run
-// --csv writes them.
-func (m *Model) trailCSV() string {
-	var b strings.Builder
-	_ = cli.WriteCSV(&b, m.s.sh.Steps()) // a strings.Builder takes every write
-	return b.String()
-}
+// trailMarkdown is the whole trail as Markdown.
+func (m *Model) trailMarkdown() string { return m.s.trailMarkdown() }
 
-// trailMarkdown is the whole trail as Markdown: each step a heading with
-// its statement, the rule and formula, operands and results in a list.
-func (m *Model) trailMarkdown() string {
-	var b strings.Builder
-	f := m.format()
-	st := m.s.sh.Settings()
-	fmt.Fprintf(&b, "# argand trail\n\nWorking frequency %s, %s basis, %d significant figures, %s.\n\n",
-		f.Mag(st.Freq, calc.DimFrequency, 0), strings.ToUpper(st.Basis.String()), st.Digits, sheet.DecimalLine(st.Comma))
-	for i, s := range m.s.sh.Steps() {
-		head := s.Source
-		if head == "" {
-			head = s.Kind
-		}
-		fmt.Fprintf(&b, "## %d. `%s`\n\n", i+1, strings.ReplaceAll(head, "`", "'"))
-		if s.Rule != "" {
-			b.WriteString(s.Rule)
-			if s.Formula != "" {
-				b.WriteString(": `" + s.Formula + "`")
-			}
-			b.WriteString("\n\n")
-		}
-		for _, o := range s.Inputs {
-			b.WriteString("- " + o.Name + " = " + f.Both(o.Value, m.s.v.PolarFirst) + "\n")
-		}
-		for _, o := range s.Results {
-			b.WriteString("- **" + o.Name + " = " + f.Both(o.Value, m.s.v.PolarFirst) + "**\n")
-		}
-		for _, r := range s.Rows {
-			b.WriteString("- " + r.Name + ":")
-			for _, v := range r.Values {
-				b.WriteString(" " + v.Name + " = " + f.Polar(v.Value) + ";")
-			}
-			b.WriteString("\n")
-		}
-		if c := s.Check; c != nil {
-			v := "PASS"
-			if !c.Pass {
-				v = "FAIL"
-			}
-			b.WriteString("- check " + v + ": got " + f.Both(c.Got, false) + ", expected " + f.Both(c.Want, false) + "\n")
-		}
-		for _, n := range s.Notes {
-			b.WriteString("- note: " + n + "\n")
-		}
-		b.WriteString("\n")
-	}
-	b.WriteString("---\n\n" + calc.SafetyText + "\n")
-	// a Markdown file is read on a terminal too
-	return calc.Printable(b.String())
-}
+// trailCSV is the trail's tables and results as CSV.
+func (m *Model) trailCSV() string { return m.s.trailCSV() }
 
-// worksheetText is the session as a worksheet: the accepted statements,
-// which argand run replays to the same values.
-func (m *Model) worksheetText() string {
-	var b strings.Builder
-	// the first line says which reading of input the statements were
-	// accepted in, so a later argand can list lines that read differently
-	// and the decimal marker they begin in, so it replays the same under
-	// any setting
-	w := m.s.sh.Worksheet()
-	b.WriteString(w[0] + "\n" + w[1] + "\n")
-	b.WriteString("# argand worksheet saved from a session\n")
-	for _, s := range w[2:] {
-		b.WriteString(s + "\n")
-	}
-	return b.String()
-}
+// worksheetText is the session as a worksheet.
+func (m *Model) worksheetText() string { return m.s.worksheetText() }

@@ -12,11 +12,7 @@ import (
 
 // format returns the number format in force: the worksheet's digits and
 // angle unit, the app's glyph set.
-func (m *Model) format() calc.Format {
-	f := m.s.sh.Context().Format
-	f.ASCII = m.opt.ASCII
-	return f
-}
+func (m *Model) format() calc.Format { return m.s.format() }
 
 // statusView is the top line: the settings every number depends on.
 func (m *Model) statusView() string {

@@ -42,28 +42,28 @@ type plainLine struct {
 // a statement runs, it writes "interrupted at line N" and returns
 // cli.ExitInterrupted; the statement stopped is not kept.
 func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) int {
-	m := New(opt)
-	defer m.Close()
+	s := openSession(opt, "undo")
+	defer s.close()
 	br := bufio.NewReader(in)
-	r := &lineRun{m: m, w: w, ctx: ctx, width: plainWidth(m.opt.Getenv),
+	r := &lineRun{s: s, th: theme{ascii: opt.ASCII}, w: w, ctx: ctx, width: plainWidth(opt.Getenv),
 		p: &cli.Printer{W: w, Err: w, O: cli.Options{ASCII: opt.ASCII}}}
-	if m.mode == modeLocked && !m.plainLocked(br, r.say) {
+	if s.held != nil && !r.locked(br) {
 		return cli.ExitOK
 	}
 	r.greet()
 	lines := plainReader(ctx, br)
 	for {
 		prompt := "> "
-		if n := m.s.sh.OpenNetwork(); n != "" {
+		if n := s.sh.OpenNetwork(); n != "" {
 			prompt = n + "> "
 		}
-		fmt.Fprint(w, m.tr(prompt))
+		fmt.Fprint(w, r.th.tr(prompt))
 		var got plainLine
 		select {
 		case got = <-lines:
 		case <-ctx.Done():
 			fmt.Fprintln(w)
-			return cli.Interrupted(w, m.s.sh.Line()+1)
+			return cli.Interrupted(w, s.sh.Line()+1)
 		}
 		if got.err != nil {
 			fmt.Fprintln(w)
@@ -102,7 +102,8 @@ func plainReader(ctx context.Context, br *bufio.Reader) <-chan plainLine {
 // lineRun is one run of the line mode: the app's controller without its
 // screen, and where its output goes.
 type lineRun struct {
-	m     *Model
+	s     *session
+	th    theme // tr: text made printable, and ASCII where asked
 	w     io.Writer
 	p     *cli.Printer
 	ctx   context.Context
@@ -111,21 +112,21 @@ type lineRun struct {
 
 // say writes a message. Messages are not wrapped, so that a file name in
 // one stays whole for copying.
-func (r *lineRun) say(s string) { fmt.Fprintln(r.w, r.m.tr(s)) }
+func (r *lineRun) say(s string) { fmt.Fprintln(r.w, r.th.tr(s)) }
 
 // greet says what the line mode reads, the outcome of opening the
 // session, and where it is kept.
 func (r *lineRun) greet() {
-	m := r.m
+	s := r.s
 	r.say("argand line mode: type a statement, or " + plainCommands + ".")
-	if m.msg != "" {
-		if m.msgErr && !strings.HasPrefix(m.msg, "read-only:") {
-			r.say("error: " + m.msg)
+	if s.msg != "" {
+		if s.msgErr && !strings.HasPrefix(s.msg, "read-only:") {
+			r.say("error: " + s.msg)
 		} else {
-			r.say(m.msg)
+			r.say(s.msg)
 		}
 	}
-	m.plainWhere(r.say)
+	r.where()
 }
 
 // line runs one line: a command of the line mode or a statement. It
@@ -142,15 +143,16 @@ func (r *lineRun) line(line string) (bool, int) {
 		return false, 0
 	case "new":
 		if strings.TrimSpace(arg) == "session" {
-			r.say(r.m.blankStart())
-			r.m.plainSaveErr(r.say)
+			msg, _ := r.s.blankStart()
+			r.say(msg)
+			r.saveErr()
 			return false, 0
 		}
 	case "list":
-		r.m.plainList(r.say)
+		r.list()
 		return false, 0
 	case "trail":
-		fmt.Fprint(r.w, wrapText(r.m.trailText(), r.width))
+		fmt.Fprint(r.w, wrapText(r.s.trailText(), r.width))
 		return false, 0
 	case "undo", "redo":
 		if arg == "" {
@@ -177,23 +179,23 @@ func (r *lineRun) help(name string) {
 		r.say(fmt.Sprintf("no help on %q: try a function name (help functions lists them) or a statement word", calc.Printable(name)))
 		return
 	}
-	fmt.Fprint(r.w, r.m.tr(t))
+	fmt.Fprint(r.w, r.th.tr(t))
 }
 
 // undo undoes or redoes the last change.
 func (r *lineRun) undo(word string) {
-	m := r.m
+	s := r.s
 	switch {
-	case m.s.readOnly:
-		r.say(m.s.errReadOnly().Error())
-	case word == "undo" && m.s.doUndo():
-		r.say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(m.s.undo)))
-	case word == "redo" && m.s.doRedo():
+	case s.readOnly:
+		r.say(s.errReadOnly().Error())
+	case word == "undo" && s.doUndo():
+		r.say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(s.undo)))
+	case word == "redo" && s.doRedo():
 		r.say("redone")
 	default:
 		r.say("nothing to " + word)
 	}
-	m.plainSaveErr(r.say)
+	r.saveErr()
 }
 
 // save writes the session as a worksheet.
@@ -202,7 +204,7 @@ func (r *lineRun) save(name string) {
 		r.say("save needs a file name: save FILE")
 		return
 	}
-	if err := store.Save(name, []byte(r.m.worksheetText())); err != nil {
+	if err := store.Save(name, []byte(r.s.worksheetText())); err != nil {
 		r.say("error: could not write " + name + ": " + err.Error())
 		return
 	}
@@ -213,8 +215,8 @@ func (r *lineRun) save(name string) {
 // statement runs a statement through the controller and writes its steps
 // or its error; ctrl+c while it runs ends the line mode.
 func (r *lineRun) statement(line string) (bool, int) {
-	m := r.m
-	steps, err := m.apply(sheet.Job{Ctx: r.ctx}, "", line)
+	s := r.s
+	steps, defined, err := s.exec(sheet.Job{Ctx: r.ctx}, line)
 	if err != nil {
 		var e *calc.Error
 		var ro *readOnlyError
@@ -232,39 +234,41 @@ func (r *lineRun) statement(line string) (bool, int) {
 		}
 		return false, 0
 	}
-	f := m.format()
+	s.bringUp(defined)
+	f := s.format()
 	for i := range steps {
-		fmt.Fprint(r.w, wrapText(steps[i].Text(f, m.s.v.PolarFirst), r.width))
+		fmt.Fprint(r.w, wrapText(steps[i].Text(f, s.v.PolarFirst), r.width))
 	}
-	m.plainSaveErr(r.say)
+	r.saveErr()
 	return false, 0
 }
 
-// plainLocked asks what to do with a session held by another argand. It
+// locked asks what to do with a session held by another argand. It
 // reports false when the user chose to quit.
-func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
-	title, why := lockedText(m.lockPID, m.lockErr)
-	say("argand: " + title)
+func (r *lineRun) locked(br *bufio.Reader) bool {
+	h := r.s.held
+	title, why := lockedText(h.pid, h.err)
+	r.say("argand: " + title)
 	for _, l := range why {
-		say(l)
+		r.say(l)
 	}
-	say("session file: " + m.lockPath)
-	say("How do you want to go on?")
-	for _, b := range m.keys.Lock.FullHelp()[0] {
-		say("  " + pad(b.Help().Key, 3) + b.Help().Desc)
+	r.say("session file: " + h.path)
+	r.say("How do you want to go on?")
+	for _, b := range DefaultKeyMap().Lock.FullHelp()[0] {
+		r.say("  " + pad(b.Help().Key, 3) + b.Help().Desc)
 	}
 	for {
-		say("r, s or q?")
+		r.say("r, s or q?")
 		line, _, err := sheet.ReadLine(br)
 		if err != nil {
 			return false
 		}
 		switch strings.TrimSpace(line) {
 		case "r":
-			m.chooseLocked(true)
+			r.s.choose(true)
 			return true
 		case "s":
-			m.chooseLocked(false)
+			r.s.choose(false)
 			return true
 		case "q", "quit", "exit":
 			return false
@@ -272,36 +276,38 @@ func (m *Model) plainLocked(br *bufio.Reader, say func(string)) bool {
 	}
 }
 
-// plainWhere says where the session is kept.
-func (m *Model) plainWhere(say func(string)) {
+// where says where the session is kept.
+func (r *lineRun) where() {
+	s := r.s
 	switch {
-	case m.s.readOnly:
-		say(m.s.errReadOnly().Error())
-	case m.s.path == "":
-		say("the session is not saved (no place to keep it); save FILE keeps a worksheet")
+	case s.readOnly:
+		r.say(s.errReadOnly().Error())
+	case s.path == "":
+		r.say("the session is not saved (no place to keep it); save FILE keeps a worksheet")
 	default:
-		say("the session is saved after every change, in " + m.s.path)
+		r.say("the session is saved after every change, in " + s.path)
 	}
 }
 
-// plainSaveErr reports a failed save of the session.
-func (m *Model) plainSaveErr(say func(string)) {
-	if m.s.saveErr != nil {
-		say("error: the session could not be saved: " + m.s.saveErr.Error())
+// saveErr reports a failed save of the session.
+func (r *lineRun) saveErr() {
+	if r.s.saveErr != nil {
+		r.say("error: the session could not be saved: " + r.s.saveErr.Error())
 	}
 }
 
-// plainList prints the rows, newest first, in both forms.
-func (m *Model) plainList(say func(string)) {
-	rows := m.s.rows()
+// list prints the rows, newest first, in both forms.
+func (r *lineRun) list() {
+	s := r.s
+	rows := s.rows()
 	if len(rows) == 0 {
-		say("no entries yet")
+		r.say("no entries yet")
 		return
 	}
-	f := m.format()
+	f := s.format()
 	for _, n := range rows {
-		q, _ := m.s.sh.Lookup(n)
-		say(fmt.Sprintf("  %-10s %s", n, f.Both(q, m.s.v.PolarFirst)))
+		q, _ := s.sh.Lookup(n)
+		r.say(fmt.Sprintf("  %-10s %s", n, f.Both(q, s.v.PolarFirst)))
 	}
 }
 

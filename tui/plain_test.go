@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"io"
+	"math/cmplx"
 	"os"
 	"path/filepath"
 	"strings"
@@ -197,5 +198,48 @@ func TestPlainWrapsBetweenWords(t *testing.T) {
 	}
 	if long < 5 {
 		t.Errorf("too little output to judge:\n%s", steps)
+	}
+}
+
+// The app and the line mode drive the one controller: the same statements
+// typed in the app and in the line mode leave the same rows, in the same
+// order, with the same values. Example data; the parallel impedance is
+// Z₁·Z₂/(Z₁+Z₂) (common practice): (6+j8)·10/(16+j8) = 5+j2.5 Ω.
+func TestSameSession(t *testing.T) {
+	stmts := []string{"Za = 3+j4 Ω", "Zb = 10 Ω", "Zp = Za || Zb", "Za = 6+j8 Ω", "rename Zp to Zq", "Zc = Zq * 2"}
+	app := newModel(t, Options{})
+	for _, s := range stmts {
+		typeLine(t, app, s)
+	}
+
+	dir := t.TempDir()
+	opt := Options{Dir: dir, File: benchSheet, Getenv: func(string) string { return "" }}
+	var out bytes.Buffer
+	if code := Plain(opt, strings.NewReader(strings.Join(stmts, "\n")+"\n"), &out); code != 0 {
+		t.Fatalf("line mode: exit %d\n%s", code, out.String())
+	}
+	line := openSession(opt, "undo")
+	defer line.close()
+	if line.msgErr {
+		t.Fatalf("reopening the line mode's session: %s", line.msg)
+	}
+
+	f := calc.Format{Digits: calc.MaxDigits}
+	if a, l := strings.Join(app.s.rows(), " "), strings.Join(line.rows(), " "); a != l {
+		t.Fatalf("rows differ:\napp  %s\nline %s", a, l)
+	}
+	for _, n := range app.s.rows() {
+		qa, _ := app.s.sh.Lookup(n)
+		ql, _ := line.sh.Lookup(n)
+		if f.Both(qa, false) != f.Both(ql, false) {
+			t.Errorf("%s: app %s, line mode %s", n, f.Both(qa, false), f.Both(ql, false))
+		}
+	}
+	if got := app.s.rows()[:2]; got[0] != "Zc" || got[1] != "Zq" {
+		t.Errorf("the names defined are not on top: %v", got)
+	}
+	q, _ := line.sh.Lookup("Zq")
+	if want := complex(5, 2.5); cmplx.Abs(q.V-want) > 1e-9*cmplx.Abs(want) {
+		t.Errorf("Zq = %v, want %v", q.V, want)
 	}
 }
