@@ -113,3 +113,67 @@ func TestLineModeWithoutModel(t *testing.T) {
 		t.Errorf("only %d identifiers in plain.go", idents)
 	}
 }
+
+// components are the parts of the screen: each has Update and View, and
+// none holds or takes the Model.
+var components = []string{"entryLine", "questions", "tableView", "trailView", "sketchPane", "netView", "helpScreen", "lockScreen", "exportMenu"}
+
+func TestComponentsWithoutModel(t *testing.T) {
+	fset := token.NewFileSet()
+	pkgs, err := parser.ParseDir(fset, ".", func(fi fs.FileInfo) bool { return !strings.HasSuffix(fi.Name(), "_test.go") }, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	methods := map[string]map[string]bool{}
+	namesModel := func(n ast.Node) (found bool) {
+		ast.Inspect(n, func(n ast.Node) bool {
+			if _, ok := n.(*ast.SelectorExpr); ok {
+				return false // another package's Model, such as help.Model
+			}
+			if id, ok := n.(*ast.Ident); ok && id.Name == "Model" {
+				found = true
+			}
+			return !found
+		})
+		return found
+	}
+	isComponent := map[string]bool{}
+	for _, c := range components {
+		isComponent[c] = true
+		methods[c] = map[string]bool{}
+	}
+	for _, f := range pkgs["tui"].Files {
+		for _, d := range f.Decls {
+			switch d := d.(type) {
+			case *ast.GenDecl:
+				for _, sp := range d.Specs {
+					if ts, ok := sp.(*ast.TypeSpec); ok && isComponent[ts.Name.Name] && namesModel(ts.Type) {
+						t.Errorf("%s holds the Model", ts.Name.Name)
+					}
+				}
+			case *ast.FuncDecl:
+				if d.Recv == nil {
+					continue
+				}
+				rt := d.Recv.List[0].Type
+				if st, ok := rt.(*ast.StarExpr); ok {
+					rt = st.X
+				}
+				if id, ok := rt.(*ast.Ident); ok && isComponent[id.Name] {
+					methods[id.Name][d.Name.Name] = true
+					if namesModel(d.Type) {
+						t.Errorf("%s.%s takes the Model", id.Name, d.Name.Name)
+					}
+				}
+			}
+		}
+	}
+	for _, c := range components {
+		if !methods[c]["View"] {
+			t.Errorf("%s has no View", c)
+		}
+		if !methods[c]["Update"] && c != "sketchPane" {
+			t.Errorf("%s has no Update", c)
+		}
+	}
+}

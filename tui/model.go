@@ -11,15 +11,18 @@
 // of the rows, rows put away, which form is shown first) is kept beside it
 // in the session file.
 //
-// The session (session.go) is the controller without a screen: it runs
-// statements on a copy of the worksheet, keeps the undo history, names
-// and orders the rows and saves; the app and the line mode (plain.go)
-// both drive it. Each part of the screen has its own KeyMap in keys.go,
-// a help.KeyMap from which the hint line, the help screen and the
-// session-in-use screen are written; the parts draw themselves (tableView,
-// trailView, sketchPane, netView, questions, the entry line's field), and
-// Model routes a key to the part that has the keyboard (mode) and lays
-// the parts out. The engine reaches the app only through reduce/sheet.
+// The session (session.go, open.go) is the controller without a screen:
+// it opens and locks the session, runs statements on a copy of the
+// worksheet, keeps the undo history, names and orders the rows and saves;
+// the app and the line mode (plain.go) both drive it. Each part of the
+// screen is a small component (entryLine, questions, tableView, trailView,
+// sketchPane, netView, helpScreen, lockScreen, exportMenu) with its own
+// KeyMap from keys.go (a help.KeyMap, from which the hint line, the help
+// screen and the session-in-use screen are written), its own Update and
+// View, and the data the Model hands it; none sees the Model. The Model
+// routes a key to the part that has the keyboard (mode), turns what the
+// part returns into calls on the session (route.go) and lays the parts
+// out. The engine reaches the app only through reduce/sheet.
 package tui
 
 import (
