@@ -155,7 +155,7 @@ func (h helpScreen) bindings(bs []key.Binding) []string {
 // title is a title of the help screen with how to close and scroll it,
 // on a line of its own when the two do not fit on one.
 func (h helpScreen) title(title string) []string {
-	title, how := h.th.tr(title), h.th.tr("(esc closes; ↑↓ scroll)")
+	title, how := h.th.tr(title), h.th.tr("("+firstKey(h.keys.Close)+" closes; ↑↓ scroll)")
 	if ansi.StringWidth(title)+3+ansi.StringWidth(how) > h.width {
 		return []string{h.th.label.Render(title), how}
 	}

@@ -82,7 +82,7 @@ func (m *Model) startJob(what string, then func(), stmts ...string) bool {
 		return false
 	}
 	if m.job != nil {
-		m.note(true, "a statement is still running: esc stops it")
+		m.note(true, "a statement is still running: "+firstKey(m.keys.Stop)+" stops it")
 		return false
 	}
 	m.jobs++
@@ -186,7 +186,7 @@ func (m *Model) jobKey(k tea.KeyMsg) tea.Cmd {
 	case len(m.ahead) < maxAhead:
 		m.ahead = append(m.ahead, k)
 	default:
-		m.note(false, "still running: esc stops it")
+		m.note(false, "still running: "+firstKey(m.keys.Stop)+" stops it")
 	}
 	return nil
 }

@@ -138,7 +138,8 @@ func New(opt Options) *Model {
 	m.sketch = newSketchPane(m.keys, m.th)
 	m.helpScr = newHelpScreen(m.keys, m.th, newHelp(opt.Renderer))
 	m.export = newExportMenu(m.keys, m.th)
-	m.s = openSession(opt, m.undoKey())
+	t := m.keys.Table
+	m.s = openSession(opt, ways{undo: m.undoKey(), help: t.Help.Help().Key, save: t.Export.Help().Key + " " + m.keys.Export.Sheet.Help().Key})
 	m.told()
 	if h := m.s.held; h != nil {
 		m.mode = modeLocked

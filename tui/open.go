@@ -21,13 +21,21 @@ type heldSession struct {
 	err  error // why the lock could not be taken, when no one holds it
 }
 
+// ways say how the user does a thing where they are, for the messages
+// that offer it: a key in the app, a word in the line mode.
+type ways struct {
+	undo, help, save string
+}
+
+// lineWays are the line mode's words.
+func lineWays() ways { return ways{undo: "undo", help: "?", save: "save FILE"} }
+
 // openSession opens the session for opt, as the app and the line mode
-// both do: undo names the way to undo where the user is (a key in the
-// app, a word in the line mode), for the messages that offer it. What it
-// did is in the session's msg; a session held elsewhere is in held.
-func openSession(opt Options, undo string) *session {
+// both do, offering the ways w in its messages. What it did is in the
+// session's msg; a session held elsewhere is in held.
+func openSession(opt Options, w ways) *session {
 	s := newSession(opt.ASCII)
-	s.opt, s.undoName = opt, undo
+	s.opt, s.ways = opt, w
 	s.v.PolarFirst = opt.PolarFirst
 	s.limits = opt.Limits
 	s.start()
@@ -145,7 +153,7 @@ func (s *session) restore() {
 		s.save()
 	case ok:
 		if s.opt.File != "" {
-			s.say(note != "", "restored your session on "+s.opt.File+" (the file itself is unchanged until you save with x w)")
+			s.say(note != "", "restored your session on "+s.opt.File+" (the file itself is unchanged until you save with "+s.ways.save+")")
 		} else {
 			s.say(note != "", fmt.Sprintf("session restored: %d rows, %d steps", len(s.rows()), len(s.sh.Steps())))
 		}
@@ -210,7 +218,7 @@ func (s *session) blankStart() (string, bool) {
 	msg := "a new, empty session"
 	switch {
 	case kept != "":
-		msg += " (" + s.undoName + " brings the old one back); the old one is kept in " + kept
+		msg += " (" + s.ways.undo + " brings the old one back); the old one is kept in " + kept
 	case len(s.undo) > 0 && len(s.undo[len(s.undo)-1].sh.Statements()) > 0:
 		msg += "; undo brings the previous one back (it is not kept as a file: no place to keep it)"
 	}
@@ -246,7 +254,7 @@ func (s *session) fresh() {
 		}
 	} else {
 		s.loadWorksheet(cli.ExampleIn(s.opt.Comma), s.opt.Comma)
-		s.say(false, "first start: the built-in example worksheet (invented example data). ? for help")
+		s.say(false, "first start: the built-in example worksheet (invented example data). "+s.ways.help+" for help")
 	}
 	s.v.PolarFirst = pf
 	if s.opt.Digits > 0 && s.sh.Settings().Digits != s.opt.Digits {

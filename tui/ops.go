@@ -177,7 +177,7 @@ func (m *Model) combine(what, fn string) {
 		return
 	}
 	if len(ops) == 1 {
-		m.note(true, what+" needs two or more rows: mark another, or clear the mark (esc)")
+		m.note(true, what+" needs two or more rows: mark another, or clear the mark ("+firstKey(m.keys.Table.Unmark)+")")
 		return
 	}
 	expr := fn + "(" + strings.Join(ops, m.sep()) + ")"

@@ -42,7 +42,7 @@ type plainLine struct {
 // a statement runs, it writes "interrupted at line N" and returns
 // cli.ExitInterrupted; the statement stopped is not kept.
 func PlainContext(ctx context.Context, opt Options, in io.Reader, w io.Writer) int {
-	s := openSession(opt, "undo")
+	s := openSession(opt, lineWays())
 	defer s.close()
 	br := bufio.NewReader(in)
 	r := &lineRun{s: s, th: theme{ascii: opt.ASCII}, w: w, ctx: ctx, width: plainWidth(opt.Getenv),

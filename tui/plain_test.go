@@ -218,7 +218,7 @@ func TestSameSession(t *testing.T) {
 	if code := Plain(opt, strings.NewReader(strings.Join(stmts, "\n")+"\n"), &out); code != 0 {
 		t.Fatalf("line mode: exit %d\n%s", code, out.String())
 	}
-	line := openSession(opt, "undo")
+	line := openSession(opt, lineWays())
 	defer line.close()
 	if line.msgErr {
 		t.Fatalf("reopening the line mode's session: %s", line.msg)

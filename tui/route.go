@@ -273,7 +273,7 @@ func (m *Model) submit(text string) {
 		name := strings.TrimSpace(arg)
 		if name != "" {
 			if _, ok := cli.Topic(name); !ok {
-				m.note(true, fmt.Sprintf("no help on %q: try a function name or a statement word (f1: all help)", name))
+				m.note(true, fmt.Sprintf("no help on %q: try a function name or a statement word (%s: all help)", name, firstKey(m.keys.Line.Help)))
 				return
 			}
 		}
@@ -404,7 +404,9 @@ func (m *Model) openNet(name string) {
 	nv.keep(m.net)
 	m.net = &nv
 	m.mode = modeNet
-	m.note(false, fmt.Sprintf("network %s: → steps through its reduction, v i s take a branch value as a row", name))
+	k := m.keys.Net
+	m.note(false, fmt.Sprintf("network %s: %s steps through its reduction, %s %s %s take a branch value as a row",
+		name, firstKey(k.StepOn), firstKey(k.TakeV), firstKey(k.TakeI), firstKey(k.TakeS)))
 }
 
 // takeBranch asks a name for element e's voltage, current or power

@@ -75,12 +75,12 @@ type session struct {
 	// zero value keeps the worksheet's defaults
 	limits sheet.Limits
 
-	opt      Options         // how the session was opened
-	lock     *store.FileLock // the session lock, while held
-	held     *heldSession    // held elsewhere: the user has to choose
-	undoName string          // how the user undoes, for messages
-	msg      string          // what the session last did, for the user
-	msgErr   bool            // msg is an error
+	opt    Options         // how the session was opened
+	lock   *store.FileLock // the session lock, while held
+	held   *heldSession    // held elsewhere: the user has to choose
+	ways   ways            // how the user undoes, gets help, saves
+	msg    string          // what the session last did, for the user
+	msgErr bool            // msg is an error
 }
 
 func newSession(ascii bool) *session {

@@ -158,8 +158,7 @@ func (t theme) hint(bs []key.Binding) string {
 
 // hintKey writes one binding for the hint line.
 func (t theme) hintKey(b key.Binding) string {
-	first, _, _ := strings.Cut(b.Help().Key, "/")
-	return t.key.Render(t.tr(first)) + " " + t.tr(b.Help().Desc)
+	return t.key.Render(t.tr(firstKey(b))) + " " + t.tr(b.Help().Desc)
 }
 
 // trStyled is tr for text the app has already styled: the style sequences

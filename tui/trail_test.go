@@ -107,7 +107,7 @@ func TestTrailFullView(t *testing.T) {
 	if len(ls) != 10 || !strings.Contains(ls[0], fmt.Sprintf("3 steps, lines %d-%d of %d", max(1, n-8+1), n, n)) {
 		t.Errorf("heading %q, %d lines", ls[0], len(ls))
 	}
-	if ls[9] != "pgdn page  home first  end latest  esc back" {
+	if ls[9] != "esc back  ↓ line  pgdn page  home first  end latest" {
 		t.Errorf("footer %q", ls[9])
 	}
 }
