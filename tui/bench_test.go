@@ -58,7 +58,7 @@ func BenchmarkKeystroke(b *testing.B) {
 func BenchmarkSelect(b *testing.B) {
 	m := benchModel(b)
 	m.View()
-	keys := []tea.KeyMsg{keyMsg("j"), keyMsg("k")}
+	keys := []tea.KeyMsg{keyMsg("down"), keyMsg("up")}
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		m.Update(keys[i%2])
