@@ -81,7 +81,7 @@ func TestFunctionsShort(t *testing.T) {
 			}
 		}
 	}
-	for _, d := range []string{".", "cli", "sketch", "serve", "store", "clip", "termbg", "internal/golden", "internal/controls"} {
+	for _, d := range []string{".", "cli", "sketch", "serve", "store", "clip", "termbg", "record", "internal/golden", "internal/controls"} {
 		if !dirs[filepath.FromSlash(d)] {
 			t.Errorf("package directory %s not checked", d)
 		}
