@@ -55,6 +55,7 @@ func TestExportMenu(t *testing.T) {
 		{"t", exportText, nil},
 		{"w", exportSheet, nil},
 		{"r", exportRecord, nil},
+		{"c", exportCSV, nil},
 		{"esc", 0, closeMsg{}},
 		{"q", 0, closeMsg{}},
 		{"z", 0, nil},
@@ -71,10 +72,10 @@ func TestExportMenu(t *testing.T) {
 			t.Errorf("%q: %#v, want %#v", tt.key, got, tt.msg)
 		}
 	}
-	if v := x.View(); v != "m Markdown  t text  w worksheet  r record  esc cancel" {
+	if v := x.View(); v != "m Markdown  t text  w worksheet  r record  c CSV  esc cancel" {
 		t.Errorf("view %q", v)
 	}
-	if o := x.Offer(); o != "export: m Markdown, t text, w worksheet, r record" {
+	if o := x.Offer(); o != "export: m Markdown, t text, w worksheet, r record, c CSV" {
 		t.Errorf("offer %q", o)
 	}
 }
