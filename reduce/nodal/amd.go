@@ -60,14 +60,23 @@ func amdOrder(n int, start, adj []int32) []int32 {
 			status[i] = dense
 		}
 	}
+	// The lists live in two arenas, so that the ordering allocates a
+	// few large blocks rather than a few per variable. A_i only shrinks.
+	// E_i grows by one, p, only when i joins L_p, and then A_i loses p
+	// or E_i loses the elements p absorbs: |A_i| + |E_i| never exceeds
+	// i's first degree, which is therefore room enough for E_i. Elements'
+	// lists L_e are carved from chunks of a third arena.
 	seen := make([]int32, n) // tag: member of the list being built or compared
+	arenaV := make([]int32, len(adj))
+	arenaE := make([]int32, len(adj))
+	used := 0
 	remaining := int32(0)
 	for i := 0; i < n; i++ {
 		if status[i] == dense {
 			continue
 		}
 		remaining++
-		var a []int32
+		a := arenaV[used:used]
 		for _, j := range adj[start[i]:start[i+1]] {
 			// repeats (parallel elements) are dropped by the stamp
 			if int(j) != i && status[j] != dense && seen[j] != int32(i)+1 {
@@ -75,8 +84,21 @@ func amdOrder(n int, start, adj []int32) []int32 {
 				a = append(a, j)
 			}
 		}
-		adjV[i] = a
+		end := used + len(a)
+		adjV[i] = arenaV[used:end:end]
+		adjE[i] = arenaE[used:used:end]
+		used = end
 		deg[i] = int32(len(a))
+	}
+	var chunk []int32
+	newList := func(from []int32) []int32 {
+		k := len(from)
+		if cap(chunk)-len(chunk) < k {
+			chunk = make([]int32, 0, max(k, 2*cap(chunk), 1024))
+		}
+		l := len(chunk)
+		chunk = append(chunk, from...)
+		return chunk[l : l+k : l+k]
 	}
 
 	// Degree lists: doubly linked, head[d] is the first variable of
@@ -266,7 +288,7 @@ func amdOrder(n int, start, adj []int32) []int32 {
 
 		// Approximate degrees.
 		esize[p] = size
-		elems[p] = append([]int32(nil), lp...)
+		elems[p] = newList(lp)
 		for k, i := range lp {
 			if nv[i] == 0 {
 				continue
