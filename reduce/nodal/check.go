@@ -2,7 +2,6 @@ package nodal
 
 import (
 	"fmt"
-	"math/cmplx"
 	"slices"
 	"strings"
 
@@ -104,7 +103,9 @@ type topology struct {
 	notes []string
 }
 
-func finite(v complex128) bool { return !cmplx.IsNaN(v) && !cmplx.IsInf(v) }
+// finite reports whether both parts of v are finite: x − x is 0 for a
+// finite x and NaN for an infinity or NaN.
+func finite(v complex128) bool { return real(v)-real(v) == 0 && imag(v)-imag(v) == 0 }
 
 // check validates n and finds, by graph search before any arithmetic,
 // every reason the modified nodal equations could have no unique solution:
@@ -149,6 +150,7 @@ func elements(n *reduce.Network) (*topology, error) {
 	m := len(n.Elements)
 	t.from, t.to = make([]int32, m), make([]int32, m)
 	t.short, t.self = make([]bool, m), make([]bool, m)
+	t.nodes = make([]string, 0, m/2+1)
 	node := func(name string) int32 {
 		if i, ok := t.index[name]; ok {
 			return i

@@ -1,6 +1,7 @@
 package nodal
 
 import (
+	"context"
 	"math"
 )
 
@@ -33,6 +34,13 @@ const pivotThreshold = 0.1
 // refinement, guards the accuracy either way.
 const reuseThreshold = pivotThreshold / 10
 
+// pollColumns is how often the numeric factorisation asks its context
+// whether to stop: every 64 columns. A call costs tens of nanoseconds, a
+// column of a network's factors from a few to some hundred thousand
+// multiply-adds, so the polls cost nothing to speak of and a stop comes
+// within milliseconds even on the densest columns the work bounds allow.
+const pollColumns = 64
+
 // sparseLU is the LU factorisation P·B = L·U of a sparse complex matrix B
 // held by columns, computed column by column by the left-looking method of
 // J. R. Gilbert and T. Peierls ("Sparse partial pivoting in time
@@ -63,6 +71,9 @@ type sparseLU struct {
 	// singular is the first column whose pivot fell below pivotTol of
 	// the column's largest entry, or −1.
 	singular int
+	// norm1 is ‖B‖₁, the largest column sum of moduli (abs1) of the B
+	// last refactorised, found on the way for the backward error.
+	norm1 float64
 	// x is the dense work column, kept zero between columns.
 	x []complex128
 	// work space of factor
@@ -104,8 +115,10 @@ func (e *capacityError) Error() string { return "factor too large" }
 // that bound so that the factors stay usable for inverse iteration.
 // capHint sizes the storage; maxNNZ bounds the entries of L and U. The
 // storage of old, when not nil, is reused: a sweep that must choose new
-// pivots then allocates nothing.
-func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU) (*sparseLU, error) {
+// pivots then allocates nothing. ctx, when not nil, is polled every
+// pollColumns columns; when it ends factor returns ctx.Err(), and old is
+// left unusable.
+func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx context.Context) (*sparseLU, error) {
 	n := b.n
 	f := old
 	if f == nil || f.n != n {
@@ -146,6 +159,12 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU) (*spar
 	free := 0 // rows below free are all pivotal: the search for a spare row starts here
 
 	for k := 0; k < n; k++ {
+		if ctx != nil && k%pollColumns == 0 {
+			if err := ctx.Err(); err != nil {
+				clear(x)
+				return nil, err
+			}
+		}
 		stamp := int32(k + 1)
 		// Reach of B(:,k) in the graph of L: row i (of B) leads on to
 		// the rows of column pinv[i] of L when it is already pivotal.
@@ -306,17 +325,42 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU) (*spar
 }
 
 // refactor repeats the factorisation on new values of B with the same
-// pattern, keeping the pivot order. It reports false, leaving the factors
-// unusable, when some pivot fails the threshold test against its column
-// (or the singularity test against colmax): the caller then factorises
-// afresh, choosing new pivots.
-func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
+// pattern, keeping the pivot order, and writes the largest entry modulus
+// (abs1) of each column of B into colmax on the way, for the singularity
+// test, and ‖B‖₁ into norm1. It reports false, leaving the factors unusable, when some pivot
+// fails the threshold test against its column (or the singularity test
+// against colmax, which an entry too large to represent also fails): the
+// caller then factorises afresh, choosing new pivots. ctx, when not nil,
+// is polled every pollColumns columns; when it ends refactor returns
+// ctx.Err(), and the factors, whose pattern and pivots are intact, must
+// be refactorised before use.
+func (f *sparseLU) refactor(b *csc, colmax []float64, ctx context.Context) (bool, error) {
 	n := f.n
 	x := f.x
-	ok := true
+	pinv := f.pinv[:n]
+	colmax = colmax[:n]
+	norm1 := 0.0
 	for k := 0; k < n; k++ {
-		for q := b.p[k]; q < b.p[k+1]; q++ {
-			x[f.pinv[b.i[q]]] += b.x[q]
+		if ctx != nil && k%pollColumns == 0 {
+			if err := ctx.Err(); err != nil {
+				clear(x)
+				return false, err
+			}
+		}
+		lo, hi := b.p[k], b.p[k+1]
+		cm, sum := 0.0, 0.0
+		for q, i := range b.i[lo:hi] {
+			v := b.x[lo+int32(q)]
+			a := abs1(v)
+			if a > cm {
+				cm = a
+			}
+			sum += a
+			x[pinv[i]] += v
+		}
+		colmax[k] = cm
+		if sum > norm1 {
+			norm1 = sum
 		}
 		for p := f.up[k]; p < f.up[k+1]; p++ {
 			j := f.ui[p]
@@ -329,32 +373,28 @@ func (f *sparseLU) refactor(b *csc, colmax []float64) bool {
 		}
 		piv := x[k]
 		x[k] = 0
-		a := abs1(piv)
-		big := 0.0
-		for q := f.lp[k]; q < f.lp[k+1]; q++ {
-			if m := abs1(x[f.li[q]]); m > big {
-				big = m
-			}
-		}
-		if !(a >= reuseThreshold*big) || !(a > pivotTol*colmax[k]) || math.IsInf(a, 0) {
-			ok = false
-		}
 		d := 1 / piv
 		f.dinv[k] = d
-		for q := f.lp[k]; q < f.lp[k+1]; q++ {
-			i := f.li[q]
-			f.lx[q] = x[i] * d
+		// L(:,k) over the pivot, finding the largest entry below it
+		big := 0.0
+		llo, lhi := f.lp[k], f.lp[k+1]
+		lx := f.lx[llo:lhi]
+		for q, i := range f.li[llo:lhi] {
+			v := x[i]
+			if m := abs1(v); m > big {
+				big = m
+			}
+			lx[q] = v * d
 			x[i] = 0
 		}
-		if !ok {
+		if a := abs1(piv); !(a >= reuseThreshold*big) || !(a > pivotTol*cm) || math.IsInf(a, 0) {
 			// clear the rest of x: every later column starts from zero
-			for i := range x {
-				x[i] = 0
-			}
-			return false
+			clear(x)
+			return false, nil
 		}
 	}
-	return true
+	f.norm1 = norm1
+	return true, nil
 }
 
 // solve overwrites y, the right-hand side in B's row order, with B⁻¹·y in

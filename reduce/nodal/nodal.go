@@ -18,6 +18,7 @@
 package nodal
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -107,11 +108,18 @@ type Solution struct {
 // Passive elements must carry their impedance Z at the working frequency
 // (see reduce.Network.At). Sources are phasors on the given basis.
 func Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
+	return SolveContext(context.Background(), n, basis)
+}
+
+// SolveContext is Solve under ctx: the numeric factorisation polls ctx,
+// and when ctx ends before the solution is found SolveContext returns
+// ctx.Err() (see Plan.SolveContext).
+func SolveContext(ctx context.Context, n *reduce.Network, basis calc.Basis) (*Solution, error) {
 	p, err := Analyse(n)
 	if err != nil {
 		return nil, err
 	}
-	return p.Solve(n, basis)
+	return p.SolveContext(ctx, n, basis)
 }
 
 // solution builds the Solution from the solved unknowns p.x.

@@ -1,6 +1,7 @@
 package nodal
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -47,22 +48,54 @@ type Plan struct {
 	order   []int32  // order[new] = old unknown
 	pos     []int32  // pos[old] = new
 	b       csc      // the matrix in the new order; values rewritten by Solve
-	slot    [][5]int32
-	direct  []bool // passive elements given a current unknown for their low impedance
+	direct  []bool   // passive elements given a current unknown for their low impedance
 	work    Work
 	maxNNZ  int
 
+	// The scatter map, made by the symbolic analysis: what each
+	// element's value writes (op) and where (slot: positions in bx, or
+	// rows of rhs, with the spare last entry of each standing for the
+	// reference node, which has no equation). base holds the entries
+	// that do not depend on the values (the ±1 of current unknowns), so
+	// that a restamp is a clear and one indexed write per entry.
+	op   []stampOp
+	slot [][4]int32
+	base []constEntry
+	bx   []complex128 // b.x and the spare entry
+	rhsx []complex128 // rhs and the spare entry
+
 	lu     *sparseLU
 	colmax []float64
-	rowAbs []float64
 	rhs    []complex128
 	x      []complex128
 	r      []complex128
 	d      []complex128
 	w      []complex128
-	eta    float64 // backward error of the last solution
-	stats  Stats
+	keep   []complex128
+	// normA is ‖A‖∞ of the last factorisation, found as ‖A‖₁: every
+	// stamp is symmetric, so A = Aᵀ and the largest column sum of moduli
+	// is the largest row sum.
+	normA float64
+	eta   float64 // backward error of the last solution
+	stats Stats
 }
+
+// constEntry is a constant term of the matrix, at position q of b.x.
+type constEntry struct {
+	q int32
+	v complex128
+}
+
+// stampOp says what an element's value writes into the equations.
+type stampOp uint8
+
+const (
+	stampNone    stampOp = iota // nothing: joined to one node only, or an ideal short (its entries are constant)
+	stampAdmit                  // admittance 1/Z at (a,a), (b,b), −1/Z at (a,b), (b,a)
+	stampImp                    // −Z at (c,c), the branch equation of a current unknown
+	stampVolt                   // −Value on the right of the branch equation, row c
+	stampCurrent                // −Value on the right of row a, +Value of row b
+)
 
 // Stats counts what a Plan's solutions have cost.
 type Stats struct {
@@ -194,6 +227,7 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 	}
 	p.b.n = N
 	p.b.p = make([]int32, N+1)
+	p.b.i = rows[:0] // columns merged in place: each moves down, never up
 	for j := 0; j < N; j++ {
 		col := rows[colCount[j]:colCount[j+1]]
 		slices.Sort(col)
@@ -201,30 +235,64 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 		p.b.i = append(p.b.i, col...)
 		p.b.p[j+1] = int32(len(p.b.i))
 	}
-	p.b.x = make([]complex128, len(p.b.i))
+	p.b.i = slices.Clip(p.b.i)
+	nnz := int32(len(p.b.i))
+	p.bx = make([]complex128, nnz+1)
+	p.b.x = p.bx[:nnz]
+	constant := func(q int32, v complex128) {
+		if q != nnz {
+			p.base = append(p.base, constEntry{q, v})
+		}
+	}
+	p.rhsx = make([]complex128, N+1)
+	p.rhs = p.rhsx[:N]
 	find := func(i, j int32) int32 {
 		if i < 0 || j < 0 {
-			return -1
+			return nnz // the spare entry
 		}
 		ni, nj := p.pos[i], p.pos[j]
 		col := p.b.i[p.b.p[nj]:p.b.p[nj+1]]
 		q, _ := slices.BinarySearch(col, ni)
 		return p.b.p[nj] + int32(q)
 	}
-	p.slot = make([][5]int32, len(els))
+	row := func(i int32) int32 {
+		if i < 0 {
+			return int32(N) // the spare entry
+		}
+		return p.pos[i]
+	}
+	p.op = make([]stampOp, len(els))
+	p.slot = make([][4]int32, len(els))
 	for k, e := range els {
-		p.slot[k] = [5]int32{-1, -1, -1, -1, -1}
-		if t.self[k] || e.Kind == reduce.CurrentSource {
+		if t.self[k] {
 			continue
 		}
 		a, b := p.nodeUnk[t.from[k]], p.nodeUnk[t.to[k]]
-		if c := p.curOf[k]; c >= 0 {
-			p.slot[k] = [5]int32{find(a, c), find(b, c), find(c, a), find(c, b), -1}
-			if direct[k] {
-				p.slot[k][4] = find(c, c)
+		c := p.curOf[k]
+		switch {
+		case e.Kind == reduce.CurrentSource:
+			p.op[k] = stampCurrent
+			p.slot[k] = [4]int32{row(a), row(b)}
+		case c >= 0:
+			// KCL: the branch current leaves From and enters To; the
+			// branch equation V(From) − V(To) = −Value for a source, and
+			// V(From) − V(To) − Z·I = 0 for a passive element, keeps the
+			// matrix symmetric.
+			constant(find(a, c), 1)
+			constant(find(b, c), -1)
+			constant(find(c, a), 1)
+			constant(find(c, b), -1)
+			switch {
+			case e.Kind == reduce.VoltageSource:
+				p.op[k] = stampVolt
+				p.slot[k] = [4]int32{row(c)}
+			case direct[k]:
+				p.op[k] = stampImp
+				p.slot[k] = [4]int32{find(c, c)}
 			}
-		} else {
-			p.slot[k] = [5]int32{find(a, a), find(b, b), find(a, b), find(b, a), -1}
+		default:
+			p.op[k] = stampAdmit
+			p.slot[k] = [4]int32{find(a, a), find(b, b), find(a, b), find(b, a)}
 		}
 	}
 
@@ -282,6 +350,15 @@ func (p *Plan) differs(n *reduce.Network) string {
 // is a few units of round-off, and returns the same Solution as the
 // package's Solve.
 func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
+	return p.SolveContext(context.Background(), n, basis)
+}
+
+// SolveContext is Solve under ctx: the numeric factorisation polls ctx
+// every few columns (see pollColumns), and when ctx ends before the
+// solution is found SolveContext returns ctx.Err(). Neither n nor the
+// plan's fitness for it is changed by a stopped solution; the plan's next
+// solution refactorises afresh.
+func (p *Plan) SolveContext(ctx context.Context, n *reduce.Network, basis calc.Basis) (*Solution, error) {
 	if why := p.differs(n); why != "" {
 		return nil, &NetError{Msg: "the network does not fit the analysed topology: " + why + "; analyse it afresh"}
 	}
@@ -291,7 +368,7 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 		}
 	}
 	t := p.t.with(n)
-	if err := p.factorSolve(n, t); err != nil {
+	if err := p.factorSolve(ctx, n, t); err != nil {
 		return nil, err
 	}
 	if low := p.imprecise(n); low != nil {
@@ -303,7 +380,7 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 		}
 		q.stats = p.stats
 		*p = *q
-		if err := p.factorSolve(n, t); err != nil {
+		if err := p.factorSolve(ctx, n, t); err != nil {
 			return nil, err
 		}
 	}
@@ -314,11 +391,11 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 // factorSolve stamps n's values, factorises numerically and solves with
 // refinement; a numerically singular matrix is reported by the unknowns
 // that carry its null direction, and the factors are dropped.
-func (p *Plan) factorSolve(n *reduce.Network, t *topology) error {
+func (p *Plan) factorSolve(ctx context.Context, n *reduce.Network, t *topology) error {
 	if err := p.stamp(n); err != nil {
 		return err
 	}
-	if err := p.factorise(); err != nil {
+	if err := p.factorise(ctx); err != nil {
 		return err
 	}
 	if p.lu.singular >= 0 {
@@ -398,104 +475,97 @@ func (t *topology) with(n *reduce.Network) *topology {
 	return &c
 }
 
-// stamp writes the values of n into the matrix and the right-hand side.
+// stamp writes the values of n into the matrix and the right-hand side
+// through the scatter map: a copy of the constant entries, then one
+// indexed write per entry an element's value reaches. It allocates
+// nothing after the first call.
 func (p *Plan) stamp(n *reduce.Network) error {
 	N := p.b.n
-	if p.rhs == nil {
-		p.rhs = make([]complex128, N)
+	if p.x == nil {
 		p.x = make([]complex128, N)
 		p.r = make([]complex128, N)
-		p.d = make([]complex128, N)
 		p.w = make([]complex128, N)
-		p.rowAbs = make([]float64, N)
+		p.colmax = make([]float64, N)
 	}
-	clear(p.b.x)
-	clear(p.rhs)
-	for k, e := range n.Elements {
-		if p.t.self[k] {
-			continue
-		}
+	x, rhs := p.bx, p.rhsx
+	clear(x)
+	clear(rhs)
+	for _, c := range p.base {
+		x[c.q] += c.v
+	}
+	els := n.Elements[:len(p.op)]
+	for k, op := range p.op {
 		s := &p.slot[k]
-		switch {
-		case e.Kind == reduce.CurrentSource:
-			// Value leaves From and enters To.
-			if a := p.nodeUnk[p.t.from[k]]; a >= 0 {
-				p.rhs[p.pos[a]] -= e.Value
-			}
-			if b := p.nodeUnk[p.t.to[k]]; b >= 0 {
-				p.rhs[p.pos[b]] += e.Value
-			}
-		case p.curOf[k] >= 0:
-			// KCL: the branch current leaves From and enters To; the
-			// branch equation V(From) − V(To) = −Value for a source, and
-			// V(From) − V(To) − Z·I = 0 for a passive element, keeps the
-			// matrix symmetric.
-			p.add(s[0], 1)
-			p.add(s[1], -1)
-			p.add(s[2], 1)
-			p.add(s[3], -1)
-			if e.Kind == reduce.VoltageSource {
-				p.rhs[p.pos[p.curOf[k]]] = -e.Value
-			} else {
-				p.add(s[4], -e.Z)
-			}
-		default:
-			y := recip(e.Z)
+		switch op {
+		case stampAdmit:
+			y := recip(els[k].Z)
 			if !finite(y) {
+				e := &els[k]
 				return &NetError{Msg: fmt.Sprintf("%s: the admittance 1/Z is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
 			}
-			p.add(s[0], y)
-			p.add(s[1], y)
-			p.add(s[2], -y)
-			p.add(s[3], -y)
+			x[s[0]] += y
+			x[s[1]] += y
+			x[s[2]] -= y
+			x[s[3]] -= y
+		case stampImp:
+			x[s[0]] -= els[k].Z
+		case stampVolt:
+			rhs[s[0]] -= els[k].Value
+		case stampCurrent:
+			// Value leaves From and enters To.
+			v := els[k].Value
+			rhs[s[0]] -= v
+			rhs[s[1]] += v
 		}
 	}
 	return nil
 }
 
-func (p *Plan) add(q int32, v complex128) {
-	if q >= 0 {
-		p.b.x[q] += v
-	}
-}
-
 // factorise factorises the stamped matrix, reusing the pivots of the last
-// factorisation when they pass the threshold test.
-func (p *Plan) factorise() error {
-	// Column maxima for the singularity test and row sums for the norm
-	// of the matrix, in one pass.
-	if p.colmax == nil {
-		p.colmax = make([]float64, p.b.n)
-	}
-	clear(p.rowAbs)
-	for j := 0; j < p.b.n; j++ {
-		m := 0.0
-		for q := p.b.p[j]; q < p.b.p[j+1]; q++ {
-			a := abs1(p.b.x[q])
-			if a > m {
-				m = a
-			}
-			p.rowAbs[p.b.i[q]] += a
-		}
-		if math.IsInf(m, 0) {
-			return &NetError{Msg: "the network equations hold a value too large to represent"}
-		}
-		p.colmax[j] = m
-	}
+// factorisation when they pass the threshold test. It polls ctx, when not
+// nil, every pollColumns columns; when ctx ends it returns ctx.Err(), and
+// the plan stays usable: factors cut short are refactorised, or dropped
+// and made afresh, at the next solution.
+func (p *Plan) factorise(ctx context.Context) error {
 	if p.lu != nil {
-		if p.lu.refactor(&p.b, p.colmax) {
+		ok, err := p.lu.refactor(&p.b, p.colmax, ctx)
+		if err != nil {
+			return err
+		}
+		if ok {
+			p.normA = p.lu.norm1
 			p.stats.Refactorisations++
 			return nil
 		}
 		p.stats.Repivots++
 	}
-	lu, err := factor(&p.b, p.colmax, p.work.Factor, p.maxNNZ, p.lu)
+	// Column maxima for the singularity test, ‖A‖₁ for the backward
+	// error, and a check that every value is finite (refactor fails on
+	// one that is not).
+	p.normA = 0
+	for j := 0; j < p.b.n; j++ {
+		m, sum := 0.0, 0.0
+		for _, v := range p.b.x[p.b.p[j]:p.b.p[j+1]] {
+			a := abs1(v)
+			if a > m {
+				m = a
+			}
+			sum += a
+		}
+		if math.IsInf(m, 0) {
+			return &NetError{Msg: "the network equations hold a value too large to represent"}
+		}
+		p.colmax[j] = m
+		p.normA = max(p.normA, sum)
+	}
+	lu, err := factor(&p.b, p.colmax, p.work.Factor, p.maxNNZ, p.lu, ctx)
 	if err != nil {
+		// factor wrote over the old factors' storage
+		p.lu = nil
 		var ce *capacityError
 		if errors.As(err, &ce) {
 			return &NetError{Msg: fmt.Sprintf("the network is too large for the nodal solution: its LU factors grew past %s entries, far beyond the estimate (%s)", count(float64(ce.nnz)), p.work)}
 		}
-		p.lu = nil
 		return err
 	}
 	p.lu = lu
@@ -508,29 +578,38 @@ func (p *Plan) factorise() error {
 // implies numerical stability for Gaussian elimination", Math. Comp.
 // 35(151), 1980; N. J. Higham, "Accuracy and Stability of Numerical
 // Algorithms", 2nd ed., SIAM, 2002, ch. 12): r = b − A·x, solve A·d = r,
-// x ← x + d, while the normwise backward error
-// ‖r‖∞ / (‖A‖∞·‖x‖∞ + ‖b‖∞) (J. L. Rigal and J. Gaches, J. ACM 14(3),
-// 1967) exceeds refineTarget, at most maxRefine times.
+// x ← x + d. The residual of the first solution is always computed, since
+// its normwise backward error ‖r‖∞ / (‖A‖∞·‖x‖∞ + ‖b‖∞) (J. L. Rigal and
+// J. Gaches, J. ACM 14(3), 1967) is reported with the solution; a step of
+// refinement is taken only while that error exceeds refineTarget, at most
+// maxRefine times, and kept only if it lowers the error. It allocates
+// only at the plan's first step of refinement.
 func (p *Plan) solveRefined() {
 	copy(p.x, p.rhs)
 	p.lu.solve(p.x, p.w)
-	normA, normB := 0.0, 0.0
-	for i, v := range p.rowAbs {
-		normA = math.Max(normA, v)
-		normB = math.Max(normB, abs1(p.rhs[i]))
+	normB := 0.0
+	for _, v := range p.rhs {
+		if a := abs1(v); a > normB {
+			normB = a
+		}
 	}
-	eta := p.residual(normA, normB)
+	eta := p.residual(normB)
 	for step := 0; step < maxRefine && eta > refineTarget; step++ {
+		if p.d == nil {
+			// made at the first refinement, kept for the next
+			p.d = make([]complex128, len(p.x))
+			p.keep = make([]complex128, len(p.x))
+		}
 		copy(p.d, p.r)
 		p.lu.solve(p.d, p.w)
-		keep := slices.Clone(p.x)
-		for i := range p.x {
-			p.x[i] += p.d[i]
+		copy(p.keep, p.x)
+		for i, d := range p.d {
+			p.x[i] += d
 		}
 		p.stats.Refinements++
-		e := p.residual(normA, normB)
+		e := p.residual(normB)
 		if !(e < eta) {
-			copy(p.x, keep)
+			copy(p.x, p.keep)
 			break
 		}
 		eta = e
@@ -539,25 +618,38 @@ func (p *Plan) solveRefined() {
 }
 
 // residual sets p.r = b − A·x and returns the normwise backward error.
-func (p *Plan) residual(normA, normB float64) float64 {
-	copy(p.r, p.rhs)
+// ‖A‖∞ is p.normA, found by factorise.
+func (p *Plan) residual(normB float64) float64 {
+	r, x, b := p.r, p.x, &p.b
+	copy(r, p.rhs)
 	normX := 0.0
-	for j := 0; j < p.b.n; j++ {
-		xj := p.x[j]
-		normX = math.Max(normX, abs1(xj))
+	nan := false
+	for j := 0; j < b.n; j++ {
+		xj := x[j]
+		if a := abs1(xj); a > normX {
+			normX = a
+		} else if a != a {
+			nan = true
+		}
 		if xj == 0 {
 			continue
 		}
-		for q := p.b.p[j]; q < p.b.p[j+1]; q++ {
-			p.r[p.b.i[q]] -= p.b.x[q] * xj
+		lo, hi := b.p[j], b.p[j+1]
+		vals := b.x[lo:hi]
+		for q, i := range b.i[lo:hi] {
+			r[i] -= vals[q] * xj
 		}
 	}
 	normR := 0.0
-	for _, v := range p.r {
-		normR = math.Max(normR, abs1(v))
+	for _, v := range r {
+		if a := abs1(v); a > normR {
+			normR = a
+		} else if a != a {
+			nan = true
+		}
 	}
-	den := normA*normX + normB
-	if den == 0 || math.IsInf(den, 0) || math.IsNaN(normR) {
+	den := p.normA*normX + normB
+	if den == 0 || math.IsInf(den, 0) || nan {
 		return 0
 	}
 	return normR / den

@@ -1,8 +1,10 @@
 package nodal
 
 import (
+	"context"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -134,14 +136,14 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 		if err := p.stamp(nets[500]); err != nil {
 			b.Fatal(err)
 		}
-		if err := p.factorise(); err != nil {
+		if err := p.factorise(nil); err != nil {
 			b.Fatal(err)
 		}
-		colmax := p.b.colMax()
+		ctx := context.Background()
 		cpu := StartCPU()
 		for b.Loop() {
-			if !p.lu.refactor(&p.b, colmax) {
-				b.Fatal("pivot refused")
+			if ok, err := p.lu.refactor(&p.b, p.colmax, ctx); !ok || err != nil {
+				b.Fatal("pivot refused", err)
 			}
 		}
 		cpu.Report(b, b.N)
@@ -155,7 +157,7 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 		colmax := p.b.colMax()
 		cpu := StartCPU()
 		for b.Loop() {
-			if _, err := factor(&p.b, colmax, p.work.Factor, p.maxNNZ, nil); err != nil {
+			if _, err := factor(&p.b, colmax, p.work.Factor, p.maxNNZ, nil, nil); err != nil {
 				b.Fatal(err)
 			}
 		}
@@ -164,12 +166,13 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 	b.Run("restamp+refactor+solve", func(b *testing.B) {
 		before := p.stats
 		k := 0
+		ctx := context.Background()
 		cpu := StartCPU()
 		for b.Loop() {
 			if err := p.stamp(nets[k%len(nets)]); err != nil {
 				b.Fatal(err)
 			}
-			if err := p.factorise(); err != nil {
+			if err := p.factorise(ctx); err != nil {
 				b.Fatal(err)
 			}
 			p.solveRefined()
@@ -297,5 +300,55 @@ func TestRefinement(t *testing.T) {
 	}
 	if diff > 1e-10*size {
 		t.Errorf("refined solution differs by %g of its size", diff/size)
+	}
+}
+
+// TestStampSymmetric: every stamp writes symmetric entries, so the matrix
+// equals its transpose and ‖A‖∞ may be found as ‖A‖₁ (see Plan.normA).
+// The network has every kind of stamp: admittances, voltage and current
+// sources, an ideal short, a low impedance given a current unknown and an
+// element joined to one node only (example data).
+func TestStampSymmetric(t *testing.T) {
+	n, err := MeshNetwork(4, 5).At(1e3)
+	if err != nil {
+		t.Fatal(err)
+	}
+	n.Elements = append(n.Elements,
+		reduce.Element{Name: "I9", Kind: reduce.CurrentSource, From: "m1_1", To: "m3_2", Value: complex(0.5, -0.25)},
+		reduce.Element{Name: "S9", Kind: reduce.Impedance, From: "m2_2", To: "m2_3"},
+		reduce.Element{Name: "R9", Kind: reduce.Resistor, From: "m0_1", To: "m3_4", Z: 1e-9, Raw: 1e-9},
+		reduce.Element{Name: "Z9", Kind: reduce.Impedance, From: "m1_3", To: "m1_3", Z: 5, Raw: 5})
+	p, err := Analyse(n)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := p.Solve(n, calc.RMS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.LowImpedance) == 0 {
+		t.Fatal("no element was given a current unknown for its low impedance")
+	}
+	at := func(i, j int32) complex128 {
+		col := p.b.i[p.b.p[j]:p.b.p[j+1]]
+		for q, r := range col {
+			if r == i {
+				return p.b.x[p.b.p[j]+int32(q)]
+			}
+		}
+		return 0
+	}
+	rows := make([]float64, p.b.n)
+	for j := int32(0); j < int32(p.b.n); j++ {
+		for q := p.b.p[j]; q < p.b.p[j+1]; q++ {
+			i := p.b.i[q]
+			rows[i] += abs1(p.b.x[q])
+			if v, w := p.b.x[q], at(j, i); v != w {
+				t.Errorf("A(%d,%d) = %v but A(%d,%d) = %v", i, j, v, j, i, w)
+			}
+		}
+	}
+	if want := slices.Max(rows); p.normA != want {
+		t.Errorf("‖A‖ = %g, largest row sum %g", p.normA, want)
 	}
 }
