@@ -39,9 +39,11 @@ var errStop = errors.New("stopped")
 // *Interrupted and the worksheet is unchanged, its line count included.
 //
 // The context is read between samples of the work that runs on working
-// copies (sweep points, tolerance samples); the other work of a statement
-// (re-solving the networks a changed value feeds) runs to its end, so
-// that it never leaves the worksheet half changed.
+// copies (sweep points, tolerance samples), and within the factorisation
+// of a network's equations when the network is being defined or solved
+// on a working copy; the other work of a statement (re-solving the
+// networks a changed value feeds) runs to its end, so that it never
+// leaves the worksheet half changed.
 func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, []string, error) {
 	line := s.line
 	if job.Ctx != nil && job.Ctx.Err() != nil {
@@ -66,6 +68,18 @@ func (s *Sheet) stopped() error {
 		return errStop
 	}
 	return nil
+}
+
+// jobCtx is the context of the statement's job, for work that polls it
+// within one step (a network's factorisation): that of a working copy,
+// which a stop discards, or of a network being defined, which a failed
+// statement drops. Background when there is none, and while networks are
+// re-solved on the worksheet itself (see resolving).
+func (s *Sheet) jobCtx() context.Context {
+	if s.job == nil || s.job.Ctx == nil || (s.resolving && !s.quiet) {
+		return context.Background()
+	}
+	return s.job.Ctx
 }
 
 // progress reports the samples done of those expected.

@@ -196,3 +196,68 @@ func TestPropagateOnce(t *testing.T) {
 		t.Errorf("Z50 = %v, want %g", z.V, want)
 	}
 }
+
+// pollStop is a context that cancels itself at its stopAt-th poll of Err,
+// so that a test stops work part way through without depending on how
+// fast the machine is; polls counts the calls.
+type pollStop struct {
+	context.Context
+	cancel        context.CancelFunc
+	polls, stopAt int
+}
+
+func (c *pollStop) Err() error {
+	c.polls++
+	if c.polls == c.stopAt {
+		c.cancel()
+	}
+	return c.Context.Err()
+}
+
+// TestStopNetworkSolve stops the factorisation of a 60×60 grid of
+// resistors (3601 unknowns, invented example data) at the end of its
+// block: the statement is interrupted at the poll that cancelled it, the
+// worksheet is exactly as before, the block still open, and the same end
+// then solves the network.
+func TestStopNetworkSolve(t *testing.T) {
+	const side = 60
+	s := New()
+	lines := []string{"network g reference gnd", "voltage source V1 = 230 V from gnd to g0_0"}
+	k := 0
+	for r := range side {
+		for c := range side {
+			if c+1 < side {
+				lines = append(lines, fmt.Sprintf("resistor H%d = %d Ω from g%d_%d to g%d_%d", k, 10+k%7, r, c, r, c+1))
+			}
+			if r+1 < side {
+				lines = append(lines, fmt.Sprintf("resistor W%d = %d Ω from g%d_%d to g%d_%d", k, 12+k%5, r, c, r+1, c))
+			}
+			k++
+		}
+	}
+	lines = append(lines, fmt.Sprintf("resistor RL = 100 Ω from g%d_%d to gnd", side-1, side-1))
+	runLines(t, s, lines...)
+	before := fingerprint(s)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	// 3601 columns are polled 57 times; the worksheet polls a few
+	// times besides.
+	stop := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	_, _, err := s.ExecJob(Job{Ctx: stop}, "end")
+	var in *Interrupted
+	if !errors.As(err, &in) {
+		t.Fatalf("got %v, want an interruption", err)
+	}
+	// the factorisation stops at the poll that cancelled it; ExecJob
+	// then asks once more, to tell a stop from a failure
+	if stop.polls != stop.stopAt+1 {
+		t.Errorf("%d polls of the context; want %d, the one that cancelled it and ExecJob's", stop.polls, stop.stopAt+1)
+	}
+	if got := fingerprint(s); got != before {
+		t.Errorf("the worksheet changed:\n%s\nwant\n%s", got, before)
+	}
+	runLines(t, s, "end")
+	if _, ok := s.Lookup("g.RL.v"); !ok {
+		t.Error("the network was not solved after the stop")
+	}
+}

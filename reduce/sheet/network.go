@@ -1,6 +1,7 @@
 package sheet
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"sort"
@@ -51,8 +52,9 @@ type netSolver struct {
 
 // solve solves the network at its present element values. The ordering
 // and symbolic analysis are made once and kept, so a sweep or a spread
-// pays per sample only for a numeric refactorisation and a solve.
-func (v *netSolver) solve(basis calc.Basis) (*nodal.Solution, error) {
+// pays per sample only for a numeric refactorisation and a solve. The
+// factorisation stops with ctx's error when ctx ends.
+func (v *netSolver) solve(ctx context.Context, basis calc.Basis) (*nodal.Solution, error) {
 	if v.plan == nil || !v.plan.Fits(v.net) {
 		p, err := nodal.Analyse(v.net)
 		if err != nil {
@@ -60,7 +62,7 @@ func (v *netSolver) solve(basis calc.Basis) (*nodal.Solution, error) {
 		}
 		v.plan = p
 	}
-	return v.plan.Solve(v.net, basis)
+	return v.plan.SolveContext(ctx, v.net, basis)
 }
 
 // NetworkInfo describes a defined network for the app.
@@ -158,6 +160,7 @@ func (s *Sheet) closeNetwork(p *calc.Parser) error {
 		p.FailAt(1, 3, "network %s has no elements", nw.name)
 		return p.Err()
 	}
+	ref, deps := nw.ref, nw.deps
 	if nw.ref == "" {
 		nodes := map[string]bool{}
 		for _, e := range nw.elems {
@@ -182,9 +185,15 @@ func (s *Sheet) closeNetwork(p *calc.Parser) error {
 	s.nets[nw.name] = nw
 	s.order = append(s.order, nw.name)
 	if err := s.solve(nw, "network "+nw.name+" solved"); err != nil {
-		// the block is not kept: its elements go with it
 		delete(s.nets, nw.name)
 		s.order = s.order[:len(s.order)-1]
+		if errors.Is(err, context.Canceled) || errors.Is(err, context.DeadlineExceeded) {
+			// stopped, not failed: the block stays open as it was
+			nw.ref, nw.deps = ref, deps
+			s.open = nw
+			return err
+		}
+		// the block is not kept: its elements go with it
 		s.dropElements(nw.elems)
 		var ne *nodal.NetError
 		if errors.As(err, &ne) && ne.Line > 0 {
@@ -245,7 +254,7 @@ func (s *Sheet) solve(nw *network, reason string) error {
 			return err
 		}
 	}
-	sol, err := (&netSolver{net: net}).solve(s.ctx.Basis)
+	sol, err := (&netSolver{net: net}).solve(s.jobCtx(), s.ctx.Basis)
 	if err != nil {
 		return err
 	}
@@ -307,7 +316,7 @@ func (s *Sheet) solveAgain(nw *network) error {
 			}
 		}
 	}
-	sol, err := nw.solver.solve(s.ctx.Basis)
+	sol, err := nw.solver.solve(s.jobCtx(), s.ctx.Basis)
 	if err != nil {
 		return err
 	}
@@ -373,6 +382,8 @@ func (s *Sheet) setResult(nw *network, name string, q calc.Quantity) string {
 // last solution (when holds the tick of each change, and tick counts on);
 // it marks their changed results and reports whether any changed.
 func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *int) (bool, error) {
+	s.resolving = true
+	defer func() { s.resolving = false }()
 	any := false
 	for _, n := range s.order {
 		nw := s.nets[n]

@@ -115,6 +115,10 @@ type Sheet struct {
 	quiet bool
 	// job is the running statement's cancellation and progress, or nil.
 	job *Job
+	// resolving is set while the networks a changed value feeds are
+	// solved again on the worksheet itself, which a stop part way would
+	// leave half changed: their factorisations then run to the end.
+	resolving bool
 	// budget is the bound on a statement's estimated work, in seconds.
 	budget float64
 	// limits bound the worksheet's size and the budget it may set.
