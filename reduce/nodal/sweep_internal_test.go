@@ -7,6 +7,7 @@ import (
 	"slices"
 	"strings"
 	"testing"
+	"time"
 
 	"argand/calc"
 	"argand/reduce"
@@ -110,7 +111,12 @@ func sweepNets(tb testing.TB, n *reduce.Network, freqs []float64) []*reduce.Netw
 // mesh of about 1000 nodes with the symbolic analysis reused: the numeric
 // refactorisation alone ("refactor"), and the whole point: writing the new
 // values into the matrix, refactorising and solving with refinement
-// ("restamp+refactor+solve"). The Solution with its maps of names is not
+// ("restamp+refactor+solve"), and the two timed in turn for their ratio
+// ("point/refactor"). "refactor" is the same call the point makes when
+// the pivots pass: it finds the column maxima and ‖A‖₁ on its way, and
+// the point adds the restamp, the solve and the residual. The networks of
+// the points are visited in turn, 1000 of them, so each restamp reads its
+// element values from memory rather than cache. The Solution with its maps of names is not
 // built here; BenchmarkSweepPlan in the external tests times that.
 func BenchmarkSweepPoint(b *testing.B) {
 	for _, net := range []struct {
@@ -181,6 +187,34 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 		cpu.Report(b, k)
 		b.ReportMetric(float64(p.stats.Repivots-before.Repivots)/float64(k), "repivots/point")
 		b.ReportMetric(float64(p.stats.Refinements-before.Refinements)/float64(k), "refinements/point")
+	})
+	b.Run("point/refactor", func(b *testing.B) {
+		// The two timed in turn, so that a machine shared with other
+		// work slows both alike: the ratio is the figure, the time per
+		// op that of the pair.
+		var tRefactor, tPoint time.Duration
+		k := 0
+		ctx := context.Background()
+		for b.Loop() {
+			t0 := time.Now()
+			if ok, err := p.lu.refactor(&p.b, p.colmax, ctx); !ok || err != nil {
+				b.Fatal("pivot refused", err)
+			}
+			t1 := time.Now()
+			if err := p.stamp(nets[k%len(nets)]); err != nil {
+				b.Fatal(err)
+			}
+			if err := p.factorise(ctx); err != nil {
+				b.Fatal(err)
+			}
+			p.solveRefined()
+			tRefactor += t1.Sub(t0)
+			tPoint += time.Since(t1)
+			k++
+		}
+		b.ReportMetric(float64(tPoint)/float64(tRefactor), "point/refactor")
+		b.ReportMetric(float64(tRefactor.Nanoseconds())/float64(k), "refactor-ns")
+		b.ReportMetric(float64(tPoint.Nanoseconds())/float64(k), "point-ns")
 	})
 }
 
