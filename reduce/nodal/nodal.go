@@ -292,6 +292,7 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 			fmt.Sprintf("reference node %s at 0 V; %d unknowns, %d entries in the LU factors", s.Reference, s.Unknowns, s.Factor),
 		}, s.Notes...),
 	}
+	head.Results = make([]calc.Operand, 0, len(s.Nodes))
 	for _, name := range s.Nodes {
 		if name == s.Reference {
 			continue
@@ -312,43 +313,56 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 	if span > elvLimit {
 		head.Cautions = calc.CautionsOf(calc.CautionMains)
 	}
-	steps := []calc.Step{head}
+	// One block each for the steps, their inputs, rows and row values:
+	// a network of many elements would otherwise make a few small
+	// allocations per element and grow the list of steps by copying.
+	steps := make([]calc.Step, 1, len(s.Branches)+2)
+	steps[0] = head
+	inputs := make([]calc.Operand, len(s.Branches))
+	rows := make([]calc.Row, len(s.Branches))
+	values := make([]calc.Operand, 3*len(s.Branches))
 	direct := map[string]bool{}
 	for _, name := range s.LowImpedance {
 		direct[name] = true
 	}
-	for _, b := range s.Branches {
+	for k, b := range s.Branches {
 		st := calc.Step{Kind: "element", Line: b.Line, Basis: s.Basis}
 		vq := calc.Q(b.V, calc.DimVoltage)
 		iq := calc.Q(b.I, calc.DimCurrent)
 		sq := calc.Quantity{V: b.S, Dim: calc.DimPower, Kind: calc.KindApparent}
 		v := "V = V(" + b.From + ") − V(" + b.To + ")"
+		var in calc.Operand
 		switch {
 		case b.Kind == reduce.VoltageSource:
 			st.Rule = b.Name + ": voltage source; its current comes from the solution"
 			st.Formula = v + ", " + sFormula
-			st.Inputs = []calc.Operand{{Name: b.Name, Value: calc.Q(b.Value, calc.DimVoltage)}}
+			in = calc.Operand{Name: b.Name, Value: calc.Q(b.Value, calc.DimVoltage)}
 		case b.Kind == reduce.CurrentSource:
 			st.Rule = b.Name + ": current source; its voltage comes from the node voltages"
 			st.Formula = v + ", I = " + b.Name + ", " + sFormula
-			st.Inputs = []calc.Operand{{Name: b.Name, Value: calc.Q(b.Value, calc.DimCurrent)}}
+			in = calc.Operand{Name: b.Name, Value: calc.Q(b.Value, calc.DimCurrent)}
 		case b.From == b.To:
 			st.Rule = b.Name + ": joined to one node only, it carries nothing"
-			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
+			in = calc.Operand{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}
 		case b.Z == 0:
 			st.Rule = b.Name + ": ideal short (0 Ω); its current comes from the solution"
 			st.Formula = v + ", " + sFormula
-			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
+			in = calc.Operand{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}
 		case direct[b.Name]:
 			st.Rule = b.Name + ": impedance so low that its current comes from the solution"
 			st.Formula = v + ", V = Z·I, " + sFormula
-			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
+			in = calc.Operand{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}
 		default:
 			st.Rule = b.Name + ": Ohm's law"
 			st.Formula = v + ", I = V/Z, " + sFormula
-			st.Inputs = []calc.Operand{{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}}
+			in = calc.Operand{Name: "Z(" + b.Name + ")", Value: calc.Q(b.Z, calc.DimImpedance)}
 		}
-		st.Rows = []calc.Row{{Name: b.Name, Values: []calc.Operand{{Name: "v", Value: vq}, {Name: "i", Value: iq}, {Name: "s", Value: sq}}}}
+		inputs[k] = in
+		st.Inputs = inputs[k : k+1 : k+1]
+		vs := values[3*k : 3*k+3 : 3*k+3]
+		vs[0], vs[1], vs[2] = calc.Operand{Name: "v", Value: vq}, calc.Operand{Name: "i", Value: iq}, calc.Operand{Name: "s", Value: sq}
+		rows[k] = calc.Row{Name: b.Name, Values: vs}
+		st.Rows = rows[k : k+1 : k+1]
 		steps = append(steps, st)
 	}
 	bal := calc.Step{
@@ -361,8 +375,12 @@ func (s *Solution) Steps(f calc.Format) []calc.Step {
 			{Name: "ΣS", Value: calc.Quantity{V: s.PowerSum, Dim: calc.DimPower, Kind: calc.KindApparent}},
 		},
 	}
+	bal.Rows = make([]calc.Row, 0, len(s.Nodes))
+	kcl := make([]calc.Operand, len(s.Nodes))
 	for _, name := range s.Nodes {
-		bal.Rows = append(bal.Rows, calc.Row{Name: name, Values: []calc.Operand{{Name: "|kcl|", Value: calc.Magnitude(cmplx.Abs(s.KCL[name]), calc.DimCurrent)}}})
+		kv := kcl[len(bal.Rows) : len(bal.Rows)+1 : len(bal.Rows)+1]
+		kv[0] = calc.Operand{Name: "|kcl|", Value: calc.Magnitude(cmplx.Abs(s.KCL[name]), calc.DimCurrent)}
+		bal.Rows = append(bal.Rows, calc.Row{Name: name, Values: kv})
 	}
 	if s.MaxI > 0 {
 		bal.Notes = append(bal.Notes, fmt.Sprintf("largest KCL residual is %s of the largest branch current (%s)",
