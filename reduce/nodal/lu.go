@@ -400,22 +400,30 @@ func (f *sparseLU) refactor(b *csc, colmax []float64, ctx context.Context) (bool
 // solve overwrites y, the right-hand side in B's row order, with B⁻¹·y in
 // B's column order; w is scratch of length n.
 func (f *sparseLU) solve(y, w []complex128) {
-	for i, v := range y {
-		w[f.pinv[i]] = v
+	f.solveTo(w, y)
+	copy(y, w)
+}
+
+// solveTo sets x to B⁻¹·b, for b in B's row order and x in its column
+// order, leaving b as it was: the rows of b are placed in pivot order in
+// x, and the substitutions run in place there.
+func (f *sparseLU) solveTo(x, b []complex128) {
+	pinv := f.pinv[:len(b)]
+	for i, v := range b {
+		x[pinv[i]] = v
 	}
 	for j := 0; j < f.n; j++ {
-		if wj := w[j]; wj != 0 {
-			axpy(w, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], wj)
+		if xj := x[j]; xj != 0 {
+			axpy(x, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], xj)
 		}
 	}
 	for k := f.n - 1; k >= 0; k-- {
-		wk := w[k] * f.dinv[k]
-		w[k] = wk
-		if wk != 0 {
-			axpy(w, f.ui[f.up[k]:f.up[k+1]], f.ux[f.up[k]:f.up[k+1]], wk)
+		xk := x[k] * f.dinv[k]
+		x[k] = xk
+		if xk != 0 {
+			axpy(x, f.ui[f.up[k]:f.up[k+1]], f.ux[f.up[k]:f.up[k+1]], xk)
 		}
 	}
-	copy(y, w)
 }
 
 // nnz is the number of entries of L and U, diagonal included.

@@ -70,7 +70,6 @@ type Plan struct {
 	x      []complex128
 	r      []complex128
 	d      []complex128
-	w      []complex128
 	keep   []complex128
 	// normA is ‖A‖∞ of the last factorisation, found as ‖A‖₁: every
 	// stamp is symmetric, so A = Aᵀ and the largest column sum of moduli
@@ -484,7 +483,6 @@ func (p *Plan) stamp(n *reduce.Network) error {
 	if p.x == nil {
 		p.x = make([]complex128, N)
 		p.r = make([]complex128, N)
-		p.w = make([]complex128, N)
 		p.colmax = make([]float64, N)
 	}
 	x, rhs := p.bx, p.rhsx
@@ -585,8 +583,7 @@ func (p *Plan) factorise(ctx context.Context) error {
 // maxRefine times, and kept only if it lowers the error. It allocates
 // only at the plan's first step of refinement.
 func (p *Plan) solveRefined() {
-	copy(p.x, p.rhs)
-	p.lu.solve(p.x, p.w)
+	p.lu.solveTo(p.x, p.rhs)
 	normB := 0.0
 	for _, v := range p.rhs {
 		if a := abs1(v); a > normB {
@@ -600,8 +597,7 @@ func (p *Plan) solveRefined() {
 			p.d = make([]complex128, len(p.x))
 			p.keep = make([]complex128, len(p.x))
 		}
-		copy(p.d, p.r)
-		p.lu.solve(p.d, p.w)
+		p.lu.solveTo(p.d, p.r)
 		copy(p.keep, p.x)
 		for i, d := range p.d {
 			p.x[i] += d
