@@ -122,7 +122,10 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx co
 	n := b.n
 	f := old
 	if f == nil || f.n != n {
-		half := capHint/2 + n
+		// capHint counts L and U with one diagonal: each holds about
+		// (capHint − n)/2 entries off it. An eighth of n more leaves
+		// room for the few off-diagonal pivots; past it they grow.
+		half := max(capHint-n, 0)/2 + n/8 + 16
 		f = &sparseLU{
 			n:    n,
 			lp:   make([]int32, n+1),
