@@ -119,7 +119,8 @@ func SolveContext(ctx context.Context, n *reduce.Network, basis calc.Basis) (*So
 	if err != nil {
 		return nil, err
 	}
-	return p.SolveContext(ctx, n, basis)
+	// Analyse has checked every value of n, and n fits p
+	return p.solve(ctx, n, basis)
 }
 
 // solution builds the Solution from the solved unknowns p.x.

@@ -366,6 +366,12 @@ func (p *Plan) SolveContext(ctx context.Context, n *reduce.Network, basis calc.B
 			return nil, err
 		}
 	}
+	return p.solve(ctx, n, basis)
+}
+
+// solve is SolveContext for a network known to fit the plan and to have
+// valid values: the one just analysed.
+func (p *Plan) solve(ctx context.Context, n *reduce.Network, basis calc.Basis) (*Solution, error) {
 	t := p.t.with(n)
 	if err := p.factorSolve(ctx, n, t); err != nil {
 		return nil, err
