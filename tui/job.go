@@ -98,7 +98,7 @@ func (m *Model) startJob(what string, then func(), stmts ...string) bool {
 	done := make(chan jobResult, 1)
 	j.done = done
 	work := m.s.sh.Clone()
-	sj := sheet.Job{Ctx: ctx, Progress: func(n, total int) {
+	sj := sheet.Job{Ctx: ctx, Copy: true, Progress: func(n, total int) {
 		j.count.Store(int64(n))
 		j.total.Store(int64(total))
 	}}

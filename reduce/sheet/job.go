@@ -19,6 +19,11 @@ type Job struct {
 	// statement with the samples done and the samples expected (0 when
 	// the amount is not known).
 	Progress func(done, total int)
+	// Copy says that the worksheet is a working copy which the caller
+	// drops when the statement is interrupted: then Ctx stops every
+	// factorisation, the re-solving of networks a changed value feeds
+	// included, since nothing half changed is kept.
+	Copy bool
 }
 
 // Interrupted is the error of a statement stopped by its Job's context.
@@ -40,10 +45,10 @@ var errStop = errors.New("stopped")
 //
 // The context is read between samples of the work that runs on working
 // copies (sweep points, tolerance samples), and within the factorisation
-// of a network's equations when the network is being defined or solved
-// on a working copy; the other work of a statement (re-solving the
-// networks a changed value feeds) runs to its end, so that it never
-// leaves the worksheet half changed.
+// of a network's equations when the network is being defined, or on a
+// working copy (job.Copy); otherwise the other work of a statement
+// (re-solving the networks a changed value feeds) runs to its end, so
+// that it never leaves the worksheet half changed.
 func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, []string, error) {
 	line := s.line
 	if job.Ctx != nil && job.Ctx.Err() != nil {
@@ -74,9 +79,10 @@ func (s *Sheet) stopped() error {
 // within one step (a network's factorisation): that of a working copy,
 // which a stop discards, or of a network being defined, which a failed
 // statement drops. Background when there is none, and while networks are
-// re-solved on the worksheet itself (see resolving).
+// re-solved on a worksheet that is not a working copy (see resolving and
+// Job.Copy).
 func (s *Sheet) jobCtx() context.Context {
-	if s.job == nil || s.job.Ctx == nil || (s.resolving && !s.quiet) {
+	if s.job == nil || s.job.Ctx == nil || (s.resolving && !s.quiet && !s.job.Copy) {
 		return context.Background()
 	}
 	return s.job.Ctx

@@ -214,14 +214,10 @@ func (c *pollStop) Err() error {
 	return c.Context.Err()
 }
 
-// TestStopNetworkSolve stops the factorisation of a 60×60 grid of
-// resistors (3601 unknowns, invented example data) at the end of its
-// block: the statement is interrupted at the poll that cancelled it, the
-// worksheet is exactly as before, the block still open, and the same end
-// then solves the network.
-func TestStopNetworkSolve(t *testing.T) {
-	const side = 60
-	s := New()
+// gridBlock is the node block of a side×side grid of resistors fed at one
+// corner and loaded at the other (invented example data), without its
+// end line: side²+1 unknowns.
+func gridBlock(side int) []string {
 	lines := []string{"network g reference gnd", "voltage source V1 = 230 V from gnd to g0_0"}
 	k := 0
 	for r := range side {
@@ -235,8 +231,16 @@ func TestStopNetworkSolve(t *testing.T) {
 			k++
 		}
 	}
-	lines = append(lines, fmt.Sprintf("resistor RL = 100 Ω from g%d_%d to gnd", side-1, side-1))
-	runLines(t, s, lines...)
+	return append(lines, fmt.Sprintf("resistor RL = 100 Ω from g%d_%d to gnd", side-1, side-1))
+}
+
+// TestStopNetworkSolve stops the factorisation of a 60×60 grid (3601
+// unknowns) at the end of its block: the statement is interrupted at the
+// poll that cancelled it, the worksheet is exactly as before, the block
+// still open, and the same end then solves the network.
+func TestStopNetworkSolve(t *testing.T) {
+	s := New()
+	runLines(t, s, gridBlock(60)...)
 	before := fingerprint(s)
 	ctx, cancel := context.WithCancel(context.Background())
 	defer cancel()
@@ -259,5 +263,46 @@ func TestStopNetworkSolve(t *testing.T) {
 	runLines(t, s, "end")
 	if _, ok := s.Lookup("g.RL.v"); !ok {
 		t.Error("the network was not solved after the stop")
+	}
+}
+
+// TestStopResolve: a changed value re-solves the 60×60 grid that reads
+// it. On a working copy (Job.Copy) the factorisation of that re-solve
+// stops with the job, and the worksheet the copy came from is untouched;
+// on the worksheet itself the re-solve runs to its end, polling nothing,
+// so that no stop leaves the worksheet half changed.
+func TestStopResolve(t *testing.T) {
+	s := New()
+	runLines(t, s, gridBlock(60)...)
+	runLines(t, s, "end")
+	before := fingerprint(s)
+
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	stop := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	c := s.Clone()
+	_, _, err := c.ExecJob(Job{Ctx: stop, Copy: true}, "RL = 120 Ω")
+	var in *Interrupted
+	if !errors.As(err, &in) {
+		t.Fatalf("on a working copy: got %v, want an interruption", err)
+	}
+	if stop.polls != stop.stopAt+1 {
+		t.Errorf("%d polls of the context; want %d, the one that cancelled it and ExecJob's", stop.polls, stop.stopAt+1)
+	}
+	if got := fingerprint(s); got != before {
+		t.Error("the worksheet changed under its working copy")
+	}
+
+	ctx2, cancel2 := context.WithCancel(context.Background())
+	defer cancel2()
+	never := &pollStop{Context: ctx2, cancel: cancel2, stopAt: 2}
+	if _, _, err := s.ExecJob(Job{Ctx: never}, "RL = 120 Ω"); err != nil {
+		t.Fatal(err)
+	}
+	if never.polls != 1 {
+		t.Errorf("the re-solve on the worksheet itself polled the context: %d polls, want only ExecJob's first", never.polls)
+	}
+	if q, ok := s.Lookup("g.RL.v"); !ok || q.V == 0 {
+		t.Error("the network was not re-solved")
 	}
 }
