@@ -179,8 +179,11 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		s.Voltage[t.nodes[i]] = x
 	}
 	s.Branches = make([]Branch, len(els))
-	for k, e := range els {
-		br := Branch{Name: e.Name, Kind: e.Kind, From: e.From, To: e.To, Line: e.Line}
+	for k := range els {
+		// filled in place: a network of many elements would otherwise
+		// copy each branch, pointers and all, into the fresh slice
+		e, br := &els[k], &s.Branches[k]
+		br.Name, br.Kind, br.From, br.To, br.Line = e.Name, e.Kind, e.From, e.To, e.Line
 		if e.Kind.IsSource() {
 			br.Value = e.Value
 		} else {
@@ -203,7 +206,6 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		if !finite(br.I) {
 			return nil, &NetError{Msg: fmt.Sprintf("%s: the current is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
 		}
-		s.Branches[k] = br
 	}
 	kcl := make([]complex128, len(t.nodes))
 	for k := range s.Branches {
