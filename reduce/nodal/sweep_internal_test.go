@@ -116,8 +116,9 @@ func sweepNets(tb testing.TB, n *reduce.Network, freqs []float64) []*reduce.Netw
 // the pivots pass: it finds the column maxima and ‖A‖₁ on its way, and
 // the point adds the restamp, the solve and the residual. The networks of
 // the points are visited in turn, 1000 of them, so each restamp reads its
-// element values from memory rather than cache. The Solution with its maps of names is not
-// built here; BenchmarkSweepPlan in the external tests times that.
+// element values from memory rather than cache. The Solution with its
+// maps of names is not built here; BenchmarkSweepPlan in the external
+// tests times that.
 func BenchmarkSweepPoint(b *testing.B) {
 	for _, net := range []struct {
 		name string
