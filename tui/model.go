@@ -200,7 +200,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		for len(m.ahead) > 0 && m.job == nil {
 			k := m.ahead[0]
 			m.ahead = m.ahead[1:]
-			cmds = append(cmds, m.key(k), m.takePending())
+			cmds = append(cmds, m.keys1(k))
 		}
 		return m, tea.Batch(cmds...)
 	case spinner.TickMsg:
@@ -220,10 +220,35 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		if m.job != nil {
 			return m, m.jobKey(msg)
 		}
-		cmd := m.key(msg)
-		return m, tea.Batch(cmd, m.takePending())
+		return m, m.keys1(msg)
 	}
 	return m, nil
+}
+
+// keys1 hands a key message to the part that has the keyboard. Letters
+// that arrive in one read (typed fast, or sent by a script or a phone's
+// keyboard) come as one message; where a letter is a command each is a
+// key of its own, so they are taken one at a time until a part that
+// takes text has the keyboard, which gets the rest whole.
+func (m *Model) keys1(msg tea.KeyMsg) tea.Cmd {
+	if msg.Type != tea.KeyRunes || msg.Paste || len(msg.Runes) < 2 {
+		return tea.Batch(m.key(msg), m.takePending())
+	}
+	var cmds []tea.Cmd
+	rs := msg.Runes
+	for len(rs) > 0 && !m.quitting {
+		if m.job != nil {
+			cmds = append(cmds, m.jobKey(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs}))
+			break
+		}
+		if m.mode == modeLine || m.mode == modePrompt {
+			cmds = append(cmds, m.key(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs}), m.takePending())
+			break
+		}
+		cmds = append(cmds, m.key(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs[:1]}), m.takePending())
+		rs = rs[1:]
+	}
+	return tea.Batch(cmds...)
 }
 
 // takePending returns the commands started while handling a message.
