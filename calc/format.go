@@ -339,8 +339,9 @@ func (f Format) Polar(q Quantity) string {
 	if q.Kind == KindAngle && q.IsReal() && q.Dim.IsDimensionless() {
 		return f.AngleValue(real(q.V))
 	}
-	if q.Scalar() {
-		// a magnitude, a signed real or a real ratio has no angle to show
+	if !q.HasAngle() {
+		// a magnitude, a signed real, a real ratio or a zero has no angle
+		// to show
 		return f.Rect(q)
 	}
 	m := cmplx.Abs(q.V)
@@ -443,10 +444,10 @@ func sigFixed(x float64, digits int) string {
 }
 
 // Both formats q in rectangular and polar form separated by " = ", polar
-// first when polarFirst is set; a real quantity prints once.
+// first when polarFirst is set; a real quantity, or a zero, prints once.
 func (f Format) Both(q Quantity, polarFirst bool) string {
 	r, p := f.Rect(q), f.Polar(q)
-	if q.Scalar() {
+	if !q.HasAngle() {
 		return r
 	}
 	if polarFirst {
@@ -469,7 +470,7 @@ func phasorDim(d Dim) bool {
 // signed number for a real quantity that is not one (P in W, Q in var, a
 // count), so that a leading load's −3 kvar is not shown as 3 kvar ∠180°.
 func (f Format) Short(q Quantity) string {
-	if q.Scalar() {
+	if !q.HasAngle() {
 		return f.Rect(q)
 	}
 	return f.Polar(q)

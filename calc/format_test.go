@@ -36,7 +36,7 @@ func TestFormatEngineering(t *testing.T) {
 		{Q(10i, DimVoltage), "j10.00 V", "10.00 V ∠90.00°"},
 		{Q(-10i, DimVoltage), "-j10.00 V", "10.00 V ∠-90.00°"},
 		{Number(2), "2.000", "2.000"},
-		{Real(0, DimVoltage), "0.000 V", "0.000 V ∠0°"},
+		{Real(0, DimVoltage), "0.000 V", "0.000 V"}, // a zero phasor has no angle
 		{Number(0), "0.000", "0.000"},
 		{Quantity{V: 2 * math.Pi * 500, Dim: DimAngularFrequency, Kind: KindAngle}, "3.142 krad/s", "3.142 krad/s"},
 		{Real(2000, DimAngularFrequency), "2.000 /ms", "2.000 /ms"}, // a rate that is not angular; the prefix binds to s (SI Brochure 9th ed., §5.4.1)
@@ -343,5 +343,50 @@ func TestTimesTenReadsBack(t *testing.T) {
 		if err != nil || !closeC(q.V, want, 1e-12) {
 			t.Errorf("%s = %v (%v), want %v", src, q.V, err, want)
 		}
+	}
+}
+
+// TestZeroHasNoAngle: a zero phasor or complex value has no direction, so
+// every form shows it as a number with its unit and no angle (the angle of
+// 0 is undefined; common practice), while a value that is only small keeps
+// its angle.
+func TestZeroHasNoAngle(t *testing.T) {
+	tests := []struct {
+		name  string
+		q     Quantity
+		ascii bool
+		want  string // Rect, Polar, Short and Both alike
+	}{
+		{"zero voltage", Real(0, DimVoltage), false, "0.000 V"},
+		{"zero current", Real(0, DimCurrent), false, "0.000 A"},
+		{"zero impedance", Q(0, DimImpedance), false, "0.000 Ω"},
+		{"zero complex power", Quantity{V: 0, Dim: DimPower, Kind: KindApparent}, false, "0.000 VA"},
+		{"zero phasor product", Quantity{V: 0, Dim: DimPower, Kind: KindProduct}, false, "0.000 V·A"},
+		{"zero in ASCII", Real(0, DimVoltage), true, "0.000 V"},
+	}
+	for _, tt := range tests {
+		f := Format{ASCII: tt.ascii}
+		if tt.q.HasAngle() {
+			t.Errorf("%s: HasAngle() = true, want false", tt.name)
+		}
+		for form, got := range map[string]string{
+			"Rect": f.Rect(tt.q), "Polar": f.Polar(tt.q), "Short": f.Short(tt.q),
+			"Both": f.Both(tt.q, false), "Both polar first": f.Both(tt.q, true),
+		} {
+			if got != tt.want {
+				t.Errorf("%s: %s = %q, want %q", tt.name, form, got, tt.want)
+			}
+			if strings.ContainsAny(got, "∠@") || strings.Contains(got, "deg") {
+				t.Errorf("%s: %s = %q shows an angle", tt.name, form, got)
+			}
+		}
+	}
+	// a small value is not zero: it keeps its direction
+	small := Q(-1e-15, DimVoltage)
+	if !small.HasAngle() {
+		t.Errorf("HasAngle(-1 fV) = false, want true")
+	}
+	if got, want := (Format{}).Polar(small), "1.000 fV ∠180.0°"; got != want {
+		t.Errorf("Polar(-1 fV) = %q, want %q", got, want)
 	}
 }

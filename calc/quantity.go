@@ -65,6 +65,13 @@ func (q Quantity) Scalar() bool {
 	return q.Kind.noAngle() || q.Kind == KindAngle || !phasorDim(q.Dim)
 }
 
+// HasAngle reports whether q is shown with an angle (and drawn as an
+// arrow): a phasor or complex value that is not zero. A zero phasor has no
+// direction, so ∠0° would claim one that no input gave it.
+func (q Quantity) HasAngle() bool {
+	return q.V != 0 && !q.Scalar()
+}
+
 // QuantityName names the kind of q as JSON's "quantity" field does and
 // the README lists: phasor, impedance, admittance, resistance, conductance,
 // reactance, susceptance, complex-power, active-power, reactive-power,

@@ -193,7 +193,11 @@ func (s *Step) Text(f Format, polarFirst bool) string {
 		} else if c.MagOnly {
 			b.WriteString("      outside the range by " + f.Mag(real(c.Diff.V), c.Diff.Dim, c.Diff.Kind) + "; " + f.mark(f.sig(c.RelMag*100, 3)) + " % from the nominal magnitude; " + tr(c.Tolerance) + "\n")
 		} else {
-			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + f.mark(f.sig(c.RelMag*100, 3)) + " %, angle " + f.angle(c.DegDiff) + "; tolerance " + tr(c.Tolerance) + "\n")
+			ang := "angle " + f.angle(c.DegDiff)
+			if c.Got.V == 0 || c.Want.V == 0 {
+				ang = "no angle to compare (a zero has none)"
+			}
+			b.WriteString("      difference " + f.Polar(c.Diff) + "; magnitude " + f.mark(f.sig(c.RelMag*100, 3)) + " %, " + ang + "; tolerance " + tr(c.Tolerance) + "\n")
 		}
 	}
 	for _, n := range s.Notes {

@@ -676,7 +676,8 @@ func TestSketchPowerKinds(t *testing.T) {
 // A real number of a kind that is real by meaning has no angle (shared
 // DESIGN.md, quantity kinds): an active or reactive power, a resistance or a
 // magnitude is listed as not drawn rather than drawn as an arrow along an
-// axis, and a power that is drawn is scaled in its own unit word.
+// axis, and a power that is drawn is scaled in its own unit word. A zero
+// phasor has no angle either (issue 9).
 func TestSketchScalarsNotDrawn(t *testing.T) {
 	tests := []struct {
 		name      string
@@ -692,6 +693,9 @@ func TestSketchScalarsNotDrawn(t *testing.T) {
 		{"magnitude", []string{"Mq = mag(3+j4 Ω)"}, []string{"Mq"}, "Mq: no angle, not drawn", "", "+ = "},
 		{"reactive on the j axis", []string{"Qc = j80 var"}, []string{"Qc"}, "", "+ = 80.0 var", "VA"},
 		{"impedance drawn", []string{"Z1 = 3+j4 Ω"}, []string{"Z1"}, "", "+ = 5.00 Ω", "not drawn"},
+		// a zero phasor has no direction: listed, never an arrow at 0°
+		{"zero phasor", []string{"V0 = 1 V - 1 V"}, []string{"V0"}, "V0: no angle, not drawn", "", "+ = "},
+		{"zero beside a phasor", []string{"Vz = 0 V", "V2 = 230 V"}, []string{"Vz", "V2"}, "Vz: no angle, not drawn", "+ = 250 V", "∠"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

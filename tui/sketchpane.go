@@ -123,11 +123,12 @@ func (p sketchPane) draw() []string {
 }
 
 // drawable reports a quantity that has a direction in the complex plane:
-// a phasor or complex quantity. A real number of a kind that is real by
-// meaning (an active or reactive power, a resistance, a magnitude) has no
-// angle, and an arrow along an axis would claim one.
+// a phasor or complex quantity that is not zero. A real number of a kind
+// that is real by meaning (an active or reactive power, a resistance, a
+// magnitude) or a zero phasor has no angle, and an arrow along an axis
+// would claim one.
 func drawable(q calc.Quantity) bool {
-	return !q.Scalar() && q.Kind != calc.KindAngle
+	return q.HasAngle() && q.Kind != calc.KindAngle
 }
 
 // sketchValue is where a quantity is drawn in the complex plane. A
