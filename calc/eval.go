@@ -510,6 +510,10 @@ func (ev *Evaluator) call(c *Call) (Result, *Error) {
 	}
 	args := make([]Arg, len(exprs))
 	for i, a := range exprs {
+		if a == nil {
+			args[i] = Arg{Absent: true, Text: params[i].Name + " not given"}
+			continue
+		}
 		args[i].Text = ev.text(a)
 		if w, ok := ev.word(f, a); ok {
 			args[i].Word = w
@@ -703,9 +707,12 @@ func (ev *Evaluator) bind(f *Func, c *Call) ([]Expr, []*Param, *Error) {
 		}
 		slot[k] = n.Index
 	}
+	// exprs holds nil for a parameter skipped in a function that takes
+	// gaps (Func.Gaps): the argument list then keeps the parameters' places
 	var exprs []Expr
 	var params []*Param
 	gap := -1
+	var skipped []int // parameters skipped since the last one given
 	for j := range f.Params {
 		if slot[j] < 0 {
 			if !f.Params[j].Optional {
@@ -719,10 +726,18 @@ func (ev *Evaluator) bind(f *Func, c *Call) ([]Expr, []*Param, *Error) {
 			if gap < 0 {
 				gap = j
 			}
+			skipped = append(skipped, j)
 			continue
 		}
-		if gap >= 0 && f.Params[j].Kind != ParamWord {
-			return nil, nil, at(namedAt(c, slot[j]), "%s: give %s as well when %s is given, since the arguments are read in order", f.Name, f.Params[gap].Name, f.Params[j].Name)
+		switch {
+		case f.Gaps:
+			for _, k := range skipped {
+				exprs = append(exprs, nil)
+				params = append(params, &f.Params[k])
+			}
+			skipped = skipped[:0]
+		case gap >= 0 && f.Params[j].Kind != ParamWord:
+			return nil, nil, at(namedAt(c, slot[j]), "%s: %s needs %s as well (give both, by name or in order)", f.Name, f.Params[j].Name, f.Params[gap].Name)
 		}
 		exprs = append(exprs, c.Args[slot[j]])
 		params = append(params, &f.Params[j])

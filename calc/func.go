@@ -35,7 +35,15 @@ type Arg struct {
 	Q    Quantity
 	Word string // non-empty when the argument was one of Func.Words
 	Text string // the argument as written, for messages
+	// Absent marks an optional parameter the call skipped while naming a
+	// later one, as zcable(R', X', l, thetae = 70) skips n. Only a
+	// function with Func.Gaps set is given one, in the skipped place.
+	Absent bool
 }
+
+// Given reports whether args holds a value for parameter i: the call
+// reached it and did not skip it.
+func Given(args []Arg, i int) bool { return i < len(args) && !args[i].Absent }
 
 // Result is what a function returns: its main value, further named values
 // (reachable as NAME.key when the call is assigned to NAME) and the steps
@@ -63,6 +71,12 @@ type Func struct {
 	Min    int      // fewest arguments
 	Max    int      // most arguments; −1 for any number
 	Words  []string // bare words accepted as arguments
+	// Gaps says that Call reads an Arg marked Absent as a parameter not
+	// given, so a call may skip optional parameters by naming a later one;
+	// the arguments then keep the places of their parameters. Without it
+	// a later optional parameter needs the earlier ones (a cable's R', X'
+	// and length go together).
+	Gaps bool
 	// Formula is shown in the call's step, such as "|z| = √(re² + im²)".
 	Formula string
 	Call    func(c *Context, args []Arg) (Result, error)

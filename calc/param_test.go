@@ -33,11 +33,98 @@ var ratingFunc = Func{
 }
 
 func (e paramEnv) Func(name string) (*Func, bool) {
-	if name == "rating" {
+	switch name {
+	case "rating":
 		f := ratingFunc
+		return &f, true
+	case "run":
+		f := runFunc
+		return &f, true
+	case "grouped":
+		f := runFunc
+		f.Name, f.Gaps = "grouped", false
 		return &f, true
 	}
 	return nil, false
+}
+
+// runFunc is a made-up function with three optional parameters that may be
+// skipped (Gaps): it echoes each argument, "-" for one skipped.
+var runFunc = Func{
+	Name: "run", Min: 1, Max: 5, Gaps: true, Words: []string{"hot", "cold"},
+	Params: []Param{
+		{Name: "l", Kind: ParamLength},
+		{Name: "n", Kind: ParamRatio, Optional: true},
+		{Name: "theta", Kind: ParamTemperature, Optional: true},
+		{Name: "state", Kind: ParamWord, Doc: "hot|cold", Optional: true},
+		{Name: "r", Kind: ParamImpedance, Optional: true},
+	},
+	Call: func(c *Context, args []Arg) (Result, error) {
+		var texts []string
+		for i, a := range args {
+			switch {
+			case a.Absent:
+				if Given(args, i) {
+					return Result{}, errorf("Given(%d) for an absent argument", i)
+				}
+				texts = append(texts, "-")
+			case a.Word != "":
+				texts = append(texts, a.Word)
+			default:
+				texts = append(texts, a.Text)
+			}
+		}
+		return Result{Value: Number(complex(float64(len(args)), 0)), Notes: []string{strings.Join(texts, ";")}}, nil
+	},
+}
+
+// TestNamedArgumentsSkip: a call may leave out optional parameters by
+// naming a later one; the function is told which were skipped and the
+// arguments keep their parameters' places. A function whose optional
+// parameters go together refuses the gap with the name it needs.
+func TestNamedArgumentsSkip(t *testing.T) {
+	tests := []struct{ src, want string }{
+		{"run(10 m)", "10 m"},
+		{"run(10 m, theta = 70)", "10 m;-;70"},
+		{"run(theta = 70, l = 10 m)", "10 m;-;70"},
+		{"run(10 m, r = 2 Ω)", "10 m;-;-;-;2 Ω"},
+		{"run(10 m, 2, r = 2 Ω)", "10 m;2;-;-;2 Ω"},
+		{"run(10 m, state = hot, n = 3)", "10 m;3;-;hot"},
+		{"run(10 m, hot)", "10 m;-;-;hot"},
+		{"run(10 m, 2, 70, cold, 1 Ω)", "10 m;2;70;cold;1 Ω"},
+		{"grouped(10 m, 2, 70)", "10 m;2;70"},
+		{"grouped(10 m, hot)", "10 m;hot"},
+	}
+	for _, tt := range tests {
+		got, err := evalNotes(tt.src)
+		if err != nil {
+			t.Errorf("%s: %v", tt.src, err)
+			continue
+		}
+		if got != tt.want {
+			t.Errorf("%s: bound %q, want %q", tt.src, got, tt.want)
+		}
+	}
+	errs := []struct {
+		src  string
+		col  int
+		want string
+	}{
+		{"run(n = 2)", 1, "argument l (a length in m) is missing"},
+		{"run(10 m, thetae = 70)", 11, `run has no parameter "thetae"; its parameters are l, n, theta, state, r`},
+		{"run(10 m, theta = 1 m)", 19, "theta takes a temperature in °C (a plain number), got"},
+		{"grouped(10 m, theta = 70)", 15, "grouped: theta needs n as well (give both, by name or in order)"},
+	}
+	for _, tt := range errs {
+		_, err := evalNotes(tt.src)
+		if err == nil {
+			t.Errorf("%s: no error, want %q", tt.src, tt.want)
+			continue
+		}
+		if !strings.Contains(err.Msg, tt.want) || err.Col != tt.col {
+			t.Errorf("%s: error at col %d %q, want col %d %q", tt.src, err.Col, err.Msg, tt.col, tt.want)
+		}
+	}
 }
 
 func evalNotes(src string) (string, *Error) {

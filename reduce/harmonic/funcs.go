@@ -75,7 +75,7 @@ func Funcs(look Lookup, names []string) []calc.Func {
 		{Name: "bankout", Params: []calc.Param{{Name: "Qr", Kind: calc.ParamReactivePower, Doc: "the capacitors' rated output", Else: "a capacitor is rated by its reactive power in var"}, {Name: "Vr", Kind: calc.ParamVoltage, Doc: "the capacitors' rated voltage"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C (0 without)", Optional: true}}, Args: "(Qr, Vr, V[, p])", Min: 3, Max: 4,
 			Doc:     "output at supply voltage V of a bank of capacitors rated Qr at Vr, with reactor ratio p (0 without); .uc capacitor voltage, .qc, .ql",
 			Formula: "Q = Q_r·(V/V_r)²/(1 − p);  U_C = V/(1 − p)", Call: callBankOut},
-		{Name: "bankscan", Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Doc: "the supply's short-circuit power", Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower, Doc: "the bank's output at the supply voltage"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C (0 without)", Optional: true}, {Name: "xr", Kind: calc.ParamRatio, Doc: "the supply's X/R at the fundamental (0: lossless)", Optional: true}, {Name: "hmax", Kind: calc.ParamRatio, Doc: "the highest order (25)", Optional: true}}, Args: "(Ssc, Qc, V[, p[, X/R[, hmax]]])", Min: 3, Max: 6,
+		{Name: "bankscan", Gaps: true, Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Doc: "the supply's short-circuit power", Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower, Doc: "the bank's output at the supply voltage"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "the supply voltage"}, {Name: "p", Kind: calc.ParamRatio, Doc: "the reactor ratio X_L/X_C (0 without)", Optional: true}, {Name: "xr", Kind: calc.ParamRatio, Doc: "the supply's X/R at the fundamental (0: lossless)", Optional: true}, {Name: "hmax", Kind: calc.ParamRatio, Doc: "the highest order (25)", Optional: true}}, Args: "(Ssc, Qc, V[, p[, X/R[, hmax]]])", Min: 3, Max: 6,
 			Doc:     "table and plot of the supply's impedance alone and with a capacitor bank (output Qc at V, reactor ratio p) over harmonic order up to hmax (25); xr the supply's X/R (0 or left out: lossless); value: resonance order",
 			Formula: "Z_s = V²/S_sc·(1/(X/R) + j·h);  Z_b = j·(h·X_L − X_C/h);  Z = Z_s·Z_b/(Z_s + Z_b)", Call: callScan},
 	}
@@ -154,9 +154,11 @@ func plain(fn string, args []calc.Arg, i int, name string, lo, hi float64, open 
 
 // source writes the call as typed, for the steps it produces.
 func source(fn string, args []calc.Arg) string {
-	t := make([]string, len(args))
-	for i, a := range args {
-		t[i] = shown(a)
+	t := make([]string, 0, len(args))
+	for _, a := range args {
+		if !a.Absent {
+			t = append(t, shown(a))
+		}
 	}
 	return fn + "(" + strings.Join(t, ", ") + ")"
 }
@@ -689,17 +691,17 @@ func callScan(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	b := Bank{Ssc: ssc, Q: q}
 	hmax := 25
-	if len(args) > 3 {
+	if calc.Given(args, 3) {
 		if b.P, err = plain("bankscan", args, 3, "p", 0, 1, true, "the reactor ratio X_L/X_C from 0 up to 1 (0 without a reactor)"); err != nil {
 			return calc.Result{}, err
 		}
 	}
-	if len(args) > 4 {
+	if calc.Given(args, 4) {
 		if b.XR, err = plain("bankscan", args, 4, "X/R", 0, 1e6, false, "the supply's X/R at the fundamental, 0 (lossless) or more"); err != nil {
 			return calc.Result{}, err
 		}
 	}
-	if len(args) > 5 {
+	if calc.Given(args, 5) {
 		h, err := plain("bankscan", args, 5, "hmax", 2, MaxScanOrder, false, fmt.Sprintf("a whole number from 2 to %d", MaxScanOrder))
 		if err != nil {
 			return calc.Result{}, err

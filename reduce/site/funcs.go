@@ -175,6 +175,9 @@ func ratedVoltages(c *calc.Context, fn string, qs []calc.Arg, words []string) ([
 
 func split(args []calc.Arg) (qs []calc.Arg, words []string) {
 	for _, a := range args {
+		if a.Absent {
+			continue // a parameter skipped by naming a later one
+		}
 		if a.Word != "" {
 			words = append(words, strings.ToLower(a.Word))
 		} else {

@@ -11,7 +11,7 @@ import (
 // worksheet language.
 func shortFuncs() []calc.Func {
 	return []calc.Func{
-		{Name: "zfeeder", Params: []calc.Param{{Name: "UnQ", Kind: calc.ParamVoltage},
+		{Name: "zfeeder", Gaps: true, Params: []calc.Param{{Name: "UnQ", Kind: calc.ParamVoltage},
 			{Name: "Ik", Kind: calc.ParamAny, Doc: "I\"_kQ in A, or the fault level S\"_kQ in VA"},
 			{Name: "UrHV", Kind: calc.ParamAny, Optional: true, Doc: "transformer HV rating, V (with UrLV: refer to the LV side)"},
 			{Name: "UrLV", Kind: calc.ParamAny, Optional: true, Doc: "transformer LV rating, V"},
@@ -21,7 +21,7 @@ func shortFuncs() []calc.Func {
 			Doc:     "network feeder impedance from its short-circuit current or fault level (IEC 60909-0), R_Q/X_Q 0.1 when not given, optionally referred to a transformer's LV side; .r .x .c",
 			Formula: "Z_Q = c_Q·U_nQ/(√3·I\"_kQ) = c_Q·U_nQ²/S\"_kQ; X_Q = Z_Q/√(1 + (R/X)²); Z_Qt = Z_Q/t_r²",
 			Call:    callZFeeder},
-		{Name: "zxfmr", Params: []calc.Param{{Name: "SrT", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"},
+		{Name: "zxfmr", Gaps: true, Params: []calc.Param{{Name: "SrT", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"},
 			{Name: "UrHV", Kind: calc.ParamVoltage}, {Name: "UrLV", Kind: calc.ParamVoltage}, {Name: "ukr", Kind: calc.ParamRatio, Doc: "per cent"},
 			{Name: "loss", Kind: calc.ParamAny, Optional: true, Doc: "P_krT in W, or u_Rr in per cent"},
 			{Name: "cmax", Kind: calc.ParamRatio, Optional: true, Doc: "c_max of the LV side, from the table when not given"},
@@ -30,7 +30,7 @@ func shortFuncs() []calc.Func {
 			Doc:     "network transformer impedance with the correction factor K_T (IEC 60909-0), on the LV side unless hv; ukr and uRr in per cent, PkrT in W; .kt .zt (uncorrected) .xt_pu",
 			Formula: "Z_T = (u_kr/100)·U_rT²/S_rT; R_T = P_krT·U_rT²/S_rT²; K_T = 0.95·c_max/(1 + 0.6·x_T); Z_TK = K_T·Z_T",
 			Call:    callZXfmr},
-		{Name: "zcable", Params: []calc.Param{{Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' at 20 °C"}, {Name: "Xlen", Kind: calc.ParamPerLength},
+		{Name: "zcable", Gaps: true, Params: []calc.Param{{Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' at 20 °C"}, {Name: "Xlen", Kind: calc.ParamPerLength},
 			{Name: "length", Kind: calc.ParamLength}, {Name: "n", Kind: calc.ParamRatio, Optional: true, Doc: "runs in parallel"},
 			{Name: "thetae", Kind: calc.ParamTemperature, Optional: true, Doc: "conductor temperature at the end of the fault"}},
 			Args: "(R', X', length[, n][, θe])", Min: 3, Max: 5,
@@ -96,8 +96,15 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if err != nil {
 		return calc.Result{}, err
 	}
+	// c named with rx skipped is c, whatever else is given; the other
+	// values are told apart by their dimension, as in order
+	cNamed := calc.Given(args, 5) && args[4].Absent
 	var nums, volts []calc.Arg
-	for _, a := range qs[2:] {
+	for k := 2; k < len(args); k++ {
+		a := args[k]
+		if a.Absent || cNamed && k == 5 {
+			continue
+		}
 		switch a.Q.Dim {
 		case calc.Dimensionless:
 			nums = append(nums, a)
@@ -110,7 +117,16 @@ func callZFeeder(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if len(nums) > 2 || (len(volts) != 0 && len(volts) != 2) {
 		return calc.Result{}, fmt.Errorf("%s takes (UnQ, IkQ or SkQ[, UrHV, UrLV][, RQ/XQ[, cQ]]): the transformer needs both rated voltages", fn)
 	}
-	if len(nums) > 0 {
+	if cNamed {
+		if len(nums) > 1 {
+			return calc.Result{}, fmt.Errorf("%s: cQ is given by name and %s besides it: give RQ/XQ by name as well", fn, nums[1].Text)
+		}
+		if len(nums) == 0 {
+			nums = []calc.Arg{{Absent: true}} // rx not given: 0.1
+		}
+		nums = append(nums, args[5])
+	}
+	if len(nums) > 0 && !nums[0].Absent {
 		if f.RX, err = realArg(fn, "RQ/XQ", nums[0], calc.Dimensionless); err != nil {
 			return calc.Result{}, err
 		}
@@ -166,24 +182,27 @@ func callZXfmr(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if t.Ukr, err = realArg(fn, "ukr (%)", qs[3], calc.Dimensionless); err != nil {
 		return calc.Result{}, err
 	}
-	if len(qs) > 4 {
-		switch qs[4].Q.Dim {
+	// the arguments keep their parameters' places (Gaps): loss is 5th,
+	// cmax 6th, either one skipped when the other is named
+	if calc.Given(args, 4) {
+		loss := args[4]
+		switch loss.Q.Dim {
 		case calc.DimPower:
-			if qs[4].Q.Kind == calc.KindApparent || qs[4].Q.Kind == calc.KindReactive {
-				return calc.Result{}, fmt.Errorf("%s: PkrT is the load loss, an active power in W, not %s", fn, qs[4].Text)
+			if loss.Q.Kind == calc.KindApparent || loss.Q.Kind == calc.KindReactive {
+				return calc.Result{}, fmt.Errorf("%s: PkrT is the load loss, an active power in W, not %s", fn, loss.Text)
 			}
-			t.PkrT, err = realArg(fn, "PkrT", qs[4], calc.DimPower)
+			t.PkrT, err = realArg(fn, "PkrT", loss, calc.DimPower)
 		case calc.Dimensionless:
-			t.URr, err = realArg(fn, "uRr (%)", qs[4], calc.Dimensionless)
+			t.URr, err = realArg(fn, "uRr (%)", loss, calc.Dimensionless)
 		default:
-			err = fmt.Errorf("%s: argument 5 is the load loss PkrT in W or uRr in per cent, got %s", fn, calc.DimName(qs[4].Q.Dim, false))
+			err = fmt.Errorf("%s: argument 5 is the load loss PkrT in W or uRr in per cent, got %s", fn, calc.DimName(loss.Q.Dim, false))
 		}
 		if err != nil {
 			return calc.Result{}, err
 		}
 	}
-	if len(qs) > 5 {
-		if t.CMax, err = realArg(fn, "cmax", qs[5], calc.Dimensionless); err != nil {
+	if calc.Given(args, 5) {
+		if t.CMax, err = realArg(fn, "cmax", args[5], calc.Dimensionless); err != nil {
 			return calc.Result{}, err
 		}
 	}
@@ -210,7 +229,7 @@ func callZCable(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if run.Length, err = realArg(fn, "length", args[2], calc.DimLength); err != nil {
 		return calc.Result{}, err
 	}
-	if len(args) > 3 {
+	if calc.Given(args, 3) {
 		n, err := realArg(fn, "n (runs in parallel)", args[3], calc.Dimensionless)
 		if err != nil {
 			return calc.Result{}, err
@@ -220,7 +239,7 @@ func callZCable(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		}
 		run.Parallel = int(n)
 	}
-	if len(args) > 4 {
+	if calc.Given(args, 4) {
 		if run.ThetaE, err = realArg(fn, "θe (°C, a plain number)", args[4], calc.Dimensionless); err != nil {
 			return calc.Result{}, err
 		}
@@ -302,7 +321,7 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 }
 
 func unsymFunc(name string, ft FaultType, doc string) calc.Func {
-	return calc.Func{Name: name, Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
+	return calc.Func{Name: name, Gaps: true, Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
 		{Name: "Z1", Kind: calc.ParamImpedance}, {Name: "Z2", Kind: calc.ParamImpedance}, {Name: "Z0", Kind: calc.ParamImpedance},
 		{Name: "Zf", Kind: calc.ParamAny, Optional: true, Doc: "fault impedance in Ω, 0 when not given"},
 		{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "voltage factor, from the table when not given"},

@@ -296,7 +296,9 @@ func FunctionList() string {
 	b.WriteString("functions\n")
 	b.WriteString("  arguments go in order, or by name after any in order: xfmr(S = 500 kVA,\n")
 	b.WriteString("  V1 = 11 kV, V2 = 400 V, z = 4.5%, xr = 6); a parameter refuses a value of\n")
-	b.WriteString("  the wrong kind (an active power in W is not an apparent power in VA)\n\n")
+	b.WriteString("  the wrong kind (an active power in W is not an apparent power in VA); an\n")
+	b.WriteString("  optional one may be left out by naming a later one: zcable(Rlen = 0.1 mΩ/m,\n")
+	b.WriteString("  Xlen = 0.08 mΩ/m, length = 50 m, thetae = 70) takes n as not given\n\n")
 	b.WriteString("fields of a result, one meaning in every function\n")
 	for _, fl := range Fields {
 		b.WriteString("  ." + fl[0] + strings.Repeat(" ", max(1, 6-len(fl[0]))) + fl[1] + "\n")
