@@ -24,6 +24,7 @@
 //	magnitude       any   no           mag(I)
 //	signed-real     any   no           re(V), 10 mH, 50 Hz
 //	ratio           -     no           0.8, 4.5%
+//	ratio in %      %     no           a dip, a regulation: 3.120 % (0.0312)
 //	angle           rad   as an angle  30°, arg(Z)
 //	count           -     no           a whole number of things
 //

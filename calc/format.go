@@ -180,6 +180,18 @@ func (f Format) scaled(m float64, d Dim, k Kind) (exp3, decimals int, unit, expo
 	if sym == "" && k == KindCount && m == math.Trunc(m) && m < 1e15 {
 		return 0, 0, "", "" // a count is a whole number as it is
 	}
+	if k == KindPercent && d.IsDimensionless() {
+		// a ratio read in per cent: the figures of 100·m, scaled by
+		// exp3 = −2, with the sign % (which reads back as 0.01); a size
+		// far from 1 % keeps the plain ratio's form
+		pe := 0
+		if m != 0 {
+			pe = decExp(m*100, f.digits())
+		}
+		if m == 0 || pe >= -3 && pe < f.digits()+2 {
+			return -2, max(0, f.digits()-1-pe), " %", ""
+		}
+	}
 	if sym == "" && (m == 0 || e >= -3 && e < f.digits()) {
 		// plain numbers read better without an exponent, as long as no
 		// more figures show than are significant (30002 at 4 figures is

@@ -390,3 +390,70 @@ func TestZeroHasNoAngle(t *testing.T) {
 		t.Errorf("Polar(-1 fV) = %q, want %q", got, want)
 	}
 }
+
+// TestPercent: a ratio read in per cent (a voltage dip, a regulation) is
+// shown as 100 times its value with the sign % (SI Brochure 9th ed.,
+// §5.4.7, from memory: a space between the number and %), reads back to the same
+// ratio, and is a ratio in arithmetic.
+func TestPercent(t *testing.T) {
+	pc := func(x float64) Quantity { return Quantity{V: complex(x, 0), Kind: KindPercent} }
+	tests := []struct {
+		q     Quantity
+		f     Format
+		want  string
+		value float64 // what the shown text reads back as, ±half a unit in the last place
+	}{
+		{pc(0.05417), Format{}, "5.417 %", 0.05417},
+		{pc(0.1234), Format{}, "12.34 %", 0.1234},
+		{pc(-0.0031), Format{}, "-0.3100 %", -0.0031},
+		{pc(1.5), Format{}, "150.0 %", 1.5},
+		{pc(0), Format{}, "0.000 %", 0},
+		{pc(0.05417), Format{Digits: 6}, "5.41700 %", 0.05417},
+		{pc(0.05417), Format{ASCII: true}, "5.417 %", 0.05417},
+		{pc(0.05417), Format{Comma: true}, "5,417 %", 0.05417},
+	}
+	for _, tt := range tests {
+		for form, got := range map[string]string{"Rect": tt.f.Rect(tt.q), "Polar": tt.f.Polar(tt.q), "Both": tt.f.Both(tt.q, true), "Short": tt.f.Short(tt.q)} {
+			if got != tt.want {
+				t.Errorf("%s(%v) = %q, want %q", form, tt.q.V, got, tt.want)
+			}
+		}
+		if tt.f.Comma {
+			continue
+		}
+		back := mustEval(t, tt.want)
+		if math.Abs(real(back.V)-tt.value) > 5e-4*math.Abs(tt.value)+1e-15 || !back.Dim.IsDimensionless() {
+			t.Errorf("%q reads back as %v, want %v", tt.want, back.V, tt.value)
+		}
+	}
+	if got := QuantityName(pc(0.05)); got != "ratio" {
+		t.Errorf("QuantityName(5 %%) = %q, want ratio", got)
+	}
+	// arithmetic: a ratio, whose kind follows it only while it stays one
+	v := Real(400, DimVoltage)
+	kinds := []struct {
+		name string
+		op   func() (Quantity, error)
+		want Kind
+		val  float64
+	}{
+		{"5 % × 400 V", func() (Quantity, error) { return Mul(pc(0.05), v) }, KindPlain, 20},
+		{"5 % × 2", func() (Quantity, error) { return Mul(pc(0.05), Number(2)) }, KindPercent, 0.1},
+		{"5 % × 5 %", func() (Quantity, error) { return Mul(pc(0.05), pc(0.05)) }, KindPlain, 0.0025},
+		{"5 % / 10 %", func() (Quantity, error) { return Div(pc(0.05), pc(0.1)) }, KindPlain, 0.5},
+		{"5 % + 1 %", func() (Quantity, error) { return Add(pc(0.05), pc(0.01)) }, KindPercent, 0.06},
+		{"5 % + 1", func() (Quantity, error) { return Add(pc(0.05), Number(1)) }, KindPlain, 1.05},
+		{"1/(5 %)", func() (Quantity, error) { return Recip(pc(0.05)) }, KindPlain, 20},
+		{"−5 %", func() (Quantity, error) { return Neg(pc(0.05)), nil }, KindPercent, -0.05},
+	}
+	for _, k := range kinds {
+		q, err := k.op()
+		if err != nil {
+			t.Errorf("%s: %v", k.name, err)
+			continue
+		}
+		if q.Kind != k.want || math.Abs(real(q.V)-k.val) > 1e-12*math.Abs(k.val) {
+			t.Errorf("%s = %v kind %d, want %v kind %d", k.name, q.V, q.Kind, k.val, k.want)
+		}
+	}
+}

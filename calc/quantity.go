@@ -43,13 +43,18 @@ const (
 	KindProduct
 	// KindConj is the conjugate of a phasor, as in V·conj(I).
 	KindConj
+	// KindPercent is a ratio that a practitioner reads in per cent, such
+	// as a voltage dip or a regulation: the value is the ratio (0.0312),
+	// shown as 3.120 %, which reads back as the same value. It is a ratio
+	// in arithmetic and in JSON.
+	KindPercent
 )
 
 // noAngle reports kinds that are real numbers by meaning: they are shown as
 // a signed number with a unit, never as a phasor at 0° or 180°.
 func (k Kind) noAngle() bool {
 	switch k {
-	case KindActive, KindReactive, KindMagnitude, KindSigned, KindResistive, KindCount:
+	case KindActive, KindReactive, KindMagnitude, KindSigned, KindResistive, KindCount, KindPercent:
 		return true
 	}
 	return false
@@ -307,7 +312,7 @@ func scaleKind(k Kind, factor complex128, d Dim) Kind {
 				return KindApparent
 			}
 			return KindPlain
-		case KindAngle, KindSigned, KindResistive, KindCount, KindConj:
+		case KindAngle, KindSigned, KindResistive, KindCount, KindConj, KindPercent:
 			return KindPlain
 		}
 		return k
@@ -473,6 +478,9 @@ func magLike(q Quantity) bool {
 // reactive power (Q = V²/X for a reactance X, common practice), |V|²/|Z|
 // an apparent power; |V|²/Z is S* and so a phasor product, not S.
 func quotientKind(a, b Quantity, d Dim) Kind {
+	if a.Kind == KindPercent && b.Kind == KindPercent {
+		return KindPlain // 5 %/10 % is a plain number
+	}
 	if b.Dim.IsDimensionless() && b.Kind != KindAngle {
 		return scaleKind(a.Kind, b.V, a.Dim)
 	}
@@ -537,6 +545,12 @@ func powerProduct(a, b Quantity) Kind {
 
 func productKind(a, b Quantity, d Dim) Kind {
 	switch {
+	case a.Kind == KindPercent && b.Kind == KindPercent:
+		return KindPlain // a ratio of ratios is read as a plain number
+	case a.Kind == KindPercent && b.Kind == KindPlain && d.IsDimensionless():
+		return scaleKind(a.Kind, b.V, d) // 2 × 5 % is 10 %
+	case b.Kind == KindPercent && a.Kind == KindPlain && d.IsDimensionless():
+		return scaleKind(b.Kind, a.V, d)
 	case (a.Kind == KindAngle || b.Kind == KindAngle) && d.IsDimensionless() && a.Kind != b.Kind && imag(a.V) == 0 && imag(b.V) == 0:
 		return KindAngle // ω·t is an angle
 	case a.Dim.IsDimensionless() && a.Kind != KindAngle:

@@ -281,13 +281,14 @@ func TestLoadingFuncs(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if !near(real(r.Value.V), want.Reg, 1e-12) {
-			t.Errorf("xfmrreg with load %v: %g, want %g", load.Q, real(r.Value.V), want.Reg)
+		// the regulation is a ratio shown in per cent: 2.683 % holds 0.02683
+		if !near(real(r.Value.V)*100, want.Reg, 1e-12) || r.Value.Kind != calc.KindPercent {
+			t.Errorf("xfmrreg with load %v: %g kind %d, want %g %% (KindPercent)", load.Q, real(r.Value.V), r.Value.Kind, want.Reg)
 		}
 	}
 	// 4.75 % as written with the per-cent sign is 4.75 per cent.
 	withSign := append([]calc.Arg{np[0], np[1], np[2], pct(0.0475, "4.75 %"), np[4]}, n(0.75), n(0.8), w("lagging"))
-	if r, err := reg.Call(ctx, withSign); err != nil || !near(real(r.Value.V), want.Reg, 1e-12) {
+	if r, err := reg.Call(ctx, withSign); err != nil || !near(real(r.Value.V)*100, want.Reg, 1e-12) {
 		t.Errorf("xfmrreg with 4.75 %%: %v, %v", r.Value.V, err)
 	}
 	for k, args := range [][]calc.Arg{

@@ -222,8 +222,8 @@ func callMotorStart(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 		r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
 	}
 	return calc.Result{Value: r.Vmotor, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionMotor), Extra: []calc.Operand{
-		op("dip", num(r.Dip)), op("vbus", r.Vbus), op("dipbus", num(r.DipBus)), op("vsupply", r.Vsupply), op("dipsupply", num(r.DipSup)),
-		op("approx", num(r.Approx)), op("approxbus", num(r.ApproxBus)), op("approxsupply", num(r.ApproxSup)),
+		op("dip", pct(r.Dip)), op("vbus", r.Vbus), op("dipbus", pct(r.DipBus)), op("vsupply", r.Vsupply), op("dipsupply", pct(r.DipSup)),
+		op("approx", pct(r.Approx)), op("approxbus", pct(r.ApproxBus)), op("approxsupply", pct(r.ApproxSup)),
 		op("i", r.I), op("sa", r.S), op("torque", num(r.Torque)), op("zeq", r.Zeq)}}, nil
 }
 
@@ -270,8 +270,8 @@ func callXfmrReg(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	if qs[5].Q.Dim == calc.DimPower {
 		r.Steps[1].Notes = append([]string{"the load in VA is taken at rated voltage: n = |S|/S_rated"}, r.Steps[1].Notes...)
 	}
-	return calc.Result{Value: num(r.Reg), Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{
-		op("v", r.Vload), op("i", r.I), op("approx", num(r.Approx)), op("second", num(r.Second))}}, nil
+	return calc.Result{Value: pct(r.Reg), Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{
+		op("v", r.Vload), op("i", r.I), op("approx", pct(r.Approx)), op("second", pct(r.Second))}}, nil
 }
 
 func callXfmrEff(c *calc.Context, args []calc.Arg) (calc.Result, error) {
@@ -362,7 +362,7 @@ func callXfmrShare(c *calc.Context, args []calc.Arg) (calc.Result, error) {
 	}
 	r.Steps[0].Notes = append(notes, r.Steps[0].Notes...)
 	return calc.Result{Value: r.SA, Steps: r.Steps, Cautions: calc.CautionsOf(calc.CautionTransformer), Extra: []calc.Operand{
-		op("sb", r.SB), op("pcta", num(r.PctA)), op("pctb", num(r.PctB)), op("approxa", num(r.ApproxA)), op("approxb", num(r.ApproxB)),
+		op("sb", r.SB), op("pcta", pct(r.PctA)), op("pctb", pct(r.PctB)), op("approxa", pct(r.ApproxA)), op("approxb", pct(r.ApproxB)),
 		op("ia", r.IA), op("ib", r.IB), op("il", r.IL), op("ic", r.Ic), op("vbus", r.Vbus)}}, nil
 }
 

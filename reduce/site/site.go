@@ -75,6 +75,13 @@ func cq(z complex128, d calc.Dim) calc.Quantity { return calc.Q(z, d) }
 // num returns a plain number.
 func num(x float64) calc.Quantity { return calc.Number(complex(x, 0)) }
 
+// pct is a ratio given in per cent (a dip of 5.4), held as the ratio it
+// is (0.054) and shown in per cent (5.400 %), so that it reads "dip =
+// 5.400 %" and a worksheet computes with it as a ratio.
+func pct(x float64) calc.Quantity {
+	return calc.Quantity{V: complex(x/100, 0), Kind: calc.KindPercent}
+}
+
 // angle returns an angle quantity normalised to (−π, π].
 func angle(rad float64) calc.Quantity { return calc.Angle(normRad(rad)) }
 
