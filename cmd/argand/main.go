@@ -200,7 +200,7 @@ func run(argv []string, in io.Reader, out, errw io.Writer) int {
 			return cli.ExitBadInput
 		}
 		defer file.Close()
-		// a worksheet's readings files lie beside it
+		// a worksheet's readings and spectrum files lie beside it
 		f.opt.Dir = filepath.Dir(f.args[1])
 		return cli.RunContext(ctx, file, f.args[1], out, errw, f.opt)
 	case "help":

@@ -131,7 +131,9 @@ type Sheet struct {
 	startComma bool
 	// title is the job's title, from the title statement.
 	title string
-	// dir is the directory a readings file's relative path starts from.
+	// dir is the directory a relative file name in a statement (readings
+	// FILE, spectrum NAME from FILE) starts from: the worksheet file's own
+	// (SetDir), else "" for the working directory.
 	dir string
 }
 

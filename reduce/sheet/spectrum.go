@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
@@ -143,15 +144,21 @@ func spectrumPath(p *calc.Parser, name string) (string, int, error) {
 // spectrumFile reads a spectrum's orders from a file; an error names the
 // file at the column of its name.
 func (s *Sheet) spectrumFile(path string, col int) (spectrumOrders, error) {
-	entries, err := readSpectrumFile(path)
+	// a relative name is read from beside the worksheet (SetDir), as a
+	// readings file is, wherever argand was started
+	full := path
+	if !filepath.IsAbs(path) && s.dir != "" {
+		full = filepath.Join(s.dir, path)
+	}
+	entries, err := readSpectrumFile(full)
 	if err != nil {
-		return spectrumOrders{}, lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.Printable(path), err)
+		return spectrumOrders{}, lineErr(s.line, col, utf8.RuneCountInString(path), "%s: %v", calc.Printable(full), err)
 	}
 	ord := spectrumOrders{entries: entries}
 	for range entries {
 		ord.cols = append(ord.cols, col)
 	}
-	ord.note = "read from " + calc.Printable(path) + " (" + strconv.Itoa(len(entries)) + " orders)"
+	ord.note = "read from " + calc.Printable(full) + " (" + strconv.Itoa(len(entries)) + " orders)"
 	return ord, nil
 }
 

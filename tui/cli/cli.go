@@ -42,7 +42,7 @@ type Options struct {
 	// CSV writes the steps as CSV tables (--csv, see csvOut); the checks'
 	// summary and errors go to the error stream as text.
 	CSV bool
-	// Dir is the directory a worksheet's readings files are read relative
+	// Dir is the directory a worksheet's readings and spectrum files are read relative
 	// to: the worksheet file's own; "" is the working directory.
 	Dir string
 }
