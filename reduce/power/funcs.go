@@ -107,10 +107,10 @@ func funcs() []calc.Func {
 			Call:    callPFCLoad,
 		},
 		{
-			Name: "rerate", Params: []calc.Param{{Name: "Qr", Kind: calc.ParamReactivePower, Else: "a capacitor is rated by its reactive power in var"}, {Name: "V", Kind: calc.ParamVoltage}, {Name: "Vr", Kind: calc.ParamVoltage}}, Args: "(Qr, V, Vr)", Min: 3, Max: 3,
+			Name: "rerate", Params: []calc.Param{{Name: "Qr", Kind: calc.ParamReactivePower, Else: "a capacitor is rated by its reactive power in var"}, {Name: "V", Kind: calc.ParamVoltage, Doc: "line-to-line for three-phase"}, {Name: "Vr", Kind: calc.ParamVoltage, Doc: "rated, line-to-line for three-phase"}}, Args: "(Qr, V, Vr)", Min: 3, Max: 3,
 			Doc:     "reactive power of a capacitor rated Qr at Vr when used at V",
 			Formula: "Q = Q_r·(V/V_r)²",
-			Call:    callRerate,
+			Call:    threephase.Voltages(calc.LineToLine, threephase.WhenMarked, map[int]string{1: "V", 2: "Vr"}, callRerate),
 		},
 		{
 			Name: "harmonic", Params: []calc.Param{{Name: "Ssc", Kind: calc.ParamApparentPower, Else: "a fault level is an apparent power in VA"}, {Name: "Qc", Kind: calc.ParamReactivePower}}, Args: "(Ssc, Qc)", Min: 2, Max: 2,

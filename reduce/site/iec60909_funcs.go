@@ -5,31 +5,32 @@ import (
 	"math"
 
 	"argand/calc"
+	"argand/reduce/threephase"
 )
 
 // shortFuncs are the short-circuit and earth-loop functions of the
 // worksheet language.
 func shortFuncs() []calc.Func {
 	return []calc.Func{
-		{Name: "zfeeder", Gaps: true, Params: []calc.Param{{Name: "UnQ", Kind: calc.ParamVoltage},
+		{Name: "zfeeder", Gaps: true, Params: []calc.Param{{Name: "UnQ", Kind: calc.ParamVoltage, Doc: "nominal system voltage, line-to-line"},
 			{Name: "Ik", Kind: calc.ParamAny, Doc: "I\"_kQ in A, or the fault level S\"_kQ in VA"},
-			{Name: "UrHV", Kind: calc.ParamAny, Optional: true, Doc: "transformer HV rating, V (with UrLV: refer to the LV side)"},
-			{Name: "UrLV", Kind: calc.ParamAny, Optional: true, Doc: "transformer LV rating, V"},
+			{Name: "UrHV", Kind: calc.ParamAny, Optional: true, Doc: "transformer HV rating, V line-to-line (with UrLV: refer to the LV side)"},
+			{Name: "UrLV", Kind: calc.ParamAny, Optional: true, Doc: "transformer LV rating, V line-to-line"},
 			{Name: "rx", Kind: calc.ParamAny, Optional: true, Doc: "R_Q/X_Q, 0.1 when not given"},
 			{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "c_Q, c_max of the table when not given"}},
 			Args: "(UnQ, IkQ or SkQ[, UrHV, UrLV][, RQ/XQ[, cQ]])", Min: 2, Max: 6,
 			Doc:     "network feeder impedance from its short-circuit current or fault level (IEC 60909-0), R_Q/X_Q 0.1 when not given, optionally referred to a transformer's LV side; .r .x .c",
 			Formula: "Z_Q = c_Q·U_nQ/(√3·I\"_kQ) = c_Q·U_nQ²/S\"_kQ; X_Q = Z_Q/√(1 + (R/X)²); Z_Qt = Z_Q/t_r²",
-			Call:    callZFeeder},
+			Call:    threephase.Voltages(calc.LineToLine, threephase.Always, map[int]string{0: "UnQ", 2: "UrHV", 3: "UrLV"}, callZFeeder)},
 		{Name: "zxfmr", Gaps: true, Params: []calc.Param{{Name: "SrT", Kind: calc.ParamApparentPower, Else: "a rating is an apparent power in VA"},
-			{Name: "UrHV", Kind: calc.ParamVoltage}, {Name: "UrLV", Kind: calc.ParamVoltage}, {Name: "ukr", Kind: calc.ParamRatio, Doc: "per cent"},
+			{Name: "UrHV", Kind: calc.ParamVoltage, Doc: "rated, line-to-line"}, {Name: "UrLV", Kind: calc.ParamVoltage, Doc: "rated, line-to-line"}, {Name: "ukr", Kind: calc.ParamRatio, Doc: "per cent"},
 			{Name: "loss", Kind: calc.ParamAny, Optional: true, Doc: "P_krT in W, or u_Rr in per cent"},
 			{Name: "cmax", Kind: calc.ParamRatio, Optional: true, Doc: "c_max of the LV side, from the table when not given"},
 			{Name: "side", Kind: calc.ParamWord, Optional: true, Doc: "lv|hv"}},
 			Args: "(SrT, UrHV, UrLV, ukr[, PkrT or uRr][, cmax][, lv|hv])", Min: 4, Max: 7, Words: []string{"lv", "hv"},
 			Doc:     "network transformer impedance with the correction factor K_T (IEC 60909-0), on the LV side unless hv; ukr and uRr in per cent, PkrT in W; .kt .zt (uncorrected) .xt_pu",
 			Formula: "Z_T = (u_kr/100)·U_rT²/S_rT; R_T = P_krT·U_rT²/S_rT²; K_T = 0.95·c_max/(1 + 0.6·x_T); Z_TK = K_T·Z_T",
-			Call:    callZXfmr},
+			Call:    threephase.Voltages(calc.LineToLine, threephase.Always, map[int]string{1: "UrHV", 2: "UrLV"}, callZXfmr)},
 		{Name: "zcable", Gaps: true, Params: []calc.Param{{Name: "Rlen", Kind: calc.ParamPerLength, Doc: "R' at 20 °C"}, {Name: "Xlen", Kind: calc.ParamPerLength},
 			{Name: "length", Kind: calc.ParamLength}, {Name: "n", Kind: calc.ParamRatio, Optional: true, Doc: "runs in parallel"},
 			{Name: "thetae", Kind: calc.ParamTemperature, Optional: true, Doc: "conductor temperature at the end of the fault"}},
@@ -37,17 +38,17 @@ func shortFuncs() []calc.Func {
 			Doc:     "cable or line impedance at 20 °C from R' and X' per length of one conductor, n runs in parallel; with θe (°C) also .hot at the end-of-fault temperature for the minimum current",
 			Formula: "Z_L = (R' + jX')·l/n; R_L(θe) = [1 + 0.004·(θe − 20)]·R_L20",
 			Call:    callZCable},
-		{Name: "ik3", Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
+		{Name: "ik3", Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage, Doc: "nominal system voltage, line-to-line"},
 			{Name: "Z", Kind: calc.ParamAny, Doc: "the impedances of the path in Ω, then optionally c and max|min"}},
 			Args: "(Un, Z1[, Z2, ...][, c][, max|min])", Min: 2, Max: 2 + maxPath,
 			Words:   []string{"max", "min"},
 			Doc:     "three-phase short-circuit current I\"_k (IEC 60909-0) through the series impedances given, c_max by default; .ip .kappa (max) .sk .zk .c",
 			Formula: "I\"_k = c·U_n/(√3·|ΣZ|); i_p = κ·√2·I\"_k, κ = 1.02 + 0.98·e^(−3R/X); S\"_k = √3·U_n·I\"_k",
-			Call:    callIK3},
+			Call:    threephase.Voltages(calc.LineToLine, threephase.Always, map[int]string{0: "Un"}, callIK3)},
 		unsymFunc("ik1", LineToEarth, "line-to-earth short-circuit current I\"_k1 = |I_a| (phase a to earth through Zf)"),
 		unsymFunc("ik2", LineToLine, "line-to-line short-circuit current I\"_k2 = |I_b| (phases b and c through Zf)"),
 		unsymFunc("ik2e", LineLineEarth, "line-to-line short circuit with earth: earth current I\"_kE2E = |I_b + I_c| (phases b and c joined, to earth through Zf)"),
-		{Name: "zsloop", Params: []calc.Param{{Name: "U0", Kind: calc.ParamVoltage, Doc: "nominal voltage to earth"},
+		{Name: "zsloop", Params: []calc.Param{{Name: "U0", Kind: calc.ParamVoltage, Doc: "nominal voltage to earth, line-to-neutral"},
 			{Name: "Ze", Kind: calc.ParamImpedance}, {Name: "R12", Kind: calc.ParamPerLength, Doc: "(R1 + R2) per length at 20 °C"},
 			{Name: "L", Kind: calc.ParamLength}, {Name: "theta", Kind: calc.ParamTemperature, Doc: "conductor operating temperature"},
 			{Name: "limit", Kind: calc.ParamAny, Optional: true, Doc: "your maximum Z_s in Ω or minimum fault current in A"},
@@ -56,7 +57,7 @@ func shortFuncs() []calc.Func {
 			Words:   []string{"copper", "aluminium", "aluminum"},
 			Doc:     "earth fault loop impedance of a final circuit, (R1+R2)' per length at 20 °C corrected to θ (°C), and the prospective fault current; compared with your Zsmax or Imin; .if .factor .r12 .ok",
 			Formula: "Z_s = Z_e + (R1 + R2)·L·F, F = 1 + α20·(θ − 20); I_f = U0/|Z_s|",
-			Call:    callZsLoop},
+			Call:    threephase.Voltages(calc.LineToNeutral, threephase.Always, map[int]string{0: "U0"}, callZsLoop)},
 	}
 }
 
@@ -321,7 +322,7 @@ func callIK3(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 }
 
 func unsymFunc(name string, ft FaultType, doc string) calc.Func {
-	return calc.Func{Name: name, Gaps: true, Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage},
+	return calc.Func{Name: name, Gaps: true, Params: []calc.Param{{Name: "Un", Kind: calc.ParamVoltage, Doc: "nominal system voltage, line-to-line"},
 		{Name: "Z1", Kind: calc.ParamImpedance}, {Name: "Z2", Kind: calc.ParamImpedance}, {Name: "Z0", Kind: calc.ParamImpedance},
 		{Name: "Zf", Kind: calc.ParamAny, Optional: true, Doc: "fault impedance in Ω, 0 when not given"},
 		{Name: "c", Kind: calc.ParamAny, Optional: true, Doc: "voltage factor, from the table when not given"},
@@ -334,7 +335,7 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 			LineToLine:    "I1 = −I2 = E/(Z1 + Z2 + Zf), E = c·U_n/√3; I_b = −j√3·I1",
 			LineLineEarth: "I1 = E/(Z1 + Z2∥(Z0 + 3Zf)), E = c·U_n/√3; I_E = 3·I0",
 		}[ft],
-		Call: func(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
+		Call: threephase.Voltages(calc.LineToLine, threephase.Always, map[int]string{0: "Un"}, func(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {
 			qs, words := split(args)
 			if len(qs) < 4 {
 				return calc.Result{}, fmt.Errorf("%s takes (Un, Z1, Z2, Z0[, Zf][, c][, max|min])", name)
@@ -378,7 +379,7 @@ func unsymFunc(name string, ft FaultType, doc string) calc.Func {
 				ph("ia", r.Iabc[0]), ph("ib", r.Iabc[1]), ph("ic", r.Iabc[2]),
 				ph("va", r.Vabc[0]), ph("vb", r.Vabc[1]), ph("vc", r.Vabc[2]),
 				ph("i0", r.I012[0]), ph("i1", r.I012[1]), ph("i2", r.I012[2]), ph("ie", r.Ie), op("c", r.C)}}, nil
-		}}
+		})}
 }
 
 func callZsLoop(ctx *calc.Context, args []calc.Arg) (calc.Result, error) {

@@ -155,3 +155,71 @@ func callMark(b calc.Between) func(*calc.Context, []calc.Arg) (calc.Result, erro
 // VoltageArgs is the help text shared by the functions that take a
 // three-phase voltage.
 const VoltageArgs = "mark a value l2l(400 V) or l2n(230 V) to have it checked; a value marked the other way is converted, with a note"
+
+// When says when Voltages reads a function's voltage arguments as
+// three-phase voltages.
+type When uint8
+
+const (
+	// Always: the function is three-phase by definition (a rating, a
+	// nominal system voltage, a motor's rated voltage).
+	Always When = iota
+	// UnlessSingle: three-phase unless the word single is among the
+	// arguments, which takes the values as given.
+	UnlessSingle
+	// WhenMarked: the values may as well be single-phase ones (only their
+	// ratio enters, or a single-phase supply is as likely): they are
+	// taken as given unless one of them is marked, and then all are read.
+	WhenMarked
+)
+
+// Voltages wraps a function whose voltage arguments at the places given
+// (argument index to parameter name) are three-phase voltages of one kind
+// (want): each is read by Voltage before call runs, so a value marked the
+// other way (l2l, l2n) is converted by √3 and an unmarked one is stated in
+// both forms, and the result begins with those steps. Only the sizes
+// enter: the functions wrapped take ratings and nominal voltages.
+func Voltages(want calc.Between, when When, places map[int]string, call func(*calc.Context, []calc.Arg) (calc.Result, error)) func(*calc.Context, []calc.Arg) (calc.Result, error) {
+	return func(c *calc.Context, args []calc.Arg) (calc.Result, error) {
+		voltage := func(a calc.Arg) bool { return !a.Absent && a.Word == "" && a.Q.Dim == calc.DimVoltage }
+		read := true
+		switch when {
+		case UnlessSingle:
+			for _, a := range args {
+				if strings.EqualFold(a.Word, "single") {
+					read = false
+				}
+			}
+		case WhenMarked:
+			read = false
+			for i, a := range args {
+				if _, ok := places[i]; ok && voltage(a) && a.Q.Ref != calc.Unmarked {
+					read = true
+				}
+			}
+		}
+		if !read {
+			return call(c, args)
+		}
+		args = append([]calc.Arg(nil), args...)
+		var pre []calc.Step
+		for i := range args {
+			name, ok := places[i]
+			if !ok || !voltage(args[i]) {
+				continue
+			}
+			v, st, err := Voltage(args[i].Q, want, name, SequenceOf(c), false)
+			if err != nil {
+				return calc.Result{}, err
+			}
+			args[i].Q = v
+			pre = append(pre, st...)
+		}
+		r, err := call(c, args)
+		if err != nil {
+			return r, err
+		}
+		r.Steps = append(pre, r.Steps...)
+		return r, nil
+	}
+}
