@@ -59,6 +59,10 @@ type Error struct {
 	Line, Col, Len int
 	Msg            string
 	Err            error // the cause, such as ErrOpenCircuit, when there is one
+	// Since is the language version (see Language) that began to refuse
+	// what the error refuses, 0 when it always was: a worksheet written
+	// in an older version lists the line as one that reads differently.
+	Since int
 }
 
 // Unwrap returns the cause, so that errors.Is(err, ErrOpenCircuit) holds

@@ -34,7 +34,7 @@ type Parser struct {
 // Since returns the newest language version (see Language) whose reading
 // of a number or unit the statement used so far, 0 when every version
 // reads it alike.
-func (p *Parser) Since() int { return p.since }
+func (p *Parser) Since() int { return max(p.since, p.s.since) }
 
 // NewParser returns a parser over one statement, with the decimal point.
 func NewParser(src string, line int) *Parser { return NewParserComma(src, line, false) }

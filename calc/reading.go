@@ -15,7 +15,11 @@ import (
 //   - 2: also bare prefixes (4.7k), the letter-and-digit codes of IEC 60062
 //     (4K7, 0R1, 4n7), units typed in another case (230 v, kw) and part
 //     values inside impedance arithmetic.
-const Language = 2
+//   - 3: the decimal comma: under "decimal comma" 2,2 is two point two and
+//     ';' separates arguments; under the decimal point a comma with
+//     digits on both sides and no space (2,2 or 1,000) is refused, where
+//     language 2 read it as two arguments. The decimal statement is new.
+const Language = 3
 
 // reading says how a word after a number was read, when it was not read
 // exactly as written: why (added to the note shown in the step), and the

@@ -55,6 +55,9 @@ type Scanner struct {
 	// parens counts the parentheses open, so that a refused "2,2" inside
 	// a call can also say how to write two arguments
 	parens int
+	// since is the newest language version whose reading a token used:
+	// 3 for a decimal comma or a ';' between arguments (see Language)
+	since int
 }
 
 // NewScanner returns a scanner over src, reporting errors on the given
@@ -219,6 +222,7 @@ func (s *Scanner) Scan() Item {
 			s.fail(col, 1, "';' separates arguments only with the decimal comma set: write ',', as in parallel(2.2 kΩ, 4.7 kΩ)")
 			return item(TokIllegal, ";")
 		}
+		s.since = max(s.since, 3)
 		return item(TokOp, ",")
 	case '-', '−':
 		adv(1)
@@ -417,8 +421,9 @@ func (s *Scanner) numText(t string) string {
 			return r
 		}, t)
 	}
-	if s.comma {
+	if s.comma && strings.Contains(t, ",") {
 		t = strings.ReplaceAll(t, ",", ".")
+		s.since = max(s.since, 3)
 	}
 	return t
 }
@@ -474,6 +479,14 @@ func (s *Scanner) otherMark(start, col int, space bool, at int) Item {
 		setting = "decimal point"
 	}
 	bad := Item{Tok: TokIllegal, Text: typed, Off: start, End: s.off, Col: col, Space: space}
+	if !s.comma && s.err == nil {
+		// language 2 read 2,2 as two numbers; the refusal is language 3's
+		defer func() {
+			if s.err != nil {
+				s.err.Since = 3
+			}
+		}()
+	}
 	// groups of three after the first, each marked with the other marker
 	// (the last may be the own marker, as in 1,000.5): digit groups
 	grouped := head == "" && len(groups[0]) <= 3

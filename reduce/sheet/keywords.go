@@ -105,7 +105,7 @@ func keywordTable() []keyword {
 				{"", "  a relative FILE lies beside the worksheet"}}},
 		{word: "language", where: outside, run: (*Sheet).stmtLanguage,
 			help: [][2]string{
-				{"language 2", "the input language a worksheet was written in; saved"},
+				{"language 3", "the input language a worksheet was written in; saved"},
 				{"", "  worksheets begin with it, and lines that read"},
 				{"", "  differently now are noted and listed"}}},
 		{word: "title", where: outside, run: (*Sheet).stmtTitle,

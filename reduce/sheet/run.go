@@ -234,6 +234,9 @@ func (ru *runner) run(line string) bool {
 			src = ru.lines[k]
 		}
 		ru.report(Problem{Err: le, Src: src, Root: s.line})
+		if s.changedLine == s.line {
+			ru.sum.Changed = append(ru.sum.Changed, s.line)
+		}
 		f := strings.Fields(line)
 		ru.endFailed = len(f) > 0 && f[0] == "end"
 		if !named {

@@ -1,6 +1,7 @@
 package sheet
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -40,6 +41,16 @@ func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, []string, error) {
 	err := s.exec(src, n)
 	if err != nil {
 		s.steps, s.cautionFull, s.defined = s.steps[:before], full, nil
+		var le *calc.Error
+		if errors.As(err, &le) && s.lang > 0 && le.Since > s.lang {
+			// refused by a rule newer than the worksheet (2,2 under the
+			// decimal point): listed with the lines that read differently
+			s.changedLine = n
+			s.changed = append(s.changed, n)
+			e := *le
+			e.Msg += fmt.Sprintf(" (this line reads differently since language %d; the worksheet declares language %d)", le.Since, s.lang)
+			return nil, nil, &e
+		}
 		return nil, nil, err
 	}
 	if s.lang > 0 && s.since > s.lang && len(s.steps) > before {
@@ -98,6 +109,7 @@ func isDecimalLine(src string) bool {
 // the arguments of a function.
 func (s *Sheet) stmtDecimal(p *calc.Parser) error {
 	return s.setting(p, []string{"comma", "point"}, func(w string) calc.Step {
+		s.since = max(s.since, 3) // the statement is language 3's
 		s.ctx.Format.Comma = w == "comma"
 		if s.ctx.Format.Comma {
 			return calc.Step{Rule: "decimal comma: numbers are typed and shown as 2,2 mH; arguments are separated by ';', as in parallel(2,2 kΩ; 4,7 kΩ)"}
