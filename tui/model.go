@@ -242,7 +242,9 @@ func (m *Model) keys1(msg tea.KeyMsg) tea.Cmd {
 			break
 		}
 		if m.mode == modeLine || m.mode == modePrompt {
-			cmds = append(cmds, m.key(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs}), m.takePending())
+			// marked as a paste: together the letters may spell a key's
+			// name ("end", "home") and would match its binding
+			cmds = append(cmds, m.key(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs, Paste: true}), m.takePending())
 			break
 		}
 		cmds = append(cmds, m.key(tea.KeyMsg{Type: tea.KeyRunes, Runes: rs[:1]}), m.takePending())

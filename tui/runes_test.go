@@ -50,3 +50,58 @@ func TestRunesInOneRead(t *testing.T) {
 		t.Errorf("a pasted nn made %d rows; a paste is never commands", got-n)
 	}
 }
+
+// Letters that arrive in one read (typing over a slow SSH link, a
+// terminal without paste brackets) do what the same letters typed one at
+// a time do, even when together they spell the name of a key: "end"
+// typed on the entry line is the statement end, not the End key.
+func TestRunesTogetherAreText(t *testing.T) {
+	tests := []struct {
+		name string
+		mode mode
+		text string
+	}{
+		{"end on the line", modeLine, "end"},
+		{"home on the line", modeLine, "home"},
+		{"up on the line", modeLine, "up"},
+		{"a statement on the line", modeLine, "Zq = 2 Ω"},
+		{"end over the rows", modeRows, "end"},
+		{"left over the rows", modeRows, "left"},
+	}
+	start := func(t *testing.T, md mode) *Model {
+		m := newModel(t, Options{})
+		if md == modeLine {
+			press(m, "tab")
+			press(m, "ctrl+u")
+		} else {
+			press(m, "esc")
+		}
+		return m
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			one := start(t, tt.mode)
+			for _, r := range tt.text {
+				one.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
+			}
+			burst := start(t, tt.mode)
+			burst.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(tt.text)})
+			if burst.mode != one.mode || burst.line.f.String() != one.line.f.String() {
+				t.Errorf("in one read: mode %v, line %q; one at a time: mode %v, line %q",
+					burst.mode, burst.line.f.String(), one.mode, one.line.f.String())
+			}
+			if burst.s.v.Selected != one.s.v.Selected {
+				t.Errorf("selection %q in one read, %q one at a time", burst.s.v.Selected, one.s.v.Selected)
+			}
+			if tt.mode == modeLine && burst.line.f.String() != tt.text {
+				t.Errorf("line %q, want the text %q", burst.line.f.String(), tt.text)
+			}
+		})
+	}
+	// one character is still a key: q over the rows quits
+	m := newModel(t, Options{})
+	press(m, "esc")
+	if _, cmd := m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("q")}); cmd == nil || !m.quitting {
+		t.Errorf("q over the rows did not quit")
+	}
+}
