@@ -496,7 +496,7 @@ func (m *Model) undo() {
 	case m.s.readOnly:
 		m.note(true, m.s.errReadOnly().Error())
 	default:
-		m.note(false, "nothing to undo")
+		m.note(false, m.s.nothingToUndo())
 	}
 }
 

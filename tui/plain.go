@@ -192,6 +192,8 @@ func (r *lineRun) undo(word string) {
 		r.say(fmt.Sprintf("undone (%d more to undo; redo brings it back)", len(s.undo)))
 	case word == "redo" && s.doRedo():
 		r.say("redone")
+	case word == "undo":
+		r.say(s.nothingToUndo())
 	default:
 		r.say("nothing to " + word)
 	}

@@ -74,6 +74,9 @@ type session struct {
 	// limits bound the worksheet (a server's sessions set them); the
 	// zero value keeps the worksheet's defaults
 	limits sheet.Limits
+	// forgot is set once the undo history has dropped its oldest state
+	// to stay within limits.Undo
+	forgot bool
 
 	opt    Options         // how the session was opened
 	lock   *store.FileLock // the session lock, while held
@@ -267,8 +270,29 @@ func (s *session) loadWorksheet(text string, comma bool) error {
 
 // checkpoint records the state before a change, for undo.
 func (s *session) checkpoint() {
-	s.undo = append(s.undo, snapshot{sh: s.sh.Clone(), v: s.v.clone()})
+	s.pushUndo(snapshot{sh: s.sh.Clone(), v: s.v.clone()})
 	s.redo = nil
+}
+
+// pushUndo keeps a state for undo, dropping the oldest beyond the
+// session's bound (limits.Undo): each state is a whole worksheet, so a
+// server bounds how many a session holds.
+func (s *session) pushUndo(sn snapshot) {
+	s.undo = append(s.undo, sn)
+	if n := s.limits.Undo; n > 0 && len(s.undo) > n {
+		k := len(s.undo) - n
+		clear(s.undo[:k]) // let the dropped worksheets go
+		s.undo = s.undo[k:]
+		s.forgot = true
+	}
+}
+
+// nothingToUndo says why undo has nothing left.
+func (s *session) nothingToUndo() string {
+	if s.forgot {
+		return fmt.Sprintf("nothing more to undo: the last %d changes are kept here", s.limits.Undo)
+	}
+	return "nothing to undo"
 }
 
 // readOnlyError refuses a change in a read-only session.
@@ -308,7 +332,7 @@ func (s *session) exec(job sheet.Job, stmts ...string) ([]calc.Step, []string, e
 // commit makes work, a copy of the worksheet changed by statements, the
 // session's worksheet; the worksheet before it goes to the undo history.
 func (s *session) commit(work *sheet.Sheet) {
-	s.undo = append(s.undo, snapshot{sh: s.sh, v: s.v.clone()})
+	s.pushUndo(snapshot{sh: s.sh, v: s.v.clone()})
 	s.redo = nil
 	s.sh = work
 	s.tidy()

@@ -41,6 +41,7 @@ const serveUsage = `argand serve [flags]: serve argand to a team over SSH
   --max-points N      points of one sweep (default 10000)
   --max-elements N    elements of one network (default 2000)
   --max-budget SECONDS  the largest budget of estimated work (default 30)
+  --max-undo N        changes kept for undo in one session (default 50)
 `
 
 // serveFlags parses the flags of argand serve.
@@ -63,6 +64,7 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 	fs.IntVar(&cfg.Limits.Points, "max-points", d.Points, "")
 	fs.IntVar(&cfg.Limits.Elements, "max-elements", d.Elements, "")
 	fs.Float64Var(&cfg.Limits.Budget, "max-budget", d.Budget, "")
+	fs.IntVar(&cfg.Limits.Undo, "max-undo", d.Undo, "")
 	if err := fs.Parse(args); err != nil {
 		return cfg, "", fmt.Errorf("serve: %v", err)
 	}
@@ -73,7 +75,8 @@ func serveFlags(args []string, f flags) (serve.Config, string, error) {
 		name string
 		v    int
 	}{{"--max-sessions", cfg.MaxSessions}, {"--max-per-key", cfg.MaxPerKey}, {"--rate", cfg.Rate}, {"--max-line", cfg.MaxLine},
-		{"--max-bytes", cfg.Limits.Bytes}, {"--max-names", cfg.Limits.Names}, {"--max-points", cfg.Limits.Points}, {"--max-elements", cfg.Limits.Elements}} {
+		{"--max-bytes", cfg.Limits.Bytes}, {"--max-names", cfg.Limits.Names}, {"--max-points", cfg.Limits.Points}, {"--max-elements", cfg.Limits.Elements},
+		{"--max-undo", cfg.Limits.Undo}} {
 		if c.v < 1 {
 			return cfg, "", fmt.Errorf("serve: %s takes a whole number of at least 1, not %d", c.name, c.v)
 		}

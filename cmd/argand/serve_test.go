@@ -22,12 +22,12 @@ func TestServeFlags(t *testing.T) {
 		t.Errorf("worksheet limits %+v", cfg.Limits)
 	}
 	cfg, listen, err = serveFlags([]string{"--listen", "[::1]:2200", "--state", "/x", "--keys", "/k", "--max-sessions", "64", "--max-per-key=2",
-		"--idle", "90s", "--rate", "100", "--max-line", "2000", "--max-points", "500", "--max-budget", "12.5"}, flags{})
+		"--idle", "90s", "--rate", "100", "--max-line", "2000", "--max-points", "500", "--max-budget", "12.5", "--max-undo", "7"}, flags{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	if listen != "[::1]:2200" || cfg.Dir != "/x" || cfg.AuthorizedKeys != "/k" || cfg.MaxSessions != 64 || cfg.MaxPerKey != 2 ||
-		cfg.Idle != 90*time.Second || cfg.Rate != 100 || cfg.MaxLine != 2000 || cfg.Limits.Points != 500 || cfg.Limits.Budget != 12.5 {
+		cfg.Idle != 90*time.Second || cfg.Rate != 100 || cfg.MaxLine != 2000 || cfg.Limits.Points != 500 || cfg.Limits.Budget != 12.5 || cfg.Limits.Undo != 7 {
 		t.Errorf("flags: %s %+v", listen, cfg)
 	}
 	for _, c := range []struct {
@@ -39,6 +39,7 @@ func TestServeFlags(t *testing.T) {
 		{[]string{"--idle", "10ms"}, "--idle takes a duration of at least 1s"},
 		{[]string{"--handshake", "0s"}, "--handshake takes a duration of at least 1s"},
 		{[]string{"--max-budget", "1e9"}, "--max-budget takes seconds from 0.1 to 86400"},
+		{[]string{"--max-undo", "0"}, "--max-undo takes a whole number of at least 1, not 0"},
 		{[]string{"--nope"}, "flag provided but not defined: -nope"},
 		{[]string{"extra"}, `unexpected "extra"`},
 	} {

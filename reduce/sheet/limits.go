@@ -21,6 +21,11 @@ type Limits struct {
 	// worksheet (readings): a server must not open its own files for
 	// whoever types a path.
 	NoFiles bool
+	// Undo is the number of earlier states kept for undo by the app
+	// holding the worksheet; 0 is no bound. Each is a whole copy of the
+	// worksheet (about 200 bytes a name), so an unbounded history grows
+	// as changes × names.
+	Undo int
 }
 
 // DefaultLimits are the limits of a new worksheet.
@@ -42,7 +47,7 @@ func (s *Sheet) SetLimits(l Limits) {
 	if l.Budget <= 0 || l.Budget > d.Budget {
 		l.Budget = d.Budget
 	}
-	l.Bytes, l.Elements = max(0, l.Bytes), max(0, l.Elements)
+	l.Bytes, l.Elements, l.Undo = max(0, l.Bytes), max(0, l.Elements), max(0, l.Undo)
 	s.limits = l
 	s.budget = min(s.budget, l.Budget)
 }

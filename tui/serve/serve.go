@@ -48,11 +48,13 @@ const (
 )
 
 // DefaultLimits bound each worksheet on the server: what drives memory
-// (its size, its names, a sweep's points, a network's elements) and the
-// largest budget of estimated work a statement may be given (package
-// sheet refuses work estimated beyond the budget before it starts).
+// (its size, its names, a sweep's points, a network's elements, the
+// earlier states kept for undo) and the largest budget of estimated work
+// a statement may be given (package sheet refuses work estimated beyond
+// the budget before it starts). An undo state is a whole worksheet, about
+// 1 MB at 5000 names, so 50 of them bound a session near 50 MB.
 func DefaultLimits() sheet.Limits {
-	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30}
+	return sheet.Limits{Names: 5000, Bytes: 1 << 20, Points: 10000, Elements: 2000, Budget: 30, Undo: 50}
 }
 
 // DefaultHandshake bounds the time from connecting to opening a session:
@@ -128,6 +130,9 @@ func (c *Config) fill() {
 	// whatever the limits, a server opens none of its own files for a
 	// path a client types (readings, spectrum from FILE)
 	c.Limits.NoFiles = true
+	if c.Limits.Undo <= 0 {
+		c.Limits.Undo = d.Undo
+	}
 	if c.Log == nil {
 		c.Log = log.New(io.Discard, "", 0)
 	}
