@@ -244,6 +244,7 @@ func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) 
 // that did not (the first with its reason).
 func (s *session) loadWorksheet(text string, comma bool) error {
 	sh := newSheet(s.ascii)
+	sh.SetDir(s.fileDir())
 	// a worksheet that states its marker reads by it; one that does not is
 	// read as the user said to read numbers
 	sh.SetDecimalComma(comma)
@@ -377,6 +378,19 @@ func (s *session) travel(from, to *[]snapshot) bool {
 	return true
 }
 
+// fileDir is the directory of the worksheet file the session opened:
+// relative file names in its statements (readings FILE, spectrum NAME from
+// FILE) are read from there, as argand run reads them. "" without a file.
+func (s *session) fileDir() string {
+	if s.worksheet == "" {
+		return ""
+	}
+	if abs, err := filepath.Abs(s.worksheet); err == nil {
+		return filepath.Dir(abs)
+	}
+	return filepath.Dir(s.worksheet)
+}
+
 // tidy brings the view in line with the sheet: new entries go to the top
 // of the order, names that no longer exist leave the order and the marks,
 // and the selection stays on a visible row.
@@ -387,6 +401,7 @@ func (s *session) tidy() {
 	if s.limits != (sheet.Limits{}) {
 		s.sh.SetLimits(s.limits)
 	}
+	s.sh.SetDir(s.fileDir())
 	ents := s.sh.Entries()
 	exists := make(map[string]bool, len(ents))
 	for _, e := range ents {
