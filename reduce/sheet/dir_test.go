@@ -70,3 +70,24 @@ func TestSpectrumFileBesideWorksheet(t *testing.T) {
 		t.Errorf("no directory set: %v", err)
 	}
 }
+
+// TestSpectrumFailedDependants: a line that reads a spectrum whose file
+// could not be read is skipped as depending on it, as for any name a
+// failed line would have defined, rather than reported as a second error.
+func TestSpectrumFailedDependants(t *testing.T) {
+	s := New()
+	s.SetDir(t.TempDir())
+	sum, err := s.Run(strings.NewReader("spectrum I from missing.csv\nd = thd(I)\nx = 2 * 3\n"), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(sum.Problems) != 2 {
+		t.Fatalf("problems %v, want the file and its dependant", sum.Problems)
+	}
+	if p := sum.Problems[1]; p.Err.Line != 2 || p.DependsOn != 1 || !strings.Contains(p.Err.Msg, "skipped: depends on line 1") {
+		t.Errorf("line 2: %+v %q", p, p.Err.Msg)
+	}
+	if _, ok := s.Lookup("x"); !ok {
+		t.Errorf("line 3 did not run")
+	}
+}

@@ -274,7 +274,7 @@ func (ru *runner) finish() Summary {
 }
 
 // namesOf returns the names a line would define (the name before its
-// first "=", or the name after "network") and the names it reads (every
+// first "=", or the name after "network" or "spectrum") and the names it reads (every
 // other word). It looks at tokens only, so it works on a line that fails;
 // the runner asks only for a line that failed or follows a failure.
 func namesOf(line string) (defines, reads []string) {
@@ -304,7 +304,7 @@ func namesOf(line string) (defines, reads []string) {
 		switch {
 		case eq > 0 && i == eq-1:
 			defines = append(defines, t.Text)
-		case i == 1 && toks[0].Tok == calc.TokIdent && toks[0].Text == "network":
+		case i == 1 && toks[0].Tok == calc.TokIdent && (toks[0].Text == "network" || toks[0].Text == "spectrum"):
 			defines = append(defines, t.Text)
 		default:
 			reads = append(reads, t.Text)
