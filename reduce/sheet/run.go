@@ -274,9 +274,10 @@ func (ru *runner) finish() Summary {
 }
 
 // namesOf returns the names a line would define (the name before its
-// first "=", or the name after "network" or "spectrum") and the names it reads (every
-// other word). It looks at tokens only, so it works on a line that fails;
-// the runner asks only for a line that failed or follows a failure.
+// first "=", or the name after "network" or "spectrum") and the names it
+// reads (every other word). It looks at tokens only, so it works on a line
+// that fails; the runner asks only for a line that failed or follows a
+// failure.
 func namesOf(line string) (defines, reads []string) {
 	if i := strings.IndexByte(line, '#'); i >= 0 {
 		line = line[:i]
