@@ -719,7 +719,7 @@ func keepEnds(groups [][]string, room int) []string {
 func (m *Model) narrowNetRows(listH int) []string {
 	n := m.net
 	f := m.format()
-	within, cur, hot := n.within(n.step), n.merge(n.step), n.hot(n.step)
+	sm := n.marks()
 	nameW, nodeW := 4, 5
 	for _, e := range n.v.Elements {
 		nameW = max(nameW, min(8, ansi.StringWidth(m.tr(e.Name))))
@@ -729,25 +729,12 @@ func (m *Model) narrowNetRows(listH int) []string {
 	top := max(0, min(n.sel-listH/2, len(n.v.Elements)-listH))
 	for i := top; i < len(n.v.Elements) && i < top+listH; i++ {
 		e := n.v.Elements[i]
-		sel, hi := " ", "  "
-		if i == n.sel {
-			sel = m.th.g.sel
-		}
-		if hot[e.Name] {
-			hi = pad(m.th.g.hi, 2)
-		}
-		val := e.ValueText(f)
-		if eq := within[e.Name]; eq != "" {
-			val = "in " + eq
-			if cur != nil && hot[e.Name] {
-				val = "→ " + eq
-			}
-		}
+		sel, hi, val, _ := sm.cells(m.th.g, i == n.sel, e.Name, e.ValueText(f))
 		line := fitWhole(m.tr(sel+hi+pad(e.Name, nameW)+" "+pad(e.From+m.th.g.arrow+e.To, nodeW)+" "+val), m.width)
 		switch {
 		case i == n.sel:
 			line = m.th.sel.Render(pad(line, m.width))
-		case hot[e.Name]:
+		case sm.hot[e.Name]:
 			line = m.th.hi.Render(line)
 		}
 		out = append(out, line)

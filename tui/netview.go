@@ -82,6 +82,38 @@ func (n *netView) merge(k int) *sheet.ViewMerge {
 	return n.v.Steps[k-1].Merge
 }
 
+// stepMarks is what the reduction step on show means for each row of
+// the element table, the wide one and the narrow one alike.
+type stepMarks struct {
+	within map[string]string // the equivalent an element is now part of
+	cur    *sheet.ViewMerge  // the combination the step makes, if any
+	hot    map[string]bool   // the elements the step works on
+}
+
+func (n *netView) marks() stepMarks {
+	return stepMarks{n.within(n.step), n.merge(n.step), n.hot(n.step)}
+}
+
+// cells gives an element row's selection mark, its step mark (two cells
+// wide), and its value cell: the value, or the equivalent the element is
+// inside ("in Z3", "→ Z3" when this step makes it); eq is that equivalent.
+func (sm stepMarks) cells(g glyphs, selected bool, name, value string) (sel, hi, val, eq string) {
+	sel, hi, val = " ", "  ", value
+	if selected {
+		sel = g.sel
+	}
+	if sm.hot[name] {
+		hi = pad(g.hi, 2)
+	}
+	if eq = sm.within[name]; eq != "" {
+		val = "in " + eq
+		if sm.cur != nil && sm.hot[name] {
+			val = "→ " + eq
+		}
+	}
+	return sel, hi, val, eq
+}
+
 // hot returns the elements step k (1-based) works on.
 func (n *netView) hot(k int) map[string]bool {
 	out := map[string]bool{}
@@ -308,30 +340,12 @@ func (n netView) View() string {
 // netRows draws the rows of the element table around the selection.
 func (n netView) rows(cols netCols, w, listH int) []string {
 	f := n.f
-	within := n.within(n.step)
-	cur := n.merge(n.step)
-	hot := n.hot(n.step)
+	sm := n.marks()
 	var out []string
 	top := max(0, min(n.sel-listH/2, len(n.v.Elements)-listH))
 	for i := top; i < len(n.v.Elements) && i < top+listH; i++ {
 		e := n.v.Elements[i]
-		sel, hi := " ", "  "
-		if i == n.sel {
-			sel = n.th.g.sel
-		}
-		if hot[e.Name] {
-			hi = n.th.g.hi
-			if ansi.StringWidth(hi) < 2 {
-				hi += " "
-			}
-		}
-		val, eq := e.ValueText(f), within[e.Name]
-		if eq != "" {
-			val = "in " + eq
-			if cur != nil && hot[e.Name] {
-				val = "→ " + eq
-			}
-		}
+		sel, hi, val, eq := sm.cells(n.th.g, i == n.sel, e.Name, e.ValueText(f))
 		v, c, s := "-", "-", "-"
 		if e.Solved {
 			v, c, s = f.Polar(e.V), f.Polar(e.I), f.Polar(e.S)
@@ -340,7 +354,7 @@ func (n netView) rows(cols netCols, w, listH int) []string {
 		switch {
 		case i == n.sel:
 			line = n.th.sel.Render(pad(line, w))
-		case hot[e.Name]:
+		case sm.hot[e.Name]:
 			line = n.th.hi.Render(line)
 		}
 		out = append(out, line)

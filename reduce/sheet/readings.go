@@ -44,7 +44,7 @@ func (s *Sheet) stmtReadings(p *calc.Parser) error {
 	if !filepath.IsAbs(path) && s.dir != "" {
 		full = filepath.Join(s.dir, path)
 	}
-	data, err := readBounded(full, readings.MaxBytes)
+	data, err := readBounded(full, readings.MaxBytes, "readings")
 	if err == nil {
 		var rs []Reading
 		if rs, err = s.ParseReadings(data); err == nil {
@@ -98,8 +98,9 @@ func (s *Sheet) defineReadings(p *calc.Parser, rs []Reading, path string) error 
 	return nil
 }
 
-// readBounded reads a regular file of at most limit bytes.
-func readBounded(path string, limit int) ([]byte, error) {
+// readBounded reads a regular file of at most limit bytes; what names the
+// kind of file in the message when it is larger.
+func readBounded(path string, limit int, what string) ([]byte, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		var pe *os.PathError
@@ -117,7 +118,7 @@ func readBounded(path string, limit int) ([]byte, error) {
 		return nil, fmt.Errorf("cannot read the file: %v", err)
 	}
 	if len(data) > limit {
-		return nil, fmt.Errorf("the file is larger than %d bytes, the most a readings file may hold: split it", limit)
+		return nil, fmt.Errorf("the file is larger than %d bytes, the most a %s file may hold: split it", limit, what)
 	}
 	return data, nil
 }

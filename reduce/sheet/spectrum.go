@@ -3,8 +3,6 @@ package sheet
 import (
 	"errors"
 	"fmt"
-	"io"
-	"os"
 	"path/filepath"
 	"sort"
 	"strconv"
@@ -289,21 +287,9 @@ func hasAngle(e calc.Expr, v calc.Quantity) bool {
 
 // readSpectrumFile reads a spectrum file of at most harmonic.MaxFile bytes.
 func readSpectrumFile(path string) ([]harmonic.Entry, error) {
-	f, err := os.Open(path)
+	data, err := readBounded(path, harmonic.MaxFile, "spectrum")
 	if err != nil {
-		var pe *os.PathError
-		if errors.As(err, &pe) {
-			err = pe.Err
-		}
-		return nil, fmt.Errorf("cannot open the file: %v", err)
-	}
-	defer f.Close()
-	if st, err := f.Stat(); err != nil || !st.Mode().IsRegular() {
-		return nil, fmt.Errorf("not a regular file")
-	}
-	data, err := io.ReadAll(io.LimitReader(f, harmonic.MaxFile+1))
-	if err != nil {
-		return nil, fmt.Errorf("cannot read the file: %v", err)
+		return nil, err
 	}
 	entries, lines, err := harmonic.ParseCSV(data)
 	if err != nil {
