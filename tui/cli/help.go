@@ -56,7 +56,7 @@ flags:
   --decimal-comma  numbers typed and shown as 2,2 mH, ';' between arguments
                (a worksheet's own decimal statement rules; JSON is unchanged)
 
-exit codes: 0 ok, 1 a check failed, 2 bad input or usage.
+exit codes: 0 ok, 1 a check failed, 2 bad input or usage, 130 interrupted (ctrl+c).
 `
 
 const language = `worksheet language (one statement a line, # starts a comment)
