@@ -776,5 +776,15 @@ func Parallel(a, b Quantity) (Quantity, error) {
 	if cmplx.Abs(den) <= 4*2.220446049250313e-16 {
 		return Quantity{}, ErrOpenCircuit
 	}
-	return Quantity{V: Quot(x, den), Dim: a.Dim}.Check("parallel")
+	return Quantity{V: Quot(x, den), Dim: a.Dim, Kind: combinedKind(a, b)}.Check("parallel")
+}
+
+// combinedKind is the kind of two branches in parallel: resistances (or
+// conductances) alone give a resistance, shown like R1 + R2 without an
+// angle; any other branch makes the result complex.
+func combinedKind(a, b Quantity) Kind {
+	if a.Kind == KindResistive && b.Kind == KindResistive {
+		return KindResistive
+	}
+	return KindPlain
 }

@@ -48,6 +48,23 @@ func checked(v complex128, d calc.Dim, op string) (calc.Quantity, error) {
 	return calc.Quantity{V: v, Dim: d}.Check(op)
 }
 
+// combined is checked for the result of a series or parallel group: a
+// group of resistances (or conductances) alone is a resistance, shown like
+// R1 + R2 without an angle; any complex part makes it an impedance.
+func combined(v complex128, d calc.Dim, op string, parts []calc.Operand) (calc.Quantity, error) {
+	q, err := checked(v, d, op)
+	if err != nil || imag(v) != 0 {
+		return q, err
+	}
+	for _, o := range parts {
+		if o.Value.Kind != calc.KindResistive {
+			return q, nil
+		}
+	}
+	q.Kind = calc.KindResistive
+	return q, nil
+}
+
 func power(v complex128, op string) (calc.Quantity, error) {
 	return calc.Quantity{V: v, Dim: calc.DimPower, Kind: calc.KindApparent}.Check(op)
 }
@@ -142,7 +159,7 @@ func series(result string, parts []calc.Operand) (calc.Quantity, []calc.Step, er
 			s = 0
 			step.Notes = append(step.Notes, "series resonance: the impedances sum to 0 Ω, so the string is a short")
 		}
-		q, err := checked(s, d, op)
+		q, err := combined(s, d, op, parts)
 		if err != nil {
 			return calc.Quantity{}, nil, err
 		}
@@ -172,7 +189,7 @@ func series(result string, parts []calc.Operand) (calc.Quantity, []calc.Step, er
 	if zs == 0 {
 		return calc.Quantity{}, nil, errors.New("series resonance: the string's impedances sum to 0, so its admittance is infinite (a short)")
 	}
-	q, err := checked(1/zs, d, op)
+	q, err := combined(1/zs, d, op, parts)
 	if err != nil {
 		return calc.Quantity{}, nil, err
 	}
@@ -208,7 +225,7 @@ func parallel(result string, parts []calc.Operand) (calc.Quantity, []calc.Step, 
 			result = "Y"
 		}
 		s, _ := sumMax(parts)
-		q, err := checked(s, d, op)
+		q, err := combined(s, d, op, parts)
 		if err != nil {
 			return calc.Quantity{}, nil, err
 		}
@@ -259,7 +276,7 @@ func parallel(result string, parts []calc.Operand) (calc.Quantity, []calc.Step, 
 		step.Formula = result + " = 1/(1/" + joinNames(parts, " + 1/") + ")"
 		z = 1 / ys
 	}
-	q, err := checked(z, d, op)
+	q, err := combined(z, d, op, parts)
 	if err != nil {
 		return calc.Quantity{}, nil, err
 	}

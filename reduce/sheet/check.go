@@ -377,7 +377,7 @@ func (s *Sheet) readingStep(p *calc.Parser, reading calc.Quantity, rr site.Range
 	} else {
 		s.fail++
 	}
-	st.Check = &calc.CheckOutcome{Pass: ov.Overlaps, MagOnly: true, Got: reading, Want: rr.Nominal, Diff: ov.Miss,
+	st.Check = &calc.CheckOutcome{Pass: ov.Overlaps, MagOnly: true, Got: ov.Reading, Want: rr.Nominal, Diff: ov.Miss,
 		Tolerance: fmt.Sprintf("parts' tolerance range %s … %s (%s)", s.ctx.Format.Mag(real(rr.MagMin.V), rr.MagMin.Dim, rr.MagMin.Kind), s.ctx.Format.Mag(real(rr.MagMax.V), rr.MagMax.Dim, rr.MagMax.Kind), site.SampledLabel)}
 	if rr.Nominal.V != 0 {
 		st.Check.RelMag = cmplx.Abs(reading.V)/cmplx.Abs(rr.Nominal.V) - 1

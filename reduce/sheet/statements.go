@@ -461,7 +461,8 @@ func (s *Sheet) stmtSequence(p *calc.Parser) error {
 
 // autoName gives a result typed without a name a name from its dimension,
 // the letter an engineer would use (Z for an impedance, V, I, S, P, Q, Y,
-// L, C), numbered from 1 past any name already taken.
+// L, C; magV and magI for a magnitude |V| or |I|), numbered from 1 past
+// any name already taken.
 func (s *Sheet) autoName(q calc.Quantity) string {
 	letter := "x"
 	switch q.Dim {
@@ -494,6 +495,12 @@ func (s *Sheet) autoName(q calc.Quantity) string {
 		letter = "fr"
 	case calc.DimTime:
 		letter = "t"
+	}
+	if q.Kind == calc.KindMagnitude && (q.Dim == calc.DimVoltage || q.Dim == calc.DimCurrent) {
+		// |V| or |I| has no angle: named after mag(), so that it is not
+		// read as the phasor V1 or I1 (magI1 rather than |I|1, which
+		// cannot be typed back as a name)
+		letter = "mag" + letter
 	}
 	if q.Kind == calc.KindAngle && q.Dim.IsDimensionless() {
 		letter = "ang" // typed on any keyboard, ASCII mode included

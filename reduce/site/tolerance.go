@@ -519,7 +519,10 @@ func magKind(k calc.Kind) calc.Kind {
 
 // Overlap is the verdict on a measured value against a tolerance range.
 type Overlap struct {
-	Overlaps  bool
+	Overlaps bool
+	// Reading is the meter's reading as what a meter shows: a magnitude
+	// (an RMS value, or peak under peak basis) with no angle.
+	Reading   calc.Quantity
 	Low, High calc.Quantity // the band the true value may lie in, from the reading and the accuracy
 	// Miss is the gap between that band and the range the parts allow,
 	// zero when they overlap; MissPct is the gap in per cent of the
@@ -548,8 +551,9 @@ func CheckReading(reading calc.Quantity, acc Accuracy, r RangeResult) (Overlap, 
 	rmin, rmax := real(r.MagMin.V), real(r.MagMax.V)
 	k := magKind(reading.Kind)
 	o := Overlap{
-		Low:  calc.Quantity{V: complex(lo, 0), Dim: reading.Dim, Kind: k},
-		High: calc.Quantity{V: complex(hi, 0), Dim: reading.Dim, Kind: k},
+		Reading: calc.Quantity{V: complex(m, 0), Dim: reading.Dim, Kind: k},
+		Low:     calc.Quantity{V: complex(lo, 0), Dim: reading.Dim, Kind: k},
+		High:    calc.Quantity{V: complex(hi, 0), Dim: reading.Dim, Kind: k},
 	}
 	var gap, ref float64
 	switch {
@@ -576,7 +580,7 @@ func CheckReading(reading calc.Quantity, acc Accuracy, r RangeResult) (Overlap, 
 		Kind:    "tolerance",
 		Rule:    "does the reading, with its instrument accuracy, overlap the allowed range?",
 		Formula: "band = |reading| ± (pct/100·|reading| + digits·resolution); compare with [mag_min, mag_max]",
-		Inputs: []calc.Operand{op("reading", reading), op("accuracy %", num(acc.Pct)), op("digits", num(acc.Digits)),
+		Inputs: []calc.Operand{op("reading", o.Reading), op("accuracy %", num(acc.Pct)), op("digits", num(acc.Digits)),
 			op("resolution", rq(acc.Resolution, reading.Dim)), op("mag_min", r.MagMin), op("mag_max", r.MagMax)},
 		Results: []calc.Operand{op("miss", o.Miss), op("low", o.Low), op("high", o.High), op("miss %", num(o.MissPct))},
 		Notes:   []string{verdict, "the allowed range is " + SampledLabel},
