@@ -366,12 +366,12 @@ func (ev *Evaluator) asImpedances(n *Binary, x, y Quantity) (Quantity, Quantity,
 		ev.Since = max(ev.Since, 2)
 	}
 	if bare(n.Y, y) && zish(x) {
-		y.Dim = DimImpedance
-		ev.note(fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.Y), ev.Env.Context().Format.Rect(y)))
+		y, _ = AsUnit(n.Y, y, DimImpedance, KindPlain) // 10k is a resistance
+		ev.renote(n.Y, fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.Y), ev.Env.Context().Format.Rect(y)))
 	}
 	if bare(n.X, x) && zish(y) {
-		x.Dim = DimImpedance
-		ev.note(fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.X), ev.Env.Context().Format.Rect(x)))
+		x, _ = AsUnit(n.X, x, DimImpedance, KindPlain) // 10k is a resistance
+		ev.renote(n.X, fmt.Sprintf("read %q as %s (combined with an impedance)", ev.text(n.X), ev.Env.Context().Format.Rect(x)))
 	}
 	var err *Error
 	if (part(x) || part(y)) && (x.Dim == DimImpedance || y.Dim == DimImpedance) {
@@ -474,6 +474,17 @@ func (ev *Evaluator) note(s string) {
 		}
 	}
 	ev.Notes = append(ev.Notes, s)
+}
+
+// renote says how a number scaled by a prefix alone was read once it took
+// a unit, in place of the note that called it a plain number.
+func (ev *Evaluator) renote(e Expr, s string) {
+	for _, n := range ev.Notes {
+		if n == s {
+			return
+		}
+	}
+	ev.Notes = Renote(ev.Notes, e, s)
 }
 
 func isDimErr(err error) bool {
@@ -618,7 +629,7 @@ func (ev *Evaluator) asParam(a Expr, q Quantity, p Param) (Quantity, *Error) {
 		if q2, ok := AsUnit(a, q, d, k); ok {
 			q = q2
 			ev.Since = max(ev.Since, 2)
-			ev.note(fmt.Sprintf("read %q as %s (the unit %s takes)", ev.text(a), ev.Env.Context().Format.Rect(q), p.Name))
+			ev.renote(a, fmt.Sprintf("read %q as %s (the unit %s takes)", ev.text(a), ev.Env.Context().Format.Rect(q), p.Name))
 			return q, nil
 		}
 	}

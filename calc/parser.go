@@ -720,7 +720,27 @@ func (p *Parser) barePrefix(l *Lit, num string, word Item) bool {
 		}
 	}
 	l.hasUnit, l.bare, l.Unit, l.scale, l.dim, l.kind = true, true, word.Text, f, Dimensionless, KindPlain
+	// a reader may have meant 4.7 kΩ: say it is a plain number, until a
+	// unit it takes (from a parameter, an element or an impedance beside
+	// it) replaces this note with that reading
+	l.Note = fmt.Sprintf("read %q as %s×10^%d, a plain number", num+word.Text, num, int(math.Round(math.Log10(f))))
 	return true
+}
+
+// Renote replaces, in notes, the note of a number scaled by a prefix alone
+// (the e of AsUnit) with note, the unit it was then given, so the step
+// says how it was read in one line; note is added if e had none.
+func Renote(notes []string, e Expr, note string) []string {
+	if l := litOf(e); l != nil && l.bare && l.Note != "" {
+		for i, n := range notes {
+			if n == l.Note {
+				out := append([]string(nil), notes[:i]...)
+				out = append(out, note)
+				return append(out, notes[i+1:]...)
+			}
+		}
+	}
+	return append(notes, note)
 }
 
 func allDigits(s string) bool {

@@ -287,3 +287,34 @@ func TestArgumentsAsParamsExpect(t *testing.T) {
 		t.Errorf("with no frequency: %v, want an error at col 6 saying to set one", err)
 	}
 }
+
+// TestBarePrefixNote: a number scaled by a prefix alone (SI Brochure 9th
+// ed., table 7) has one line in the step saying how it was read: as a
+// plain number where it stays one, or, where it takes a unit from what it
+// is combined with, that reading alone (never both).
+func TestBarePrefixNote(t *testing.T) {
+	tests := []struct {
+		src   string
+		notes []string
+	}{
+		{"4.7k", []string{`read "4.7k" as 4.7×10^3, a plain number`}},
+		{"1M", []string{`read "1M" as 1×10^6, a plain number`}},
+		{"330n * 2", []string{`read "330n" as 330×10^-9, a plain number`}},
+		{"7u", []string{`read "7u" as 7×10^-6, a plain number`}},
+		{"-2.2µ", []string{`read "2.2µ" as 2.2×10^-6, a plain number`}},
+		{"4.7k || 10k", []string{`read "4.7k" as 4.7×10^3, a plain number`, `read "10k" as 10×10^3, a plain number`}},
+		{"4k7 || 10k", []string{`read "4k7" as 4.7 kΩ (IEC 60062 code)`, `read "10k" as 10.00 kΩ (combined with an impedance)`}},
+		{"10k + 4.7 kΩ", []string{`read "10k" as 10.00 kΩ (combined with an impedance)`}},
+		{"10 mH + 5 mH", nil},
+	}
+	for _, tc := range tests {
+		_, notes, err := evalRead(t, newTestEnv(), tc.src)
+		if err != nil {
+			t.Errorf("%s: %v", tc.src, err)
+			continue
+		}
+		if strings.Join(notes, "\n") != strings.Join(tc.notes, "\n") {
+			t.Errorf("%s: notes %q, want %q", tc.src, notes, tc.notes)
+		}
+	}
+}

@@ -883,7 +883,7 @@ func (s *Sheet) elementRaw(p *calc.Parser, el elementLine) (calc.Quantity, []str
 	n := utf8.RuneCountInString(p.Source()[pos:end])
 	if q, ok := calc.AsUnit(el.e, r.Value, want, calc.KindPlain); ok {
 		r.Value = q
-		r.Notes = append(r.Notes, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(kind.String()), kind))
+		r.Notes = calc.Renote(r.Notes, el.e, fmt.Sprintf("read %q as %s (the unit of %s %s)", p.Source()[pos:end], s.ctx.Format.Rect(q), article(kind.String()), kind))
 		s.since = max(s.since, 2)
 	}
 	if r.Value.Dim != want {

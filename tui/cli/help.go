@@ -76,7 +76,8 @@ numbers and units
     4 a prefix alone, only f p n u µ m k M G T, straight after the number:
         4.7k || 10k, 330n * 2, 1M are plain numbers; one takes the unit its
         parameter expects (zc(100n) is 100 nF) and Ω beside an impedance in
-        + − || series (4k7 || 10k, with a note); 1.2k ohm is 1.2 kΩ
+        + − || series (4k7 || 10k); a note says which reading was taken
+        (read "4.7k" as 4.7×10^3, a plain number); 1.2k ohm is 1.2 kΩ
     5 a unit in another case, the prefix keeping its case, with a note:
         230 v  6.2 a  50 hz  1.2 kw  5 kva  300 VAr  kVAr  Ohm  kOhm  10 uf
         mh mv ma are milli; K before a unit is read as k (4.7 KΩ);
