@@ -412,97 +412,191 @@ func sign(x float64) float64 {
 // x1's, or the reverse. keep, when not nil, must hold at every evaluated
 // point (a resonance needs a positive real part). It reports false when
 // there is no evaluation or it fails.
+//
+// The method is Brent's (R. P. Brent, Algorithms for Minimization without
+// Derivatives, 1973, ch. 4): inverse quadratic or secant steps inside the
+// bracket, bisection where they would not shrink it enough, so it never
+// takes more steps than bisection and on a smooth g takes a handful. It
+// stops when the bracket is 1e-14 of the frequency wide.
 func refineRoot(x0, x1 float64, fOf func(float64) float64, at func(float64) (calc.Quantity, bool),
 	g func(complex128) float64, keep func(complex128) bool) (float64, calc.Quantity, bool) {
-	v0, good := at(fOf(x0))
+	va, good := at(fOf(x0))
 	if !good {
 		return 0, calc.Quantity{}, false
 	}
-	v1, good := at(fOf(x1))
+	vb, good := at(fOf(x1))
 	if !good {
 		return 0, calc.Quantity{}, false
 	}
-	g0, g1 := g(v0.V), g(v1.V)
-	if g0 == 0 {
-		return fOf(x0), v0, true
+	a, b := x0, x1
+	fa, fb := g(va.V), g(vb.V)
+	if fa == 0 {
+		return fOf(a), va, true
 	}
-	if g1 == 0 {
-		return fOf(x1), v1, true
+	if fb == 0 {
+		return fOf(b), vb, true
 	}
-	if (g0 > 0) == (g1 > 0) {
+	if (fa > 0) == (fb > 0) {
 		return 0, calc.Quantity{}, false
 	}
-	var vm calc.Quantity
+	// axis units per relative change of frequency: 1 on a log axis, f on
+	// a linear one
+	scale := math.Abs(x1-x0) / math.Abs(fOf(x1)-fOf(x0)) * math.Abs(fOf(x1))
+	if math.IsNaN(scale) || math.IsInf(scale, 0) || scale == 0 {
+		scale = math.Max(math.Abs(x0), math.Abs(x1))
+	}
+	c, fc, vc := a, fa, va
+	d := b - a
+	e := d
 	for i := 0; i < maxRefine; i++ {
-		xm := x0 + (x1-x0)/2
-		if xm == x0 || xm == x1 || math.Abs(fOf(x1)-fOf(x0)) <= 1e-14*math.Abs(fOf(xm)) {
-			break
+		if (fb > 0) == (fc > 0) {
+			c, fc, vc = a, fa, va
+			d = b - a
+			e = d
 		}
-		var good bool
-		if vm, good = at(fOf(xm)); !good || keep != nil && !keep(vm.V) {
+		if math.Abs(fc) < math.Abs(fb) {
+			a, fa, va = b, fb, vb
+			b, fb, vb = c, fc, vc
+			c, fc, vc = a, fa, va
+		}
+		tol := 2*2.220446049250313e-16*math.Abs(b) + 0.25e-14*scale
+		m := (c - b) / 2
+		if math.Abs(m) <= tol || fb == 0 {
+			return fOf(b), vb, true
+		}
+		if math.Abs(e) < tol || math.Abs(fa) <= math.Abs(fb) {
+			d, e = m, m
+		} else {
+			var p, q float64
+			s := fb / fa
+			if a == c {
+				p, q = 2*m*s, 1-s // secant
+			} else {
+				q0, r := fa/fc, fb/fc // inverse quadratic
+				p = s * (2*m*q0*(q0-r) - (b-a)*(r-1))
+				q = (q0 - 1) * (r - 1) * (s - 1)
+			}
+			if p > 0 {
+				q = -q
+			} else {
+				p = -p
+			}
+			if 2*p < 3*m*q-math.Abs(tol*q) && p < math.Abs(e*q/2) {
+				e, d = d, p/q
+			} else {
+				d, e = m, m
+			}
+		}
+		a, fa, va = b, fb, vb
+		if math.Abs(d) > tol {
+			b += d
+		} else if m > 0 {
+			b += tol
+		} else {
+			b -= tol
+		}
+		if vb, good = at(fOf(b)); !good || keep != nil && !keep(vb.V) {
 			return 0, calc.Quantity{}, false
 		}
-		gm := g(vm.V)
-		if gm == 0 {
-			return fOf(xm), vm, true
-		}
-		if (gm > 0) == (g0 > 0) {
-			x0, g0 = xm, gm
-		} else {
-			x1 = xm
-		}
+		fb = g(vb.V)
 	}
-	xm := x0 + (x1-x0)/2
-	v, good := at(fOf(xm))
-	if !good {
-		return 0, calc.Quantity{}, false
-	}
-	return fOf(xm), v, true
+	return fOf(b), vb, true
 }
 
 // golden locates the largest (max) or smallest magnitude between x0 and
-// x1 by golden-section search. The magnitude is flat at its extreme, so the
-// frequency is found to about the square root of the rounding error while
-// the magnitude there is found to the rounding error.
+// x1 by Brent's method (R. P. Brent, Algorithms for Minimization without
+// Derivatives, 1973, ch. 5): parabolic steps through the three best
+// points, golden-section steps where a parabola does not help. The
+// magnitude is flat at its extreme, so the frequency is found to about
+// the square root of the rounding error (the search stops at 1e-9 of the
+// frequency) while the magnitude there is found to the rounding error.
 func golden(x0, x1 float64, fOf func(float64) float64, at func(float64) (calc.Quantity, bool), max bool) (float64, calc.Quantity, bool) {
-	r := (math.Sqrt(5) - 1) / 2
-	better := func(a, b float64) bool {
+	cost := func(v calc.Quantity) float64 {
 		if max {
-			return a > b
+			return -cmplx.Abs(v.V)
 		}
-		return a < b
+		return cmplx.Abs(v.V)
 	}
-	a, b := x0, x1
-	c, d := b-r*(b-a), a+r*(b-a)
-	vc, good := at(fOf(c))
+	const cgold = 0.3819660112501051 // (3 − √5)/2
+	a, b := math.Min(x0, x1), math.Max(x0, x1)
+	scale := (b - a) / math.Abs(fOf(b)-fOf(a)) * math.Abs(fOf(b))
+	if math.IsNaN(scale) || math.IsInf(scale, 0) || scale == 0 {
+		scale = math.Max(math.Abs(a), math.Abs(b))
+	}
+	x := a + cgold*(b-a)
+	vx, good := at(fOf(x))
 	if !good {
 		return 0, calc.Quantity{}, false
 	}
-	vd, good := at(fOf(d))
-	if !good {
-		return 0, calc.Quantity{}, false
-	}
-	// |x| is flat at its extreme: past about √ε of the frequency the
-	// comparisons are rounding, so stop there
-	for i := 0; i < maxRefine && math.Abs(fOf(b)-fOf(a)) > 1e-9*math.Abs(fOf(a)); i++ {
-		if better(cmplx.Abs(vc.V), cmplx.Abs(vd.V)) {
-			b, d, vd = d, c, vc
-			c = b - r*(b-a)
-			if vc, good = at(fOf(c)); !good {
-				return 0, calc.Quantity{}, false
+	fx := cost(vx)
+	w, v, fw, fv := x, x, fx, fx
+	var d, e float64
+	for i := 0; i < maxRefine; i++ {
+		m := (a + b) / 2
+		tol := 1.4901161193847656e-08*math.Abs(x) + 0.25e-9*scale
+		t2 := 2 * tol
+		if math.Abs(x-m) <= t2-(b-a)/2 {
+			break
+		}
+		var p, q, r float64
+		if math.Abs(e) > tol {
+			r = (x - w) * (fx - fv)
+			q = (x - v) * (fx - fw)
+			p = (x-v)*q - (x-w)*r
+			q = 2 * (q - r)
+			if q > 0 {
+				p = -p
+			} else {
+				q = -q
+			}
+			r, e = e, d
+		}
+		if math.Abs(p) < math.Abs(q*r/2) && p > q*(a-x) && p < q*(b-x) {
+			d = p / q // a parabolic step
+			if u := x + d; u-a < t2 || b-u < t2 {
+				d = tol
+				if x >= m {
+					d = -tol
+				}
 			}
 		} else {
-			a, c, vc = c, d, vd
-			d = a + r*(b-a)
-			if vd, good = at(fOf(d)); !good {
-				return 0, calc.Quantity{}, false
+			e = b - x // a golden-section step
+			if x >= m {
+				e = a - x
 			}
+			d = cgold * e
+		}
+		u := x + d
+		if math.Abs(d) < tol {
+			u = x + math.Copysign(tol, d)
+		}
+		vu, good := at(fOf(u))
+		if !good {
+			return 0, calc.Quantity{}, false
+		}
+		fu := cost(vu)
+		if fu <= fx {
+			if u < x {
+				b = x
+			} else {
+				a = x
+			}
+			v, fv, w, fw = w, fw, x, fx
+			x, fx, vx = u, fu, vu
+			continue
+		}
+		if u < x {
+			a = u
+		} else {
+			b = u
+		}
+		if fu <= fw || w == x {
+			v, fv, w, fw = w, fw, u, fu
+		} else if fu <= fv || v == x || v == w {
+			v, fv = u, fu
 		}
 	}
-	if better(cmplx.Abs(vc.V), cmplx.Abs(vd.V)) {
-		return fOf(c), vc, true
-	}
-	return fOf(d), vd, true
+	return fOf(x), vx, true
 }
 
 // Decibels returns 20·log10(|x|/|ref|) at each point of the sweep, and
