@@ -3,6 +3,7 @@ package tui
 import (
 	"errors"
 	"strings"
+	"unicode/utf8"
 
 	"argand/calc"
 	"argand/tui/store"
@@ -124,10 +125,56 @@ func pad(s string, width int) string {
 	return s + strings.Repeat(" ", width-w)
 }
 
-// asciiReplacer spells the app's own symbols in ASCII; calc.ASCIIText
-// does the rest.
-var asciiReplacer = strings.NewReplacer("↑↓", "up/down", "→←", "right/left", "›", ">", "↑", "up", "↓", "down", "←", "<-", "▸", ">", "◆", "*", "»", "]",
-	"…", "~", "…", "~", "×", "x", "├", "+", "└", "+")
+// asciiApp spells the app's own symbols in ASCII; calc.ASCIIText does the
+// rest. Written out rather than a strings.Replacer held in a package
+// variable, so that nothing is built at start-up for commands that never
+// draw the app; like a Replacer it takes, at each place, the first of the
+// forms below that matches, the pairs before their single arrows.
+func asciiApp(s string) string {
+	var b strings.Builder
+	for i := 0; i < len(s); {
+		if s[i] < utf8.RuneSelf {
+			b.WriteByte(s[i])
+			i++
+			continue
+		}
+		switch {
+		case strings.HasPrefix(s[i:], "↑↓"):
+			b.WriteString("up/down")
+			i += len("↑↓")
+			continue
+		case strings.HasPrefix(s[i:], "→←"):
+			b.WriteString("right/left")
+			i += len("→←")
+			continue
+		}
+		r, n := utf8.DecodeRuneInString(s[i:])
+		switch r {
+		case '›', '▸':
+			b.WriteString(">")
+		case '↑':
+			b.WriteString("up")
+		case '↓':
+			b.WriteString("down")
+		case '←':
+			b.WriteString("<-")
+		case '◆':
+			b.WriteString("*")
+		case '»':
+			b.WriteString("]")
+		case '…':
+			b.WriteString("~")
+		case '×':
+			b.WriteString("x")
+		case '├', '└':
+			b.WriteString("+")
+		default:
+			b.WriteString(s[i : i+n])
+		}
+		i += n
+	}
+	return b.String()
+}
 
 // tr writes text for the screen: characters a terminal would act on are
 // shown as their escapes (calc.Printable), and in ASCII mode every symbol
@@ -138,7 +185,7 @@ func (t theme) tr(s string) string {
 	if !t.ascii {
 		return s
 	}
-	return calc.ASCIIText(asciiReplacer.Replace(s))
+	return calc.ASCIIText(asciiApp(s))
 }
 
 // tr is the theme's tr, for the parts of the screen the Model draws.

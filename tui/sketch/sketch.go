@@ -223,12 +223,43 @@ func headGlyph(deg float64) rune {
 }
 
 // asciiSubst transliterates the non-ASCII characters likely in labels and
-// units.
-var asciiSubst = map[rune]string{
-	'Ω': "ohm", 'µ': "u", 'μ': "u", '°': "deg", 'φ': "phi", 'θ': "theta",
-	'∠': "@", '·': ".", '−': "-", '×': "x",
-	'₀': "0", '₁': "1", '₂': "2", '₃': "3", '₄': "4", '₅': "5", '₆': "6", '₇': "7", '₈': "8", '₉': "9",
-	'⁰': "0", '¹': "1", '²': "2", '³': "3", '⁴': "4", '⁵': "5", '⁶': "6", '⁷': "7", '⁸': "8", '⁹': "9",
+// units. A switch rather than a map: nothing is built at start-up.
+func asciiSubst(r rune) (string, bool) {
+	switch r {
+	case 'Ω':
+		return "ohm", true
+	case 'µ', 'μ':
+		return "u", true
+	case '°':
+		return "deg", true
+	case 'φ':
+		return "phi", true
+	case 'θ':
+		return "theta", true
+	case '∠':
+		return "@", true
+	case '·':
+		return ".", true
+	case '−':
+		return "-", true
+	case '×':
+		return "x", true
+	case '⁰':
+		return "0", true
+	case '¹':
+		return "1", true
+	case '²':
+		return "2", true
+	case '³':
+		return "3", true
+	}
+	switch {
+	case r >= '₀' && r <= '₉':
+		return string('0' + (r - '₀')), true
+	case r >= '⁴' && r <= '⁹':
+		return string('0' + (r - '⁰')), true
+	}
+	return "", false
 }
 
 // clean makes s safe for the grid: every rune one cell wide, no control
@@ -242,7 +273,7 @@ func clean(s string, ascii bool) []rune {
 		case r < 0x80:
 			out = append(out, r)
 		case ascii:
-			if t, ok := asciiSubst[r]; ok {
+			if t, ok := asciiSubst(r); ok {
 				out = append(out, []rune(t)...)
 			} else {
 				out = append(out, '?')
@@ -274,7 +305,16 @@ func (o Options) mark(s string) string {
 	return s
 }
 
-var prefixes = map[int]string{-15: "f", -12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G", 12: "T"}
+// prefix is the SI prefix of the power of ten exp3 (a multiple of 3),
+// f to T; a function rather than a map, so nothing is built at start-up.
+func prefix(exp3 int) (string, bool) {
+	names := [...]string{"f", "p", "n", "µ", "m", "", "k", "M", "G", "T"}
+	i := exp3/3 + 5
+	if exp3%3 != 0 || i < 0 || i >= len(names) {
+		return "", false
+	}
+	return names[i], true
+}
 
 // Eng writes x to the given significant figures (1 to 15) in engineering
 // notation, with an SI prefix on unit when one fits (f to T) and a power
@@ -297,7 +337,7 @@ func Eng(x float64, unit string, digits int, ascii bool) string {
 	exp3 := int(math.Floor(float64(e)/3)) * 3
 	dec := max(digits-1-(e-exp3), 0)
 	s := strconv.FormatFloat(x/math.Pow(10, float64(exp3)), 'f', dec, 64)
-	p, ok := prefixes[exp3]
+	p, ok := prefix(exp3)
 	if ok && unit != "" {
 		if ascii && p == "µ" {
 			p = "u"

@@ -130,7 +130,12 @@ func syncDir(dir string) error {
 }
 
 // errTooLarge marks a file too large to be a session: damaged content.
-var errTooLarge = fmt.Errorf("file larger than %d bytes", MaxSize)
+// Its message is written when it is read, so start-up formats nothing.
+var errTooLarge error = tooLarge{}
+
+type tooLarge struct{}
+
+func (tooLarge) Error() string { return "file larger than " + strconv.Itoa(MaxSize) + " bytes" }
 
 // Load reads the session file at path, refusing one larger than MaxSize.
 // A missing file gives an error for which errors.Is(err, fs.ErrNotExist)
