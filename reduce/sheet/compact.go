@@ -169,7 +169,8 @@ func (s *Sheet) solveCompact(nw *network, reason string) error {
 	}
 	s.recordPart(nw.src, steps)
 	var names []string
-	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }
+	from := nw.source()
+	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, from, name, q)) }
 	set(nw.name+".z", red.Z)
 	if fed {
 		for _, e := range append(red.Elements, red.Source) {

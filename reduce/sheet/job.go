@@ -24,6 +24,11 @@ type Job struct {
 	// factorisation, the re-solving of networks a changed value feeds
 	// included, since nothing half changed is kept.
 	Copy bool
+	// NoTrail hands each line's steps to the run's emit and keeps none of
+	// them in the worksheet's trail, nor a network's reduction for the
+	// app's view: a run that prints as it goes needs none of them again,
+	// and a network of 10⁵ elements has as many steps.
+	NoTrail bool
 }
 
 // Interrupted is the error of a statement stopped by its Job's context.

@@ -265,9 +265,16 @@ func (s *Sheet) solve(nw *network, reason string) error {
 	}
 	sp, red, why := s.spSteps(net)
 	nw.red, nw.why = red, why
+	if s.job != nil && s.job.NoTrail {
+		// its steps are printed below; only the app's view of the
+		// network reads the reduction again, and a run has no app
+		nw.red, nw.why = nil, "not kept by a run that keeps no trail"
+	}
 	stepped := red != nil
-	steps := append(pre, sp...)
-	for _, st := range sol.Steps(s.ctx.Format) {
+	all := sol.Steps(s.ctx.Format)
+	steps := make([]calc.Step, 0, len(pre)+len(sp)+len(all)) // sized once
+	steps = append(append(steps, pre...), sp...)
+	for _, st := range all {
 		// a network reduced step by step has its element table already
 		if stepped && st.Kind == "element" {
 			continue
@@ -348,8 +355,9 @@ func (s *Sheet) solveAgain(nw *network) error {
 // (NET.E.v, NET.E.i, NET.E.s for each element, and the node voltages), so
 // that expressions can read them.
 func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
-	var names []string
-	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, name, q)) }
+	names := make([]string, 0, 3*len(sol.Branches)+len(sol.Nodes))
+	src := nw.source() // one string for all the results
+	set := func(name string, q calc.Quantity) { names = append(names, s.setResult(nw, src, name, q)) }
 	for _, b := range sol.Branches {
 		set(nw.name+"."+b.Name+".v", calc.Q(b.V, calc.DimVoltage))
 		set(nw.name+"."+b.Name+".i", calc.Q(b.I, calc.DimCurrent))
@@ -361,18 +369,25 @@ func (s *Sheet) defineSolution(nw *network, sol *nodal.Solution) {
 	nw.results = names
 }
 
+// source is the statement a network's results are said to come from: a
+// compact network's own line, or the block's first.
+func (nw *network) source() string {
+	if nw.src == "" {
+		return "network " + nw.name
+	}
+	return nw.src
+}
+
 // setResult defines or updates one result of a network as a name owned by
-// the network, and returns the name.
-func (s *Sheet) setResult(nw *network, name string, q calc.Quantity) string {
+// the network, made by the statement src, and returns the name. A result
+// reads nothing itself (its network does), so it has no deps map: a
+// network of 10⁵ elements has some 3.5·10⁵ results.
+func (s *Sheet) setResult(nw *network, src, name string, q calc.Quantity) string {
 	if d, ok := s.byName[name]; ok {
 		d.value = q
 		return name
 	}
-	src := nw.src
-	if src == "" {
-		src = "network " + nw.name
-	}
-	d := &def{name: name, src: src, line: nw.line, value: q, owner: nw.name, deps: map[string]bool{}}
+	d := &def{name: name, src: src, line: nw.line, value: q, owner: nw.name}
 	s.defs = append(s.defs, d)
 	s.byName[name] = d
 	return name

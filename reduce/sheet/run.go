@@ -260,6 +260,9 @@ func (ru *runner) run(line string) bool {
 	if ru.emit != nil && len(steps) > 0 {
 		ru.emit(steps)
 	}
+	if ru.job.NoTrail {
+		s.steps = nil
+	}
 	return true
 }
 

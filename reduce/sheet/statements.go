@@ -795,9 +795,9 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 			return p.Err()
 		}
 	}
-	d := &def{name: el.name.Text, src: p.Source(), line: s.line, value: v, elem: elem, deps: map[string]bool{}}
+	d := &def{name: el.name.Text, src: p.Source(), line: s.line, value: v, elem: elem}
 	if el.kind == reduce.Inductor || el.kind == reduce.Capacitor {
-		d.deps["f"] = true
+		d.deps = map[string]bool{"f": true} // a resistor reads nothing: no map
 	}
 	_, existed := s.byName[d.name]
 	if err := s.setValue(d); err != nil {

@@ -208,7 +208,7 @@ func RunContext(ctx context.Context, r io.Reader, file string, w, ew io.Writer, 
 	bw := bufio.NewWriter(w)
 	p.W = bw
 	defer bw.Flush()
-	sum, err := s.RunAll(sheet.Job{Ctx: ctx}, stoppable(ctx, r), func(steps []calc.Step) {
+	sum, err := s.RunAll(sheet.Job{Ctx: ctx, NoTrail: true}, stoppable(ctx, r), func(steps []calc.Step) {
 		p.Steps(s, steps)
 		bw.Flush()
 	}, func(pr sheet.Problem) {
