@@ -206,7 +206,7 @@ func (r *lineRun) save(name string) {
 		r.say("save needs a file name: save FILE")
 		return
 	}
-	if err := store.Save(name, []byte(r.s.worksheetText())); err != nil {
+	if err := store.Publish(name, []byte(r.s.worksheetText())); err != nil {
 		r.say("error: could not write " + name + ": " + err.Error())
 		return
 	}

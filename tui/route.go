@@ -329,7 +329,7 @@ func (m *Model) exportTo(c exportChoice) {
 			m.note(true, "no file named")
 			return
 		}
-		if err := store.Save(path, []byte(m.exportText(c.what))); err != nil {
+		if err := store.Publish(path, []byte(m.exportText(c.what))); err != nil {
 			m.note(true, "could not write "+path+": "+err.Error())
 			return
 		}

@@ -208,33 +208,6 @@ func (t theme) hintKey(b key.Binding) string {
 	return t.key.Render(t.tr(firstKey(b))) + " " + t.tr(b.Help().Desc)
 }
 
-// trStyled is tr for text the app has already styled: the style sequences
-// (ESC [ … m) are kept and only the text between them goes through tr, so
-// a styled heading is not shown as its escapes.
-func (t theme) trStyled(s string) string {
-	var b strings.Builder
-	for len(s) > 0 {
-		i := strings.Index(s, "\x1b[")
-		if i < 0 {
-			b.WriteString(t.tr(s))
-			break
-		}
-		b.WriteString(t.tr(s[:i]))
-		j := i + 2
-		for j < len(s) && (s[j] >= '0' && s[j] <= '9' || s[j] == ';') {
-			j++
-		}
-		if j < len(s) && s[j] == 'm' {
-			b.WriteString(s[i : j+1])
-			s = s[j+1:]
-			continue
-		}
-		b.WriteString(t.tr(s[i : i+1]))
-		s = s[i+1:]
-	}
-	return b.String()
-}
-
 // screenSafe is the last guard before the screen: the style sequences
 // (SGR, ESC [ … m) that the app's own styles write are kept, and any other
 // control character, which could only have come from input that missed

@@ -69,7 +69,7 @@ func ExportHTML(ctx context.Context, src io.Reader, e Export, w, ew io.Writer, o
 	if e.Out == "-" {
 		io.WriteString(w, b.String())
 	} else {
-		if err := store.Save(e.Out, []byte(b.String())); err != nil {
+		if err := store.Publish(e.Out, []byte(b.String())); err != nil {
 			fmt.Fprintf(ew, "argand: could not write %s: %s\n", calc.Printable(e.Out), calc.Printable(err.Error()))
 			return ExitBadInput
 		}

@@ -56,11 +56,23 @@ func tempPattern(path string) string {
 // file system, POSIX rename(2)) and then the directory is synced so the
 // rename itself is durable. The directory is created (mode 0700) if needed.
 func Save(path string, data []byte) error {
+	return save(path, data, 0o600)
+}
+
+// Publish saves as Save does, for a file the user asked for by name to
+// share or keep with the job (a record, an export, a worksheet): it is
+// left readable by others (mode 0644), where the session's own files are
+// private (0600).
+func Publish(path string, data []byte) error {
+	return save(path, data, 0o644)
+}
+
+func save(path string, data []byte, mode os.FileMode) error {
 	dir := filepath.Dir(path)
 	if err := os.MkdirAll(dir, 0o700); err != nil {
 		return fmt.Errorf("save %s: %w", path, err)
 	}
-	tmp, err := writeTemp(path, data)
+	tmp, err := writeTemp(path, data, mode)
 	if err != nil {
 		return fmt.Errorf("save %s: %w", path, err)
 	}
@@ -92,9 +104,9 @@ func createTemp(path string) (*os.File, error) {
 	return nil, fmt.Errorf("no free temporary name in %s", dir)
 }
 
-// writeTemp writes data to a new synced temporary file beside path and
-// returns its name; on error nothing is left behind.
-func writeTemp(path string, data []byte) (string, error) {
+// writeTemp writes data to a new synced temporary file of the given mode
+// beside path and returns its name; on error nothing is left behind.
+func writeTemp(path string, data []byte, mode os.FileMode) (string, error) {
 	f, err := createTemp(path)
 	if err != nil {
 		return "", err
@@ -102,7 +114,7 @@ func writeTemp(path string, data []byte) (string, error) {
 	name := f.Name()
 	_, err = f.Write(data)
 	if err == nil {
-		err = f.Chmod(0o600)
+		err = f.Chmod(mode)
 	}
 	if err == nil {
 		err = f.Sync()

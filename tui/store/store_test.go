@@ -99,6 +99,31 @@ func TestDir(t *testing.T) {
 	}
 }
 
+// A file the user asks for by name (a record, an export) is readable by
+// others; the session's own files stay private. Chmod on the temporary
+// file sets the mode whatever the umask.
+func TestPublishMode(t *testing.T) {
+	dir := t.TempDir()
+	for _, tt := range []struct {
+		save func(string, []byte) error
+		want os.FileMode
+	}{{Publish, 0o644}, {Save, 0o600}} {
+		path := filepath.Join(dir, fmt.Sprintf("f%o", tt.want))
+		for range 2 { // a new file, then one replaced
+			if err := tt.save(path, []byte("job\n")); err != nil {
+				t.Fatal(err)
+			}
+			fi, err := os.Stat(path)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fi.Mode().Perm() != tt.want {
+				t.Errorf("%s: mode %v, want %v", path, fi.Mode().Perm(), tt.want)
+			}
+		}
+	}
+}
+
 func TestSaveLoad(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "sub", "session.argand")
 	for _, data := range [][]byte{[]byte("first\n"), {}, []byte("second, longer than the first\n"), []byte("3")} {
@@ -153,7 +178,7 @@ func TestInterruptedSave(t *testing.T) {
 	if err := Save(path, old); err != nil {
 		t.Fatal(err)
 	}
-	tmp, err := writeTemp(path, []byte("new content that never landed\n"))
+	tmp, err := writeTemp(path, []byte("new content that never landed\n"), 0o600)
 	if err != nil {
 		t.Fatal(err)
 	}
