@@ -92,9 +92,28 @@ func (m *Model) applied(what string, steps []calc.Step, defined []string) {
 		q, _ := m.s.sh.Lookup(last)
 		res = last + " = " + m.format().Both(q, m.s.v.PolarFirst)
 	}
+	if res == "" && what == "" && len(steps) > 0 {
+		// a statement that defines no name (a sweep, a setting): say what
+		// it did, so the line under the entry is never blank after a run
+		res = doneText(steps)
+	}
 	m.trail.Latest()
 	m.note(false, strings.TrimSpace(what+"  "+res))
 	m.caution = cautionOf(steps)
+}
+
+// doneText sums up steps that defined no name: the first step's rule,
+// and where the rest of it is.
+func doneText(steps []calc.Step) string {
+	rule, _, _ := strings.Cut(steps[0].Rule, ":")
+	rule = strings.TrimSpace(calc.Printable(rule))
+	if rule == "" {
+		rule = "done"
+	}
+	if len(steps) == 1 {
+		return rule + ": one step in the trail"
+	}
+	return fmt.Sprintf("%s: %d steps in the trail", rule, len(steps))
 }
 
 // cautionOf returns the caution topic the steps carry, one particular to

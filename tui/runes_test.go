@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"strings"
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -103,5 +104,20 @@ func TestRunesTogetherAreText(t *testing.T) {
 	press(m, "esc")
 	if _, cmd := m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("q")}); cmd == nil || !m.quitting {
 		t.Errorf("q over the rows did not quit")
+	}
+}
+
+// A statement that defines no name still says what it did under the
+// entry line, rather than leaving it blank.
+func TestOutcomeWithoutName(t *testing.T) {
+	m := newModel(t, Options{})
+	typeLine(t, m, "inductor Lq = 10 mH")
+	press(m, "tab")
+	for _, r := range "sweep Lq from 10 Hz to 1 kHz points 5" {
+		m.Update(keyMsg(string(r)))
+	}
+	press(m, "enter")
+	if m.msgErr || !strings.Contains(m.msg, "frequency sweep of Lq") || !strings.Contains(m.msg, "steps in the trail") {
+		t.Errorf("outcome %q (error %v), want what the sweep did", m.msg, m.msgErr)
 	}
 }
