@@ -276,12 +276,10 @@ func (m *Model) View() string {
 }
 
 // screen chooses the layout for the part that has the keyboard and
-// returns its lines: a part of its own on the whole screen, the network
-// view between the status and the feedback lines, or the main layout.
+// returns its lines: a part of its own on the whole screen (at any
+// width, written for it), the narrow layout, the network view between
+// the status and the feedback lines, or the main layout.
 func (m *Model) screen() []string {
-	if m.narrow() {
-		return m.narrowView()
-	}
 	switch m.mode {
 	case modeLocked:
 		return lines(m.lockScr.View())
@@ -289,6 +287,11 @@ func (m *Model) screen() []string {
 		return lines(m.helpScr.View())
 	case modeTrail:
 		return lines(m.full.View())
+	}
+	if m.narrow() {
+		return m.narrowView()
+	}
+	switch m.mode {
 	case modeNet:
 		out := append([]string{m.statusView()}, lines(m.net.View())...)
 		return append(out, m.feedbackView(), m.hintView())

@@ -130,16 +130,8 @@ func (m *Model) nextName() string {
 // narrowView lays the narrow screen out: the status line, one pane, the
 // entry line, the outcome (a few lines when it needs them) and the keys
 // that fit. Help, the trail in full and the session-in-use question take
-// the whole screen as on a wide one, written for its width.
+// the whole screen as on a wide one (screen draws them).
 func (m *Model) narrowView() []string {
-	switch m.mode {
-	case modeLocked:
-		return lines(m.lockScr.View())
-	case modeHelp:
-		return lines(m.helpScr.View())
-	case modeTrail:
-		return lines(m.full.View())
-	}
 	fb := m.narrowFeedback()
 	hint := m.narrowHint()
 	entry := m.narrowEntry()
