@@ -704,11 +704,36 @@ func binaryRule(op, a, b string) (rule, formula string) {
 	case "/":
 		return "quotient (first over second)", a + " / " + b
 	case "^":
-		return "power (principal value)", "(" + a + ")^(" + b + ")"
+		return "power (principal value)", group(a) + "^" + group(b)
 	case "||":
-		return "parallel: product over sum", "(" + a + ")·(" + b + ") / ((" + a + ") + (" + b + "))"
+		a, b = group(a), group(b)
+		return "parallel: product over sum", a + "·" + b + " / (" + a + " + " + b + ")"
 	}
 	return "", ""
+}
+
+// group wraps an operand as typed in parentheses for a formula, unless
+// one pair already encloses the whole of it, so that "(10 Ω + j5 Ω)"
+// is not written with two.
+func group(s string) string {
+	if strings.HasPrefix(s, "(") {
+		depth := 0
+		for i, r := range s {
+			switch r {
+			case '(':
+				depth++
+			case ')':
+				depth--
+			}
+			if depth == 0 {
+				if i == len(s)-1 {
+					return s
+				}
+				break
+			}
+		}
+	}
+	return "(" + s + ")"
 }
 
 // funcOf finds the function a call names, for its rule and formula: one
