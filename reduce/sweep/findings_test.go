@@ -51,17 +51,24 @@ var rlcCases = []rlcCase{
 	{name: "series transfer V_R/V_in, Q 10", r: 10, l: 10e-3, c: 1e-6, transfer: true},
 }
 
+// table sweeps the case over 301 points from f0/20 to 20·f0.
+func (rc rlcCase) table(t *testing.T, f0 float64) *Table {
+	t.Helper()
+	pts, err := Points(f0/20, f0*20, 301, true)
+	if err != nil {
+		t.Fatal(err)
+	}
+	tab, err := Run(pts, rc.eval)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return tab
+}
+
 func TestFindingsAgainstClosedForms(t *testing.T) {
 	for _, rc := range rlcCases {
 		f0, q, f1, f2 := rc.closed()
-		pts, err := Points(f0/20, f0*20, 301, true)
-		if err != nil {
-			t.Fatal(err)
-		}
-		tab, err := Run(pts, rc.eval)
-		if err != nil {
-			t.Fatal(err)
-		}
+		tab := rc.table(t, f0)
 		for _, refine := range []bool{true, false} {
 			var ev func(float64) (calc.Quantity, error)
 			// refined findings agree to 1e-9; interpolated ones to the

@@ -17,14 +17,7 @@ import (
 func TestRefineEvaluations(t *testing.T) {
 	for _, rc := range rlcCases {
 		f0, _, f1, f2 := rc.closed()
-		pts, err := Points(f0/20, f0*20, 301, true)
-		if err != nil {
-			t.Fatal(err)
-		}
-		tab, err := Run(pts, rc.eval)
-		if err != nil {
-			t.Fatal(err)
-		}
+		tab := rc.table(t, f0)
 		calls := 0
 		fd := Find(tab, func(hz float64) (calc.Quantity, error) {
 			calls++
