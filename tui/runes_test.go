@@ -112,11 +112,7 @@ func TestRunesTogetherAreText(t *testing.T) {
 func TestOutcomeWithoutName(t *testing.T) {
 	m := newModel(t, Options{})
 	typeLine(t, m, "inductor Lq = 10 mH")
-	press(m, "tab")
-	for _, r := range "sweep Lq from 10 Hz to 1 kHz points 5" {
-		m.Update(keyMsg(string(r)))
-	}
-	press(m, "enter")
+	pressText(m, "tab", "sweep Lq from 10 Hz to 1 kHz points 5", "enter")
 	if m.msgErr || !strings.Contains(m.msg, "frequency sweep of Lq") || !strings.Contains(m.msg, "steps in the trail") {
 		t.Errorf("outcome %q (error %v), want what the sweep did", m.msg, m.msgErr)
 	}
