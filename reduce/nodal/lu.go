@@ -61,11 +61,24 @@ type sparseLU struct {
 	lp []int32
 	li []int32
 	lx []complex128
-	// U without its diagonal, and the reciprocals of the pivots.
-	up   []int32
-	ui   []int32
-	ux   []complex128
-	dinv []complex128
+	// U without its diagonal, and the reciprocals of the pivots. The
+	// pattern is held by columns (up, ui), in the order refactor applies
+	// the updates. factor leaves the values ux in that order; refactor,
+	// which runs many times on one pattern, first adds the row form
+	// (urp, urc; urow[p] is the place in a row of column entry p) and
+	// writes ux in row order (byRows), so that back substitution gathers
+	// each x[k] in a register from one row instead of scattering each
+	// column over x, which chains the updates of an x[i] through memory.
+	// factor does not make the row form itself: for one solution of a
+	// large network it would cost more than it saves.
+	up     []int32
+	ui     []int32
+	urp    []int32
+	urc    []int32
+	urow   []int32
+	byRows bool
+	ux     []complex128
+	dinv   []complex128
 	// perm[k] is the row of B chosen as pivot k; pinv its inverse.
 	perm, pinv []int32
 	// singular is the first column whose pivot fell below pivotTol of
@@ -151,6 +164,7 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx co
 		}
 	}
 	f.singular = -1
+	f.byRows = false
 	f.li, f.lx, f.ui, f.ux = f.li[:0], f.lx[:0], f.ui[:0], f.ux[:0]
 	clear(f.x)
 	clear(f.visited)
@@ -327,6 +341,42 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx co
 	return f, nil
 }
 
+// rowsOfU makes the row form of U's pattern from its column form, by a
+// counting sort on the rows. The values are not moved: refactor writes
+// every one of them anew, in row order.
+func (f *sparseLU) rowsOfU() {
+	n, nu := f.n, len(f.ui)
+	f.urp = resize(f.urp, n+1)
+	f.urc = resize(f.urc, nu)
+	f.urow = resize(f.urow, nu)
+	clear(f.urp)
+	for _, j := range f.ui {
+		f.urp[j+1]++
+	}
+	for j := 0; j < n; j++ {
+		f.urp[j+1] += f.urp[j]
+	}
+	next := f.pstack[:n] // scratch of factor, free between factorisations
+	copy(next, f.urp[:n])
+	for k := 0; k < n; k++ {
+		for p := f.up[k]; p < f.up[k+1]; p++ {
+			j := f.ui[p]
+			f.urow[p] = next[j]
+			f.urc[next[j]] = int32(k)
+			next[j]++
+		}
+	}
+	f.byRows = true
+}
+
+// resize returns s with length n, reusing its storage when large enough.
+func resize(s []int32, n int) []int32 {
+	if cap(s) >= n {
+		return s[:n]
+	}
+	return make([]int32, n)
+}
+
 // refactor repeats the factorisation on new values of B with the same
 // pattern, keeping the pivot order, and writes the largest entry modulus
 // (abs1) of each column of B into colmax on the way, for the singularity
@@ -339,6 +389,9 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx co
 // be refactorised before use.
 func (f *sparseLU) refactor(b *csc, colmax []float64, ctx context.Context) (bool, error) {
 	n := f.n
+	if !f.byRows {
+		f.rowsOfU()
+	}
 	x := f.x
 	pinv := f.pinv[:n]
 	colmax = colmax[:n]
@@ -371,7 +424,7 @@ func (f *sparseLU) refactor(b *csc, colmax []float64, ctx context.Context) (bool
 			if xj != 0 {
 				axpy(x, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], xj)
 			}
-			f.ux[p] = xj
+			f.ux[f.urow[p]] = xj
 			x[j] = 0
 		}
 		piv := x[k]
@@ -410,22 +463,68 @@ func (f *sparseLU) solve(y, w []complex128) {
 // solveTo sets x to B⁻¹·b, for b in B's row order and x in its column
 // order, leaving b as it was: the rows of b are placed in pivot order in
 // x, and the substitutions run in place there.
-func (f *sparseLU) solveTo(x, b []complex128) {
+//
+// It returns max abs1(b[i]), found on the way, for the backward error.
+func (f *sparseLU) solveTo(x, b []complex128) (normB float64) {
+	n := f.n
+	x = x[:n]
 	pinv := f.pinv[:len(b)]
+	// The right-hand side of a network is mostly zeros (the rows of its
+	// sources); the forward substitution starts at its first non-zero.
+	clear(x)
+	first := n
 	for i, v := range b {
-		x[pinv[i]] = v
+		if v != 0 {
+			k := int(pinv[i])
+			x[k] = v
+			first = min(first, k)
+			if a := abs1(v); a > normB {
+				normB = a
+			}
+		}
 	}
-	for j := 0; j < f.n; j++ {
+	// The loop runs over the index arrays as a whole, column after
+	// column, rather than slicing them per column: columns here hold a
+	// few entries each, and the slicing would cost as much as they do.
+	li, lx := f.li, f.lx[:len(f.li)]
+	lp := f.lp[:n+1]
+	for j := first; j < n; j++ {
 		if xj := x[j]; xj != 0 {
-			axpy(x, f.li[f.lp[j]:f.lp[j+1]], f.lx[f.lp[j]:f.lp[j+1]], xj)
+			for q := int(lp[j]); q < int(lp[j+1]); q++ {
+				x[li[q]] -= lx[q] * xj
+			}
 		}
 	}
-	for k := f.n - 1; k >= 0; k-- {
-		xk := x[k] * f.dinv[k]
-		x[k] = xk
-		if xk != 0 {
-			axpy(x, f.ui[f.up[k]:f.up[k+1]], f.ux[f.up[k]:f.up[k+1]], xk)
+	f.backTo(x)
+	return normB
+}
+
+// backTo finishes solveTo by back substitution with U, by rows when
+// refactor has put U's values in row order, else by columns.
+func (f *sparseLU) backTo(x []complex128) {
+	n := f.n
+	x = x[:n]
+	if !f.byRows {
+		for k := n - 1; k >= 0; k-- {
+			xk := x[k] * f.dinv[k]
+			x[k] = xk
+			if xk != 0 {
+				axpy(x, f.ui[f.up[k]:f.up[k+1]], f.ux[f.up[k]:f.up[k+1]], xk)
+			}
 		}
+		return
+	}
+	urc, ux := f.urc, f.ux[:len(f.urc)]
+	dinv := f.dinv[:n]
+	q := int(f.urp[n])
+	for k := n - 1; k >= 0; k-- {
+		acc := x[k]
+		lo := int(f.urp[k])
+		for q > lo {
+			q--
+			acc -= ux[q] * x[urc[q]]
+		}
+		x[k] = acc * dinv[k]
 	}
 }
 

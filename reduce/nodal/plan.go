@@ -91,6 +91,7 @@ type stampOp uint8
 const (
 	stampNone    stampOp = iota // nothing: joined to one node only, or an ideal short (its entries are constant)
 	stampAdmit                  // admittance 1/Z at (a,a), (b,b), −1/Z at (a,b), (b,a)
+	stampShunt                  // admittance 1/Z at (a,a) only: the other end is the reference
 	stampImp                    // −Z at (c,c), the branch equation of a current unknown
 	stampVolt                   // −Value on the right of the branch equation, row c
 	stampCurrent                // −Value on the right of row a, +Value of row b
@@ -289,6 +290,12 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 				p.op[k] = stampImp
 				p.slot[k] = [4]int32{find(c, c)}
 			}
+		case a < 0 && b >= 0 || b < 0 && a >= 0:
+			// One write instead of three more to the spare entry: a
+			// shunt to the reference at every node would otherwise chain
+			// the whole stamp through that one memory location.
+			p.op[k] = stampShunt
+			p.slot[k] = [4]int32{find(max(a, b), max(a, b))}
 		default:
 			p.op[k] = stampAdmit
 			p.slot[k] = [4]int32{find(a, a), find(b, b), find(a, b), find(b, a)}
@@ -501,16 +508,18 @@ func (p *Plan) stamp(n *reduce.Network) error {
 	for k, op := range p.op {
 		s := &p.slot[k]
 		switch op {
-		case stampAdmit:
+		case stampAdmit, stampShunt:
 			y := recip(els[k].Z)
 			if !finite(y) {
 				e := &els[k]
 				return &NetError{Msg: fmt.Sprintf("%s: the admittance 1/Z is too large to represent", e.Name), Elements: []string{e.Name}, Line: e.Line}
 			}
 			x[s[0]] += y
-			x[s[1]] += y
-			x[s[2]] -= y
-			x[s[3]] -= y
+			if op == stampAdmit {
+				x[s[1]] += y
+				x[s[2]] -= y
+				x[s[3]] -= y
+			}
 		case stampImp:
 			x[s[0]] -= els[k].Z
 		case stampVolt:
@@ -589,13 +598,7 @@ func (p *Plan) factorise(ctx context.Context) error {
 // maxRefine times, and kept only if it lowers the error. It allocates
 // only at the plan's first step of refinement.
 func (p *Plan) solveRefined() {
-	p.lu.solveTo(p.x, p.rhs)
-	normB := 0.0
-	for _, v := range p.rhs {
-		if a := abs1(v); a > normB {
-			normB = a
-		}
-	}
+	normB := p.lu.solveTo(p.x, p.rhs)
 	eta := p.residual(normB)
 	for step := 0; step < maxRefine && eta > refineTarget; step++ {
 		if p.d == nil {
@@ -620,32 +623,31 @@ func (p *Plan) solveRefined() {
 }
 
 // residual sets p.r = b − A·x and returns the normwise backward error.
-// ‖A‖∞ is p.normA, found by factorise.
+// ‖A‖∞ is p.normA, found by factorise. A = Aᵀ (every stamp is symmetric,
+// TestStampSymmetric), so row i of A is read as column i: each r[i] is
+// summed in a register rather than scattered to column by column.
 func (p *Plan) residual(normB float64) float64 {
-	r, x, b := p.r, p.x, &p.b
-	copy(r, p.rhs)
-	normX := 0.0
+	b := &p.b
+	n := b.n
+	r, x, rhs := p.r[:n], p.x[:n], p.rhs[:n]
+	bi, bx := b.i, b.x[:len(b.i)]
+	ends := b.p[1 : n+1]
+	normX, normR := 0.0, 0.0
 	nan := false
-	for j := 0; j < b.n; j++ {
-		xj := x[j]
-		if a := abs1(xj); a > normX {
-			normX = a
+	q := int(b.p[0])
+	for i, end := range ends {
+		acc := rhs[i]
+		for ; q < int(end); q++ {
+			acc -= bx[q] * x[bi[q]]
+		}
+		r[i] = acc
+		if a := abs1(acc); a > normR {
+			normR = a
 		} else if a != a {
 			nan = true
 		}
-		if xj == 0 {
-			continue
-		}
-		lo, hi := b.p[j], b.p[j+1]
-		vals := b.x[lo:hi]
-		for q, i := range b.i[lo:hi] {
-			r[i] -= vals[q] * xj
-		}
-	}
-	normR := 0.0
-	for _, v := range r {
-		if a := abs1(v); a > normR {
-			normR = a
+		if a := abs1(x[i]); a > normX {
+			normX = a
 		} else if a != a {
 			nan = true
 		}

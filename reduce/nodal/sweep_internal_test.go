@@ -84,6 +84,25 @@ func GridRLC(rows, cols int) *reduce.Network {
 	return n
 }
 
+// RLCLadder is a chain of sections series R – series L – shunt C fed by a
+// 230 V source and loaded by 10 Ω at its end: 2·sections + 2 unknowns, a
+// tridiagonal matrix whose factors have no fill at all. Invented example
+// data for sweeps.
+func RLCLadder(sections int) *reduce.Network {
+	n := &reduce.Network{Name: "example data", Reference: "0", Elements: []reduce.Element{
+		{Name: "V1", Kind: reduce.VoltageSource, From: "0", To: "n0", Value: 230},
+	}}
+	for i := range sections {
+		a, m, b := fmt.Sprintf("n%d", i), fmt.Sprintf("m%d", i), fmt.Sprintf("n%d", i+1)
+		n.Elements = append(n.Elements,
+			reduce.Element{Name: fmt.Sprintf("R%d", i), Kind: reduce.Resistor, From: a, To: m, Raw: complex(0.1+0.01*float64(i%7), 0)},
+			reduce.Element{Name: fmt.Sprintf("L%d", i), Kind: reduce.Inductor, From: m, To: b, Raw: complex(1e-4*(1+float64(i%5)), 0)},
+			reduce.Element{Name: fmt.Sprintf("C%d", i), Kind: reduce.Capacitor, From: b, To: "0", Raw: complex(1e-7*(1+float64(i%3)), 0)})
+	}
+	n.Elements = append(n.Elements, reduce.Element{Name: "RL", Kind: reduce.Resistor, From: fmt.Sprintf("n%d", sections), To: "0", Raw: 10})
+	return n
+}
+
 // sweepPoints is the frequency of each of count points spread evenly in
 // the logarithm from 10 Hz to 100 kHz.
 func sweepPoints(count int) []float64 {
@@ -109,22 +128,79 @@ func sweepNets(tb testing.TB, n *reduce.Network, freqs []float64) []*reduce.Netw
 
 // BenchmarkSweepPoint measures one point of a 1000-point sweep over a
 // mesh of about 1000 nodes with the symbolic analysis reused: the numeric
-// refactorisation alone ("refactor"), and the whole point: writing the new
-// values into the matrix, refactorising and solving with refinement
-// ("restamp+refactor+solve"), and the two timed in turn for their ratio
-// ("point/refactor"). "refactor" is the same call the point makes when
-// the pivots pass: it finds the column maxima and ‖A‖₁ on its way, and
-// the point adds the restamp, the solve and the residual. The networks of
-// the points are visited in turn, 1000 of them, so each restamp reads its
-// element values from memory rather than cache. The Solution with its
-// maps of names is not built here; BenchmarkSweepPlan in the external
+// refactorisation alone ("refactor"), a numeric factorisation choosing
+// its pivots ("factor"), and the whole point: writing the new values into
+// the matrix, refactorising and solving with refinement, the residual
+// behind the reported backward error included
+// ("restamp+refactor+solve"), and the point and the refactorisation timed
+// in turn for their ratio ("point/refactor"). "refactor" is the same call
+// the point makes when the pivots pass: it finds the column maxima and
+// ‖A‖₁ on its way.
+//
+// Before each point the values of that point are written into one
+// network, untimed, as the worksheet's sweep does (sheet.solveAgain
+// writes every element's value, then solves), so the point reads them
+// from cache. The "cold" variants visit 1000 separate networks in turn
+// instead, so that every restamp reads its element values from memory:
+// the cost of a caller that keeps a network per point. The Solution with
+// its maps of names is not built here; BenchmarkSweepPlan in the external
 // tests times that.
+//
+// The three networks have about 1000 unknowns each and differ in fill:
+// the grid's factors hold 22 entries per column, the mesh's 12 and the
+// ladder's 3. Restamp, solve and residual cost in proportion to the
+// entries of the matrix and of its factors, the refactorisation in
+// proportion to its multiply-adds, which grow faster than the entries
+// with the fill; so the ratio of a point to a refactorisation falls as
+// the fill rises, and on the ladder, whose factorisation is hardly more
+// work than a solve, it is well above the grid's.
 func BenchmarkSweepPoint(b *testing.B) {
 	for _, net := range []struct {
 		name string
 		n    *reduce.Network
-	}{{"mesh-20x26", MeshNetwork(20, 26)}, {"grid-32x32", GridRLC(32, 32)}} {
+	}{{"mesh-20x26", MeshNetwork(20, 26)}, {"grid-32x32", GridRLC(32, 32)}, {"ladder-500", RLCLadder(500)}} {
 		b.Run(net.name, func(b *testing.B) { benchSweepPoint(b, net.n) })
+	}
+}
+
+// sweepBench holds a plan and the networks of a sweep's points.
+type sweepBench struct {
+	p    *Plan
+	nets []*reduce.Network
+	live *reduce.Network // the one network the warm points are written into
+	k    int
+}
+
+// next returns the network of the next point: live with that point's
+// values written in, or for a cold point the point's own network.
+func (s *sweepBench) next(cold bool) *reduce.Network {
+	n := s.nets[s.k%len(s.nets)]
+	s.k++
+	if cold {
+		return n
+	}
+	for i := range s.live.Elements {
+		e, v := &s.live.Elements[i], &n.Elements[i]
+		e.Raw, e.Z, e.Value = v.Raw, v.Z, v.Value
+	}
+	return s.live
+}
+
+// point does what a sweep point does in this package.
+func (s *sweepBench) point(tb testing.TB, n *reduce.Network) {
+	if err := s.p.stamp(n); err != nil {
+		tb.Fatal(err)
+	}
+	if err := s.p.factorise(context.Background()); err != nil {
+		tb.Fatal(err)
+	}
+	s.p.solveRefined()
+}
+
+// refactor refactorises the matrix last stamped.
+func (s *sweepBench) refactor(tb testing.TB) {
+	if ok, err := s.p.lu.refactor(&s.p.b, s.p.colmax, context.Background()); !ok || err != nil {
+		tb.Fatal("pivot refused", err)
 	}
 }
 
@@ -137,6 +213,9 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 	if _, err := p.Solve(nets[0], calc.RMS); err != nil {
 		b.Fatal(err)
 	}
+	live := *nets[0]
+	live.Elements = slices.Clone(live.Elements)
+	s := &sweepBench{p: p, nets: nets, live: &live}
 	b.Run("refactor", func(b *testing.B) {
 		// pivots chosen for these values, so that all are reused
 		p.lu = nil
@@ -146,12 +225,9 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 		if err := p.factorise(nil); err != nil {
 			b.Fatal(err)
 		}
-		ctx := context.Background()
 		cpu := StartCPU()
 		for b.Loop() {
-			if ok, err := p.lu.refactor(&p.b, p.colmax, ctx); !ok || err != nil {
-				b.Fatal("pivot refused", err)
-			}
+			s.refactor(b)
 		}
 		cpu.Report(b, b.N)
 		b.ReportMetric(float64(p.b.n), "unknowns")
@@ -170,53 +246,47 @@ func benchSweepPoint(b *testing.B, n *reduce.Network) {
 		}
 		cpu.Report(b, b.N)
 	})
-	b.Run("restamp+refactor+solve", func(b *testing.B) {
-		before := p.stats
-		k := 0
-		ctx := context.Background()
-		cpu := StartCPU()
-		for b.Loop() {
-			if err := p.stamp(nets[k%len(nets)]); err != nil {
-				b.Fatal(err)
-			}
-			if err := p.factorise(ctx); err != nil {
-				b.Fatal(err)
-			}
-			p.solveRefined()
-			k++
+	for _, cold := range []bool{false, true} {
+		suffix := ""
+		if cold {
+			suffix = "/cold"
 		}
-		cpu.Report(b, k)
-		b.ReportMetric(float64(p.stats.Repivots-before.Repivots)/float64(k), "repivots/point")
-		b.ReportMetric(float64(p.stats.Refinements-before.Refinements)/float64(k), "refinements/point")
-	})
-	b.Run("point/refactor", func(b *testing.B) {
-		// The two timed in turn, so that a machine shared with other
-		// work slows both alike: the ratio is the figure, the time per
-		// op that of the pair.
-		var tRefactor, tPoint time.Duration
-		k := 0
-		ctx := context.Background()
-		for b.Loop() {
-			t0 := time.Now()
-			if ok, err := p.lu.refactor(&p.b, p.colmax, ctx); !ok || err != nil {
-				b.Fatal("pivot refused", err)
+		b.Run("restamp+refactor+solve"+suffix, func(b *testing.B) {
+			before := p.stats
+			k := 0
+			var t time.Duration
+			for b.Loop() {
+				n := s.next(cold)
+				t0 := time.Now()
+				s.point(b, n)
+				t += time.Since(t0)
+				k++
 			}
-			t1 := time.Now()
-			if err := p.stamp(nets[k%len(nets)]); err != nil {
-				b.Fatal(err)
+			b.ReportMetric(float64(t.Nanoseconds())/float64(k), "point-ns")
+			b.ReportMetric(float64(p.stats.Repivots-before.Repivots)/float64(k), "repivots/point")
+			b.ReportMetric(float64(p.stats.Refinements-before.Refinements)/float64(k), "refinements/point")
+		})
+		b.Run("point/refactor"+suffix, func(b *testing.B) {
+			// The two timed in turn, so that a machine shared with
+			// other work slows both alike: the ratio is the figure,
+			// the time per op that of the pair.
+			var tRefactor, tPoint time.Duration
+			k := 0
+			for b.Loop() {
+				n := s.next(cold)
+				t0 := time.Now()
+				s.refactor(b)
+				t1 := time.Now()
+				s.point(b, n)
+				tRefactor += t1.Sub(t0)
+				tPoint += time.Since(t1)
+				k++
 			}
-			if err := p.factorise(ctx); err != nil {
-				b.Fatal(err)
-			}
-			p.solveRefined()
-			tRefactor += t1.Sub(t0)
-			tPoint += time.Since(t1)
-			k++
-		}
-		b.ReportMetric(float64(tPoint)/float64(tRefactor), "point/refactor")
-		b.ReportMetric(float64(tRefactor.Nanoseconds())/float64(k), "refactor-ns")
-		b.ReportMetric(float64(tPoint.Nanoseconds())/float64(k), "point-ns")
-	})
+			b.ReportMetric(float64(tPoint)/float64(tRefactor), "point/refactor")
+			b.ReportMetric(float64(tRefactor.Nanoseconds())/float64(k), "refactor-ns")
+			b.ReportMetric(float64(tPoint.Nanoseconds())/float64(k), "point-ns")
+		})
+	}
 }
 
 // TestWorkLimits: a network whose estimated work exceeds the bounds is
