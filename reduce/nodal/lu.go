@@ -77,8 +77,13 @@ type sparseLU struct {
 	urc    []int32
 	urow   []int32
 	byRows bool
-	ux     []complex128
-	dinv   []complex128
+	// reach lists, in increasing order, the columns of L a forward
+	// substitution from the rows given to solveSparse passes through;
+	// reached tells that it is made for the present pattern.
+	reach   []int32
+	reached bool
+	ux      []complex128
+	dinv    []complex128
 	// perm[k] is the row of B chosen as pivot k; pinv its inverse.
 	perm, pinv []int32
 	// singular is the first column whose pivot fell below pivotTol of
@@ -164,7 +169,7 @@ func factor(b *csc, colmax []float64, capHint, maxNNZ int, old *sparseLU, ctx co
 		}
 	}
 	f.singular = -1
-	f.byRows = false
+	f.byRows, f.reached = false, false
 	f.li, f.lx, f.ui, f.ux = f.li[:0], f.lx[:0], f.ui[:0], f.ux[:0]
 	clear(f.x)
 	clear(f.visited)
@@ -489,6 +494,57 @@ func (f *sparseLU) solveTo(x, b []complex128) (normB float64) {
 	li, lx := f.li, f.lx[:len(f.li)]
 	lp := f.lp[:n+1]
 	for j := first; j < n; j++ {
+		if xj := x[j]; xj != 0 {
+			for q := int(lp[j]); q < int(lp[j+1]); q++ {
+				x[li[q]] -= lx[q] * xj
+			}
+		}
+	}
+	f.backTo(x)
+	return normB
+}
+
+// solveSparse is solveTo for a b that is zero outside rows, which must be
+// the same rows at every call between two factorisations (a network's
+// right-hand side has its non-zeros at the rows of its sources, and
+// refactor keeps the pattern). The forward substitution then visits
+// only the columns of L those rows reach, found at the first call as in
+// the symbolic step of Gilbert and Peierls (see sparseLU): column j is
+// reached when row j is one of rows or some reached column of L has an
+// entry in row j. Scanning the columns in increasing order finds them in
+// an order the substitution may follow, L being lower triangular.
+func (f *sparseLU) solveSparse(x, b []complex128, rows []int32) (normB float64) {
+	n := f.n
+	x = x[:n]
+	pinv := f.pinv[:len(b)]
+	if !f.reached {
+		mark := f.visited[:n] // scratch of factor, free between factorisations
+		clear(mark)
+		for _, i := range rows {
+			mark[pinv[i]] = 1
+		}
+		f.reach = f.reach[:0]
+		for j := range n {
+			if mark[j] != 0 {
+				f.reach = append(f.reach, int32(j))
+				for _, i := range f.li[f.lp[j]:f.lp[j+1]] {
+					mark[i] = 1
+				}
+			}
+		}
+		f.reached = true
+	}
+	clear(x)
+	for _, i := range rows {
+		v := b[i]
+		x[pinv[i]] = v
+		if a := abs1(v); a > normB {
+			normB = a
+		}
+	}
+	li, lx := f.li, f.lx[:len(f.li)]
+	lp := f.lp[:n+1]
+	for _, j := range f.reach {
 		if xj := x[j]; xj != 0 {
 			for q := int(lp[j]); q < int(lp[j+1]); q++ {
 				x[li[q]] -= lx[q] * xj

@@ -61,8 +61,11 @@ type Plan struct {
 	op   []stampOp
 	slot [][4]int32
 	base []constEntry
-	bx   []complex128 // b.x and the spare entry
-	rhsx []complex128 // rhs and the spare entry
+	// rhsRows are the rows of rhs a source writes to, in increasing
+	// order: the only ones that can be non-zero.
+	rhsRows []int32
+	bx      []complex128 // b.x and the spare entry
+	rhsx    []complex128 // rhs and the spare entry
 
 	lu     *sparseLU
 	colmax []float64
@@ -301,6 +304,23 @@ func analyse(t *topology, direct []bool) (*Plan, error) {
 			p.slot[k] = [4]int32{find(a, a), find(b, b), find(a, b), find(b, a)}
 		}
 	}
+
+	for k, op := range p.op {
+		var rows []int32
+		switch op {
+		case stampVolt:
+			rows = p.slot[k][:1]
+		case stampCurrent:
+			rows = p.slot[k][:2]
+		}
+		for _, r := range rows {
+			if r != int32(N) {
+				p.rhsRows = append(p.rhsRows, r)
+			}
+		}
+	}
+	slices.Sort(p.rhsRows)
+	p.rhsRows = slices.Compact(p.rhsRows)
 
 	p.nodes = slices.Clone(t.nodes)
 	sortNatural(p.nodes)
@@ -598,7 +618,7 @@ func (p *Plan) factorise(ctx context.Context) error {
 // maxRefine times, and kept only if it lowers the error. It allocates
 // only at the plan's first step of refinement.
 func (p *Plan) solveRefined() {
-	normB := p.lu.solveTo(p.x, p.rhs)
+	normB := p.lu.solveSparse(p.x, p.rhs, p.rhsRows)
 	eta := p.residual(normB)
 	for step := 0; step < maxRefine && eta > refineTarget; step++ {
 		if p.d == nil {
