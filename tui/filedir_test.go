@@ -4,6 +4,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -40,5 +41,51 @@ func TestWorksheetFilesBesideIt(t *testing.T) {
 	typeLine(t, m, "d7 = thd(Ic)")
 	if d, ok := m.s.sh.Lookup("d7"); !ok || math.Abs(real(d.V)-0.1) > 1e-12 {
 		t.Errorf("d7 = %v (%v), want THD 0.1", d.V, ok)
+	}
+}
+
+// TestRestoredSessionFilesBesideWorksheet: the session of a worksheet
+// opened by a relative name, restored later by an argand started in
+// another directory (the worksheet named another way), still reads the
+// files its statements name from the worksheet's directory: nothing of
+// it is left out.
+func TestRestoredSessionFilesBesideWorksheet(t *testing.T) {
+	root := t.TempDir()
+	dir := filepath.Join(root, "site", "board2")
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	// example data: invented current spectra and a meter reading file
+	for name, text := range map[string]string{
+		"ib.csv":     "order,value\n1,100 A\n5,20 A\n",
+		"ic.csv":     "order,value\n1,100 A\n7,10 A\n",
+		"meter.csv":  "name,value,unit\nVm,229.5,V\n",
+		"job.argand": "spectrum Ib from ib.csv\nd = thd(Ib)\n",
+	} {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	sess := t.TempDir()
+	t.Chdir(root)
+	m := newModel(t, Options{Dir: sess, File: filepath.Join("site", "board2", "job.argand")})
+	typeLine(t, m, "spectrum Ic from ic.csv")
+	typeLine(t, m, "d7 = thd(Ic)")
+	typeLine(t, m, "readings meter.csv")
+	if m.msgErr {
+		t.Fatalf("typing: %s", m.msg)
+	}
+	m.Close()
+
+	// started again somewhere else, the worksheet named another way
+	t.Chdir(t.TempDir())
+	r := newModel(t, Options{Dir: sess, File: filepath.Join(dir, "job.argand")})
+	if !strings.Contains(r.msg, "restored your session") || r.msgErr {
+		t.Fatalf("restoring: %s", r.msg)
+	}
+	for name, want := range map[string]float64{"d": 0.2, "d7": 0.1, "Vm": 229.5} {
+		if v, ok := r.s.sh.Lookup(name); !ok || math.Abs(real(v.V)-want) > 1e-12 {
+			t.Errorf("%s = %v (%v), want %g", name, v.V, ok, want)
+		}
 	}
 }

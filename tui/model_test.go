@@ -593,7 +593,7 @@ func TestExportAndClipboard(t *testing.T) {
 	}
 	// the saved worksheet replays to the same values
 	b, _ := os.ReadFile(filepath.Join(dir, "s.argand"))
-	sh, sum := replay(strings.Split(strings.TrimSpace(string(b)), "\n"), false)
+	sh, sum := replay(strings.Split(strings.TrimSpace(string(b)), "\n"), false, "")
 	if len(sum.Problems) != 0 {
 		t.Fatal(sum.Problems[0].Err)
 	}

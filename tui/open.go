@@ -209,7 +209,7 @@ func (s *session) blankStart() (string, bool) {
 	s.checkpoint()
 	pf := s.v.PolarFirst
 	comma := s.sh.Settings().Comma
-	s.sh, s.v, s.worksheet = newSheet(s.ascii), view{PolarFirst: pf}, ""
+	s.sh, s.v, s.worksheet, s.dir = newSheet(s.ascii), view{PolarFirst: pf}, "", ""
 	// the decimal marker is how the user writes numbers: a new session
 	// keeps it
 	s.sh.SetDecimalComma(comma)
@@ -230,7 +230,7 @@ func (s *session) blankStart() (string, bool) {
 func (s *session) fresh() {
 	pf := s.v.PolarFirst
 	if s.opt.File != "" {
-		s.worksheet = s.opt.File
+		s.worksheet, s.dir = s.opt.File, worksheetDir(s.opt.File)
 		b, err := os.ReadFile(s.opt.File)
 		switch {
 		case err != nil:
@@ -289,7 +289,7 @@ func (s *session) choose(readOnly bool) {
 			var f file
 			var left []leftOut
 			if sh, f, left, err = decode(data, s.ascii); err == nil {
-				s.sh, s.v, s.worksheet = sh, f.View, f.Worksheet
+				s.sh, s.v, s.worksheet, s.dir = sh, f.View, f.Worksheet, f.dir()
 				s.tidy()
 				s.say(false, "read-only: "+whose+"; nothing you do here is kept")
 				if len(left) > 0 {

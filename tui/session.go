@@ -41,8 +41,12 @@ func (v view) clone() view {
 // file is the session file's content: the worksheet as its accepted
 // statements, which replay to the same values, and the view.
 type file struct {
-	Version    int      `json:"argand_session"`
-	Worksheet  string   `json:"worksheet,omitempty"` // the file opened, if any
+	Version   int    `json:"argand_session"`
+	Worksheet string `json:"worksheet,omitempty"` // the file opened, if any
+	// Dir is the absolute directory of Worksheet when it was opened:
+	// relative file names in the statements are read from there however
+	// argand is started later. Absent in files saved before it.
+	Dir        string   `json:"dir,omitempty"`
 	Statements []string `json:"statements"`
 	View       view     `json:"view"`
 	// Language is the version of the input language the statements were
@@ -66,6 +70,7 @@ type session struct {
 	redo      []snapshot
 	path      string // session file; "" keeps nothing on disk
 	worksheet string // worksheet file opened, the default target of a save
+	dir       string // its absolute directory when opened (see file.Dir)
 	readOnly  bool
 	ascii     bool   // sheets are made in ASCII mode
 	holder    int    // process holding the session when read-only, if known
@@ -101,8 +106,9 @@ func newSheet(ascii bool) *sheet.Sheet {
 // replay runs statements on a fresh sheet by the rules of a worksheet run:
 // every statement that runs is restored, and the summary lists the others
 // (those that fail, and those that read a name a failed one defined).
-func replay(stmts []string, ascii bool) (*sheet.Sheet, sheet.Summary) {
+func replay(stmts []string, ascii bool, dir string) (*sheet.Sheet, sheet.Summary) {
 	sh := newSheet(ascii)
+	sh.SetDir(dir)
 	return sh, sh.Replay(stmts)
 }
 
@@ -131,7 +137,7 @@ func decode(data []byte, ascii bool) (*sheet.Sheet, file, []leftOut, error) {
 		// the replay says which of them read differently now
 		stmts = append([]string{fmt.Sprintf("language %d", f.Language)}, stmts...)
 	}
-	sh, sum := replay(stmts, ascii)
+	sh, sum := replay(stmts, ascii, f.dir())
 	off := len(stmts) - len(f.Statements)
 	var left []leftOut
 	for _, p := range sum.Problems {
@@ -142,6 +148,24 @@ func decode(data []byte, ascii bool) (*sheet.Sheet, file, []leftOut, error) {
 		left = append(left, leftOut{n: k + 1, stmt: f.Statements[k], why: p.Err.Msg, comma: sheet.CommaAt(f.Statements, k)})
 	}
 	return sh, f, left, nil
+}
+
+// dir is the directory the statements' relative file names are read
+// from: Dir, or for a file saved before it the directory of Worksheet as
+// seen from here.
+func (f file) dir() string {
+	if f.Dir != "" || f.Worksheet == "" {
+		return f.Dir
+	}
+	return worksheetDir(f.Worksheet)
+}
+
+// worksheetDir is the absolute directory of the worksheet file w.
+func worksheetDir(w string) string {
+	if abs, err := filepath.Abs(w); err == nil {
+		return filepath.Dir(abs)
+	}
+	return filepath.Dir(w)
 }
 
 // leftOut is a statement of a session that did not replay.
@@ -174,7 +198,7 @@ func keepLeft(path string, left []leftOut, now time.Time) (string, error) {
 
 // encode writes the session file's content.
 func (s *session) encode() []byte {
-	f := file{Version: sessionVersion, Worksheet: s.worksheet, Statements: s.sh.Statements(), View: s.v, Language: calc.Language}
+	f := file{Version: sessionVersion, Worksheet: s.worksheet, Dir: s.dir, Statements: s.sh.Statements(), View: s.v, Language: calc.Language}
 	if f.Statements == nil {
 		f.Statements = []string{}
 	}
@@ -215,7 +239,7 @@ func (s *session) loadFile(path string) (ok bool, note string, unreadable bool) 
 		}
 		return false, fmt.Sprintf("the session file %v", err), true
 	}
-	s.sh, s.v, s.worksheet = sh, f.View, f.Worksheet
+	s.sh, s.v, s.worksheet, s.dir = sh, f.View, f.Worksheet, f.dir()
 	s.tidy()
 	if len(left) > 0 {
 		nums := make([]string, len(left))
@@ -382,13 +406,10 @@ func (s *session) travel(from, to *[]snapshot) bool {
 // relative file names in its statements (readings FILE, spectrum NAME from
 // FILE) are read from there, as argand run reads them. "" without a file.
 func (s *session) fileDir() string {
-	if s.worksheet == "" {
-		return ""
+	if s.dir != "" || s.worksheet == "" {
+		return s.dir
 	}
-	if abs, err := filepath.Abs(s.worksheet); err == nil {
-		return filepath.Dir(abs)
-	}
-	return filepath.Dir(s.worksheet)
+	return worksheetDir(s.worksheet)
 }
 
 // tidy brings the view in line with the sheet: new entries go to the top
