@@ -52,6 +52,11 @@ func Printable(s string) string {
 	return b.String()
 }
 
+// Quoted is s made Printable between double quotes, for naming a piece of
+// input in a message. It does not quote as strconv.Quote does: applied to
+// Printable's output that would write each escape's backslash twice.
+func Quoted(s string) string { return `"` + Printable(s) + `"` }
+
 // PrintableRune is Printable of the one character r.
 func PrintableRune(r rune) string {
 	if r < utf8.RuneSelf {

@@ -92,3 +92,16 @@ func BenchmarkPrintable(b *testing.B) {
 		}
 	}
 }
+
+// TestQuoted: a name quoted in a message carries each escape once.
+func TestQuoted(t *testing.T) {
+	for in, want := range map[string]string{
+		"V1":        `"V1"`,
+		"V\x1b[31m": `"V\x1b[31m"`,
+		"Ω\u202e":   `"Ω\u202e"`,
+	} {
+		if got := Quoted(in); got != want {
+			t.Errorf("Quoted(%q) = %s, want %s", in, got, want)
+		}
+	}
+}

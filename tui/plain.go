@@ -176,7 +176,7 @@ func (r *lineRun) help(name string) {
 	}
 	t, ok := cli.Topic(name)
 	if !ok {
-		r.say(fmt.Sprintf("no help on %q: try a function name (help functions lists them) or a statement word", calc.Printable(name)))
+		r.say(fmt.Sprintf("no help on %s: try a function name (help functions lists them) or a statement word", calc.Quoted(name)))
 		return
 	}
 	fmt.Fprint(r.w, r.th.tr(t))

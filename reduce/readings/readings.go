@@ -205,9 +205,9 @@ func (o Options) row(rec []string, line int, at func(int) int) (Reading, error) 
 	comma := strings.ContainsRune(val, ',')
 	switch {
 	case comma && strings.ContainsRune(val, '.'):
-		return Reading{}, bad(1, "%q holds both a comma and a point: write the value with one decimal marker and no thousands separator", calc.Printable(val))
+		return Reading{}, bad(1, "%s holds both a comma and a point: write the value with one decimal marker and no thousands separator", calc.Quoted(val))
 	case comma && !o.Comma:
-		return Reading{}, bad(1, "%q has a decimal comma: write %q, or put decimal comma before the readings line", calc.Printable(val), strings.ReplaceAll(calc.Printable(val), ",", "."))
+		return Reading{}, bad(1, "%s has a decimal comma: write %s, or put decimal comma before the readings line", calc.Quoted(val), calc.Quoted(strings.ReplaceAll(val, ",", ".")))
 	}
 	q, field, msg := o.value(val, unit, comma, line)
 	if msg != "" {
@@ -221,7 +221,7 @@ func (o Options) row(rec []string, line int, at func(int) int) (Reading, error) 
 		if unit == "" {
 			field = 1 // the unit was written in the value field
 		}
-		return Reading{}, bad(field, "%q is not in a unit of one measured quantity: write the value in V, A, W, var, VA, Ω, S, Hz, F, H, s, rad or ° (or no unit for a ratio)", calc.Printable(strings.TrimSpace(val+" "+unit)))
+		return Reading{}, bad(field, "%s is not in a unit of one measured quantity: write the value in V, A, W, var, VA, Ω, S, Hz, F, H, s, rad or ° (or no unit for a ratio)", calc.Quoted(strings.TrimSpace(val+" "+unit)))
 	}
 	return Reading{Name: name, Value: q, Line: line}, nil
 }
@@ -236,7 +236,7 @@ func (o Options) name(name string) string {
 	r, _ := utf8.DecodeRuneInString(name)
 	switch {
 	case t.Tok != calc.TokIdent || p.Peek().Tok != calc.TokEOF || !(unicode.IsLetter(r) || r == '_'):
-		return fmt.Sprintf("%q is not a name: a name starts with a letter and holds letters, digits and _, as in V_R1", calc.Printable(name))
+		return fmt.Sprintf("%s is not a name: a name starts with a letter and holds letters, digits and _, as in V_R1", calc.Quoted(name))
 	case strings.Contains(name, "."):
 		return fmt.Sprintf("%s: a name cannot contain '.': dotted names are results (such as N.R1.v); write N_R1_v", name)
 	}
@@ -271,7 +271,7 @@ func (o Options) value(val, unit string, comma bool, line int) (calc.Quantity, i
 	})
 	if off != nil {
 		pos, end, _ := off.Span()
-		return calc.Quantity{}, 1, fmt.Sprintf("%q is not a number with a unit (a reading is a measured value: no names, functions or arithmetic)", calc.Printable(val[pos:end]))
+		return calc.Quantity{}, 1, fmt.Sprintf("%s is not a number with a unit (a reading is a measured value: no names, functions or arithmetic)", calc.Quoted(val[pos:end]))
 	}
 	src := val
 	if unit != "" {

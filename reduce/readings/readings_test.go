@@ -91,6 +91,8 @@ func TestErrors(t *testing.T) {
 		{"open quote", "a,\"23,V\n", false, 1, 0, "close the quote"},
 		{"bad UTF-8", "ok,1,V\nab\xffc,1,V\n", false, 2, 3, "UTF-8"},
 		{"after a wide char", "µ1,1,V\nΩa,2x,V\n", false, 2, 4, "name,value,unit"},
+		// a control character in a name is shown escaped once, never sent
+		{"control in a name", "V\x1b[31mx,1,V\n", false, 1, 1, `"V\x1b[31mx" is not a name`},
 		{"empty", "# nothing\n\n", false, 0, 0, "no readings"},
 		{"header only", "name,value,unit\n", false, 0, 0, "no readings"},
 	} {

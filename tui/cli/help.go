@@ -191,7 +191,7 @@ func Help(args []string, w, ew io.Writer, o Options) int {
 		default:
 			t, ok := Topic(args[0])
 			if !ok {
-				fmt.Fprintf(ew, "argand: no help on %q; topics: language, functions, networks, safety, or a function or statement name\n", calc.Printable(args[0]))
+				fmt.Fprintf(ew, "argand: no help on %s; topics: language, functions, networks, safety, or a function or statement name\n", calc.Quoted(args[0]))
 				return ExitBadInput
 			}
 			text = t

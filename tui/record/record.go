@@ -41,7 +41,7 @@ type Job struct {
 // ValidDate reports an error unless d is a date written YYYY-MM-DD.
 func ValidDate(d string) error {
 	if _, err := time.Parse("2006-01-02", d); err != nil || len(d) != 10 {
-		return fmt.Errorf("the date is written YYYY-MM-DD, as in 2026-03-14, not %q", calc.Printable(d))
+		return fmt.Errorf("the date is written YYYY-MM-DD, as in 2026-03-14, not %s", calc.Quoted(d))
 	}
 	return nil
 }
