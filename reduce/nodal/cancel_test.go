@@ -161,3 +161,36 @@ func TestCancelBeforeStart(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+// TestEquivalentStops: a Thevenin or Norton equivalent of a large network
+// stops when its context ends part way through a factorisation, with the
+// context's error, however many solutions it has still to make.
+func TestEquivalentStops(t *testing.T) {
+	n, err := nodal.GridRLC(120, 120).At(50)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, f := range map[string]func(ctx context.Context) error{
+		"thevenin": func(ctx context.Context) error {
+			_, _, _, err := nodal.TheveninContext(ctx, n, "q60_60", "0", calc.RMS)
+			return err
+		},
+		"norton": func(ctx context.Context) error {
+			_, _, _, err := nodal.NortonContext(ctx, n, "q60_60", "0", calc.RMS)
+			return err
+		},
+	} {
+		ctx := newStopAfter(3)
+		err := solveWithin(t, func() error { return f(ctx) })
+		if !errors.Is(err, context.Canceled) {
+			t.Errorf("%s: %v, want the context's error", name, err)
+		}
+		if ctx.polls != 3 {
+			t.Errorf("%s: %d polls after the stop at the 3rd", name, ctx.polls)
+		}
+		// and with a context that never ends, the same call succeeds
+		if err := f(context.Background()); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+}

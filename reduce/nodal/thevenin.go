@@ -1,6 +1,7 @@
 package nodal
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -68,7 +69,10 @@ func freeName(n *reduce.Network, base string) string {
 // whether or not the network holds sources; V_th is the open-circuit
 // voltage. When no path joins a and b with the sources set to zero, Z_th is
 // infinite and the short-circuit current is found instead.
-func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent, error) {
+//
+// Each of its solutions polls ctx (see SolveContext); when ctx ends it
+// returns ctx.Err().
+func twoTerminal(ctx context.Context, n *reduce.Network, a, b string, basis calc.Basis) (*equivalent, error) {
 	if n == nil || len(n.Elements) == 0 {
 		return nil, &NetError{Msg: "the network has no elements"}
 	}
@@ -132,7 +136,7 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 	default:
 		test := freeName(dead, "test source")
 		dead.Elements = append(dead.Elements, reduce.Element{Name: test, Kind: reduce.CurrentSource, From: b, To: a, Value: 1})
-		sol, err := Solve(dead, basis)
+		sol, err := SolveContext(ctx, dead, basis)
 		if err != nil {
 			return nil, err
 		}
@@ -151,7 +155,7 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 		sc := &reduce.Network{Name: p.Name, Reference: b, Elements: append([]reduce.Element(nil), p.Elements...)}
 		short := freeName(sc, "test short")
 		sc.Elements = append(sc.Elements, reduce.Element{Name: short, Kind: reduce.Impedance, From: a, To: b})
-		sol, err := Solve(sc, basis)
+		sol, err := SolveContext(ctx, sc, basis)
 		if err != nil {
 			return nil, err
 		}
@@ -170,7 +174,7 @@ func twoTerminal(n *reduce.Network, a, b string, basis calc.Basis) (*equivalent,
 		return eq, nil
 	}
 
-	sol, err := Solve(p, basis)
+	sol, err := SolveContext(ctx, p, basis)
 	if err != nil {
 		return nil, err
 	}
@@ -227,7 +231,13 @@ func shortPath(n *reduce.Network, a, b string) bool {
 // When Z_th is infinite (a and b joined only through current sources) the
 // Thevenin form does not exist and the error says so; use Norton.
 func Thevenin(n *reduce.Network, a, b string, basis calc.Basis) (vth, zth complex128, steps []calc.Step, err error) {
-	eq, err := twoTerminal(n, a, b, basis)
+	return TheveninContext(context.Background(), n, a, b, basis)
+}
+
+// TheveninContext is Thevenin under ctx: its solutions poll ctx, and when
+// ctx ends before the equivalent is found it returns ctx.Err().
+func TheveninContext(ctx context.Context, n *reduce.Network, a, b string, basis calc.Basis) (vth, zth complex128, steps []calc.Step, err error) {
+	eq, err := twoTerminal(ctx, n, a, b, basis)
 	if err != nil {
 		return 0, 0, nil, err
 	}
@@ -248,7 +258,13 @@ func Thevenin(n *reduce.Network, a, b string, basis calc.Basis) (vth, zth comple
 // When Z_th is 0 (a and b joined by voltage sources and shorts only) the
 // Norton form does not exist and the error says so; use Thevenin.
 func Norton(n *reduce.Network, a, b string, basis calc.Basis) (in, yn complex128, steps []calc.Step, err error) {
-	eq, err := twoTerminal(n, a, b, basis)
+	return NortonContext(context.Background(), n, a, b, basis)
+}
+
+// NortonContext is Norton under ctx: its solutions poll ctx, and when ctx
+// ends before the equivalent is found it returns ctx.Err().
+func NortonContext(ctx context.Context, n *reduce.Network, a, b string, basis calc.Basis) (in, yn complex128, steps []calc.Step, err error) {
+	eq, err := twoTerminal(ctx, n, a, b, basis)
 	if err != nil {
 		return 0, 0, nil, err
 	}

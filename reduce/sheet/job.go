@@ -50,8 +50,8 @@ var errStop = errors.New("stopped")
 //
 // The context is read between samples of the work that runs on working
 // copies (sweep points, tolerance samples), and within the factorisation
-// of a network's equations when the network is being defined, or on a
-// working copy (job.Copy); otherwise the other work of a statement
+// of a network's equations when the network is being defined or its
+// Thevenin or Norton equivalent found, or on a working copy (job.Copy); otherwise the other work of a statement
 // (re-solving the networks a changed value feeds) runs to its end, so
 // that it never leaves the worksheet half changed.
 func (s *Sheet) ExecJob(job Job, src string) ([]calc.Step, []string, error) {

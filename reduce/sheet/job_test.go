@@ -306,3 +306,30 @@ func TestStopResolve(t *testing.T) {
 		t.Error("the network was not re-solved")
 	}
 }
+
+// TestStopThevenin stops a Thevenin equivalent of the 60×60 grid part way
+// through one of its factorisations: the statement is interrupted, the
+// worksheet is exactly as before, and the same statement then defines
+// the equivalent.
+func TestStopThevenin(t *testing.T) {
+	s := New()
+	runLines(t, s, gridBlock(60)...)
+	runLines(t, s, "end")
+	before := fingerprint(s)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	stop := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	const stmt = "thevenin T = g between g30_30 and gnd"
+	_, _, err := s.ExecJob(Job{Ctx: stop}, stmt)
+	var in *Interrupted
+	if !errors.As(err, &in) {
+		t.Fatalf("got %v, want an interruption", err)
+	}
+	if got := fingerprint(s); got != before {
+		t.Errorf("the worksheet changed:\n%s\nwant\n%s", got, before)
+	}
+	runLines(t, s, stmt)
+	if _, ok := s.Lookup("T"); !ok {
+		t.Error("the equivalent was not defined after the stop")
+	}
+}

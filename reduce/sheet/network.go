@@ -481,7 +481,7 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 	if err != nil {
 		return err
 	}
-	vth, zth, steps, err := nodal.Thevenin(net, tl.a, tl.b, s.ctx.Basis)
+	vth, zth, steps, err := nodal.TheveninContext(s.jobCtx(), net, tl.a, tl.b, s.ctx.Basis)
 	deps := map[string]bool{"f": true, "net:" + tl.nw.name: true}
 	for k := range tl.nw.deps {
 		deps[k] = true
@@ -497,7 +497,7 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 		if err != nil {
 			return calc.Quantity{}, nil, err
 		}
-		vth, zth, _, err := nodal.Thevenin(net, a, b, s.ctx.Basis)
+		vth, zth, _, err := nodal.TheveninContext(s.jobCtx(), net, a, b, s.ctx.Basis)
 		return calc.Q(vth, calc.DimVoltage), theveninExtras(vth, zth), err
 	}
 	if e := s.setValue(d); e != nil {
@@ -603,7 +603,7 @@ func (s *Sheet) theveninNet(p *calc.Parser, tl theveninLine) (*reduce.Network, e
 // no finite Z_th, but its I_N and Y_N are defined.
 func (s *Sheet) defineNorton(p *calc.Parser, tl theveninLine, net *reduce.Network, deps map[string]bool, thErr error) error {
 	nw, a, b, name := tl.nw, tl.a, tl.b, tl.name.Text
-	in, yn, nsteps, nerr := nodal.Norton(net, a, b, s.ctx.Basis)
+	in, yn, nsteps, nerr := nodal.NortonContext(s.jobCtx(), net, a, b, s.ctx.Basis)
 	if nerr != nil {
 		return lineErr(s.line, 1, 8, "%v", thErr)
 	}
@@ -614,7 +614,7 @@ func (s *Sheet) defineNorton(p *calc.Parser, tl theveninLine, net *reduce.Networ
 		if err != nil {
 			return calc.Quantity{}, nil, err
 		}
-		in, yn, _, err := nodal.Norton(net, a, b, s.ctx.Basis)
+		in, yn, _, err := nodal.NortonContext(s.jobCtx(), net, a, b, s.ctx.Basis)
 		return calc.Q(in, calc.DimCurrent), []calc.Operand{{Name: "in", Value: calc.Q(in, calc.DimCurrent)}, {Name: "yn", Value: calc.Q(yn, calc.DimAdmittance)}}, err
 	}
 	if e := s.setValue(d); e != nil {
