@@ -22,7 +22,6 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
-	"slices"
 
 	"argand/calc"
 	"argand/reduce"
@@ -120,23 +119,33 @@ func SolveContext(ctx context.Context, n *reduce.Network, basis calc.Basis) (*So
 		return nil, err
 	}
 	// Analyse has checked every value of n, and n fits p
-	return p.solve(ctx, n, basis)
+	return p.solve(ctx, n, basis, nil)
 }
 
 // solution builds the Solution from the solved unknowns p.x.
-func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
+func (p *Plan) solution(t *topology, basis calc.Basis, prev *Solution) (*Solution, error) {
 	els := t.net.Elements
 	nodeUnk, pos, curOf, x := p.nodeUnk, p.pos, p.curOf, p.x
 	N := p.b.n
 	s := &Solution{
 		Basis:         basis,
 		Reference:     t.net.Reference,
-		Voltage:       make(map[string]complex128, len(t.nodes)),
-		KCL:           make(map[string]complex128, len(t.nodes)),
 		Unknowns:      N,
 		Factor:        p.lu.nnz(),
 		BackwardError: p.eta,
 		Notes:         append([]string(nil), t.notes...),
+	}
+	if prev != nil && len(prev.Branches) == len(els) && prev.Voltage != nil && prev.KCL != nil {
+		// every entry and branch is written below
+		clear(prev.Voltage)
+		clear(prev.KCL)
+		s.Voltage, s.KCL, s.Branches, s.Nodes = prev.Voltage, prev.KCL, prev.Branches, prev.Nodes[:0]
+		*prev = *s
+		s = prev
+	} else {
+		s.Voltage = make(map[string]complex128, len(t.nodes))
+		s.KCL = make(map[string]complex128, len(t.nodes))
+		s.Branches = make([]Branch, len(els))
 	}
 	for k, d := range p.direct {
 		if d {
@@ -156,7 +165,7 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 			return nil, &NetError{Msg: fmt.Sprintf("the voltage of node %s is too large to represent", t.nodes[i]), Nodes: []string{t.nodes[i]}}
 		}
 	}
-	s.Nodes = slices.Clone(p.nodes)
+	s.Nodes = append(s.Nodes, p.nodes...)
 	half := 1.0
 	if basis == calc.Peak {
 		half = 0.5
@@ -178,12 +187,12 @@ func (p *Plan) solution(t *topology, basis calc.Basis) (*Solution, error) {
 		}
 		s.Voltage[t.nodes[i]] = x
 	}
-	s.Branches = make([]Branch, len(els))
 	for k := range els {
 		// filled in place: a network of many elements would otherwise
 		// copy each branch, pointers and all, into the fresh slice
 		e, br := &els[k], &s.Branches[k]
 		br.Name, br.Kind, br.From, br.To, br.Line = e.Name, e.Kind, e.From, e.To, e.Line
+		br.Value, br.Z, br.V, br.I = 0, 0, 0, 0 // a reused branch holds the last values
 		if e.Kind.IsSource() {
 			br.Value = e.Value
 		} else {

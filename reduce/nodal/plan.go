@@ -385,6 +385,16 @@ func (p *Plan) Solve(n *reduce.Network, basis calc.Basis) (*Solution, error) {
 // plan's fitness for it is changed by a stopped solution; the plan's next
 // solution refactorises afresh.
 func (p *Plan) SolveContext(ctx context.Context, n *reduce.Network, basis calc.Basis) (*Solution, error) {
+	return p.SolveReuse(ctx, n, basis, nil)
+}
+
+// SolveReuse is SolveContext writing the solution into the maps and the
+// branches of prev, a solution of this plan that its caller no longer
+// needs, and returning prev, or a new solution when prev is nil or of
+// another network. A sweep that reads each point's values before the
+// next then allocates its maps and branches once, not at every point.
+// On an error prev is left unusable.
+func (p *Plan) SolveReuse(ctx context.Context, n *reduce.Network, basis calc.Basis, prev *Solution) (*Solution, error) {
 	if why := p.differs(n); why != "" {
 		return nil, &NetError{Msg: "the network does not fit the analysed topology: " + why + "; analyse it afresh"}
 	}
@@ -393,12 +403,12 @@ func (p *Plan) SolveContext(ctx context.Context, n *reduce.Network, basis calc.B
 			return nil, err
 		}
 	}
-	return p.solve(ctx, n, basis)
+	return p.solve(ctx, n, basis, prev)
 }
 
-// solve is SolveContext for a network known to fit the plan and to have
+// solve is SolveReuse for a network known to fit the plan and to have
 // valid values: the one just analysed.
-func (p *Plan) solve(ctx context.Context, n *reduce.Network, basis calc.Basis) (*Solution, error) {
+func (p *Plan) solve(ctx context.Context, n *reduce.Network, basis calc.Basis, prev *Solution) (*Solution, error) {
 	t := p.t.with(n)
 	if err := p.factorSolve(ctx, n, t); err != nil {
 		return nil, err
@@ -417,7 +427,7 @@ func (p *Plan) solve(ctx context.Context, n *reduce.Network, basis calc.Basis) (
 		}
 	}
 	p.stats.Solves++
-	return p.solution(t, basis)
+	return p.solution(t, basis, prev)
 }
 
 // factorSolve stamps n's values, factorises numerically and solves with

@@ -48,6 +48,9 @@ type network struct {
 type netSolver struct {
 	net  *reduce.Network
 	plan *nodal.Plan // the symbolic analysis, made at the first solve
+	// last is the solution of the last sample, whose maps and branches
+	// the next one is written into: the worksheet has read its values.
+	last *nodal.Solution
 }
 
 // solve solves the network at its present element values. The ordering
@@ -62,7 +65,9 @@ func (v *netSolver) solve(ctx context.Context, basis calc.Basis) (*nodal.Solutio
 		}
 		v.plan = p
 	}
-	return v.plan.SolveContext(ctx, v.net, basis)
+	sol, err := v.plan.SolveReuse(ctx, v.net, basis, v.last)
+	v.last = sol // nil after an error: prev is then unusable
+	return sol, err
 }
 
 // NetworkInfo describes a defined network for the app.
@@ -423,8 +428,15 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 		when["net:"+n] = *tick
 		*tick++
 		old := make([]calc.Quantity, len(nw.results))
-		for i, r := range nw.results {
-			old[i] = s.byName[r].value
+		results := nw.resultDefs // kept by a working copy; else looked up
+		if len(results) != len(nw.results) {
+			results = make([]*def, len(nw.results))
+			for i, r := range nw.results {
+				results[i] = s.byName[r]
+			}
+		}
+		for i, d := range results {
+			old[i] = d.value
 		}
 		reason := ""
 		if !s.quiet {
@@ -447,8 +459,18 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 			}
 			return false, fmt.Errorf("network %s: %w", n, err)
 		}
+		after := nw.resultDefs
+		if len(after) != len(nw.results) {
+			after = make([]*def, len(nw.results))
+			for i, r := range nw.results {
+				after[i] = s.byName[r]
+			}
+		}
 		for i, r := range nw.results {
-			if d := s.byName[r]; d != nil && (i >= len(old) || d.value.V != old[i].V) {
+			if d := after[i]; d != nil && (i >= len(old) || d.value.V != old[i].V) {
+				if s.samples != nil && !s.samples.reads(s, r) {
+					continue // a sample's result that nothing reads
+				}
 				changed[r] = true
 				when[r] = *tick
 				*tick++

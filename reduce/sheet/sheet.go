@@ -115,6 +115,9 @@ type Sheet struct {
 	quiet bool
 	// job is the running statement's cancellation and progress, or nil.
 	job *Job
+	// samples holds the maps of propagation a working copy reuses from
+	// one sample to the next (see sampleMaps); nil elsewhere.
+	samples *sampleMaps
 	// resolving is set while the networks a changed value feeds are
 	// solved again on the worksheet itself, which a stop part way would
 	// leave half changed: their factorisations then run to the end.
@@ -512,6 +515,41 @@ func (s *Sheet) cycle(name string, deps map[string]bool) string {
 // name changed (the inputs at tick 0) and evaluated[d] the tick of d's
 // last evaluation in this run: a definition is due when a name it reads
 // changed after that.
+// sampleMaps are the maps of a propagation, kept by a working copy that
+// evaluates many samples: a sample of a large network marks thousands of
+// names changed, and maps made afresh for each would spend most of the
+// sample growing them. clear keeps their storage. busy guards against a
+// propagation within a propagation taking the same maps.
+type sampleMaps struct {
+	changed   map[string]bool
+	when      map[string]int
+	evaluated map[*def]int
+	busy      bool
+	// read holds every name a definition or a network reads, made at
+	// the first sample: the definitions do not change between samples.
+	// A network result nothing reads need not be marked changed, and
+	// the thousands of results of a large network mostly are not.
+	read map[string]bool
+}
+
+// reads reports whether some definition or network of s reads name.
+func (m *sampleMaps) reads(s *Sheet, name string) bool {
+	if m.read == nil {
+		m.read = map[string]bool{}
+		for _, d := range s.defs {
+			for k := range d.deps {
+				m.read[k] = true
+			}
+		}
+		for _, nw := range s.nets {
+			for k := range nw.deps {
+				m.read[k] = true
+			}
+		}
+	}
+	return m.read[name]
+}
+
 type propagation struct {
 	changed   map[string]bool
 	when      map[string]int
@@ -533,11 +571,18 @@ type propagation struct {
 // re-solved network.
 func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
 	pr := &propagation{
-		changed:   changed,
-		when:      make(map[string]int, len(changed)),
-		evaluated: map[*def]int{},
-		tick:      1,
-		step:      &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"},
+		changed: changed,
+		tick:    1,
+		step:    &calc.Step{Kind: "recompute", Source: reason, Rule: "re-evaluated what depends on the change"},
+	}
+	if m := s.samples; m != nil && !m.busy {
+		m.busy = true
+		defer func() { m.busy = false }()
+		clear(m.when)
+		clear(m.evaluated)
+		pr.when, pr.evaluated = m.when, m.evaluated
+	} else {
+		pr.when, pr.evaluated = make(map[string]int, len(changed)), map[*def]int{}
 	}
 	for k := range changed {
 		pr.when[k] = 0

@@ -205,6 +205,7 @@ func (s *Sheet) Clone() *Sheet {
 		c.nets[k] = &nv
 	}
 	c.order = append([]string(nil), s.order...)
+	c.samples = nil // a copy's propagations are its own
 	if s.open != nil {
 		c.open = c.nets[s.open.name]
 		if c.open == nil {

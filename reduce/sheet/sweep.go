@@ -41,7 +41,13 @@ func (s *Sheet) AtFrequency(src string, e calc.Expr, hz float64) (calc.Quantity,
 func (c *Sheet) evalAt(src string, e calc.Expr, hz float64) (calc.Quantity, error) {
 	c.ctx.Freq = hz
 	c.lenient = map[string]error{}
-	if _, err := c.propagate(map[string]bool{"f": true, "w": true, "ω": true}, ""); err != nil {
+	if c.samples == nil {
+		c.samples = &sampleMaps{changed: map[string]bool{}, when: map[string]int{}, evaluated: map[*def]int{}}
+	}
+	changed := c.samples.changed
+	clear(changed)
+	changed["f"], changed["w"], changed["ω"] = true, true, true
+	if _, err := c.propagate(changed, ""); err != nil {
 		return calc.Quantity{}, err
 	}
 	if err := c.broken(e); err != nil {

@@ -136,3 +136,43 @@ func BenchmarkNetworkBuild(b *testing.B) {
 		})
 	}
 }
+
+// meshSheet is the node block of a rows×cols mesh of series R–L sections
+// with a capacitor to the reference at every node, fed at one corner and
+// loaded at the other: invented example data, the worksheet form of the
+// mesh the nodal package's sweep benchmarks solve (about 1000 unknowns
+// at 20×26).
+func meshSheet(rows, cols int) []string {
+	lines := []string{"network m reference gnd", "voltage source V1 = 230 V from gnd to m0_0"}
+	k := 0
+	for r := range rows {
+		for c := range cols {
+			if c+1 < cols {
+				lines = append(lines, fmt.Sprintf("resistor RH%d = %g Ω from m%d_%d to h%d", k, 0.2+0.01*float64(k%13), r, c, k),
+					fmt.Sprintf("inductor LH%d = %g mH from h%d to m%d_%d", k, 0.1*(1+float64(k%5)), k, r, c+1))
+			}
+			if r+1 < rows {
+				lines = append(lines, fmt.Sprintf("resistor RV%d = %g Ω from m%d_%d to m%d_%d", k, 0.5+0.02*float64(k%7), r, c, r+1, c))
+			}
+			lines = append(lines, fmt.Sprintf("capacitor C%d = %g µF from m%d_%d to gnd", k, 0.1*(1+float64(k%3)), r, c))
+			k++
+		}
+	}
+	return append(lines, fmt.Sprintf("resistor RL = 10 Ω from m%d_%d to gnd", rows-1, cols-1), "end")
+}
+
+// BenchmarkSweepMesh is a 200-point worksheet sweep over the 20×26 mesh
+// (1023 unknowns, 2120 elements): the end-to-end cost of a sweep point,
+// re-evaluating every element at the frequency, solving on the kept
+// symbolic analysis and writing every node voltage and branch result.
+func BenchmarkSweepMesh(b *testing.B) {
+	s := New()
+	runLines(b, s, meshSheet(20, 26)...)
+	src := "sweep m.RL.v from 10 Hz to 100 kHz points 200"
+	cpu := cpuTime()
+	for b.Loop() {
+		c := s.Clone()
+		runLines(b, c, src)
+	}
+	perUnit(b, cpu, 200, "point")
+}
