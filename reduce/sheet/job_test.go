@@ -127,6 +127,44 @@ func TestSweepReusesNetwork(t *testing.T) {
 	}
 }
 
+// TestSweepThroughDefinitions: a sweep of a definition that reads a
+// network result, and of one that reads a second network fed by the
+// first (a voltage source set to a result), follows the results at every
+// point: a sample marks changed each result something reads. The
+// divider (common practice): V_C = V·Z_C/(R + Z_C), and the second
+// network halves what it is fed.
+func TestSweepThroughDefinitions(t *testing.T) {
+	s := New()
+	runLines(t, s,
+		"network rc reference gnd",
+		"voltage source V1 = 10 V from gnd to a",
+		"resistor R1 = 1 kΩ from a to b",
+		"capacitor C1 = 100 nF from b to gnd",
+		"end",
+		"X = 2 * rc.C1.v",
+		"Vf = rc.C1.v",
+		"network half reference gnd",
+		"voltage source V2 = Vf from gnd to p",
+		"resistor Ra = 1 kΩ from p to q",
+		"resistor Rb = 1 kΩ from q to gnd",
+		"end",
+		"sweep X from 100 Hz to 10 kHz points 21",
+		"sweep half.Rb.v from 100 Hz to 10 kHz points 21")
+	sw := s.Sweeps()
+	if len(sw) != 2 {
+		t.Fatalf("%d sweeps", len(sw))
+	}
+	for i, scale := range []complex128{2, 0.5} {
+		for _, pt := range sw[i].Table.Points {
+			zc := 1 / complex(0, 2*math.Pi*pt.Freq*100e-9)
+			want := scale * 10 * zc / (1000 + zc)
+			if got := pt.Value.V; cmplx.Abs(got-want) > 1e-9*cmplx.Abs(want) {
+				t.Errorf("sweep %d at %g Hz: %v, want %v", i, pt.Freq, got, want)
+			}
+		}
+	}
+}
+
 // TestBudget refuses a statement whose estimated work exceeds the budget,
 // saying the estimate, the budget and both ways out, and runs it once the
 // budget is raised.

@@ -1,6 +1,8 @@
 package sheet
 
 import (
+	"math"
+	"math/cmplx"
 	"strings"
 	"testing"
 )
@@ -56,5 +58,43 @@ sweep Zs from 0.5 rad/s to 1.5 rad/s points 3 linear
 	}
 	if v := sw[1].Table.Points[1].Value.V; v != 0 {
 		t.Errorf("series resonance: Z = %v, want exactly 0 (the reactances cancel)", v)
+	}
+}
+
+// TestElementFollowsNames: an element whose value is written with names
+// (resistor R1 = Rnom, voltage source V2 = Vf) follows them as any
+// definition does, in a network and out of one; given a number later it
+// stops following; a name changed to a value of the wrong kind is
+// refused naming the element. The divider (common practice): V_Rb =
+// V·Rb/(Ra + Rb).
+func TestElementFollowsNames(t *testing.T) {
+	s := New()
+	runLines(t, s,
+		"Rnom = 100 Ω",
+		"Vf = 10 V",
+		"Lnom = 10 mH",
+		"inductor L1 = 2 * Lnom",
+		"network d reference g",
+		"voltage source V2 = Vf from g to a",
+		"resistor Ra = Rnom from a to b",
+		"resistor Rb = 300 Ω from b to g",
+		"end",
+		"Rnom = 200 Ω",
+		"Vf = 5 V",
+		"Lnom = 1 mH",
+		"frequency 1 kHz")
+	want := func(name string, v complex128) {
+		t.Helper()
+		got, ok := s.Lookup(name)
+		if !ok || cmplx.Abs(got.V-v) > 1e-12*cmplx.Abs(v) {
+			t.Errorf("%s = %v (%v), want %v", name, got.V, ok, v)
+		}
+	}
+	want("d.Rb.v", 5*300.0/500)
+	want("L1", complex(0, 2*math.Pi*1000*2e-3))
+	runLines(t, s, "Ra = 300 Ω", "Rnom = 1 Ω")
+	want("d.Rb.v", 5*300.0/600)
+	if _, _, err := s.Exec("Vf = 3 A"); err == nil || !strings.Contains(err.Error(), "while re-evaluating V2 (line 6): V2 is a voltage source: its value is in V, got A") {
+		t.Errorf("a source fed a current: %v", err)
 	}
 }

@@ -49,6 +49,14 @@ type element struct {
 	from string        // nodes, inside a network block
 	to   string
 	net  string
+	// expr is the value as written when it reads names (resistor R1 =
+	// Rnom, voltage source V2 = Vf): raw is worked out from it again
+	// whenever a name it reads changes, as any definition's value is.
+	// nil for a value written as a number. src and line are the
+	// statement it stands in, for the places of errors.
+	expr calc.Expr
+	src  string
+	line int
 }
 
 // Settings are the worksheet settings, each set by a statement so that a
@@ -699,6 +707,13 @@ func (s *Sheet) noteChange(pr *propagation, d *def, nv calc.Quantity) bool {
 // element value.
 func (s *Sheet) reeval(d *def) (calc.Quantity, []calc.Operand, error) {
 	if d.elem != nil {
+		if d.elem.expr != nil {
+			raw, err := s.elementRawAgain(d)
+			if err != nil {
+				return calc.Quantity{}, nil, err
+			}
+			d.elem.raw = raw
+		}
 		q, err := s.elementValue(d.elem)
 		return q, nil, err
 	}
@@ -714,6 +729,53 @@ func (s *Sheet) reeval(d *def) (calc.Quantity, []calc.Operand, error) {
 		return calc.Quantity{}, nil, err
 	}
 	return r.Value, r.Extra, nil
+}
+
+// elementRawAgain evaluates the value expression of element d again,
+// by the rules elementRaw applied when it was defined: a plain number
+// takes the element's unit, and the value must be in that unit (and real
+// for a resistor, an inductor or a capacitor).
+func (s *Sheet) elementRawAgain(d *def) (calc.Quantity, error) {
+	el := d.elem
+	r, err := s.evaluator(el.src, el.line).Eval(el.expr)
+	if err != nil {
+		return calc.Quantity{}, err
+	}
+	want := elementDim(el.kind)
+	v := r.Value
+	if q, ok := calc.AsUnit(el.expr, v, want, calc.KindPlain); ok {
+		v = q
+	}
+	if v.Dim != want {
+		return calc.Quantity{}, fmt.Errorf("%s is %s %s: its value is in %s, got %s", d.name, article(el.kind.String()), el.kind, calc.UnitSymbol(want, 0, false), calc.DimName(v.Dim, false))
+	}
+	if (el.kind == reduce.Resistor || el.kind == reduce.Inductor || el.kind == reduce.Capacitor) && !v.IsReal() {
+		return calc.Quantity{}, fmt.Errorf("%s is %s %s and takes a real value; use impedance for a complex one", d.name, article(el.kind.String()), el.kind)
+	}
+	return v, nil
+}
+
+// elementDeps returns what an element whose value is written as e reads:
+// the names in e, and the frequency for an inductor or a capacitor; nil
+// when it reads nothing. The expression is kept (element.expr) only when
+// it reads names: a number never changes.
+func elementDeps(kind reduce.ElementKind, e calc.Expr) (map[string]bool, calc.Expr) {
+	deps := depsOf(e)
+	delete(deps, "f") // added back below for the kinds that read it
+	var expr calc.Expr
+	if len(deps) > 0 {
+		expr = e
+		if depsOf(e)["f"] {
+			deps["f"] = true // the value itself reads the frequency
+		}
+	}
+	if kind == reduce.Inductor || kind == reduce.Capacitor {
+		deps["f"] = true
+	}
+	if len(deps) == 0 {
+		return nil, nil // a resistor of a number reads nothing: no map
+	}
+	return deps, expr
 }
 
 // elementValue is the quantity an element name stands for: its impedance

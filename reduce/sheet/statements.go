@@ -822,9 +822,8 @@ func (s *Sheet) stmtElement(p *calc.Parser, net *network) error {
 		}
 	}
 	d := &def{name: el.name.Text, src: p.Source(), line: s.line, value: v, elem: elem}
-	if el.kind == reduce.Inductor || el.kind == reduce.Capacitor {
-		d.deps = map[string]bool{"f": true} // a resistor reads nothing: no map
-	}
+	d.deps, elem.expr = elementDeps(el.kind, el.e)
+	elem.src, elem.line = p.Source(), s.line
 	_, existed := s.byName[d.name]
 	if err := s.setValue(d); err != nil {
 		return lineErr(s.line, el.name.Col, 1, "%v", err)
@@ -974,6 +973,9 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 	if err != nil {
 		return lineErr(s.line, col, n, "%v", err)
 	}
+	// the new value follows what it reads, as the first one did
+	d.deps, el.expr = elementDeps(el.kind, e)
+	el.src, el.line = p.Source(), s.line
 	*d.elem = el
 	d.value = z
 	s.record(calc.Step{Kind: "element", Source: p.Source(), Rule: d.elem.kind.String() + " value changed", Results: []calc.Operand{{Name: d.name, Value: z}}, Notes: notes})
