@@ -1,6 +1,7 @@
 package nodal_test
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"testing"
@@ -126,8 +127,10 @@ func BenchmarkShapes(b *testing.B) {
 // BenchmarkSweepPlan is the end-to-end cost of a 1000-point sweep from
 // 10 Hz to 100 kHz over a mesh of about 1000 nodes (MeshNetwork 20×26):
 // each point evaluates every impedance at its frequency and solves to a
-// full Solution, either with one Plan for the whole sweep ("plan") or
-// with a fresh analysis at every point ("solve"). The counts of reused
+// full Solution, either with one Plan for the whole sweep ("plan"; with
+// each solution written into the last one's maps and branches,
+// "plan+reuse", as the worksheet's sweeps do) or with a fresh analysis at
+// every point ("solve"). The counts of reused
 // and refused pivots go with the figures.
 func BenchmarkSweepPlan(b *testing.B) {
 	n := nodal.MeshNetwork(20, 26)
@@ -135,32 +138,46 @@ func BenchmarkSweepPlan(b *testing.B) {
 	for k := range freqs {
 		freqs[k] = 10 * math.Pow(10, 4*float64(k)/999)
 	}
-	b.Run("plan", func(b *testing.B) {
-		var st nodal.Stats
-		cpu := nodal.StartCPU()
-		for b.Loop() {
-			var p *nodal.Plan
-			for _, f := range freqs {
-				nf, err := n.At(f)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if p == nil {
-					if p, err = nodal.Analyse(nf); err != nil {
+	for _, reuse := range []bool{false, true} {
+		name := "plan"
+		if reuse {
+			name = "plan+reuse"
+		}
+		b.Run(name, func(b *testing.B) {
+			var st nodal.Stats
+			cpu := nodal.StartCPU()
+			for b.Loop() {
+				var p *nodal.Plan
+				var last *nodal.Solution
+				for _, f := range freqs {
+					nf, err := n.At(f)
+					if err != nil {
 						b.Fatal(err)
 					}
+					if p == nil {
+						if p, err = nodal.Analyse(nf); err != nil {
+							b.Fatal(err)
+						}
+					}
+					var s *nodal.Solution
+					if reuse {
+						s, err = p.SolveReuse(context.Background(), nf, calc.RMS, last)
+					} else {
+						s, err = p.Solve(nf, calc.RMS)
+					}
+					if err != nil {
+						b.Fatal(err)
+					}
+					last = s
 				}
-				if _, err := p.Solve(nf, calc.RMS); err != nil {
-					b.Fatal(err)
-				}
+				st = p.Stats()
 			}
-			st = p.Stats()
-		}
-		cpu.Report(b, b.N)
-		b.ReportMetric(float64(st.Refactorisations), "refactorisations")
-		b.ReportMetric(float64(st.Repivots), "repivots")
-		b.ReportMetric(float64(st.Refinements), "refinements")
-	})
+			cpu.Report(b, b.N)
+			b.ReportMetric(float64(st.Refactorisations), "refactorisations")
+			b.ReportMetric(float64(st.Repivots), "repivots")
+			b.ReportMetric(float64(st.Refinements), "refinements")
+		})
+	}
 	b.Run("solve", func(b *testing.B) {
 		cpu := nodal.StartCPU()
 		for b.Loop() {
