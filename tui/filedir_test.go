@@ -8,27 +8,35 @@ import (
 	"testing"
 )
 
-// TestWorksheetFilesBesideIt: a worksheet opened in the app reads the
-// files it names (spectrum NAME from FILE) from its own directory, as
-// argand run does, wherever argand was started; so does a statement typed
-// afterwards.
-func TestWorksheetFilesBesideIt(t *testing.T) {
-	root := t.TempDir()
-	dir := filepath.Join(root, "site", "board2")
+// siteFiles writes a worksheet and the files it reads into root/site/board2
+// of a fresh directory root. Example data: invented current spectra, 100 A
+// with 20 % fifth and with 10 % seventh, and a meter reading.
+func siteFiles(t *testing.T) (root, dir string) {
+	t.Helper()
+	root = t.TempDir()
+	dir = filepath.Join(root, "site", "board2")
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		t.Fatal(err)
 	}
-	// example data: an invented current spectrum, 100 A with 20 % fifth
-	// and 10 % seventh
 	for name, text := range map[string]string{
 		"ib.csv":     "order,value\n1,100 A\n5,20 A\n",
 		"ic.csv":     "order,value\n1,100 A\n7,10 A\n",
+		"meter.csv":  "name,value,unit\nVm,229.5,V\n",
 		"job.argand": "spectrum Ib from ib.csv\nd = thd(Ib)\n",
 	} {
 		if err := os.WriteFile(filepath.Join(dir, name), []byte(text), 0o644); err != nil {
 			t.Fatal(err)
 		}
 	}
+	return root, dir
+}
+
+// TestWorksheetFilesBesideIt: a worksheet opened in the app reads the
+// files it names (spectrum NAME from FILE) from its own directory, as
+// argand run does, wherever argand was started; so does a statement typed
+// afterwards.
+func TestWorksheetFilesBesideIt(t *testing.T) {
+	_, dir := siteFiles(t)
 	t.Chdir(t.TempDir()) // started somewhere else
 	m := newModel(t, Options{File: filepath.Join(dir, "job.argand")})
 	if m.msgErr {
@@ -50,22 +58,7 @@ func TestWorksheetFilesBesideIt(t *testing.T) {
 // files its statements name from the worksheet's directory: nothing of
 // it is left out.
 func TestRestoredSessionFilesBesideWorksheet(t *testing.T) {
-	root := t.TempDir()
-	dir := filepath.Join(root, "site", "board2")
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		t.Fatal(err)
-	}
-	// example data: invented current spectra and a meter reading file
-	for name, text := range map[string]string{
-		"ib.csv":     "order,value\n1,100 A\n5,20 A\n",
-		"ic.csv":     "order,value\n1,100 A\n7,10 A\n",
-		"meter.csv":  "name,value,unit\nVm,229.5,V\n",
-		"job.argand": "spectrum Ib from ib.csv\nd = thd(Ib)\n",
-	} {
-		if err := os.WriteFile(filepath.Join(dir, name), []byte(text), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
+	root, dir := siteFiles(t)
 	sess := t.TempDir()
 	t.Chdir(root)
 	m := newModel(t, Options{Dir: sess, File: filepath.Join("site", "board2", "job.argand")})

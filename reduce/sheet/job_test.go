@@ -94,19 +94,23 @@ func TestStopAtAnyPoint(t *testing.T) {
 	}
 }
 
+// rcNetwork is an R–C divider fed by 10 V (invented example data).
+var rcNetwork = []string{
+	"network rc reference gnd",
+	"voltage source V1 = 10 V from gnd to a",
+	"resistor R1 = 1 kΩ from a to b",
+	"capacitor C1 = 100 nF from b to gnd",
+	"end",
+}
+
 // TestSweepReusesNetwork sweeps a node network whose built network is
 // reused from point to point, and checks every point against the
 // voltage divider worked by hand: V_C = V·Z_C/(R + Z_C) with
 // Z_C = 1/(jωC) (common practice).
 func TestSweepReusesNetwork(t *testing.T) {
 	s := New()
-	runLines(t, s,
-		"network rc reference gnd",
-		"voltage source V1 = 10 V from gnd to a",
-		"resistor R1 = 1 kΩ from a to b",
-		"capacitor C1 = 100 nF from b to gnd",
-		"end",
-		"sweep rc.C1.v from 100 Hz to 10 kHz points 57 linear")
+	runLines(t, s, rcNetwork...)
+	runLines(t, s, "sweep rc.C1.v from 100 Hz to 10 kHz points 57 linear")
 	sw := s.Sweeps()
 	if len(sw) != 1 || len(sw[0].Table.Points) != 57 {
 		t.Fatalf("sweeps %v", sw)
@@ -135,12 +139,8 @@ func TestSweepReusesNetwork(t *testing.T) {
 // network halves what it is fed.
 func TestSweepThroughDefinitions(t *testing.T) {
 	s := New()
+	runLines(t, s, rcNetwork...)
 	runLines(t, s,
-		"network rc reference gnd",
-		"voltage source V1 = 10 V from gnd to a",
-		"resistor R1 = 1 kΩ from a to b",
-		"capacitor C1 = 100 nF from b to gnd",
-		"end",
 		"X = 2 * rc.C1.v",
 		"Vf = rc.C1.v",
 		"network half reference gnd",
