@@ -304,20 +304,25 @@ func TestStopNetworkSolve(t *testing.T) {
 	}
 }
 
+// solvedGrid is a worksheet with the 60×60 grid solved, its fingerprint,
+// and a context that stops at its 20th poll.
+func solvedGrid(t *testing.T) (*Sheet, string, *pollStop) {
+	t.Helper()
+	s := New()
+	runLines(t, s, gridBlock(60)...)
+	runLines(t, s, "end")
+	ctx, cancel := context.WithCancel(context.Background())
+	t.Cleanup(cancel)
+	return s, fingerprint(s), &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+}
+
 // TestStopResolve: a changed value re-solves the 60×60 grid that reads
 // it. On a working copy (Job.Copy) the factorisation of that re-solve
 // stops with the job, and the worksheet the copy came from is untouched;
 // on the worksheet itself the re-solve runs to its end, polling nothing,
 // so that no stop leaves the worksheet half changed.
 func TestStopResolve(t *testing.T) {
-	s := New()
-	runLines(t, s, gridBlock(60)...)
-	runLines(t, s, "end")
-	before := fingerprint(s)
-
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	stop := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	s, before, stop := solvedGrid(t)
 	c := s.Clone()
 	_, _, err := c.ExecJob(Job{Ctx: stop, Copy: true}, "RL = 120 Ω")
 	var in *Interrupted
@@ -350,13 +355,7 @@ func TestStopResolve(t *testing.T) {
 // worksheet is exactly as before, and the same statement then defines
 // the equivalent.
 func TestStopThevenin(t *testing.T) {
-	s := New()
-	runLines(t, s, gridBlock(60)...)
-	runLines(t, s, "end")
-	before := fingerprint(s)
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	stop := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	s, before, stop := solvedGrid(t)
 	const stmt = "thevenin T = g between g30_30 and gnd"
 	_, _, err := s.ExecJob(Job{Ctx: stop}, stmt)
 	var in *Interrupted
