@@ -97,4 +97,20 @@ func TestElementFollowsNames(t *testing.T) {
 	if _, _, err := s.Exec("Vf = 3 A"); err == nil || !strings.Contains(err.Error(), "while re-evaluating V2 (line 6): V2 is a voltage source: its value is in V, got A") {
 		t.Errorf("a source fed a current: %v", err)
 	}
+	// an element reading a result of its own network, or of a network
+	// fed by it, would close a loop: refused as any circular definition
+	runLines(t, s,
+		"network fed reference g",
+		"voltage source V3 = d.Rb.v from g to x",
+		"resistor Rx = 1 kΩ from x to g",
+		"end")
+	for stmt, loop := range map[string]string{
+		"Ra = 1 Ω + d.Rb.v / 1 mA":   "circular definition: Ra → d.Rb.v → Ra",
+		"Ra = 1 Ω + fed.Rx.v / 1 mA": "circular definition: Ra → fed.Rx.v → V3 → d.Rb.v → Ra",
+	} {
+		if _, _, err := s.Exec(stmt); err == nil || !strings.Contains(err.Error(), loop) {
+			t.Errorf("%s: %v, want %q", stmt, err, loop)
+		}
+	}
+	want("d.Rb.v", 5*300.0/600)
 }

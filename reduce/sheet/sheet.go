@@ -488,9 +488,31 @@ func (s *Sheet) setValue(d *def) error {
 	return nil
 }
 
-// cycle reports a dependency path back to name, or "".
+// cycle reports a dependency path back to name, or "". A network's
+// results depend on what the network reads (its elements, the
+// frequency), so the path passes from a result, or from "net:NAME", to
+// them: an element whose value reads a result of its own network, or of
+// a network that reads it, closes a loop.
 func (s *Sheet) cycle(name string, deps map[string]bool) string {
 	seen := map[string]bool{}
+	var ofResult map[string]*network // made at the first need
+	netDeps := func(n string) map[string]bool {
+		if nw, ok := s.nets[strings.TrimPrefix(n, "net:")]; ok && strings.HasPrefix(n, "net:") {
+			return nw.deps
+		}
+		if ofResult == nil {
+			ofResult = map[string]*network{}
+			for _, nw := range s.nets {
+				for _, r := range nw.results {
+					ofResult[r] = nw
+				}
+			}
+		}
+		if nw := ofResult[n]; nw != nil {
+			return nw.deps
+		}
+		return nil
+	}
 	var walk func(n string, path []string) string
 	walk = func(n string, path []string) string {
 		if n == name {
@@ -500,11 +522,11 @@ func (s *Sheet) cycle(name string, deps map[string]bool) string {
 			return ""
 		}
 		seen[n] = true
-		d, ok := s.byName[n]
-		if !ok {
-			return ""
+		next := netDeps(n)
+		if d, ok := s.byName[n]; ok && len(d.deps) > 0 {
+			next = d.deps
 		}
-		for k := range d.deps {
+		for k := range next {
 			if c := walk(k, append(path, n)); c != "" {
 				return c
 			}
@@ -519,10 +541,6 @@ func (s *Sheet) cycle(name string, deps map[string]bool) string {
 	return ""
 }
 
-// propagation is one run of propagate. when[name] is the tick at which a
-// name changed (the inputs at tick 0) and evaluated[d] the tick of d's
-// last evaluation in this run: a definition is due when a name it reads
-// changed after that.
 // sampleMaps are the maps of a propagation, kept by a working copy that
 // evaluates many samples: a sample of a large network marks thousands of
 // names changed, and maps made afresh for each would spend most of the
@@ -558,6 +576,10 @@ func (m *sampleMaps) reads(s *Sheet, name string) bool {
 	return m.read[name]
 }
 
+// propagation is one run of propagate. when[name] is the tick at which a
+// name changed (the inputs at tick 0) and evaluated[d] the tick of d's
+// last evaluation in this run: a definition is due when a name it reads
+// changed after that.
 type propagation struct {
 	changed   map[string]bool
 	when      map[string]int

@@ -974,7 +974,11 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 		return lineErr(s.line, col, n, "%v", err)
 	}
 	// the new value follows what it reads, as the first one did
-	d.deps, el.expr = elementDeps(el.kind, e)
+	deps, expr := elementDeps(el.kind, e)
+	if cyc := s.cycle(d.name, deps); cyc != "" {
+		return lineErr(s.line, col, n, "circular definition: %s", cyc)
+	}
+	d.deps, el.expr = deps, expr
 	el.src, el.line = p.Source(), s.line
 	*d.elem = el
 	d.value = z
