@@ -176,3 +176,34 @@ func BenchmarkSweepMesh(b *testing.B) {
 	}
 	perUnit(b, cpu, 200, "point")
 }
+
+// BenchmarkEstimate sets the work estimate of a 200-point sweep (the
+// figure the budget is held against) beside the time the sweep takes, per
+// point, for worksheets from a 20-element ladder to the 2000-element
+// mesh: the estimate should stay within a small factor of the time, on
+// the side of more.
+func BenchmarkEstimate(b *testing.B) {
+	for _, c := range []struct {
+		name, expr string
+		lines      []string
+	}{
+		{"ladder-20", "lad.n10.v", sweepNetwork()},
+		{"mesh-8x10", "m.RL.v", meshSheet(8, 10)},
+		{"mesh-20x26", "m.RL.v", meshSheet(20, 26)},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			s := New()
+			runLines(b, s, c.lines...)
+			e := s.parser(c.expr, 1).Expr()
+			est := s.sampleCost([]string{"f", "w", "ω"}, e, s.needs(e))
+			src := fmt.Sprintf("sweep %s from 10 Hz to 100 kHz points 200", c.expr)
+			for b.Loop() {
+				runLines(b, s.Clone(), src)
+			}
+			per := float64(b.Elapsed().Nanoseconds()) / float64(b.N*200)
+			b.ReportMetric(est*1e9, "estimate-ns/point")
+			b.ReportMetric(per, "ns/point")
+			b.ReportMetric(est*1e9/per, "estimate/time")
+		})
+	}
+}
