@@ -114,3 +114,45 @@ func TestElementFollowsNames(t *testing.T) {
 	}
 	want("d.Rb.v", 5*300.0/600)
 }
+
+// TestChainedNetworkSolvedOnce: when the frequency changes, a network fed
+// by another's result (V2 = Vf = net1.C1.v) is solved once, after Vf has
+// followed, not first with Vf's old value: the trail holds no results
+// that never held. The value is the divider of net1 at the new frequency
+// (common practice): V_C = V·Z_C/(R + Z_C).
+func TestChainedNetworkSolvedOnce(t *testing.T) {
+	s := New()
+	runLines(t, s,
+		"network net1 reference g",
+		"voltage source V1 = 230 V from g to a",
+		"resistor Ra = 220 Ω from a to b",
+		"capacitor C1 = 10 µF from b to g",
+		"end",
+		"Vf = net1.C1.v",
+		"network net2 reference g",
+		"voltage source V2 = Vf from g to p",
+		"resistor Rb = 47 Ω from p to q",
+		"inductor Lb = 100 mH from q to g",
+		"end")
+	steps, _, err := s.Exec("frequency 60 Hz")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// each solution's first step notes why it was made; net2's names Lb
+	solves := 0
+	for _, st := range steps {
+		for _, n := range st.Notes {
+			if strings.HasPrefix(n, "re-solved because") && strings.Contains(n, "Lb") {
+				solves++
+			}
+		}
+	}
+	if solves != 1 {
+		t.Errorf("net2 solved %d times after the frequency changed, want once", solves)
+	}
+	zc := 1 / complex(0, 2*math.Pi*60*10e-6)
+	v2, _ := s.Lookup("V2")
+	if want := 230 * zc / (220 + zc); cmplx.Abs(v2.V-want) > 1e-9*cmplx.Abs(want) {
+		t.Errorf("V2 = %v, want %v", v2.V, want)
+	}
+}

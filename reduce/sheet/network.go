@@ -401,6 +401,12 @@ func (s *Sheet) setResult(nw *network, src, name string, q calc.Quantity) string
 // resolveNets re-solves the networks that read a name changed after their
 // last solution (when holds the tick of each change, and tick counts on);
 // it marks their changed results and reports whether any changed.
+//
+// It stops after the first network whose changed results something
+// reads: a later network may be fed by them through definitions (a source
+// set to Vf = net1.C1.v), which the next pass of propagate evaluates
+// before this is called again. Solving on would solve that network with
+// its old inputs first, and record results that never held.
 func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *int) (bool, error) {
 	s.resolving = true
 	defer func() { s.resolving = false }()
@@ -428,14 +434,7 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 		when["net:"+n] = *tick
 		*tick++
 		old := make([]calc.Quantity, len(nw.results))
-		results := nw.resultDefs // kept by a working copy; else looked up
-		if len(results) != len(nw.results) {
-			results = make([]*def, len(nw.results))
-			for i, r := range nw.results {
-				results[i] = s.byName[r]
-			}
-		}
-		for i, d := range results {
+		for i, d := range s.resultsOf(nw) {
 			old[i] = d.value
 		}
 		reason := ""
@@ -459,13 +458,7 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 			}
 			return false, fmt.Errorf("network %s: %w", n, err)
 		}
-		after := nw.resultDefs
-		if len(after) != len(nw.results) {
-			after = make([]*def, len(nw.results))
-			for i, r := range nw.results {
-				after[i] = s.byName[r]
-			}
-		}
+		after := s.resultsOf(nw)
 		for i, r := range nw.results {
 			if d := after[i]; d != nil && (i >= len(old) || d.value.V != old[i].V) {
 				if s.samples != nil && !s.samples.reads(s, r) {
@@ -477,8 +470,24 @@ func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *
 				any = true
 			}
 		}
+		if any {
+			return true, nil
+		}
 	}
 	return any, nil
+}
+
+// resultsOf returns the definitions of nw's results, in the order of
+// nw.results: those a working copy keeps, or looked up.
+func (s *Sheet) resultsOf(nw *network) []*def {
+	if len(nw.resultDefs) == len(nw.results) {
+		return nw.resultDefs
+	}
+	out := make([]*def, len(nw.results))
+	for i, r := range nw.results {
+		out[i] = s.byName[r]
+	}
+	return out
 }
 
 // theveninLine is a thevenin statement as read: the name to define, the
