@@ -156,3 +156,27 @@ func TestChainedNetworkSolvedOnce(t *testing.T) {
 		t.Errorf("V2 = %v, want %v", v2.V, want)
 	}
 }
+
+// TestElementFollowsFrequency: an element whose value reads only the
+// frequency (resistor Rf = f·1 Ω/Hz) follows it as one reading other
+// names does. A resistor's value is its written value; an inductor's
+// impedance is jωL (common practice), with L the written value at the
+// frequency in force.
+func TestElementFollowsFrequency(t *testing.T) {
+	tests := []struct {
+		stmt, name string
+		want       complex128 // at 60 Hz
+	}{
+		{"resistor Rf = f * 1 Ω/Hz", "Rf", 60},
+		{"resistor Rf = 1 Ω + f * 1 Ω/Hz", "Rf", 61},
+		{"inductor Lf = f * 1 µH/Hz", "Lf", complex(0, 2*math.Pi*60*60e-6)},
+	}
+	for _, tt := range tests {
+		s := New()
+		runLines(t, s, "frequency 50 Hz", tt.stmt, "frequency 60 Hz")
+		got, ok := s.Lookup(tt.name)
+		if !ok || cmplx.Abs(got.V-tt.want) > 1e-12*cmplx.Abs(tt.want) {
+			t.Errorf("%s, then frequency 60 Hz: %s = %v, want %v", tt.stmt, tt.name, got.V, tt.want)
+		}
+	}
+}

@@ -782,14 +782,13 @@ func (s *Sheet) elementRawAgain(d *def) (calc.Quantity, error) {
 // when it reads nothing. The expression is kept (element.expr) only when
 // it reads names: a number never changes.
 func elementDeps(kind reduce.ElementKind, e calc.Expr) (map[string]bool, calc.Expr) {
+	// A value that reads only the frequency (resistor Rf = f·1 Ω/Hz)
+	// must be kept too: testing the names without f would fix it at
+	// its first frequency.
 	deps := depsOf(e)
-	delete(deps, "f") // added back below for the kinds that read it
 	var expr calc.Expr
 	if len(deps) > 0 {
 		expr = e
-		if depsOf(e)["f"] {
-			deps["f"] = true // the value itself reads the frequency
-		}
 	}
 	if kind == reduce.Inductor || kind == reduce.Capacitor {
 		deps["f"] = true
