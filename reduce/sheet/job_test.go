@@ -370,3 +370,31 @@ func TestStopThevenin(t *testing.T) {
 		t.Error("the equivalent was not defined after the stop")
 	}
 }
+
+// TestResolveTheveninRunsToEnd: a changed value that a Thevenin
+// equivalent of the 60×60 grid reads is carried through on the worksheet
+// itself to its end, whatever the job's context says, as a re-solve is:
+// a stop part way would leave the worksheet half changed. On a working
+// copy the same change stops.
+func TestResolveTheveninRunsToEnd(t *testing.T) {
+	s, _, stop := solvedGrid(t)
+	runLines(t, s, "thevenin T = g between g30_30 and gnd")
+	before, _ := s.Lookup("T")
+	c := s.Clone()
+	if _, _, err := s.ExecJob(Job{Ctx: stop}, "RL = 120 Ω"); err != nil {
+		t.Fatalf("on the worksheet: %v", err)
+	}
+	if stop.polls > 2 {
+		t.Errorf("the worksheet's re-evaluation polled the context %d times", stop.polls)
+	}
+	if after, _ := s.Lookup("T"); after.V == before.V {
+		t.Error("T did not follow RL")
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	stop2 := &pollStop{Context: ctx, cancel: cancel, stopAt: 20}
+	var in *Interrupted
+	if _, _, err := c.ExecJob(Job{Ctx: stop2, Copy: true}, "RL = 120 Ω"); !errors.As(err, &in) {
+		t.Errorf("on a working copy: got %v, want an interruption", err)
+	}
+}

@@ -408,8 +408,9 @@ func (s *Sheet) setResult(nw *network, src, name string, q calc.Quantity) string
 // before this is called again. Solving on would solve that network with
 // its old inputs first, and record results that never held.
 func (s *Sheet) resolveNets(changed map[string]bool, when map[string]int, tick *int) (bool, error) {
+	was := s.resolving
 	s.resolving = true
-	defer func() { s.resolving = false }()
+	defer func() { s.resolving = was }()
 	any := false
 	for _, n := range s.order {
 		nw := s.nets[n]

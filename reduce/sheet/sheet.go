@@ -126,9 +126,11 @@ type Sheet struct {
 	// samples holds the maps of propagation a working copy reuses from
 	// one sample to the next (see sampleMaps); nil elsewhere.
 	samples *sampleMaps
-	// resolving is set while the networks a changed value feeds are
-	// solved again on the worksheet itself, which a stop part way would
-	// leave half changed: their factorisations then run to the end.
+	// resolving is set while a change is carried through the worksheet
+	// (propagate): the networks it feeds are solved again, and Thevenin
+	// equivalents worked out again, on the worksheet itself, which a
+	// stop part way would leave half changed: their factorisations then
+	// run to the end.
 	resolving bool
 	// budget is the bound on a statement's estimated work, in seconds.
 	budget float64
@@ -600,6 +602,11 @@ type propagation struct {
 // pass usually settles them, and a later pass touches only what reads a
 // re-solved network.
 func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
+	// A Thevenin equivalent evaluated again solves its network too: on
+	// the worksheet itself that runs to its end, as a re-solve does.
+	was := s.resolving
+	s.resolving = true
+	defer func() { s.resolving = was }()
 	pr := &propagation{
 		changed: changed,
 		tick:    1,
