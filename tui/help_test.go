@@ -58,7 +58,7 @@ func TestHelpScreenView(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			h := newHelpScreen(DefaultKeyMap(), testTheme(tt.ascii), newHelp(nil))
 			h.SetSize(80, 24)
-			h.Open(tt.topic)
+			h.Open(tt.topic, "")
 			ls := strings.Split(h.View(), "\n")
 			if len(ls) != 24 || ls[0] != tt.first || !strings.HasPrefix(ls[23], "help 1-23 of ") {
 				t.Errorf("first %q, footer %q, %d lines", ls[0], ls[len(ls)-1], len(ls))

@@ -25,6 +25,7 @@ type helpScreen struct {
 	width, height int
 	top           int    // first line shown
 	topic         string // the name asked about; "" for the general help
+	message       string // the last message, shown first when the screen had only part of it
 }
 
 func newHelpScreen(km KeyMap, th theme, hm help.Model) helpScreen {
@@ -35,8 +36,8 @@ func newHelpScreen(km KeyMap, th theme, hm help.Model) helpScreen {
 func (h *helpScreen) SetSize(w, ht int) { h.width, h.height = w, ht }
 
 // Open shows the help from its first line, on topic ("" for the general
-// help).
-func (h *helpScreen) Open(topic string) { h.top, h.topic = 0, topic }
+// help), after message, the last message whole, when it is not "".
+func (h *helpScreen) Open(topic, message string) { h.top, h.topic, h.message = 0, topic, message }
 
 // page is the number of lines of help shown: all but the footer.
 func (h helpScreen) page() int { return h.height - 1 }
@@ -82,6 +83,13 @@ func (h helpScreen) lines() []string {
 	// escape sequences of its own, which tr would show as escapes
 	para := func(text string, indent int) []string { return wrapLine(h.th.tr(text), h.width, indent) }
 	var out []string
+	if h.message != "" {
+		// the screen had only part of it; text from input was made
+		// printable where the message was made
+		out = append(out, h.title("the last message, whole")...)
+		out = append(out, para(h.message, 2)...)
+		out = append(out, "")
+	}
 	if h.topic != "" {
 		if t, ok := cli.Topic(h.topic); ok {
 			out = append(out, h.title("help "+h.topic)...)

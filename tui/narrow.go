@@ -371,7 +371,7 @@ func (m *Model) narrowFeedback() []string {
 	}
 	if col, marks, msg, ok := m.line.Caret(); ok {
 		out := []string{strings.Repeat(" ", col) + m.th.err.Render(marks)}
-		for _, l := range capLines(wrapLine(msg, w, 2), feedbackMax-1, w) {
+		for _, l := range m.cutTo(wrapLine(msg, w, 2), feedbackMax-1, w) {
 			out = append(out, m.th.err.Render(l))
 		}
 		return out
@@ -394,7 +394,7 @@ func (m *Model) narrowFeedback() []string {
 	if len(ls) == 0 {
 		return []string{""}
 	}
-	out := capLines(ls, feedbackMax, w)
+	out := m.cutTo(ls, feedbackMax, w)
 	for i := range out {
 		out[i] = style(out[i])
 	}

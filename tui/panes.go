@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"slices"
 	"strconv"
 	"strings"
 
@@ -120,6 +121,47 @@ func (m *Model) msgLines() []string {
 	return wrapLine(s, m.width, 0)
 }
 
+// cutTo is ls in at most n lines of width w: past that, the rest joins
+// the last line, cut between words, which then ends with the key of the
+// help screen, where the message is shown whole first (cutMessage). The
+// way out an error names (fewer points, a budget) comes at its end.
+func (m *Model) cutTo(ls []string, n, w int) []string {
+	if len(ls) <= n {
+		return ls
+	}
+	suffix := m.cautionSuffix()
+	out := slices.Clone(ls[:n])
+	rest := out[n-1]
+	for _, l := range ls[n:] {
+		rest += " " + strings.TrimLeft(l, " ")
+	}
+	out[n-1] = fitWhole(rest, max(2, w-ansi.StringWidth(suffix))) + suffix
+	return out
+}
+
+// cutMessage is the message the screen shows only in part, whole, for
+// the help screen to show first: a live error, or the outcome of the
+// last action, past the lines the layout gives it. "" when all shows.
+func (m *Model) cutMessage() string {
+	caretLines, msgLines := 1, 2
+	if m.narrow() {
+		caretLines, msgLines = feedbackMax-1, feedbackMax
+	}
+	if _, _, msg, ok := m.line.Caret(); ok {
+		if len(wrapLine(msg, m.width, 2)) > caretLines {
+			if !strings.HasPrefix(msg, "error: ") {
+				msg = "error: " + msg
+			}
+			return msg
+		}
+		return ""
+	}
+	if ls := m.msgLines(); len(ls) > msgLines {
+		return strings.Join(ls, " ")
+	}
+	return ""
+}
+
 // cautionSuffix tells where a caution shown in one line is read whole:
 // the help screen, which has every caution's whole text, opened by the
 // help key of the part that has the keyboard.
@@ -152,11 +194,12 @@ func (m *Model) hintView() string {
 	}
 	if col, marks, msg, ok := m.line.Caret(); ok {
 		if col+ansi.StringWidth(marks)+1+ansi.StringWidth(msg) > m.width {
-			// the message did not fit beside its caret: it has this line
-			return m.th.err.Render(msg)
+			// the message did not fit beside its caret: it has this
+			// line, and the help screen has it whole if it needs more
+			return m.th.err.Render(m.cutTo(wrapLine(msg, m.width, 2), 1, m.width)[0])
 		}
 	} else if m.mode != modePrompt && (m.caution == 0 || m.msgErr) {
-		if ls := m.msgLines(); len(ls) > 1 {
+		if ls := m.cutTo(m.msgLines(), 2, m.width); len(ls) > 1 {
 			// the rest of a long outcome has this line
 			if m.msgErr {
 				return m.th.err.Render(ls[1])

@@ -243,9 +243,10 @@ func (m *Model) startAsk(title string, qs []question, done func([]string)) {
 
 // openHelp shows the help screen, on topic ("" for the general help).
 func (m *Model) openHelp(topic string) {
+	cut := m.cutMessage()
 	m.back = m.mode
 	m.mode = modeHelp
-	m.helpScr.Open(topic)
+	m.helpScr.Open(topic, cut)
 }
 
 // openFull shows the whole trail at the full width of the screen, at the
