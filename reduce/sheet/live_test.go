@@ -180,3 +180,34 @@ func TestElementFollowsFrequency(t *testing.T) {
 		}
 	}
 }
+
+// TestLiveCheckLargeWorksheet: the live check while typing (Validate)
+// does not carry a change through the networks of a worksheet of more
+// than liveElements network elements, nor solve a Thevenin equivalent of
+// one, so that no key waits for them: an error only that work would find
+// is reported when the statement runs. On a small worksheet the live
+// check finds it. A node missing from a large network is named with a
+// few of its nodes, not all of them.
+func TestLiveCheckLargeWorksheet(t *testing.T) {
+	small := New()
+	runLines(t, small, "a = 1 Ω", "b = a + 1 Ω")
+	if err := small.Validate("a = 1 V"); err == nil {
+		t.Error("small worksheet: the live check missed the error of b")
+	}
+	big := New()
+	runLines(t, big, gridBlock(60)...)
+	runLines(t, big, "end", "a = 1 Ω", "b = a + 1 Ω")
+	if err := big.Validate("a = 1 V"); err != nil {
+		t.Errorf("large worksheet: the live check carried the change through: %v", err)
+	}
+	if _, _, err := big.Exec("a = 1 V"); err == nil {
+		t.Error("large worksheet: the statement ran despite the error of b")
+	}
+	if err := big.Validate("thevenin T = g between g30_30 and gnd"); err != nil {
+		t.Errorf("thevenin: %v", err)
+	}
+	err := big.Validate("thevenin T = g between g30_30 and gx")
+	if err == nil || !strings.Contains(err.Msg, "and 3589 more") || len(err.Msg) > 300 {
+		t.Errorf("a missing node: %v", err)
+	}
+}

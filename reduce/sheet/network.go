@@ -491,6 +491,15 @@ func (s *Sheet) resultsOf(nw *network) []*def {
 	return out
 }
 
+// someOf lists the first n of names, and how many more there are: a
+// message that names the nodes of a network of thousands stays a line.
+func someOf(names []string, n int) string {
+	if len(names) <= n {
+		return strings.Join(names, ", ")
+	}
+	return fmt.Sprintf("%s and %d more", strings.Join(names[:n], ", "), len(names)-n)
+}
+
 // theveninLine is a thevenin statement as read: the name to define, the
 // network and the two nodes, with their tokens for errors.
 type theveninLine struct {
@@ -512,6 +521,12 @@ func (s *Sheet) stmtThevenin(p *calc.Parser) error {
 	net, err := s.theveninNet(p, tl)
 	if err != nil {
 		return err
+	}
+	if s.dry && len(net.Elements) > liveElements {
+		// a live check while typing: theveninNet has checked its
+		// terminals; the two solutions are made when it runs (see
+		// propagate)
+		return nil
 	}
 	vth, zth, steps, err := nodal.TheveninContext(s.jobCtx(), net, tl.a, tl.b, s.ctx.Basis)
 	deps := map[string]bool{"f": true, "net:" + tl.nw.name: true}
@@ -619,7 +634,7 @@ func (s *Sheet) theveninNet(p *calc.Parser, tl theveninLine) (*reduce.Network, e
 	}
 	for _, t := range []calc.Item{tl.aTok, tl.bTok} {
 		if !known[t.Text] {
-			p.Failf(t, "network %s has no node %q (its nodes: %s)", nw.name, t.Text, strings.Join(nodes, ", "))
+			p.Failf(t, "network %s has no node %q (its nodes: %s)", nw.name, t.Text, someOf(nodes, 12))
 			return nil, p.Err()
 		}
 	}

@@ -422,7 +422,9 @@ func (s *Sheet) recordPart(src string, steps []calc.Step) {
 // repeated by each part of one calculation) is not repeated. A working
 // copy that evaluates samples records nothing.
 func (s *Sheet) record(steps ...calc.Step) {
-	if s.quiet {
+	if s.quiet || s.dry {
+		// a working copy keeps no trail, and a live check's is thrown
+		// away: appending to a copy's trail would copy all of it first
 		return
 	}
 	if s.noteSeen == nil {
@@ -578,6 +580,20 @@ func (m *sampleMaps) reads(s *Sheet, name string) bool {
 	return m.read[name]
 }
 
+// liveElements is the most network elements a live check (Validate)
+// solves again: past it the re-solves of one key would take tens of
+// milliseconds or more (about 1 µs an element, BenchmarkEstimate).
+const liveElements = 5000
+
+// networkElements counts the elements of all networks.
+func (s *Sheet) networkElements() int {
+	n := 0
+	for _, nw := range s.nets {
+		n += len(nw.elems)
+	}
+	return n
+}
+
 // propagation is one run of propagate. when[name] is the tick at which a
 // name changed (the inputs at tick 0) and evaluated[d] the tick of d's
 // last evaluation in this run: a definition is due when a name it reads
@@ -602,6 +618,13 @@ type propagation struct {
 // pass usually settles them, and a later pass touches only what reads a
 // re-solved network.
 func (s *Sheet) propagate(changed map[string]bool, reason string) (*calc.Step, error) {
+	if s.dry && s.networkElements() > liveElements {
+		// A live check while typing: carrying the change through the
+		// networks of a large worksheet would hold up every key. The
+		// statement itself is checked; what it changes is worked out,
+		// and its errors shown, when it runs.
+		return nil, nil
+	}
 	// A Thevenin equivalent evaluated again solves its network too: on
 	// the worksheet itself that runs to its end, as a re-solve does.
 	was := s.resolving
