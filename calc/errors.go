@@ -127,5 +127,24 @@ func Caret(src string, e *Error) string {
 		}
 		return w
 	}
-	return strings.Join(cells, "") + "\n" + strings.Repeat(" ", width(0, col-1)) + strings.Repeat("^", width(col-1, col-1+n))
+	// A line longer than caretSpan characters is shown around the place
+	// only, cut ends marked "…": a pasted line of 70 000 characters is
+	// not written out again under its error.
+	from, to, head, tail := 0, len(cells), "", ""
+	if len(cells) > caretSpan {
+		from = max(0, col-1-caretSpan/3)
+		to = min(len(cells), max(col-1+min(n, caretSpan/3), from+caretSpan))
+		n = min(n, to+1-(col-1))
+		if from > 0 {
+			head = "…"
+		}
+		if to < len(cells) {
+			tail = "…"
+		}
+	}
+	pad := utf8.RuneCountInString(head) + width(from, col-1)
+	return head + strings.Join(cells[from:to], "") + tail + "\n" + strings.Repeat(" ", pad) + strings.Repeat("^", width(col-1, col-1+n))
 }
+
+// caretSpan is the most characters of a line Caret shows.
+const caretSpan = 120

@@ -32,6 +32,10 @@ var fuzzSeeds = []string{
 	// the decimal comma and digit groups (SI Brochure 9th ed. §5.4.4)
 	"2,2 mH", "1,000 V", "1,000,000", "1,000.5", "atan2(4,3)", "atan2(4; 3)", "3+j4,5 Ω", ",5", "1 000 V",
 	"2,2e3", "j2,2", "2,2j", "1\u00a0000", "5,",
+	// lines past caretSpan, shown around the place of their error
+	strings.Repeat("1 + ", 60) + "foo + " + strings.Repeat("2 + ", 60) + "3",
+	strings.Repeat("1+", 100) + "\x1b" + strings.Repeat("+Ω", 100),
+	strings.Repeat("(", 150) + "1",
 }
 
 // checkErr asserts an error's place lies inside its line.
@@ -73,8 +77,41 @@ func checkErr(t *testing.T, src string, err *Error) {
 		}
 		i += n
 	}
-	if !strings.HasSuffix(caret, "^") || len(strings.TrimRight(caret, "^")) != pad {
-		t.Fatalf("%q: caret line %q does not start at column %d", src, caret, err.Col)
+	if !strings.HasSuffix(caret, "^") {
+		t.Fatalf("%q: caret line %q has no caret", src, caret)
+	}
+	if n <= caretSpan {
+		if len(strings.TrimRight(caret, "^")) != pad {
+			t.Fatalf("%q: caret line %q does not start at column %d", src, caret, err.Col)
+		}
+		return
+	}
+	// a long line is shown around the place: the caret stands under the
+	// marked character as shown
+	rs := []rune(lines[0])
+	off := len(strings.TrimRight(caret, "^"))
+	if off > len(rs) {
+		t.Fatalf("%q: caret at %d past the shown line of %d", src, off, len(rs))
+	}
+	if err.Col <= n {
+		i := 0
+		for col := 1; col < err.Col; col++ {
+			_, w := utf8.DecodeRuneInString(src[i:])
+			i += w
+		}
+		_, w := utf8.DecodeRuneInString(src[i:])
+		want := Printable(src[i : i+w])
+		if src[i] == '\n' {
+			want = `\x0a`
+		}
+		if !strings.HasPrefix(string(rs[off:]), want) {
+			t.Fatalf("%q: the caret at %d is not under %q in %q", src, off, want, lines[0])
+		}
+	}
+	// at most caretSpan characters and the two "…", an escape (at most
+	// \uHHHH) standing for one character
+	if len(rs) > 6*caretSpan+2 {
+		t.Fatalf("%q: %d characters shown of a long line", src, len(rs))
 	}
 }
 

@@ -27,7 +27,8 @@ const usage = `argand: AC circuit work with phasors, step by step.
 usage:
   argand                 open the app (last session, or the example at first)
   argand FILE            open a worksheet in the app
-  argand eval EXPR...    evaluate each argument; print every step
+  argand eval EXPR...    evaluate each argument in turn, print every step;
+                         the first bad one stops it (exit 2)
   argand run FILE        run a worksheet (- for standard input), every step
   argand help [TOPIC]    topics: language, functions, networks, safety, or a
                          function or statement name (argand help acos)
