@@ -5,6 +5,8 @@ import (
 	"math/cmplx"
 	"strings"
 	"testing"
+
+	"argand/calc"
 )
 
 // A value taken from a function's or a statement's named result follows
@@ -209,5 +211,26 @@ func TestLiveCheckLargeWorksheet(t *testing.T) {
 	err := big.Validate("thevenin T = g between g30_30 and gx")
 	if err == nil || !strings.Contains(err.Msg, "and 3589 more") || len(err.Msg) > 300 {
 		t.Errorf("a missing node: %v", err)
+	}
+}
+
+// TestRefusedChangeUndone: a new value refused because something that
+// reads it cannot take it leaves the worksheet as it was, the name and
+// everything computed from it, so that later lines of a run read the
+// values the saved worksheet replays to.
+func TestRefusedChangeUndone(t *testing.T) {
+	s := New()
+	runLines(t, s, "Rnom = 2 Ω", "Rx = Rnom * 3", "resistor R1 = Rnom")
+	if _, _, err := s.Exec("Rnom = 1 A"); err == nil {
+		t.Fatal("a resistor fed an ampere was accepted")
+	}
+	for name, want := range map[string]complex128{"Rnom": 2, "Rx": 6, "R1": 2} {
+		if v, ok := s.Lookup(name); !ok || v.V != want || v.Dim != calc.DimImpedance {
+			t.Errorf("%s = %v %v after the refusal, want %v Ω", name, v.V, v.Dim, want)
+		}
+	}
+	runLines(t, s, "y = Rx + R1")
+	if v, _ := s.Lookup("y"); v.V != 8 {
+		t.Errorf("y = %v, want 8 Ω", v.V)
 	}
 }

@@ -78,6 +78,9 @@ func (s *Sheet) defineReadings(p *calc.Parser, rs []Reading, path string) error 
 	if len(s.byName)+fresh > s.limits.Names {
 		return fmt.Errorf("%d readings would take the worksheet past its %d names", len(rs), s.limits.Names)
 	}
+	if fresh < len(rs) {
+		s.keep() // before the new names too, which a refusal also undoes
+	}
 	changed := map[string]bool{}
 	st := calc.Step{Kind: "readings", Source: p.Source(),
 		Rule: "measured values read from " + calc.Printable(path) + " (" + strconv.Itoa(len(rs)) + " readings)"}

@@ -126,6 +126,9 @@ type Sheet struct {
 	// samples holds the maps of propagation a working copy reuses from
 	// one sample to the next (see sampleMaps); nil elsewhere.
 	samples *sampleMaps
+	// snap is the worksheet as it was before the running statement
+	// changed something already defined (see keep); nil otherwise.
+	snap *Sheet
 	// resolving is set while a change is carried through the worksheet
 	// (propagate): the networks it feeds are solved again, and Thevenin
 	// equivalents worked out again, on the worksheet itself, which a
@@ -484,6 +487,7 @@ func (s *Sheet) setValue(d *def) error {
 		if cyc := s.cycle(d.name, d.deps); cyc != "" {
 			return fmt.Errorf("circular definition: %s", cyc)
 		}
+		s.keep()
 		*old = *d
 	} else {
 		s.defs = append(s.defs, d)

@@ -228,6 +228,9 @@ func (s *Sheet) defineSpectrum(p *calc.Parser, nameTok calc.Item, ord spectrumOr
 		s.spectra = map[string]*spectrumDef{}
 	}
 	_, existed := s.spectra[name]
+	if existed {
+		s.keep()
+	}
 	s.spectra[name] = &spectrumDef{s: sp, line: s.line}
 	st := harmonic.Describe(p.Source(), name, sp, &s.ctx)
 	if ord.note != "" {

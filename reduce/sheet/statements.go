@@ -38,8 +38,16 @@ func (s *Sheet) ExecLine(src string, n int) ([]calc.Step, []string, error) {
 	}
 	before, full := len(s.steps), s.cautionFull
 	s.since, s.shadow = 0, ""
+	s.snap = nil
 	err := s.exec(src, n)
+	snap := s.snap
+	s.snap = nil
 	if err != nil {
+		if snap != nil {
+			// what the refused statement changed before it failed is
+			// undone (see keep)
+			*s = *snap
+		}
 		s.steps, s.cautionFull, s.defined = s.steps[:before], full, nil
 		var le *calc.Error
 		if errors.As(err, &le) && s.lang > 0 && le.Since > s.lang {
@@ -182,6 +190,19 @@ func (s *Sheet) execErr(src string, n int) *calc.Error {
 	return nil
 }
 
+// keep takes a copy of the worksheet, once per statement, before the
+// statement gives something already defined a new value: a change that
+// is then refused (Rnom = 1 A, refused by an element that reads Rnom)
+// must not leave behind what it changed before it failed, which later
+// lines of a run would read. Not on a copy the caller throws away on an
+// error (a working copy, a live check, the app's statements).
+func (s *Sheet) keep() {
+	if s.snap != nil || s.dry || s.quiet || (s.job != nil && s.job.Copy) {
+		return
+	}
+	s.snap = s.Clone()
+}
+
 // Clone returns a copy of the worksheet whose changes do not reach s.
 func (s *Sheet) Clone() *Sheet {
 	s.funcTable() // made once, so that copies share it
@@ -206,6 +227,7 @@ func (s *Sheet) Clone() *Sheet {
 	}
 	c.order = append([]string(nil), s.order...)
 	c.samples = nil // a copy's propagations are its own
+	c.snap = nil
 	if s.open != nil {
 		c.open = c.nets[s.open.name]
 		if c.open == nil {
@@ -368,6 +390,9 @@ func (s *Sheet) stmtFrequency(p *calc.Parser) error {
 		return lineErr(s.line, col, n, "frequency too large: ω = 2π·f would overflow the largest number argand holds, so no reactance could be computed at it")
 	}
 	old := s.ctx.Freq
+	if old != hz {
+		s.keep()
+	}
 	s.ctx.Freq = hz
 	st := calc.Step{Kind: "setting", Source: p.Source(), Rule: "working frequency", Formula: "ω = 2π·f", Notes: r.Notes,
 		Results: []calc.Operand{{Name: "f", Value: calc.Real(hz, calc.DimFrequency)}, {Name: "ω", Value: calc.Quantity{V: complex(s.ctx.Omega(), 0), Dim: calc.DimAngularFrequency, Kind: calc.KindAngle}}}}
@@ -978,6 +1003,7 @@ func (s *Sheet) changeElement(p *calc.Parser, d *def, v calc.Quantity, e calc.Ex
 	if cyc := s.cycle(d.name, deps); cyc != "" {
 		return lineErr(s.line, col, n, "circular definition: %s", cyc)
 	}
+	s.keep()
 	d.deps, el.expr = deps, expr
 	el.src, el.line = p.Source(), s.line
 	*d.elem = el
