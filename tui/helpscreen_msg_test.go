@@ -12,11 +12,7 @@ import (
 func TestLongMessageWhole(t *testing.T) {
 	m := newModel(t, Options{})
 	typeLine(t, m, "budget 0.1 s")
-	press(m, "tab")
-	for _, r := range "sweep Zload from 10 Hz to 100 kHz points 10000" {
-		m.Update(keyMsg(string(r)))
-	}
-	press(m, "enter")
+	pressText(m, "tab", "sweep Zload from 10 Hz to 100 kHz points 10000", "enter")
 	if !m.msgErr || !strings.Contains(m.msg, "raise the budget with: budget") {
 		t.Fatalf("want the budget refusal, got %q", m.msg)
 	}
@@ -32,11 +28,7 @@ func TestLongMessageWhole(t *testing.T) {
 	press(m, "esc")
 
 	m2 := newModel(t, Options{})
-	press(m2, "tab")
-	for _, r := range "1 V + 1 A" {
-		m2.Update(keyMsg(string(r)))
-	}
-	press(m2, "enter")
+	pressText(m2, "tab", "1 V + 1 A", "enter")
 	if s := m2.View(); !m2.msgErr || strings.Contains(s, "has it whole)") {
 		t.Errorf("a short error: %q, %v\n%s", m2.msg, m2.msgErr, s)
 	}

@@ -21,7 +21,7 @@ func Run(opt Options, in io.Reader, out io.Writer, errw io.Writer) int {
 	}
 	// Colour comes from the environment alone, never from a query of the
 	// terminal. Without colour (NO_COLOR, or a terminal such as vt100) the
-	// styles keep bold and reverse video only; TERM=dumb gets no styling.
+	// styles keep bold and reversed text only; TERM=dumb gets no styling.
 	switch {
 	case !opt.Color:
 		lipgloss.SetColorProfile(termenv.Ascii)
