@@ -95,6 +95,27 @@ func TestNamedArgumentsSkip(t *testing.T) {
 		{"grouped(10 m, 2, 70)", "10 m;2;70"},
 		{"grouped(10 m, hot)", "10 m;hot"},
 	}
+	checkBound(t, tests)
+	errs := []bindError{
+		{"run(n = 2)", 1, "argument l (a length in m) is missing"},
+		{"run(10 m, thetae = 70)", 11, `run has no parameter "thetae"; its parameters are l, n, theta, state, r`},
+		{"run(10 m, theta = 1 m)", 19, "theta takes a temperature in °C (a plain number), got"},
+		{"grouped(10 m, theta = 70)", 15, "grouped: theta needs n as well (give both, by name or in order)"},
+	}
+	checkBindErrors(t, errs)
+}
+
+// bindError is a call whose arguments cannot be bound: the column and a
+// part of the message.
+type bindError struct {
+	src  string
+	col  int
+	want string
+}
+
+// checkBound checks how each call's arguments are bound (evalNotes).
+func checkBound(t *testing.T, tests []struct{ src, want string }) {
+	t.Helper()
 	for _, tt := range tests {
 		got, err := evalNotes(tt.src)
 		if err != nil {
@@ -105,17 +126,13 @@ func TestNamedArgumentsSkip(t *testing.T) {
 			t.Errorf("%s: bound %q, want %q", tt.src, got, tt.want)
 		}
 	}
-	errs := []struct {
-		src  string
-		col  int
-		want string
-	}{
-		{"run(n = 2)", 1, "argument l (a length in m) is missing"},
-		{"run(10 m, thetae = 70)", 11, `run has no parameter "thetae"; its parameters are l, n, theta, state, r`},
-		{"run(10 m, theta = 1 m)", 19, "theta takes a temperature in °C (a plain number), got"},
-		{"grouped(10 m, theta = 70)", 15, "grouped: theta needs n as well (give both, by name or in order)"},
-	}
-	for _, tt := range errs {
+}
+
+// checkBindErrors checks that each call is refused at its column with
+// its message.
+func checkBindErrors(t *testing.T, tests []bindError) {
+	t.Helper()
+	for _, tt := range tests {
 		_, err := evalNotes(tt.src)
 		if err == nil {
 			t.Errorf("%s: no error, want %q", tt.src, tt.want)
@@ -153,27 +170,14 @@ func TestNamedArguments(t *testing.T) {
 		{"rating(500 kVA, 11 kV, 4.5%, phases = three)", "500 kVA;11 kV;4.5%;three"},
 		{"rating(V1 = 11 kV, S = 500 kVA, z = 4.5%, phases = single, xr = 6)", "500 kVA;11 kV;4.5%;6;single"},
 	}
-	for _, tt := range tests {
-		got, err := evalNotes(tt.src)
-		if err != nil {
-			t.Errorf("%s: %v", tt.src, err)
-			continue
-		}
-		if got != tt.want {
-			t.Errorf("%s: bound %q, want %q", tt.src, got, tt.want)
-		}
-	}
+	checkBound(t, tests)
 }
 
 // TestNamedArgumentErrors: a missing, unknown or repeated name, a
 // positional argument after a named one, and a wrong kind each get one
 // message at the place it went wrong.
 func TestNamedArgumentErrors(t *testing.T) {
-	tests := []struct {
-		src  string
-		col  int
-		want string
-	}{
+	tests := []bindError{
 		{"rating(S = 500 kVA, V1 = 11 kV)", 1, "argument z (a plain real number) is missing"},
 		{"rating(S = 500 kVA, V1 = 11 kV, z = 4.5%, zz = 1)", 43, `no parameter "zz"; its parameters are S, V1, z, xr, phases`},
 		{"rating(500 kVA, 11 kV, 4.5%, S = 1 kVA)", 30, "S is given twice"},
@@ -183,16 +187,7 @@ func TestNamedArgumentErrors(t *testing.T) {
 		{"mag(z = 3 V, z = 4 V)", 14, "z is given twice"},
 		{"mag(y = 3 V)", 5, `mag has no parameter "y"`},
 	}
-	for _, tt := range tests {
-		_, err := evalNotes(tt.src)
-		if err == nil {
-			t.Errorf("%s: no error, want %q", tt.src, tt.want)
-			continue
-		}
-		if !strings.Contains(err.Msg, tt.want) || err.Col != tt.col {
-			t.Errorf("%s: error at col %d %q, want col %d %q", tt.src, err.Col, err.Msg, tt.col, tt.want)
-		}
-	}
+	checkBindErrors(t, tests)
 }
 
 // TestArgList: help's argument list comes from the parameters.

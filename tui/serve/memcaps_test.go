@@ -15,17 +15,7 @@ import (
 // entered is lost), and undo keeps the last changes it is allowed, saying
 // so when they run out.
 func TestMemoryLimits(t *testing.T) {
-	dir := t.TempDir()
-	key := newKey(t)
-	authorize(t, dir, key)
-	r := start(t, Config{Dir: dir, Limits: sheet.Limits{Names: 40, Bytes: 1500, Elements: 2, Undo: 2}})
-	c, err := dial(t, r.addr, key, r.srv.HostKey())
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer c.Close()
-	a := open(t, c, nil)
-	a.wait(ready)
+	a, dir, key := served(t, Config{Limits: sheet.Limits{Names: 40, Bytes: 1500, Elements: 2, Undo: 2}})
 	// a blank session, so that the bounds count only what is typed here
 	a.enter("new session", "new, empty session")
 	a.enter("Za = 1 Ω", "→ Za = 1.000 Ω")

@@ -145,6 +145,25 @@ type app struct {
 const ready = " export"
 
 // open starts the app in a session on c with a terminal of 80×24 and the
+// served starts a server with cfg in a fresh directory, for one new key,
+// and opens the app over a connection closed at the end of the test,
+// ready for keys; it returns the app, the directory and the key.
+func served(t *testing.T, cfg Config) (a *app, dir string, key gossh.Signer) {
+	t.Helper()
+	cfg.Dir = t.TempDir()
+	key = newKey(t)
+	authorize(t, cfg.Dir, key)
+	r := start(t, cfg)
+	c, err := dial(t, r.addr, key, r.srv.HostKey())
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { c.Close() })
+	a = open(t, c, nil)
+	a.wait(ready)
+	return a, cfg.Dir, key
+}
+
 // given environment (nil: a UTF-8 locale).
 func open(t testing.TB, c *gossh.Client, env map[string]string) *app {
 	t.Helper()

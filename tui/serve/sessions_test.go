@@ -392,17 +392,7 @@ func startChild(t *testing.T, dir string) (*exec.Cmd, string) {
 // TestWorksheetLimits: a worksheet limit refuses the statement with the
 // app's own message and the session goes on; a readings file is refused.
 func TestWorksheetLimits(t *testing.T) {
-	dir := t.TempDir()
-	key := newKey(t)
-	authorize(t, dir, key)
-	r := start(t, Config{Dir: dir, Limits: sheet.Limits{Points: 50, Budget: 20}})
-	c, err := dial(t, r.addr, key, r.srv.HostKey())
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer c.Close()
-	a := open(t, c, nil)
-	a.wait(ready)
+	a, dir, key := served(t, Config{Limits: sheet.Limits{Points: 50, Budget: 20}})
 	a.send("\t", "sweep Zb from 10 Hz to 1 kHz points 51", "\r")
 	a.wait("points takes a whole number from 2 to 50")
 	a.send("\x15", "budget 60 s", "\r")
